@@ -1,0 +1,65 @@
+/**
+ * The whole test suite: `npm test`.
+ *
+ * 1. Makes sure the Debian packages the tests need are present (chromium for the browser tests,
+ *    ngspice for the engine's differential tests). Running as root with apt-get available, it
+ *    installs the missing ones; otherwise it names exactly what is missing and fails. It never
+ *    skips those tests silently.
+ * 2. Runs every vitest project (shared, server, client, e2e) and prints the plain closing line
+ *    `N passed, N failed` that CI reads.
+ *
+ * Extra arguments go to vitest (`npm test -- --project shared`).
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, readFileSync, rmSync } from 'node:fs';
+import path from 'node:path';
+
+const root = path.resolve(import.meta.dirname, '..');
+const required: { bin: string; pkg: string; why: string }[] = [
+  { bin: '/usr/bin/chromium', pkg: 'chromium', why: 'browser tests (tests/e2e)' },
+  { bin: '/usr/bin/ngspice', pkg: 'ngspice', why: 'engine differential tests against ngspice' },
+];
+
+function missing() {
+  return required.filter((r) => !existsSync(r.bin));
+}
+
+let absent = missing();
+if (absent.length > 0) {
+  const pkgs = absent.map((r) => r.pkg);
+  const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
+  const hasApt = existsSync('/usr/bin/apt-get');
+  if (isRoot && hasApt) {
+    console.log(`Installing Debian packages the tests need: ${pkgs.join(' ')}`);
+    const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+    spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
+    spawnSync('apt-get', ['install', '-y', '-qq', ...pkgs], { stdio: 'inherit', env });
+    absent = missing();
+  }
+  if (absent.length > 0) {
+    console.error('Cannot run the whole suite: these Debian packages are missing.');
+    for (const r of absent) console.error(`  ${r.pkg} (${r.bin}) — needed by ${r.why}`);
+    console.error(`Install them with: sudo apt-get update && sudo apt-get install -y ${absent.map((r) => r.pkg).join(' ')}`);
+    process.exit(1);
+  }
+}
+
+const resultFile = path.join(root, '.vitest-result.json');
+rmSync(resultFile, { force: true });
+const vitest = path.join(root, 'node_modules', 'vitest', 'vitest.mjs');
+const run = spawnSync(
+  process.execPath,
+  [vitest, 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${resultFile}`, ...process.argv.slice(2)],
+  { stdio: 'inherit', cwd: root },
+);
+
+let passed = 0;
+let failed = 0;
+if (existsSync(resultFile)) {
+  const r = JSON.parse(readFileSync(resultFile, 'utf8')) as { numPassedTests: number; numFailedTests: number };
+  passed = r.numPassedTests;
+  failed = r.numFailedTests;
+}
+console.log(`${passed} passed, ${failed} failed`);
+const rc = run.status ?? 1;
+process.exit(rc !== 0 ? rc : failed > 0 || passed === 0 ? 1 : 0);
