@@ -1,0 +1,23 @@
+/** Outgoing mail as the owner sees it (`/api/mail`): what the local transport wrote under DATA_DIR/mail. */
+import { z } from 'zod';
+import { isoDateSchema } from './common.ts';
+
+export const mailSummarySchema = z.object({
+  id: z.string(),
+  to: z.string(),
+  subject: z.string(),
+  sentAt: isoDateSchema,
+});
+export type MailSummary = z.infer<typeof mailSummarySchema>;
+
+/** GET /api/mail: newest first. */
+export const mailListResponseSchema = z.object({ items: z.array(mailSummarySchema) });
+export type MailListResponse = z.infer<typeof mailListResponseSchema>;
+
+/** GET /api/mail/:id. */
+export const mailMessageSchema = mailSummarySchema.extend({
+  from: z.string(),
+  text: z.string(),
+  html: z.string().optional(),
+});
+export type MailMessage = z.infer<typeof mailMessageSchema>;

@@ -1,0 +1,111 @@
+/** Studies (`/api/studies/*`): team-scoped circuit studies with optimistic versioning. */
+import { z } from 'zod';
+import { isoDateSchema, userRefSchema } from './common.ts';
+
+export const STUDY_STATUSES = ['draft', 'in-review', 'changes-requested', 'approved'] as const;
+export const studyStatusSchema = z.enum(STUDY_STATUSES);
+export type StudyStatus = z.infer<typeof studyStatusSchema>;
+
+/**
+ * The envelope every stored circuit must have. The server additionally validates the whole
+ * circuit with the engine's `circuitSchema` (shared/engine) when it is available; this shape
+ * check is what the API guarantees on its own.
+ */
+export const circuitEnvelopeSchema = z.looseObject({
+  format: z.literal('wyeward-circuit'),
+  version: z.literal(1),
+  frequencyHz: z.number().positive().max(1000),
+  elements: z.array(z.unknown()),
+});
+export type CircuitEnvelope = z.infer<typeof circuitEnvelopeSchema>;
+
+/** What a study holds: the circuit and, optionally, the diagram layout. */
+export const studyContentSchema = z.object({
+  circuit: circuitEnvelopeSchema,
+  layout: z.unknown().optional(),
+});
+export type StudyContent = z.infer<typeof studyContentSchema>;
+
+/** The content a study gets when created without one: an empty circuit at 60 Hz. */
+export function emptyStudyContent(): StudyContent {
+  return { circuit: { format: 'wyeward-circuit', version: 1, frequencyHz: 60, elements: [] } };
+}
+
+export const studyNameSchema = z.string().trim().min(1, 'Name is required').max(200, 'Name is at most 200 characters');
+export const studyDescriptionSchema = z.string().trim().max(5000, 'Description is at most 5000 characters');
+
+/** One row of the studies list. */
+export const studySummarySchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  description: z.string(),
+  status: studyStatusSchema,
+  isTemplate: z.boolean(),
+  version: z.number().int(),
+  createdBy: userRefSchema,
+  updatedBy: userRefSchema,
+  createdAt: isoDateSchema,
+  updatedAt: isoDateSchema,
+  /** Number of elements in the study's circuit. */
+  elementCount: z.number().int(),
+});
+export type StudySummary = z.infer<typeof studySummarySchema>;
+
+/** A whole study (GET /api/studies/:id, PATCH answer). */
+export const studyDetailSchema = studySummarySchema.extend({
+  content: studyContentSchema,
+  clonedFrom: z.object({ id: z.string(), name: z.string() }).nullable(),
+});
+export type StudyDetail = z.infer<typeof studyDetailSchema>;
+
+/** GET /api/studies query string. */
+export const listStudiesQuerySchema = z.object({
+  q: z.string().trim().max(200).optional(),
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+  template: z.enum(['true', 'false']).optional(),
+  sort: z.enum(['updatedAt', 'name']).default('updatedAt'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+});
+export type ListStudiesQuery = z.infer<typeof listStudiesQuerySchema>;
+
+export const listStudiesResponseSchema = z.object({
+  items: z.array(studySummarySchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type ListStudiesResponse = z.infer<typeof listStudiesResponseSchema>;
+
+/** POST /api/studies. */
+export const createStudyRequestSchema = z.object({
+  name: studyNameSchema,
+  description: studyDescriptionSchema.optional(),
+  content: studyContentSchema.optional(),
+});
+export type CreateStudyRequest = z.infer<typeof createStudyRequestSchema>;
+
+/** Answer to create and clone: 201 `{ id, version }`. */
+export const createdStudySchema = z.object({ id: z.string(), version: z.number().int() });
+export type CreatedStudy = z.infer<typeof createdStudySchema>;
+
+/** PATCH /api/studies/:id: `version` is the version the client edited. */
+export const updateStudyRequestSchema = z.object({
+  version: z.number().int().min(1),
+  name: studyNameSchema.optional(),
+  description: studyDescriptionSchema.optional(),
+  content: studyContentSchema.optional(),
+  isTemplate: z.boolean().optional(),
+});
+export type UpdateStudyRequest = z.infer<typeof updateStudyRequestSchema>;
+
+/** POST /api/studies/:id/clone. */
+export const cloneStudyRequestSchema = z.object({ name: studyNameSchema.optional() });
+export type CloneStudyRequest = z.infer<typeof cloneStudyRequestSchema>;
+
+/** 409 body of a stale PATCH: the error plus the study as it is now. */
+export const versionConflictBodySchema = z.object({
+  error: z.object({ code: z.literal('version-conflict'), message: z.string() }),
+  current: studyDetailSchema,
+});
+export type VersionConflictBody = z.infer<typeof versionConflictBodySchema>;
