@@ -1,0 +1,125 @@
+/**
+ * Fill-reducing ordering for the symmetric sparsity pattern of a nodal admittance matrix.
+ *
+ * Why minimum degree: on a radial feeder it eliminates leaves first, which is the tree
+ * post-order that gives (almost) no fill; on meshed parts it is the classic greedy rule. The
+ * issue's measurements: natural order made the factor ~40× denser on a 20 000-bus feeder.
+ * This is a plain minimum-degree on the explicit elimination graph (a binary heap with lazy
+ * deletion, ties broken by the lower index so the result is deterministic). Distribution
+ * networks give small cliques (a bus's 3–4 conductors), so the explicit graph stays small; an
+ * approximate-minimum-degree quotient graph would only pay off on large meshed grids.
+ */
+
+/** Minimum-degree order of an n-vertex graph given as CSC pattern (diagonal ignored); perm[k] = vertex eliminated k-th. */
+export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32Array): Int32Array {
+  const adj: number[][] = new Array(n);
+  for (let j = 0; j < n; j++) {
+    const list: number[] = [];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const i = rowIdx[p];
+      if (i !== j) list.push(i);
+    }
+    adj[j] = list;
+  }
+  const eliminated = new Uint8Array(n);
+  const mark = new Int32Array(n).fill(-1);
+  const heap = new MinHeap(n);
+  for (let j = 0; j < n; j++) heap.push(adj[j].length, j);
+  const perm = new Int32Array(n);
+  let step = 0;
+  while (step < n) {
+    const v = heap.pop(adj, eliminated);
+    perm[step] = v;
+    eliminated[v] = 1;
+    const nb = adj[v];
+    // The neighbours of v become a clique (the fill of eliminating v), and v leaves their lists.
+    for (let a = 0; a < nb.length; a++) {
+      const u = nb[a];
+      const old = adj[u];
+      const next: number[] = [];
+      const stamp = step * 2 + 1; // unique per (step, u) pass through `mark`
+      mark[u] = stamp;
+      for (let b = 0; b < old.length; b++) {
+        const w = old[b];
+        if (w === v || eliminated[w]) continue;
+        if (mark[w] !== stamp) {
+          mark[w] = stamp;
+          next.push(w);
+        }
+      }
+      for (let b = 0; b < nb.length; b++) {
+        const w = nb[b];
+        if (mark[w] !== stamp) {
+          mark[w] = stamp;
+          next.push(w);
+        }
+      }
+      // reset marks so the next neighbour's pass (same stamp value) starts clean
+      mark[u] = -1;
+      for (let b = 0; b < next.length; b++) mark[next[b]] = -1;
+      adj[u] = next;
+      heap.push(next.length, u);
+    }
+    adj[v] = [];
+    step++;
+  }
+  return perm;
+}
+
+/** Binary min-heap of (degree, vertex) with lazy deletion of stale entries. */
+class MinHeap {
+  private deg: number[] = [];
+  private vtx: number[] = [];
+  constructor(capacity: number) {
+    this.deg = new Array(0);
+    this.vtx = new Array(0);
+    void capacity;
+  }
+  push(d: number, v: number): void {
+    const deg = this.deg;
+    const vtx = this.vtx;
+    let i = deg.length;
+    deg.push(d);
+    vtx.push(v);
+    while (i > 0) {
+      const p = (i - 1) >> 1;
+      if (deg[p] < d || (deg[p] === d && vtx[p] < v)) break;
+      deg[i] = deg[p];
+      vtx[i] = vtx[p];
+      i = p;
+    }
+    deg[i] = d;
+    vtx[i] = v;
+  }
+  /** Pop the live vertex of least degree (entries whose degree no longer matches are stale). */
+  pop(adj: number[][], eliminated: Uint8Array): number {
+    for (;;) {
+      const d = this.deg[0];
+      const v = this.vtx[0];
+      this.removeTop();
+      if (!eliminated[v] && adj[v].length === d) return v;
+    }
+  }
+  private removeTop(): void {
+    const deg = this.deg;
+    const vtx = this.vtx;
+    const lastD = deg.pop()!;
+    const lastV = vtx.pop()!;
+    const n = deg.length;
+    if (n === 0) return;
+    let i = 0;
+    for (;;) {
+      const l = 2 * i + 1;
+      if (l >= n) break;
+      const r = l + 1;
+      let c = l;
+      if (r < n && (deg[r] < deg[l] || (deg[r] === deg[l] && vtx[r] < vtx[l]))) c = r;
+      if (deg[c] > lastD || (deg[c] === lastD && vtx[c] > lastV)) break;
+      deg[i] = deg[c];
+      vtx[i] = vtx[c];
+      i = c;
+    }
+    deg[i] = lastD;
+    vtx[i] = lastV;
+  }
+}
