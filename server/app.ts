@@ -1,0 +1,60 @@
+/** Builds the Express app without listening: used by index.ts, dev.ts and the supertest tests. */
+import express, { type Express } from 'express';
+import { originCheck, sessionMiddleware } from './auth/index.ts';
+import { createLucia } from './auth/lucia.ts';
+import { createSignInLimiter } from './auth/rate-limit.ts';
+import type { Config } from './config.ts';
+import type { Db } from './db/index.ts';
+import { errorHandler } from './error-handler.ts';
+import { AppError } from './errors.ts';
+import type { Mailer } from './mail/index.ts';
+import { auditRoutes } from './routes/audit.ts';
+import { authRoutes } from './routes/auth.ts';
+import type { RouteContext } from './routes/context.ts';
+import { mailRoutes } from './routes/mail.ts';
+import { studyRoutes } from './routes/studies.ts';
+import { inviteRoutes, teamRoutes } from './routes/team.ts';
+
+export interface AppDeps {
+  db: Db;
+  config: Config;
+  mailer: Mailer;
+  /** Adds the client (static dist/ or vite middleware) after the API and before the error handler. */
+  mountClient?: (app: Express) => void;
+}
+
+/** Largest accepted JSON body; a study's circuit and layout fit easily. */
+export const JSON_LIMIT = '2mb';
+
+export function createApp({ db, config, mailer, mountClient }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  const lucia = createLucia(db, { cookieSecure: config.cookieSecure });
+  const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter() };
+
+  const api = express.Router();
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use(originCheck(config.appUrl));
+  api.use(express.json({ limit: JSON_LIMIT }));
+  api.use(sessionMiddleware(db, lucia));
+  api.get('/health', (_req, res) => {
+    res.json({ ok: true });
+  });
+  api.use('/auth', authRoutes(ctx));
+  api.use('/studies', studyRoutes(ctx));
+  api.use('/team', teamRoutes(ctx));
+  api.use('/invites', inviteRoutes(ctx));
+  api.use('/mail', mailRoutes(ctx));
+  api.use('/audit', auditRoutes(ctx));
+  api.use((req) => {
+    throw new AppError(404, 'not-found', `No API route ${req.method} ${req.originalUrl.split('?')[0]}.`);
+  });
+  app.use('/api', api);
+
+  mountClient?.(app);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,107 @@
+/**
+ * Sign-in state for every request: lucia sessions, the caller's team and role, role checks and
+ * the same-origin rule. Routes use `requireUser` / `requireRole(min)`; nothing else touches lucia.
+ */
+import { eq } from 'drizzle-orm';
+import type { NextFunction, Request, RequestHandler, Response } from 'express';
+import type { Session, User } from 'lucia';
+import { verifyRequestOrigin } from 'lucia';
+import { roleAtLeast, type Role } from '../../shared/api/common.ts';
+import type { Db } from '../db/index.ts';
+import { memberships, teams } from '../db/schema.ts';
+import { AppError } from '../errors.ts';
+import type { AuthLucia } from './lucia.ts';
+
+/** Who is calling: the user, their team and role. Services take this instead of `req`. */
+export interface Actor {
+  userId: string;
+  name: string;
+  email: string;
+  teamId: string;
+  teamName: string;
+  role: Role;
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Locals {
+      user: User | null;
+      session: Session | null;
+      actor: Actor | null;
+    }
+  }
+}
+
+/** Loads the team and role of a user (null when the user belongs to no team). */
+export async function loadActor(db: Db, user: { id: string; name: string; email: string }): Promise<Actor | null> {
+  const rows = await db
+    .select({ teamId: memberships.teamId, role: memberships.role, teamName: teams.name })
+    .from(memberships)
+    .innerJoin(teams, eq(teams.id, memberships.teamId))
+    .where(eq(memberships.userId, user.id))
+    .limit(1);
+  const m = rows[0];
+  return m ? { userId: user.id, name: user.name, email: user.email, teamId: m.teamId, teamName: m.teamName, role: m.role } : null;
+}
+
+/** Reads the session cookie, validates it (refreshing or clearing the cookie as lucia asks) and fills `res.locals`. */
+export function sessionMiddleware(db: Db, lucia: AuthLucia): RequestHandler {
+  return async (req, res, next) => {
+    res.locals.user = null;
+    res.locals.session = null;
+    res.locals.actor = null;
+    const sessionId = lucia.readSessionCookie(req.headers.cookie ?? '');
+    if (!sessionId) return next();
+    const { session, user } = await lucia.validateSession(sessionId);
+    if (!session) {
+      res.appendHeader('Set-Cookie', lucia.createBlankSessionCookie().serialize());
+      return next();
+    }
+    if (session.fresh) res.appendHeader('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
+    res.locals.user = user;
+    res.locals.session = session;
+    res.locals.actor = await loadActor(db, { id: user.id, name: user.name, email: user.email });
+    next();
+  };
+}
+
+/**
+ * Refuses state-changing requests whose Origin is another site (403 `foreign-origin`). Requests
+ * without an Origin header (curl, server-to-server, same-origin GET-like navigations) pass.
+ */
+export function originCheck(appUrl: string): RequestHandler {
+  const appOrigin = new URL(appUrl).origin;
+  return (req, _res, next) => {
+    if (req.method === 'GET' || req.method === 'HEAD') return next();
+    const origin = req.headers.origin;
+    if (origin === undefined) return next();
+    const host = req.headers.host;
+    if (origin === appOrigin || (host && verifyRequestOrigin(origin, [host]))) return next();
+    next(new AppError(403, 'foreign-origin', 'Requests from other sites are refused.'));
+  };
+}
+
+/** The signed-in actor of a request, or 401 / 403. */
+export function actorOf(res: Response): Actor {
+  if (!res.locals.user) throw new AppError(401, 'unauthenticated', 'Sign in to continue.');
+  if (!res.locals.actor) throw new AppError(403, 'forbidden', 'This account does not belong to a team.');
+  return res.locals.actor;
+}
+
+/** Middleware: the caller must be signed in and a member of a team. */
+export const requireUser: RequestHandler = (_req: Request, res: Response, next: NextFunction) => {
+  actorOf(res);
+  next();
+};
+
+/** Middleware: the caller's role must be at least `min` (owner > engineer > reviewer > viewer). */
+export function requireRole(min: Role): RequestHandler {
+  return (_req, res, next) => {
+    const actor = actorOf(res);
+    if (!roleAtLeast(actor.role, min)) {
+      throw new AppError(403, 'forbidden', `Your role (${actor.role}) does not allow this; it needs ${min} or above.`);
+    }
+    next();
+  };
+}

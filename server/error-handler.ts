@@ -1,0 +1,64 @@
+/**
+ * The one error middleware: every failure leaves as `{ error: { code, message, … } }`.
+ * Bad input is always a 4xx; only real bugs are 500 (and logged).
+ */
+import type { ErrorRequestHandler } from 'express';
+import { z } from 'zod';
+import type { ErrorBody } from '../shared/api/common.ts';
+import { AppError } from './errors.ts';
+
+/** `path.to.field` → first message, from a zod error. */
+export function zodFields(err: z.ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.length > 0 ? issue.path.map(String).join('.') : '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+/** Errors raised by express.json (body-parser) carry `type` and `status`. */
+interface BodyParserError {
+  type?: string;
+  status?: number;
+  statusCode?: number;
+  limit?: number;
+}
+
+export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
+  if (res.headersSent) return next(err);
+  const send = (status: number, error: ErrorBody['error'], extra: Record<string, unknown> = {}) =>
+    res.status(status).json({ error, ...extra });
+
+  if (err instanceof AppError) {
+    const { fields, retryAfterSeconds, body } = err.extra;
+    if (retryAfterSeconds !== undefined) res.setHeader('Retry-After', String(retryAfterSeconds));
+    return send(
+      err.status,
+      { code: err.code, message: err.message, ...(fields ? { fields } : {}), ...(retryAfterSeconds !== undefined ? { retryAfterSeconds } : {}) },
+      body,
+    );
+  }
+  if (err instanceof z.ZodError) {
+    const fields = zodFields(err);
+    const first = Object.entries(fields)[0];
+    const message = first ? (first[0] === '_' ? first[1] : `${first[0]}: ${first[1]}`) : 'The request is not valid.';
+    return send(400, { code: 'validation', message, fields });
+  }
+  const bp = err as BodyParserError;
+  if (bp && typeof bp === 'object' && typeof bp.type === 'string') {
+    if (bp.type === 'entity.parse.failed') {
+      return send(400, { code: 'validation', message: 'The request body is not valid JSON.', fields: { _: 'Malformed JSON' } });
+    }
+    if (bp.type === 'entity.too.large') {
+      const mb = bp.limit ? ` (limit ${(bp.limit / 1024 / 1024).toFixed(0)} MB)` : '';
+      return send(413, { code: 'payload-too-large', message: `The request body is too large${mb}.` });
+    }
+    const status = bp.status ?? bp.statusCode ?? 400;
+    if (status >= 400 && status < 500) {
+      return send(status, { code: 'validation', message: 'The request body could not be read (unsupported encoding or charset).' });
+    }
+  }
+  console.error('Unhandled error:', err);
+  return send(500, { code: 'internal', message: 'Something went wrong on the server; it has been logged.' });
+};

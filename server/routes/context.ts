@@ -1,0 +1,19 @@
+/** What every route module receives from createApp. */
+import type { AuthLucia } from '../auth/lucia.ts';
+import type { SignInLimiter } from '../auth/rate-limit.ts';
+import type { Config } from '../config.ts';
+import type { Db } from '../db/index.ts';
+import type { Mailer } from '../mail/index.ts';
+
+export interface RouteContext {
+  db: Db;
+  config: Config;
+  mailer: Mailer;
+  lucia: AuthLucia;
+  limiter: SignInLimiter;
+}
+
+/** A named route parameter as one string (Express 5 types wildcard parameters as arrays). */
+export function param(value: string | string[] | undefined): string {
+  return Array.isArray(value) ? value.join('/') : (value ?? '');
+}

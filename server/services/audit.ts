@@ -1,0 +1,60 @@
+/** The audit trail: every sign-up, study change, invite and role change is recorded with who, what, when and which study. */
+import { and, count, desc, eq } from 'drizzle-orm';
+import { AUDIT_PAGE_SIZE, type AuditAction, type AuditListResponse, type AuditQuery } from '../../shared/api/audit.ts';
+import type { Actor } from '../auth/index.ts';
+import type { Db } from '../db/index.ts';
+import { auditEvents, users } from '../db/schema.ts';
+import { isUuid } from '../errors.ts';
+
+/** A Drizzle client or an open transaction (both can insert). */
+type Writer = Pick<Db, 'insert'>;
+
+/** Records one event. */
+export async function recordAudit(
+  db: Writer,
+  e: { teamId: string; actorId: string; action: AuditAction; studyId?: string | null; detail?: Record<string, unknown> },
+): Promise<void> {
+  await db.insert(auditEvents).values({
+    teamId: e.teamId,
+    actorId: e.actorId,
+    action: e.action,
+    studyId: e.studyId ?? null,
+    detail: e.detail ?? {},
+  });
+}
+
+/** The team's events, newest first, optionally of one study. */
+export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<AuditListResponse> {
+  if (q.studyId !== undefined && !isUuid(q.studyId)) return { items: [], total: 0 };
+  const where = and(eq(auditEvents.teamId, actor.teamId), q.studyId ? eq(auditEvents.studyId, q.studyId) : undefined);
+  const [rows, [{ total }]] = await Promise.all([
+    db
+      .select({
+        id: auditEvents.id,
+        at: auditEvents.at,
+        actorId: auditEvents.actorId,
+        actorName: users.name,
+        action: auditEvents.action,
+        studyId: auditEvents.studyId,
+        detail: auditEvents.detail,
+      })
+      .from(auditEvents)
+      .innerJoin(users, eq(users.id, auditEvents.actorId))
+      .where(where)
+      .orderBy(desc(auditEvents.at), desc(auditEvents.id))
+      .limit(AUDIT_PAGE_SIZE)
+      .offset((q.page - 1) * AUDIT_PAGE_SIZE),
+    db.select({ total: count() }).from(auditEvents).where(where),
+  ]);
+  return {
+    items: rows.map((r) => ({
+      id: r.id,
+      at: r.at.toISOString(),
+      actor: { id: r.actorId, name: r.actorName },
+      action: r.action,
+      studyId: r.studyId,
+      detail: r.detail,
+    })),
+    total,
+  };
+}

@@ -1,0 +1,79 @@
+/** Shared set-up of the API tests: an app on a fresh database, accounts and signed-in agents. */
+import { randomUUID } from 'node:crypto';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import type { Role } from '../../shared/api/common.ts';
+import { emptyStudyContent } from '../../shared/api/studies.ts';
+import { createApp } from '../../server/app.ts';
+import { hashPassword } from '../../server/auth/passwords.ts';
+import { readConfig, type Config } from '../../server/config.ts';
+import type { Db } from '../../server/db/index.ts';
+import { memberships, studies, teams, users } from '../../server/db/schema.ts';
+import { createMailer, type Mailer } from '../../server/mail/index.ts';
+
+export const PASSWORD = 'correct horse battery';
+export const APP_URL = 'http://localhost:3000';
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>;
+  db: Db;
+  mailer: Mailer;
+  mailDir: string;
+  config: Config;
+}
+
+/** An app on `db` with its own mail directory (and its own sign-in rate limiter). */
+export function makeApp(db: Db, env: Record<string, string> = {}): TestApp {
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-test-'));
+  const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', ...env });
+  const mailDir = path.join(dataDir, 'mail');
+  const mailer = createMailer({ dir: mailDir, from: config.mailFrom });
+  return { app: createApp({ db, config, mailer }), db, mailer, mailDir, config };
+}
+
+let passwordHash: Promise<string> | null = null;
+
+/** Inserts a team (argon2 hashing once per file keeps this fast). */
+export async function makeTeam(db: Db, name = `Team ${randomUUID().slice(0, 8)}`): Promise<string> {
+  const [t] = await db.insert(teams).values({ name }).returning({ id: teams.id });
+  return t.id;
+}
+
+/** Inserts a user with `role` in `teamId`; the password is PASSWORD. */
+export async function makeUser(db: Db, teamId: string, role: Role, name = `${role} ${randomUUID().slice(0, 6)}`) {
+  passwordHash ??= hashPassword(PASSWORD);
+  const id = randomUUID();
+  const email = `${role}-${id.slice(0, 8)}@example.test`;
+  await db.insert(users).values({ id, email, name, passwordHash: await passwordHash });
+  await db.insert(memberships).values({ userId: id, teamId, role });
+  return { id, email, name, role, teamId };
+}
+
+/** Inserts a study of `teamId` by `userId`. */
+export async function makeStudy(db: Db, teamId: string, userId: string, name = `Study ${randomUUID().slice(0, 8)}`) {
+  const [s] = await db
+    .insert(studies)
+    .values({ teamId, name, content: emptyStudyContent(), createdBy: userId, updatedBy: userId })
+    .returning({ id: studies.id, version: studies.version });
+  return s;
+}
+
+/** A supertest agent signed in as `email` (keeps the session cookie). */
+export async function signedIn(app: TestApp['app'], email: string, password = PASSWORD) {
+  const agent = request.agent(app);
+  const res = await agent.post('/api/auth/sign-in').send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return agent;
+}
+
+/** A circuit with `n` elements that passes the API's envelope check (the element bodies are opaque to it). */
+export function circuitWith(n: number) {
+  return {
+    circuit: {
+      ...emptyStudyContent().circuit,
+      elements: Array.from({ length: n }, (_, i) => ({ id: `el${i}`, type: 'placeholder' })),
+    },
+  };
+}
