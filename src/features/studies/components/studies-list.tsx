@@ -1,4 +1,4 @@
-import { useCallback, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router';
 import type { ListStudiesQuery, StudySummary } from '../../../../shared/api/studies.ts';
 import { Button } from '../../../components/button.tsx';
@@ -67,6 +67,27 @@ export function StudiesList({ role }: { role: Role }) {
     setToDelete(study);
   }, [remove]);
 
+  // The filter box follows typing at once; the address (and so the request) after a short pause.
+  const [filterText, setFilterText] = useState(params.q ?? '');
+  const currentQ = params.q ?? '';
+  const lastPushed = useRef(currentQ);
+  useEffect(() => {
+    // The address changed from outside (a nav link, back button): show that filter in the box.
+    if (currentQ !== lastPushed.current) {
+      lastPushed.current = currentQ;
+      setFilterText(currentQ);
+    }
+  }, [currentQ]);
+  useEffect(() => {
+    const wanted = filterText.trim();
+    if (wanted === currentQ) return;
+    const timer = setTimeout(() => {
+      lastPushed.current = wanted;
+      update({ q: wanted });
+    }, 250);
+    return () => clearTimeout(timer);
+  }, [filterText, currentQ, update]);
+
   const data = studies.data;
   const pageCount = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
@@ -83,8 +104,8 @@ export function StudiesList({ role }: { role: Role }) {
             aria-label="Filter studies by name"
             placeholder="Filter by name…"
             className={`${controlClass} w-56`}
-            defaultValue={params.q ?? ''}
-            onChange={(e) => update({ q: e.target.value.trim() })}
+            value={filterText}
+            onChange={(e) => setFilterText(e.target.value)}
           />
           <label className="flex items-center gap-1.5 text-[13px]">
             <input
