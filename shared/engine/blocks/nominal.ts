@@ -1,0 +1,58 @@
+/**
+ * Nominal voltages of buses: from the `buses` list, else from sources and transformers, then
+ * carried across lines and multi-conductor switches (they join buses of one voltage level).
+ * Split-phase buses: `kvLL` is the leg-to-leg voltage and the leg-to-neutral nominal is half of it.
+ */
+import type { Circuit } from '../schema/circuit.ts';
+import type { BusNominal } from './expansion.ts';
+
+/** Buses with split-phase conductors (1, 2). */
+export function splitPhaseBuses(circuit: Circuit): Set<string> {
+  const s = new Set<string>();
+  for (const el of circuit.elements) {
+    if (el.type === 'splitPhaseSource') s.add(el.bus);
+    if (el.type === 'splitPhaseTransformer') s.add(el.to);
+    if (el.type === 'load' && el.between?.some((c) => c === '1' || c === '2')) s.add(el.bus);
+  }
+  return s;
+}
+
+/** Nominal voltages (V) of every bus whose voltage level can be told. */
+export function inferNominals(circuit: Circuit, split: Set<string>): Map<string, BusNominal> {
+  const out = new Map<string, BusNominal>();
+  const set = (bus: string, kvLL: number, force = false) => {
+    if (out.has(bus) && !force) return;
+    const vLL = kvLL * 1000;
+    out.set(bus, { vLL, vLN: split.has(bus) ? vLL / 2 : vLL / Math.sqrt(3) });
+  };
+  for (const b of circuit.buses ?? []) if (b.kvLL !== undefined) set(b.name, b.kvLL, true);
+  for (const el of circuit.elements) {
+    if (el.type === 'source') set(el.bus, el.kvLL);
+    else if (el.type === 'splitPhaseSource') set(el.bus, (2 * el.voltsLN) / 1000);
+    else if (el.type === 'transformer') {
+      set(el.from, el.kvHigh);
+      set(el.to, el.kvLow);
+    } else if (el.type === 'splitPhaseTransformer') {
+      set(el.to, el.lowVolts / 1000);
+      set(el.from, el.primary.includes('n') ? el.kvHigh * Math.sqrt(3) : el.kvHigh);
+    }
+  }
+  // Carry nominals across lines and switches (same voltage level on both ends).
+  const links = circuit.elements.filter((e) => e.type === 'line' || e.type === 'switch3') as { from: string; to: string }[];
+  let changed = true;
+  while (changed) {
+    changed = false;
+    for (const l of links) {
+      const a = out.get(l.from);
+      const b = out.get(l.to);
+      if (a && !b) {
+        set(l.to, a.vLL / 1000);
+        changed = true;
+      } else if (b && !a) {
+        set(l.from, b.vLL / 1000);
+        changed = true;
+      }
+    }
+  }
+  return out;
+}

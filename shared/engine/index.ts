@@ -1,0 +1,37 @@
+/**
+ * The engine's one public API: circuit format (schemas, types), solveCircuit, results types,
+ * errors, metrics helpers, limit sets, demo circuits, and the primitive solver.
+ * Conventions: RMS phasors; earth is the reference node; S = V·I* in load convention (Q > 0
+ * lagging); sequence ABC by default with a = 1∠120°.
+ */
+export * from './types.ts';
+export * from './errors.ts';
+export { solveCircuit, prepareCircuit, type SolveCircuitOptions, type PreparedCircuit } from './solve-circuit.ts';
+export { parseCircuit, formatPath, type CircuitIssue } from './schema/parse-circuit.ts';
+export {
+  circuitSchema,
+  elementSchema,
+  elementSchemas,
+  limitsSchema,
+  busInfoSchema,
+  ELEMENT_TYPES,
+  type Circuit,
+  type CircuitInput,
+  type CircuitElement,
+  type CircuitElementInput,
+  type ElementType,
+  type LimitsInput,
+} from './schema/circuit.ts';
+export { complexSchema, earthingSchema, CONDUCTORS, PHASES, type Conductor, type Phase, type ComplexInput, type EarthingInput } from './schema/common.ts';
+export { toCx } from './schema/to-cx.ts';
+export * from './schema/blocks.ts';
+export * from './schema/primitives.ts';
+export type * from './results/types.ts';
+export { type Phasor, toPhasor, polar, cx } from './phasor.ts';
+export { sequenceComponents, phasesFromSequence, type SequenceComponents } from './metrics/sequence.ts';
+export { iecUnbalancePercent, maxDeviationUnbalancePercent, iecUnbalanceFromLineMagnitudesPercent } from './metrics/unbalance.ts';
+export { ANSI_C84_1, IEC_EN, resolveLimits, type LimitSet } from './limits/limit-sets.ts';
+export { carsonPrimitiveMatrix, kronReduce, type CarsonConductor } from './blocks/carson.ts';
+export { busNode } from './blocks/expansion.ts';
+export { demoCircuits, type DemoCircuit } from './examples/index.ts';
+export { solvePrimitives, createNetwork, type Network, type SolverOptions, type SolveTimings } from './solver/index.ts';

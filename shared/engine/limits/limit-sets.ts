@@ -1,0 +1,73 @@
+/**
+ * Limit sets the results are flagged against. Voltages in per unit of the bus nominal
+ * (line-to-neutral where the bus has a neutral, line-to-line otherwise).
+ * - ANSI C84.1 (default): service Range A 114–126 V and Range B 110–127 V on a 120 V base
+ *   (ANSI C84.1 Table 1; M, the 114/126 V pair V via secondary copies), scaled to the bus nominal;
+ *   outside Range A → warning, outside Range B → violation. Unbalance: at most 3 % line-voltage
+ *   unbalance (ANSI C84.1 annex on voltage unbalance, which uses the max-deviation definition).
+ * - IEC/EN: ±10 % of nominal (EN 50160 supply voltage variation; M) → violation; negative-sequence
+ *   unbalance |V2|/|V1| within 2 % (EN 50160 (V); IEC 61000-2-2 compatibility level (M)).
+ * Neutral shift (neutral-to-earth voltage above 10 % of nominal V_LN) and transformer loading
+ * above 100 % are warnings in both sets (P: common practice, no standard number).
+ */
+import type { LimitsInput } from '../schema/circuit.ts';
+import { limitsSchema } from '../schema/circuit.ts';
+import { InvalidCircuitError } from '../errors.ts';
+
+/** A resolved limit set. */
+export interface LimitSet {
+  id: 'ansi-c84.1' | 'iec-en';
+  name: string;
+  /** [low, high] pu: outside → warning. */
+  voltageWarningPu: [number, number];
+  /** [low, high] pu: outside → violation. */
+  voltageViolationPu: [number, number];
+  unbalanceMetric: 'nema' | 'iec' | 'ieee';
+  unbalancePercent: number;
+  neutralShiftPercent: number;
+  loadingPercent: number;
+}
+
+export const ANSI_C84_1: LimitSet = {
+  id: 'ansi-c84.1',
+  name: 'ANSI C84.1 service voltage (Range A warning, Range B violation), 3 % unbalance',
+  voltageWarningPu: [114 / 120, 126 / 120],
+  voltageViolationPu: [110 / 120, 127 / 120],
+  unbalanceMetric: 'nema',
+  unbalancePercent: 3,
+  neutralShiftPercent: 10,
+  loadingPercent: 100,
+};
+
+export const IEC_EN: LimitSet = {
+  id: 'iec-en',
+  name: 'IEC/EN: ±10 % of nominal, 2 % negative-sequence unbalance',
+  voltageWarningPu: [0.9, 1.1],
+  voltageViolationPu: [0.9, 1.1],
+  unbalanceMetric: 'iec',
+  unbalancePercent: 2,
+  neutralShiftPercent: 10,
+  loadingPercent: 100,
+};
+
+/** Resolve a named set plus overrides (circuit file settings first, then call options). */
+export function resolveLimits(...layers: (LimitsInput | undefined)[]): LimitSet {
+  let out: LimitSet = ANSI_C84_1;
+  for (const layer of layers) {
+    if (!layer) continue;
+    const parsed = limitsSchema.safeParse(layer);
+    if (!parsed.success) throw new InvalidCircuitError(`invalid limits: ${parsed.error.issues[0].message}`, parsed.error.issues.map((i) => ({ path: `limits.${i.path.join('.')}`, message: i.message })));
+    const l = parsed.data;
+    const base = layer.set !== undefined ? (l.set === 'iec-en' ? IEC_EN : ANSI_C84_1) : out;
+    out = {
+      ...base,
+      ...(l.voltageWarningPu ? { voltageWarningPu: l.voltageWarningPu } : {}),
+      ...(l.voltageViolationPu ? { voltageViolationPu: l.voltageViolationPu } : {}),
+      ...(l.unbalanceMetric ? { unbalanceMetric: l.unbalanceMetric } : {}),
+      ...(l.unbalancePercent !== undefined ? { unbalancePercent: l.unbalancePercent } : {}),
+      ...(l.neutralShiftPercent !== undefined ? { neutralShiftPercent: l.neutralShiftPercent } : {}),
+      ...(l.loadingPercent !== undefined ? { loadingPercent: l.loadingPercent } : {}),
+    };
+  }
+  return out;
+}

@@ -1,0 +1,242 @@
+/**
+ * Turn a primitive solution back into per-bus and per-block results: voltages, sequence
+ * components, unbalance, port currents, powers, losses, loading, faults, totals and flags.
+ */
+import type { Cx, PrimitiveSolution } from '../types.ts';
+import { EARTH } from '../types.ts';
+import { abs, add, conj, mul, neg, scale, sub, sum, toPhasor, ZERO, type Phasor } from '../phasor.ts';
+import type { Circuit } from '../schema/circuit.ts';
+import { CONDUCTORS } from '../schema/common.ts';
+import type { ExpandContext, Expansion } from '../blocks/expansion.ts';
+import { sequenceComponents, type SequenceComponents } from '../metrics/sequence.ts';
+import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/unbalance.ts';
+import type { LimitSet } from '../limits/limit-sets.ts';
+import { computeFlags } from '../limits/flags.ts';
+import { terminalCurrents } from './terminal-currents.ts';
+import type { BusResult, CircuitResult, ElementResult, FaultResult, SequenceResult } from './types.ts';
+
+const seqPhasors = (s: SequenceComponents): SequenceResult => ({ zero: toPhasor(s.zero), positive: toPhasor(s.positive), negative: toPhasor(s.negative) });
+const CONDUCTOR_SET = new Set<string>(CONDUCTORS);
+
+/** Split a node name "BUS.c" into bus and conductor when it follows the bus naming rule. */
+export function splitBusNode(node: string): { bus: string; conductor: string } | null {
+  const i = node.lastIndexOf('.');
+  if (i <= 0) return null;
+  const bus = node.slice(0, i);
+  const conductor = node.slice(i + 1);
+  if (bus.includes('.') || !CONDUCTOR_SET.has(conductor)) return null;
+  return { bus, conductor };
+}
+
+function busResults(ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, floatingNodes: Set<string>): BusResult[] {
+  const buses = new Map<string, Set<string>>();
+  const order: string[] = [];
+  const note = (bus: string) => {
+    if (!buses.has(bus)) {
+      buses.set(bus, new Set());
+      order.push(bus);
+    }
+  };
+  for (const e of expansions) for (const p of e.ports ?? []) if (p.bus) note(p.bus);
+  for (const node of sol.nodeVolts.keys()) {
+    const s = splitBusNode(node);
+    if (s) {
+      note(s.bus);
+      buses.get(s.bus)!.add(s.conductor);
+    }
+  }
+  const V = (bus: string, c: string): Cx => sol.nodeVolts.get(`${bus}.${c}`) ?? ZERO;
+  const out: BusResult[] = [];
+  for (const bus of order) {
+    const present = buses.get(bus)!;
+    const conductors = CONDUCTORS.filter((c) => present.has(c));
+    if (conductors.length === 0) continue;
+    const split = ctx.splitPhase.has(bus) || present.has('1') || present.has('2');
+    const nom = ctx.nominal.get(bus);
+    const hasN = present.has('n');
+    const toEarth: Record<string, Phasor> = {};
+    for (const c of conductors) toEarth[c] = toPhasor(V(bus, c));
+    const vn = hasN ? V(bus, 'n') : ZERO;
+    const phases = (split ? ['1', '2'] : ['a', 'b', 'c']).filter((c) => present.has(c));
+    const lineToNeutral: Record<string, Phasor> = {};
+    for (const p of phases) lineToNeutral[p] = toPhasor(sub(V(bus, p), vn));
+    const lineToLine: Record<string, Phasor> = {};
+    const pairs = split ? [['1', '2']] : [['a', 'b'], ['b', 'c'], ['c', 'a']];
+    for (const [p, q] of pairs) if (present.has(p) && present.has(q)) lineToLine[p + q] = toPhasor(sub(V(bus, p), V(bus, q)));
+    const isFloating = conductors.some((c) => floatingNodes.has(`${bus}.${c}`));
+    const r: BusResult = {
+      bus,
+      kind: split ? 'splitPhase' : 'threePhase',
+      ...(nom ? { nominalVLL: nom.vLL, nominalVLN: nom.vLN } : {}),
+      conductors,
+      toEarth,
+      lineToNeutral,
+      lnReference: hasN ? 'neutral' : 'earth',
+      lineToLine,
+      floating: isFloating,
+    };
+    if (hasN) {
+      r.neutralToEarth = toPhasor(vn);
+      if (nom) r.neutralShiftPercent = (100 * abs(vn)) / nom.vLN;
+    }
+    if (!split && phases.length === 3) {
+      const s = sequenceComponents(V(bus, 'a'), V(bus, 'b'), V(bus, 'c'), ctx.sequence);
+      r.sequence = seqPhasors(s);
+      r.iecUnbalancePercent = iecUnbalancePercent(s.positive, s.negative);
+      r.nemaUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToLine).map((v) => v.mag));
+      r.ieeeUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToNeutral).map((v) => v.mag));
+    }
+    out.push(r);
+  }
+  return out;
+}
+
+interface ElementWork {
+  result: ElementResult;
+  absorbed: Cx;
+  emf?: Cx;
+  internalLoss?: Cx;
+}
+
+function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | 'ACB'): ElementWork {
+  const V = (n: string): Cx => sol.nodeVolts.get(n) ?? ZERO;
+  const into = new Map<string, Cx>();
+  const perPhase = new Map<string, Cx>();
+  let absorbed = ZERO;
+  let emf: Cx | undefined;
+  for (const t of e.primitives) {
+    const I = sol.elementCurrents.get(t.prim.id) ?? [];
+    if (I.length === 0) continue;
+    let sPrim = ZERO;
+    for (const [node, i] of terminalCurrents(t.prim, I)) {
+      into.set(node, add(into.get(node) ?? ZERO, i));
+      sPrim = add(sPrim, mul(V(node), conj(i)));
+    }
+    absorbed = add(absorbed, sPrim);
+    if (t.role === 'emf' && t.prim.type === 'voltageSource') {
+      const sEmf = mul(t.prim.volts, conj(I[0]));
+      emf = add(emf ?? ZERO, sEmf);
+      if (t.phase) perPhase.set(t.phase, add(perPhase.get(t.phase) ?? ZERO, sEmf));
+    } else if (t.phase && e.category !== 'source') {
+      perPhase.set(t.phase, add(perPhase.get(t.phase) ?? ZERO, sPrim));
+    }
+  }
+  if (e.type === 'currentSource') emf = neg(absorbed);
+  const sign = e.currentDirection === 'out-of-element' ? -1 : 1;
+  let currents: Cx[];
+  let ports: ElementResult['ports'];
+  if (e.ports) {
+    ports = e.ports.map((p) => {
+      const cs = p.nodes.map((n) => scale(into.get(n) ?? ZERO, sign));
+      return { ...(p.bus ? { bus: p.bus } : {}), conductors: p.conductors, nodes: p.nodes, currents: cs.map(toPhasor) };
+    });
+    currents = e.ports.flatMap((p) => p.nodes.map((n) => scale(into.get(n) ?? ZERO, sign)));
+  } else {
+    currents = sol.elementCurrents.get(e.primitives[0].prim.id) ?? [];
+  }
+  const isSource = e.category === 'source';
+  const power = isSource ? neg(absorbed) : absorbed;
+  const result: ElementResult = {
+    id: e.id,
+    type: e.type,
+    category: e.category,
+    currents: currents.map(toPhasor),
+    currentDirection: e.currentDirection,
+    ...(ports ? { ports } : {}),
+    power: toPhasor(power),
+  };
+  const earthInto = into.get(EARTH);
+  if (earthInto && abs(earthInto) > 0) result.earthCurrent = toPhasor(neg(earthInto));
+  else if (e.primitives.some((t) => t.role === 'earth')) result.earthCurrent = toPhasor(ZERO);
+  const abcPort = e.ports?.find((p) => ['a', 'b', 'c'].every((c) => p.conductors.includes(c)));
+  if (abcPort && ports) {
+    const pr = ports[e.ports!.indexOf(abcPort)];
+    const ix = (c: string) => pr.currents[abcPort.conductors.indexOf(c)];
+    const [ia, ib, ic] = ['a', 'b', 'c'].map((c) => ({ re: ix(c).re, im: ix(c).im }));
+    result.sequenceCurrents = seqPhasors(sequenceComponents(ia, ib, ic, sequence));
+  }
+  if (perPhase.size > 0) result.powerPerPhase = Object.fromEntries([...perPhase].map(([k, v]) => [k, toPhasor(v)]));
+  let internalLoss: Cx | undefined;
+  if (isSource && emf) {
+    result.emfPower = toPhasor(emf);
+    internalLoss = sub(emf, power);
+    result.losses = toPhasor(internalLoss);
+  }
+  if (e.category === 'series') result.losses = toPhasor(absorbed);
+  if (e.meta?.kind === 'transformer') {
+    let worst = 0;
+    for (const w of e.meta.windings) {
+      const I = sol.elementCurrents.get(w.primId) ?? [];
+      if (I.length === 0) continue;
+      worst = Math.max(worst, abs(I[w.hvIndex]) / w.hvRatedAmps, ...w.lvIndexes.map((k) => abs(I[k]) / w.lvRatedAmps));
+    }
+    result.loadingPercent = 100 * worst;
+    result.phaseShift = { convention: e.meta.convention, vectorGroup: e.meta.vectorGroup, lvLagsHvDeg: e.meta.lagDeg };
+  }
+  return { result, absorbed, emf, internalLoss };
+}
+
+/** Build the whole typed result. */
+export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, limits: LimitSet): CircuitResult {
+  const nodes: Record<string, Phasor> = {};
+  for (const [n, v] of sol.nodeVolts) nodes[n] = toPhasor(v);
+  const floatingNodes = new Set(sol.floating.flatMap((f) => f.nodes));
+  const buses = busResults(ctx, expansions, sol, floatingNodes);
+  const works = expansions.map((e) => elementResult(e, sol, ctx.sequence));
+  const elements: Record<string, ElementResult> = {};
+  for (const w of works) elements[w.result.id] = w.result;
+  const pick = (cat: string) => sum(works.filter((w) => w.result.category === cat).map((w) => w.absorbed));
+  const sourcePower = sum(works.filter((w) => w.result.category === 'source').map((w) => w.emf ?? neg(w.absorbed)));
+  const loadPower = pick('load');
+  const faultPower = pick('fault');
+  const losses = add(add(pick('series'), pick('earthing')), sum(works.map((w) => w.internalLoss ?? ZERO)));
+  const residual = sub(sub(sub(sourcePower, loadPower), faultPower), losses);
+  const faults: FaultResult[] = [];
+  for (const e of expansions) {
+    if (e.meta?.kind !== 'fault') continue;
+    const r = elements[e.id];
+    const port = r.ports![0];
+    const get = (c: string) => port.currents[port.conductors.indexOf(c)];
+    const cs = { a: get('a'), b: get('b'), c: get('c') };
+    faults.push({
+      id: e.id,
+      bus: e.meta.bus,
+      kind: e.meta.faultKind,
+      phases: e.meta.phases,
+      phaseCurrents: cs,
+      sequence: seqPhasors(sequenceComponents(cs.a, cs.b, cs.c, ctx.sequence)),
+      earthCurrent: r.earthCurrent ?? toPhasor(ZERO),
+    });
+  }
+  const elementList = works.map((w) => w.result);
+  return {
+    ...(circuit.name !== undefined ? { name: circuit.name } : {}),
+    frequencyHz: circuit.frequencyHz,
+    conventions: {
+      phasors: 'RMS',
+      power: 'S = V·I*, load convention, Q > 0 lagging',
+      sequence: ctx.sequence,
+      sequenceComponents:
+        ctx.sequence === 'ABC'
+          ? 'a = 1∠120°: X0 = (Xa+Xb+Xc)/3, X1 = (Xa+aXb+a²Xc)/3, X2 = (Xa+a²Xb+aXc)/3; bus sequence voltages are of the phase-to-earth voltages'
+          : 'ACB system: positive sequence is the system rotation, X1 = (Xa+a²Xb+aXc)/3, X2 = (Xa+aXb+a²Xc)/3 (a = 1∠120°); bus sequence voltages are of the phase-to-earth voltages',
+      transformerShift: 'per transformer (phaseShift): IEC clock number (LV lags HV by clock × 30° in an ABC system) or the North American rule (LV lags HV by 30° for D–Y and Y–D)',
+    },
+    nodes,
+    buses,
+    elements,
+    faults,
+    totals: {
+      sourcePower: toPhasor(sourcePower),
+      loadPower: toPhasor(loadPower),
+      faultPower: toPhasor(faultPower),
+      losses: toPhasor(losses),
+      powerBalanceResidual: toPhasor(residual),
+      maxKclResidualAmps: sol.maxKclResidualAmps,
+    },
+    floating: sol.floating,
+    flags: computeFlags(buses, elementList, sol.floating, limits),
+    limits,
+    iterations: sol.iterations,
+  };
+}

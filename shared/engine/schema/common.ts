@@ -1,0 +1,49 @@
+/**
+ * Schema pieces shared by the primitives and the building blocks: numbers, complex values,
+ * node and bus names, earthing. zod 4 numbers already reject NaN and ±Infinity.
+ */
+import { z } from 'zod';
+
+/** A finite number. */
+export const num = z.number();
+/** A strictly positive finite number. */
+export const posNum = z.number().positive();
+/** A finite number ≥ 0. */
+export const nonNegNum = z.number().nonnegative();
+
+/** Complex value: `{ "re", "im" }`, `{ "mag", "angleDeg" }`, or a plain number (real). */
+export const complexSchema = z.union(
+  [
+    z.number(),
+    z.strictObject({ re: z.number(), im: z.number() }),
+    z.strictObject({ mag: z.number().nonnegative(), angleDeg: z.number() }),
+  ],
+  { error: 'expected a complex value: a number, { "re", "im" } or { "mag", "angleDeg" } with finite numbers' },
+).meta({ description: 'Complex value: a real number, {re, im} or {mag, angleDeg} (degrees).' });
+export type ComplexInput = z.infer<typeof complexSchema>;
+
+/** Element id: non-empty. */
+export const idSchema = z.string().min(1, 'an id must not be empty');
+/** Node name: any non-empty string; "earth" is the reference. */
+export const nodeSchema = z.string().min(1, 'a node name must not be empty');
+/** Bus name: non-empty, no dots or spaces (a bus B has conductor nodes B.a, B.b, B.c, B.n, B.1, B.2). */
+export const busSchema = z
+  .string()
+  .min(1, 'a bus name must not be empty')
+  .regex(/^[^.\s]+$/, 'a bus name must not contain dots or spaces')
+  .refine((s) => s !== 'earth', 'a bus cannot be named "earth"');
+
+/** Conductor letters of a three-phase bus and of a split-phase bus. */
+export const CONDUCTORS = ['a', 'b', 'c', 'n', '1', '2'] as const;
+export type Conductor = (typeof CONDUCTORS)[number];
+export const conductorSchema = z.enum(CONDUCTORS);
+export const PHASES = ['a', 'b', 'c'] as const;
+export type Phase = (typeof PHASES)[number];
+
+/** Earthing of a star point: solid, unearthed, or through an impedance (ohms). */
+export const earthingSchema = z
+  .union([z.enum(['solid', 'unearthed']), z.strictObject({ ohms: complexSchema })], {
+    error: 'expected earthing "solid", "unearthed" or { "ohms": complex }',
+  })
+  .meta({ description: 'Star-point earthing: "solid", "unearthed" or {ohms} (through an impedance).' });
+export type EarthingInput = z.infer<typeof earthingSchema>;

@@ -1,0 +1,94 @@
+/**
+ * Validate an untrusted circuit (parsed JSON or an object) into a `Circuit`.
+ * Every problem becomes an issue `{ path, message }` in plain words, gathered into one
+ * `InvalidCircuitError`: non-finite numbers, unknown element types (named, with the known ones),
+ * schema errors per element, duplicate ids.
+ */
+import type { z } from 'zod';
+import { InvalidCircuitError } from '../errors.ts';
+import { circuitSchema, ELEMENT_TYPES, elementSchemas, type Circuit, type ElementType } from './circuit.ts';
+
+export interface CircuitIssue {
+  path: string;
+  message: string;
+}
+
+/** JSON-path-like rendering: elements[3].ohms.re */
+export function formatPath(path: readonly PropertyKey[]): string {
+  let s = '';
+  for (const p of path) s += typeof p === 'number' ? `[${p}]` : s === '' ? String(p) : `.${String(p)}`;
+  return s === '' ? '(root)' : s;
+}
+
+/** Walk a value and report every NaN or ±Infinity (zod would report them less plainly). */
+function nonFinite(value: unknown, path: PropertyKey[], out: CircuitIssue[]): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) out.push({ path: formatPath(path), message: `must be a finite number (got ${String(value)})` });
+  } else if (Array.isArray(value)) value.forEach((v, i) => nonFinite(v, [...path, i], out));
+  else if (value !== null && typeof value === 'object') for (const [k, v] of Object.entries(value)) nonFinite(v, [...path, k], out);
+}
+
+function zodIssues(error: z.ZodError, prefix: PropertyKey[]): CircuitIssue[] {
+  return error.issues.map((iss) => ({ path: formatPath([...prefix, ...iss.path]), message: iss.message }));
+}
+
+const topSchema = circuitSchema.omit({ elements: true });
+
+/** Validate `input` against the circuit format; throws InvalidCircuitError listing every issue. */
+export function parseCircuit(input: unknown): Circuit {
+  const issues: CircuitIssue[] = [];
+  if (input === null || typeof input !== 'object' || Array.isArray(input)) {
+    throw new InvalidCircuitError('a circuit must be a JSON object with "format": "wyeward-circuit"', [{ path: '(root)', message: 'expected a JSON object' }]);
+  }
+  nonFinite(input, [], issues);
+  if (issues.length > 0) throw invalid(issues);
+  const raw = input as Record<string, unknown>;
+  const { elements: rawElements, ...rest } = raw;
+  const top = topSchema.safeParse(rest);
+  if (!top.success) issues.push(...zodIssues(top.error, []));
+  const elements: Circuit['elements'] = [];
+  const elementIds: string[] = [];
+  if (!Array.isArray(rawElements)) {
+    issues.push({ path: 'elements', message: 'expected an array of elements' });
+  } else {
+    rawElements.forEach((el, i) => {
+      if (el === null || typeof el !== 'object' || Array.isArray(el)) {
+        issues.push({ path: `elements[${i}]`, message: 'expected an element object with a "type"' });
+        return;
+      }
+      const type = (el as { type?: unknown }).type;
+      const id = (el as { id?: unknown }).id;
+      const label = typeof id === 'string' ? ` (id "${id}")` : '';
+      if (typeof type !== 'string') {
+        issues.push({ path: `elements[${i}].type`, message: `missing element type${label}` });
+        return;
+      }
+      if (!(ELEMENT_TYPES as string[]).includes(type)) {
+        issues.push({ path: `elements[${i}].type`, message: `unknown element type "${type}"${label}; known types: ${ELEMENT_TYPES.join(', ')}` });
+        if (typeof id === 'string') elementIds.push(id);
+        return;
+      }
+      const parsed = elementSchemas[type as ElementType].safeParse(el);
+      if (!parsed.success) {
+        issues.push(...zodIssues(parsed.error, ['elements', i]).map((x) => ({ ...x, message: `${x.message}${label}` })));
+        if (typeof id === 'string') elementIds.push(id);
+        return;
+      }
+      elements.push(parsed.data as Circuit['elements'][number]);
+      elementIds.push(parsed.data.id);
+    });
+  }
+  const seen = new Set<string>();
+  elementIds.forEach((id) => {
+    if (seen.has(id)) issues.push({ path: 'elements', message: `duplicate element id "${id}"` });
+    seen.add(id);
+  });
+  if (issues.length > 0) throw invalid(issues);
+  return { ...(top.data as Omit<Circuit, 'elements'>), elements };
+}
+
+function invalid(issues: CircuitIssue[]): InvalidCircuitError {
+  const first = issues[0];
+  const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
+  return new InvalidCircuitError(`invalid circuit: ${first.path}: ${first.message}${more}`, issues);
+}

@@ -1,0 +1,11 @@
+/** Normalise the complex forms of the file format to `Cx`. */
+import type { Cx } from '../types.ts';
+import type { ComplexInput } from './common.ts';
+import { polar } from '../phasor.ts';
+
+/** `{re,im}`, `{mag,angleDeg}` or a number → `{re,im}`. */
+export function toCx(v: ComplexInput): Cx {
+  if (typeof v === 'number') return { re: v, im: 0 };
+  if ('re' in v) return { re: v.re, im: v.im };
+  return polar(v.mag, v.angleDeg);
+}
