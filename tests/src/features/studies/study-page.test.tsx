@@ -2,12 +2,12 @@ import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import type { Role } from '../../../../shared/api/common.ts';
-import type { StudyDetail } from '../../../../shared/api/studies.ts';
+import type { CircuitEnvelope, StudyDetail } from '../../../../shared/api/studies.ts';
 import { apiError, stubApi, type Handler } from '../../helpers/fake-api.ts';
 import { me, studyDetail } from '../../helpers/fixtures.ts';
 import { renderApp } from '../../helpers/render-app.tsx';
 
-const circuit = {
+const circuit: CircuitEnvelope = {
   format: 'wyeward-circuit',
   version: 1,
   frequencyHz: 60,
