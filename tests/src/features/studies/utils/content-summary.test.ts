@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { demoCircuits, deltaWyeBank } from '../../../../../shared/engine/examples/index.ts';
 import { busOfNode, summarizeCircuit } from '../../../../../src/features/studies/utils/content-summary.ts';
 
 describe('summarizeCircuit', () => {
@@ -82,5 +83,29 @@ describe('busOfNode', () => {
     expect(busOfNode('B1.a')).toBe('B1');
     expect(busOfNode('Feeder.7.n')).toBe('Feeder.7');
     expect(busOfNode('N4')).toBe('N4');
+  });
+});
+
+describe('summarizeCircuit on the engine’s demo circuits', () => {
+  it.each(demoCircuits.map((d) => [d.key, d.circuit] as const))('%s: every element counted, every bus it names listed, nothing unreadable', (_key, circuit) => {
+    const s = summarizeCircuit(circuit);
+    expect(s.problems).toEqual([]);
+    expect(s.frequencyHz).toBe(circuit.frequencyHz);
+    expect(s.elementCount).toBe(circuit.elements.length);
+    expect(s.byType.reduce((n, t) => n + t.count, 0)).toBe(circuit.elements.length);
+    for (const element of circuit.elements as Record<string, unknown>[]) {
+      for (const key of ['bus', 'from', 'to'] as const) {
+        const v = element[key];
+        if (typeof v === 'string' && v !== 'earth') expect(s.buses).toContain(busOfNode(v));
+      }
+    }
+    expect(s.nominalVolts.length).toBeGreaterThan(0);
+  });
+
+  it('reads the delta–wye bank as 12.47 kV and 208 V (the ratings written in the demo file)', () => {
+    const s = summarizeCircuit(deltaWyeBank);
+    expect(s.nominalVolts).toEqual([208, 12470]);
+    expect(s.byType.find((t) => t.type === 'load')?.count).toBe(2);
+    expect(s.byType.find((t) => t.type === 'transformer')?.count).toBe(1);
   });
 });
