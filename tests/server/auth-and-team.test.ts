@@ -1,0 +1,292 @@
+/** Sign-up/sign-in/sign-out, the session cookie, sign-in throttling, the same-origin rule, invites by e-mail and role management. */
+import { readFileSync, readdirSync } from 'node:fs';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ACCOUNT_FAILURES, ADDRESS_FAILURES, WINDOW_SECONDS } from '../../server/auth/rate-limit.ts';
+import type { Db } from '../../server/db/index.ts';
+import { makeApp, makeTeam, makeUser, PASSWORD, signedIn, APP_URL, type TestApp } from './helpers.ts';
+import { openTestDb } from './test-db.ts';
+
+let db: Db;
+let t: TestApp;
+
+beforeAll(async () => {
+  db = await openTestDb();
+  t = makeApp(db);
+});
+
+afterAll(async () => {
+  await db.$client.close();
+});
+
+describe('sign-up, sign-in, sign-out', () => {
+  it('signs up a new owner of a new team and keeps them signed in with an HttpOnly, SameSite=Lax cookie', async () => {
+    const agent = request.agent(t.app);
+    const res = await agent
+      .post('/api/auth/sign-up')
+      .send({ name: 'Nell Ostrander', email: '  Nell@Example.TEST ', password: 'long enough pass', teamName: 'Ostrander Consulting' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ user: { name: 'Nell Ostrander', email: 'nell@example.test' }, team: { name: 'Ostrander Consulting' }, role: 'owner' });
+    const cookie = String(res.headers['set-cookie']);
+    expect(cookie).toMatch(/^wyeward_session=/);
+    expect(cookie).toMatch(/HttpOnly/i);
+    expect(cookie).toMatch(/SameSite=Lax/i);
+    expect(cookie).not.toMatch(/Secure/i); // plain http in tests; COOKIE_SECURE=1 or an https APP_URL sets it
+    const me = await agent.get('/api/auth/me');
+    expect(me.status).toBe(200);
+    expect(me.body).toEqual(res.body);
+  });
+
+  it('marks the cookie Secure when COOKIE_SECURE=1', async () => {
+    const secure = makeApp(db, { COOKIE_SECURE: '1' });
+    const res = await request(secure.app)
+      .post('/api/auth/sign-up')
+      .send({ name: 'Sec', email: 'secure-cookie@example.test', password: 'long enough pass', teamName: 'S' });
+    expect(String(res.headers['set-cookie'])).toMatch(/Secure/);
+  });
+
+  it('refuses a second account for the same e-mail with 409', async () => {
+    const body = { name: 'Dup', email: 'dup@example.test', password: 'long enough pass', teamName: 'Dup team' };
+    expect((await request(t.app).post('/api/auth/sign-up').send(body)).status).toBe(201);
+    const again = await request(t.app).post('/api/auth/sign-up').send({ ...body, email: 'DUP@example.test' });
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ code: 'conflict', message: 'An account with this e-mail already exists' });
+  });
+
+  it('requires passwords of 10 to 200 characters, a valid e-mail and a team name', async () => {
+    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'Short', email: 'not-an-email', password: '123456789' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual({
+      email: 'Enter a valid e-mail address',
+      password: 'Password must be at least 10 characters',
+      teamName: 'Team name is required',
+    });
+    const long = await request(t.app)
+      .post('/api/auth/sign-up')
+      .send({ name: 'Long', email: 'long@example.test', password: 'x'.repeat(201), teamName: 'T' });
+    expect(long.body.error.fields.password).toBe('Password must be at most 200 characters');
+    const exactly10 = await request(t.app)
+      .post('/api/auth/sign-up')
+      .send({ name: 'Ten', email: 'ten@example.test', password: '0123456789', teamName: 'T' });
+    expect(exactly10.status).toBe(201);
+  });
+
+  it('gives unknown e-mail and wrong password the same 401 answer', async () => {
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'viewer');
+    const wrong = await request(t.app).post('/api/auth/sign-in').send({ email: u.email, password: 'not the password' });
+    const unknown = await request(t.app).post('/api/auth/sign-in').send({ email: 'nobody-here@example.test', password: 'not the password' });
+    expect(wrong.status).toBe(401);
+    expect(unknown.status).toBe(401);
+    expect(wrong.body).toEqual({ error: { code: 'invalid-credentials', message: 'E-mail or password is incorrect.' } });
+    expect(unknown.body).toEqual(wrong.body);
+  });
+
+  it('signs out: the session is invalidated server-side and the cookie cleared', async () => {
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'engineer');
+    const agent = await signedIn(t.app, u.email);
+    const cookie = (await request(t.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD })).headers['set-cookie'];
+    const out = await request(t.app).post('/api/auth/sign-out').set('Cookie', cookie);
+    expect(out.status).toBe(204);
+    expect(String(out.headers['set-cookie'])).toMatch(/wyeward_session=;/);
+    // The old cookie no longer works, even if a client kept it.
+    expect((await request(t.app).get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
+    // Another session of the same user is untouched.
+    expect((await agent.get('/api/auth/me')).status).toBe(200);
+  });
+
+  it('answers 401 unauthenticated without a session', async () => {
+    const res = await request(t.app).get('/api/studies');
+    expect(res.status).toBe(401);
+    expect(res.body.error.code).toBe('unauthenticated');
+  });
+});
+
+describe('sign-in throttling', () => {
+  it(`refuses the account after ${ACCOUNT_FAILURES} failures with 429 and a retry time, even with the right password`, async () => {
+    const limited = makeApp(db);
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'viewer');
+    for (let i = 0; i < ACCOUNT_FAILURES; i++) {
+      expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: `wrong ${i}` })).status).toBe(401);
+    }
+    const res = await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD });
+    expect(res.status).toBe(429);
+    expect(res.body.error.code).toBe('rate-limited');
+    expect(res.body.error.message).toMatch(/Try again in \d+ minutes?/);
+    const retry = res.body.error.retryAfterSeconds;
+    expect(retry).toBeGreaterThan(0);
+    expect(retry).toBeLessThanOrEqual(WINDOW_SECONDS);
+    expect(res.headers['retry-after']).toBe(String(retry));
+    // Another account from the same address is still allowed.
+    const other = await makeUser(db, team, 'viewer');
+    expect((await request(limited.app).post('/api/auth/sign-in').send({ email: other.email, password: PASSWORD })).status).toBe(200);
+  });
+
+  it('a successful sign-in clears the account count', async () => {
+    const limited = makeApp(db);
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'viewer');
+    for (let i = 0; i < ACCOUNT_FAILURES - 1; i++) await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: 'wrong wrong' });
+    expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD })).status).toBe(200);
+    for (let i = 0; i < ACCOUNT_FAILURES - 1; i++) {
+      expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: 'wrong wrong' })).status).toBe(401);
+    }
+  });
+
+  it(`refuses the address after ${ADDRESS_FAILURES} failures across different accounts`, async () => {
+    const limited = makeApp(db);
+    for (let i = 0; i < ADDRESS_FAILURES; i++) {
+      const res = await request(limited.app).post('/api/auth/sign-in').send({ email: `spray-${i}@example.test`, password: 'guess guess' });
+      expect(res.status).toBe(401);
+    }
+    const res = await request(limited.app).post('/api/auth/sign-in').send({ email: 'spray-new@example.test', password: 'guess guess' });
+    expect(res.status).toBe(429);
+    expect(res.body.error.retryAfterSeconds).toBeGreaterThan(0);
+  });
+});
+
+describe('same-origin rule', () => {
+  it('refuses state-changing requests from a foreign Origin with 403 foreign-origin', async () => {
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'engineer');
+    const agent = await signedIn(t.app, u.email);
+    for (const res of [
+      await agent.post('/api/studies').set('Origin', 'https://evil.example').send({ name: 'csrf' }),
+      await request(t.app).post('/api/auth/sign-in').set('Origin', 'http://localhost:3001').send({ email: u.email, password: PASSWORD }),
+      await agent.post('/api/auth/sign-out').set('Origin', 'null'),
+    ]) {
+      expect(res.status).toBe(403);
+      expect(res.body.error.code).toBe('foreign-origin');
+    }
+    expect((await agent.get('/api/studies')).body.total).toBe(0); // nothing was created
+    expect((await agent.get('/api/auth/me')).status).toBe(200); // and the sign-out was refused
+  });
+
+  it('lets the app origin, the request host and requests without Origin through', async () => {
+    const team = await makeTeam(db);
+    const u = await makeUser(db, team, 'engineer');
+    const agent = await signedIn(t.app, u.email);
+    expect((await agent.post('/api/studies').set('Origin', APP_URL).send({ name: 'same origin' })).status).toBe(201);
+    expect((await agent.post('/api/studies').set('Host', 'wyeward.internal:8080').set('Origin', 'http://wyeward.internal:8080').send({ name: 'by host' })).status).toBe(201);
+    expect((await agent.post('/api/studies').send({ name: 'no origin' })).status).toBe(201);
+    // Reads are never refused for their Origin.
+    expect((await agent.get('/api/studies').set('Origin', 'https://evil.example')).status).toBe(200);
+  });
+});
+
+describe('invites and roles', () => {
+  it('owner invites by e-mail; the mail is written; the invitee signs up with the token and gets the role', async () => {
+    const team = await makeTeam(db, 'Invite team');
+    const o = await makeUser(db, team, 'owner', 'Ines Owner');
+    const owner = await signedIn(t.app, o.email);
+    const inv = await owner.post('/api/team/invites').send({ email: 'New.Engineer@Example.test', role: 'engineer' });
+    expect(inv.status).toBe(201);
+    expect(inv.body).toMatchObject({ email: 'new.engineer@example.test', role: 'engineer', invitedBy: { id: o.id, name: 'Ines Owner' } });
+    const days = (Date.parse(inv.body.expiresAt) - Date.parse(inv.body.createdAt)) / 86_400_000;
+    expect(days).toBeCloseTo(7, 2);
+
+    // The message is on disk as .eml and listed for the owner.
+    const emls = readdirSync(t.mailDir).filter((f) => f.endsWith('.eml'));
+    expect(emls.length).toBeGreaterThan(0);
+    const list = await owner.get('/api/mail');
+    expect(list.body.items[0]).toMatchObject({ to: 'new.engineer@example.test', subject: 'Ines Owner invites you to Invite team on Wyeward' });
+    const mail = await owner.get(`/api/mail/${list.body.items[0].id}`);
+    const eml = readFileSync(path.join(t.mailDir, `${list.body.items[0].id}.eml`), 'utf8');
+    expect(eml).toMatch(/^To: new\.engineer@example\.test$/m);
+    const link = mail.body.text.match(/http:\/\/localhost:3000\/invite\/([A-Za-z0-9_-]+)/);
+    expect(link).not.toBeNull();
+    const token = link![1];
+    expect(eml.replace(/=\n/g, '')).toContain(token); // quoted-printable soft line breaks removed
+
+    // The public invite page data.
+    const info = await request(t.app).get(`/api/invites/${token}`);
+    expect(info.body).toMatchObject({ email: 'new.engineer@example.test', role: 'engineer', teamName: 'Invite team' });
+
+    // Wrong address is refused; the right one joins with the invited role.
+    const wrongEmail = await request(t.app).post('/api/auth/sign-up').send({ name: 'X', email: 'other@example.test', password: PASSWORD, inviteToken: token });
+    expect(wrongEmail.status).toBe(400);
+    expect(wrongEmail.body.error.fields).toHaveProperty('email');
+    const invitee = request.agent(t.app);
+    const joined = await invitee.post('/api/auth/sign-up').send({ name: 'Nico Engineer', email: 'new.engineer@example.test', password: PASSWORD, inviteToken: token });
+    expect(joined.status).toBe(201);
+    expect(joined.body).toMatchObject({ team: { id: team, name: 'Invite team' }, role: 'engineer' });
+    expect((await invitee.post('/api/studies').send({ name: 'first study' })).status).toBe(201);
+
+    // The token is spent, and the invite is no longer pending.
+    expect((await request(t.app).get(`/api/invites/${token}`)).status).toBe(404);
+    expect((await owner.get('/api/team')).body.invites).toEqual([]);
+    const actions = (await owner.get('/api/audit')).body.items.map((e: { action: string }) => e.action);
+    expect(actions).toEqual(expect.arrayContaining(['invite.create', 'invite.accept', 'user.sign-up', 'study.create']));
+  });
+
+  it('a revoked or unknown token is 404 and cannot be used to sign up', async () => {
+    const team = await makeTeam(db);
+    const o = await makeUser(db, team, 'owner');
+    const owner = await signedIn(t.app, o.email);
+    const inv = await owner.post('/api/team/invites').send({ email: 'revoked@example.test', role: 'viewer' });
+    const [latest] = (await owner.get('/api/mail')).body.items;
+    const token = (await owner.get(`/api/mail/${latest.id}`)).body.text.match(/invite\/([A-Za-z0-9_-]+)/)[1];
+    expect((await owner.delete(`/api/team/invites/${inv.body.id}`)).status).toBe(204);
+    expect((await request(t.app).get(`/api/invites/${token}`)).status).toBe(404);
+    expect((await request(t.app).get('/api/invites/nonsense')).status).toBe(404);
+    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'R', email: 'revoked@example.test', password: PASSWORD, inviteToken: token });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveProperty('inviteToken');
+  });
+
+  it('lists invites to owners only', async () => {
+    const team = await makeTeam(db);
+    const o = await makeUser(db, team, 'owner');
+    const e = await makeUser(db, team, 'engineer');
+    const owner = await signedIn(t.app, o.email);
+    await owner.post('/api/team/invites').send({ email: 'listed@example.test', role: 'reviewer' });
+    expect((await owner.get('/api/team')).body.invites).toHaveLength(1);
+    const eng = await signedIn(t.app, e.email);
+    const seen = await eng.get('/api/team');
+    expect(seen.body.invites).toEqual([]);
+    expect(seen.body.members).toHaveLength(2);
+  });
+
+  it('owner changes roles, and the new role takes effect on the next request', async () => {
+    const team = await makeTeam(db);
+    const o = await makeUser(db, team, 'owner');
+    const v = await makeUser(db, team, 'viewer');
+    const owner = await signedIn(t.app, o.email);
+    const viewer = await signedIn(t.app, v.email);
+    expect((await viewer.post('/api/studies').send({ name: 'not yet' })).status).toBe(403);
+    const res = await owner.patch(`/api/team/members/${v.id}`).send({ role: 'engineer' });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ userId: v.id, role: 'engineer' });
+    expect((await viewer.post('/api/studies').send({ name: 'now allowed' })).status).toBe(201);
+    expect((await owner.patch(`/api/team/members/${v.id}`).send({ role: 'boss' })).status).toBe(400);
+  });
+
+  it('keeps at least one owner: the last owner can be neither demoted nor removed', async () => {
+    const team = await makeTeam(db);
+    const o = await makeUser(db, team, 'owner');
+    const owner = await signedIn(t.app, o.email);
+    const demote = await owner.patch(`/api/team/members/${o.id}`).send({ role: 'engineer' });
+    expect(demote.status).toBe(409);
+    expect(demote.body.error.code).toBe('conflict');
+    expect((await owner.delete(`/api/team/members/${o.id}`)).status).toBe(409);
+    // With a second owner, demotion works.
+    const o2 = await makeUser(db, team, 'owner');
+    expect((await owner.patch(`/api/team/members/${o2.id}`).send({ role: 'reviewer' })).status).toBe(200);
+  });
+
+  it('a removed member is signed out and refused', async () => {
+    const team = await makeTeam(db);
+    const o = await makeUser(db, team, 'owner');
+    const e = await makeUser(db, team, 'engineer');
+    const owner = await signedIn(t.app, o.email);
+    const eng = await signedIn(t.app, e.email);
+    expect((await owner.delete(`/api/team/members/${e.id}`)).status).toBe(204);
+    expect((await eng.get('/api/studies')).status).toBe(401);
+    const again = await request(t.app).post('/api/auth/sign-in').send({ email: e.email, password: PASSWORD });
+    expect(again.status).toBe(403);
+    expect((await owner.get('/api/team')).body.members.map((m: { userId: string }) => m.userId)).toEqual([o.id]);
+  });
+});
