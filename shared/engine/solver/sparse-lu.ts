@@ -65,7 +65,7 @@ export function analyzePattern(
   // 3. transpose positions (binary search in sorted columns)
   const tpos = new Int32Array(nnz);
   for (let j = 0; j < n; j++) {
-    for (let q = colPtr[j]; q < colPtr[j + 1]; q++) tpos[q] = findPos(colPtr, rowIdx, rowIdx[q], j);
+    for (let q = colPtr[j]; q < colPtr[j + 1]; q++) tpos[q] = findPos(colPtr, rowIdx, j, rowIdx[q]);
   }
   // 4. elimination tree and column counts of L (Davis, LDL symbolic)
   const parent = new Int32Array(n).fill(-1);
