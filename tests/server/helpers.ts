@@ -68,12 +68,19 @@ export async function signedIn(app: TestApp['app'], email: string, password = PA
   return agent;
 }
 
-/** A circuit with `n` elements that passes the API's envelope check (the element bodies are opaque to it). */
+/** Study content whose circuit has `n` single-phase loads on one bus: valid for the engine's parser (not a solvable network). */
 export function circuitWith(n: number) {
   return {
     circuit: {
       ...emptyStudyContent().circuit,
-      elements: Array.from({ length: n }, (_, i) => ({ id: `el${i}`, type: 'placeholder' })),
+      elements: Array.from({ length: n }, (_, i) => ({
+        type: 'load',
+        id: `LOAD-${i + 1}`,
+        bus: 'B1',
+        connection: 'single',
+        between: ['a', 'n'],
+        each: { kw: 1 + i, kvar: 0.1 },
+      })),
     },
   };
 }

@@ -264,3 +264,27 @@ describe('errors', () => {
     }
   });
 });
+
+describe('circuit validation by the engine', () => {
+  it('refuses a circuit the engine cannot read, naming the element and field', async () => {
+    const content = circuitWith(2);
+    (content.circuit.elements[1] as Record<string, unknown>).each = { kw: 'lots', kvar: 0 };
+    content.circuit.elements.push({ ...content.circuit.elements[0], type: 'flux-capacitor' } as (typeof content.circuit.elements)[number]);
+    const res = await engineer.post('/api/studies').send({ name: 'Bad circuit', content });
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('validation');
+    const keys = Object.keys(res.body.error.fields);
+    expect(keys.some((k) => k.startsWith('content.circuit.elements[1].each'))).toBe(true);
+    expect(res.body.error.fields['content.circuit.elements[2].type']).toMatch(/unknown element type "flux-capacitor"/);
+  });
+
+  it('refuses invalid circuit content on PATCH and keeps the stored study', async () => {
+    const { id } = await create(engineer, { name: 'Keeps content', content: circuitWith(1) });
+    const bad = { circuit: { ...circuitWith(1).circuit, elements: [{ type: 'load', id: 'X' }] } };
+    const res = await engineer.patch(`/api/studies/${id}`).send({ version: 1, content: bad });
+    expect(res.status).toBe(400);
+    const now = await engineer.get(`/api/studies/${id}`);
+    expect(now.body.version).toBe(1);
+    expect(now.body.content).toEqual(circuitWith(1));
+  });
+});

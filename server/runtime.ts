@@ -1,0 +1,65 @@
+/** What `npm start` (index.ts) and `npm run dev` (dev.ts) share: open the database, seed, build the app, listen, shut down cleanly. */
+import type { Server } from 'node:http';
+import path from 'node:path';
+import type { Express } from 'express';
+import { createApp } from './app.ts';
+import type { Config } from './config.ts';
+import { DEMO_ACCOUNTS } from './db/demo-accounts.ts';
+import { closeDb, openDb } from './db/index.ts';
+import { seedDemo } from './db/seed.ts';
+import { createMailer } from './mail/index.ts';
+
+/** The project root (the directory holding package.json). */
+export const ROOT = path.resolve(import.meta.dirname, '..');
+
+/** Opens (and migrates) the database under DATA_DIR and, in demo mode, seeds the demo team into an empty one. */
+export async function prepareDatabase(config: Config, log: (msg: string) => void = console.log) {
+  const db = await openDb({ dataDir: path.join(config.dataDir, 'pglite') });
+  if (config.demo) {
+    const seeded = await seedDemo(db);
+    if (seeded.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);
+  }
+  return db;
+}
+
+/** Opens the database, seeds the demo team when asked, and serves the app with the given client. */
+export async function run(config: Config, mountClient: (app: Express) => void, onClose: () => Promise<void> = async () => {}) {
+  const started = Date.now();
+  const db = await prepareDatabase(config);
+  const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl });
+  const app = createApp({ db, config, mailer, mountClient });
+
+  const server: Server = await new Promise((resolve, reject) => {
+    const s = app.listen(config.port, (err?: Error) => (err ? reject(err) : resolve(s)));
+  });
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.port;
+  console.log(`Wyeward is running at http://localhost:${port} (data in ${config.dataDir}; started in ${((Date.now() - started) / 1000).toFixed(1)} s)`);
+  if (config.demo) {
+    console.log('Demo mode is on (DEMO=0 turns it off). Demo accounts:');
+    for (const a of DEMO_ACCOUNTS) console.log(`  ${a.role.padEnd(9)} ${a.email}  password: ${a.password}`);
+  }
+  console.log(
+    'Caution: Wyeward is an engineering aid; results are only as good as the model. Designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.',
+  );
+
+  let closing = false;
+  const shutdown = async (signal: string) => {
+    if (closing) return;
+    closing = true;
+    console.log(`${signal} received: closing…`);
+    server.close();
+    server.closeAllConnections();
+    try {
+      await onClose();
+      await closeDb(db);
+      process.exit(0);
+    } catch (err) {
+      console.error('Error while closing:', err);
+      process.exit(1);
+    }
+  };
+  process.on('SIGTERM', () => void shutdown('SIGTERM'));
+  process.on('SIGINT', () => void shutdown('SIGINT'));
+  return { server, db };
+}
