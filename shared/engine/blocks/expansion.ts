@@ -15,6 +15,8 @@ export interface TaggedPrimitive {
   phase?: string;
   /** 'emf': source EMF (its power is source power); 'earth': bond to earth (its current is earth current); 'winding': transformer unit. */
   role?: 'emf' | 'earth' | 'winding';
+  /** Set when the primitive is left out of the solve (a solid earth bond merged with an earlier one); says which. */
+  mergedInto?: string;
 }
 
 /** A connection of a block to a bus: one node per conductor. */

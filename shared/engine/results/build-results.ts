@@ -102,6 +102,7 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
   const V = (n: string): Cx => sol.nodeVolts.get(n) ?? ZERO;
   const into = new Map<string, Cx>();
   const perPhase = new Map<string, Cx>();
+  const branch = new Map<string, Cx>();
   let absorbed = ZERO;
   let emf: Cx | undefined;
   for (const t of e.primitives) {
@@ -119,6 +120,7 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
       if (t.phase) perPhase.set(t.phase, add(perPhase.get(t.phase) ?? ZERO, sEmf));
     } else if (t.phase && e.category !== 'source') {
       perPhase.set(t.phase, add(perPhase.get(t.phase) ?? ZERO, sPrim));
+      if (t.prim.type === 'impedance' || t.prim.type === 'zipLoad' || t.prim.type === 'switch') branch.set(t.phase, I[0]);
     }
   }
   if (e.type === 'currentSource') emf = neg(absorbed);
@@ -155,6 +157,7 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
     const [ia, ib, ic] = ['a', 'b', 'c'].map((c) => ({ re: ix(c).re, im: ix(c).im }));
     result.sequenceCurrents = seqPhasors(sequenceComponents(ia, ib, ic, sequence));
   }
+  if (branch.size > 0) result.branchCurrents = Object.fromEntries([...branch].map(([k, v]) => [k, toPhasor(v)]));
   if (perPhase.size > 0) result.powerPerPhase = Object.fromEntries([...perPhase].map(([k, v]) => [k, toPhasor(v)]));
   let internalLoss: Cx | undefined;
   if (isSource && emf) {

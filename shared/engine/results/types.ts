@@ -73,6 +73,8 @@ export interface ElementResult {
   sequenceCurrents?: SequenceResult;
   /** Complex power absorbed by the element (load convention), VA; for sources the power they deliver at their terminals. */
   power: Phasor;
+  /** Loads, capacitor banks, faults: current of each branch (label → A), from its first to its second conductor (delta: ab, bc, ca). */
+  branchCurrents?: Record<string, Phasor>;
   /** Per phase (branch label → VA): absorbed for loads, EMF power delivered for sources. */
   powerPerPhase?: Record<string, Phasor>;
   /** Sources: power delivered by the EMFs (before internal impedance), VA. */
