@@ -2,7 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, type RouteObject } from 'react-router';
 import { RouteError } from '../components/route-error.tsx';
 import { AcceptInviteRoute } from './routes/accept-invite.tsx';
-import { AppLayout, appLayoutLoader } from './routes/app-layout.tsx';
+import { AppLayout, AppLayoutFallback, appLayoutLoader } from './routes/app-layout.tsx';
 import { NotFoundRoute } from './routes/not-found.tsx';
 import { SignInRoute } from './routes/sign-in.tsx';
 import { SignUpRoute } from './routes/sign-up.tsx';
@@ -18,6 +18,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
       path: '/',
       element: <AppLayout />,
       loader: appLayoutLoader(queryClient),
+      hydrateFallbackElement: <AppLayoutFallback />,
       errorElement: <RouteError />,
       children: [
         { index: true, element: <StudiesRoute />, errorElement: <RouteError /> },

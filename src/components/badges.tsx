@@ -26,7 +26,7 @@ export function StatusBadge({ status }: { status: StudyStatus }) {
 export function TemplateBadge() {
   return (
     <span className={`${BASE} border-accent/50 bg-accent-soft text-accent`}>
-      <span aria-hidden="true">⧉</span>
+      <span aria-hidden="true">◇</span>
       Template
     </span>
   );

@@ -1,7 +1,7 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 const CONTROL =
-  'w-full rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
+  'rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
 
 interface FieldShellProps {
   id: string;
@@ -53,7 +53,7 @@ export const TextField = forwardRef<HTMLInputElement, TextFieldProps>(function T
         id={fieldId}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(fieldId, error, hint)}
-        className={`${CONTROL} h-8 ${className}`}
+        className={`${CONTROL} h-8 w-full ${className}`}
         {...rest}
       />
     </FieldShell>
@@ -76,7 +76,7 @@ export const TextAreaField = forwardRef<HTMLTextAreaElement, TextAreaFieldProps>
         id={fieldId}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(fieldId, error, hint)}
-        className={`${CONTROL} min-h-20 ${className}`}
+        className={`${CONTROL} min-h-20 w-full ${className}`}
         {...rest}
       />
     </FieldShell>
@@ -99,7 +99,7 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
         id={fieldId}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(fieldId, error, hint)}
-        className={`${CONTROL} h-8 ${className}`}
+        className={`${CONTROL} h-8 w-full ${className}`}
         {...rest}
       >
         {children}

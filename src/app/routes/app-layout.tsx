@@ -24,8 +24,21 @@ export function appLayoutLoader(queryClient: QueryClient) {
   };
 }
 
-const NAV_LINK = ({ isActive }: { isActive: boolean }) =>
+const navClass = (isActive: boolean) =>
   `rounded-[3px] px-2 py-1 text-[13px] font-semibold ${isActive ? 'bg-console-ink/15 text-white underline decoration-2 underline-offset-[6px]' : 'text-console-muted hover:text-white'}`;
+const NAV_LINK = ({ isActive }: { isActive: boolean }) => navClass(isActive);
+
+/** Shown while the first signed-in page checks the session. */
+export function AppLayoutFallback() {
+  return (
+    <div className="min-h-screen bg-paper">
+      <div className="h-10 bg-console" />
+      <p role="status" className="px-6 py-5 text-sm text-ink-muted">
+        Loading Wyeward…
+      </p>
+    </div>
+  );
+}
 
 /** Header (product, nav, team, user, role, sign-out), the page, and the safety caution. */
 export function AppLayout() {
@@ -48,7 +61,8 @@ export function AppLayout() {
             Wyeward
           </Link>
           <nav aria-label="Main" className="flex items-center gap-1">
-            <NavLink to="/" end className={NAV_LINK}>
+            {/* The list and every study page belong to "Studies". */}
+            <NavLink to="/" className={() => navClass(location.pathname === '/' || location.pathname.startsWith('/studies/'))}>
               Studies
             </NavLink>
             <NavLink to="/team" end className={NAV_LINK}>

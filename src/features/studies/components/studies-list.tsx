@@ -92,7 +92,7 @@ export function StudiesList({ role }: { role: Role }) {
   const pageCount = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
   return (
-    <div className="mx-auto max-w-6xl">
+    <div className="mx-auto max-w-7xl">
       <div className="flex flex-wrap items-end gap-3">
         <div>
           <h1 className="text-lg">Studies</h1>

@@ -46,11 +46,16 @@ function buildColumns(actions: StudyRowActions) {
       cell: (info) => (info.getValue() ? <TemplateBadge /> : <span className="text-ink-faint">—<span className="sr-only">not a template</span></span>),
     }),
     helper.accessor('version', { header: 'Version', enableSorting: false, cell: (info) => <span className="num">v{info.getValue()}</span> }),
-    helper.accessor((row) => row.updatedBy.name, { id: 'updatedBy', header: 'Updated by', enableSorting: false }),
+    helper.accessor((row) => row.updatedBy.name, {
+      id: 'updatedBy',
+      header: 'Updated by',
+      enableSorting: false,
+      cell: (info) => <span className="whitespace-nowrap">{info.getValue()}</span>,
+    }),
     helper.accessor('updatedAt', {
       header: 'Updated at',
       enableSorting: true,
-      cell: (info) => <time dateTime={info.getValue()} className="num text-[13px]">{formatDateTime(info.getValue())}</time>,
+      cell: (info) => <time dateTime={info.getValue()} className="num text-[13px] whitespace-nowrap">{formatDateTime(info.getValue())}</time>,
     }),
     helper.accessor('elementCount', {
       header: 'Elements',
@@ -121,7 +126,7 @@ export function StudiesTable({ rows, sort, dir, onSortChange, canWrite, onClone,
                   key={header.id}
                   scope="col"
                   aria-sort={canSort ? (sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none') : undefined}
-                  className={`px-2 py-1.5 text-left text-[12px] font-semibold uppercase tracking-wide text-ink-muted ${NUMERIC.has(header.column.id) ? 'text-right' : ''}`}
+                  className={`px-2 py-1.5 text-left text-[12px] font-semibold uppercase tracking-wide whitespace-nowrap text-ink-muted ${NUMERIC.has(header.column.id) ? 'text-right' : ''}`}
                 >
                   {header.isPlaceholder ? null : canSort ? (
                     <button

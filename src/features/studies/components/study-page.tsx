@@ -44,7 +44,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
   const s = study.data;
 
   return (
-    <div className="mx-auto flex max-w-5xl flex-col gap-4">
+    <div className="mx-auto flex max-w-6xl flex-col gap-4">
       <nav aria-label="Breadcrumb" className="text-[13px] text-ink-muted">
         <Link to="/" className="text-accent hover:underline">
           Studies

@@ -5,6 +5,26 @@ import { formatDateTime } from '../../../lib/format.ts';
 import { useMail } from '../api/get-mail.ts';
 import { useMailMessage } from '../api/get-mail-message.ts';
 
+const URL_PATTERN = /(https?:\/\/[^\s<>"]+)/g;
+
+/** Plain message text with its web addresses made into links (an invite link can be followed from here). */
+function MessageText({ text }: { text: string }) {
+  const parts = text.split(URL_PATTERN);
+  return (
+    <>
+      {parts.map((part, i) =>
+        i % 2 === 1 ? (
+          <a key={i} href={part} className="num break-all text-accent underline underline-offset-2">
+            {part}
+          </a>
+        ) : (
+          <span key={i}>{part}</span>
+        ),
+      )}
+    </>
+  );
+}
+
 /** Outgoing mail (owner): what the server sent, so invitations can be followed without a mail server. */
 export function MailPage() {
   const mail = useMail();
@@ -75,8 +95,10 @@ export function MailPage() {
                   <dd className="num">{formatDateTime(message.data.sentAt)}</dd>
                 </dl>
               </header>
-              {/* The plain-text part only: no sender-supplied HTML is rendered in the app. */}
-              <pre className="num overflow-x-auto px-4 py-3 text-[13px] whitespace-pre-wrap break-words">{message.data.text}</pre>
+              {/* The plain-text part only: no HTML from a message is rendered in the app. */}
+              <div className="px-4 py-3 text-sm whitespace-pre-wrap break-words">
+                <MessageText text={message.data.text} />
+              </div>
             </article>
           )}
         </section>

@@ -44,7 +44,7 @@ export function Members({ members, meId, canManage }: { members: Member[]; meId:
         <tbody>
           {members.map((m) => (
             <tr key={m.userId} className="border-b border-rule align-top last:border-b-0">
-              <td className="px-4 py-1.5 font-semibold">
+              <td className="px-4 py-1.5 font-semibold whitespace-nowrap">
                 {m.name}
                 {m.userId === meId ? <span className="ml-1 font-normal text-ink-muted">(you)</span> : null}
               </td>
@@ -53,7 +53,7 @@ export function Members({ members, meId, canManage }: { members: Member[]; meId:
                 {canManage ? (
                   <select
                     aria-label={`Role of ${m.name}`}
-                    className={`${controlClass} w-32`}
+                    className={`${controlClass} w-28`}
                     value={m.role}
                     disabled={updateRole.isPending && updateRole.variables?.userId === m.userId}
                     onChange={(e) => changeRole(m, e.target.value as Role)}
@@ -74,7 +74,7 @@ export function Members({ members, meId, canManage }: { members: Member[]; meId:
                   </p>
                 ) : null}
               </td>
-              <td className="num px-2 py-1.5 text-[13px]">{formatDateTime(m.joinedAt)}</td>
+              <td className="num px-2 py-1.5 text-[13px] whitespace-nowrap">{formatDateTime(m.joinedAt)}</td>
               {canManage ? (
                 <td className="px-2 py-1.5 text-right">
                   <Button size="sm" variant="danger" aria-label={`Remove ${m.name} from the team`} onClick={() => { remove.reset(); setToRemove(m); }}>

@@ -15,7 +15,7 @@ export function TeamPage({ me }: { me: Me }) {
   if (team.isError) return <Notice tone="error" title="The team could not be loaded.">{team.error.message}</Notice>;
   const t = team.data;
   return (
-    <div className="mx-auto flex max-w-5xl flex-col gap-4">
+    <div className="mx-auto flex max-w-6xl flex-col gap-4">
       <div>
         <h1 className="text-lg">{t.team.name}</h1>
         <p className="text-[13px] text-ink-muted">
