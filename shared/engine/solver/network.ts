@@ -17,8 +17,10 @@
  * coupled-branch conductors, closed switches, zip loads, admittance stamps through their non-zero
  * off-diagonal entries, and to earth through a non-zero row sum) that do not contain earth are
  * floating. Each is solved with a reference node held at 0 V to earth. Reference rule: among the
- * island's nodes sorted by name, the first whose last name segment (after '.', ':', '/', '_' or
- * '-') is "n", "neutral" or "star" (case-insensitive), else the first node in sorted order.
+ * island's nodes sorted by name (code-unit order), the first whose last name segment (after '.',
+ * ':', '/', '_' or '-') is "n" or "neutral" (case-insensitive); else the first whose last segment
+ * is "star"; else the first node in sorted order. So an unearthed wye source is referred to its
+ * neutral, and phase voltages "to earth" read as line-to-neutral voltages.
  * Parts that are only *numerically* floating (a delta winding coupled to the rest only through a
  * transformer admittance stamp) are found by the LU's rank-revealing border; their reference is
  * the node (supernode root) whose pivot vanished, chosen deterministically by the elimination order.
@@ -171,7 +173,8 @@ class Dsu {
   }
 }
 
-const NEUTRAL_NAME = /(^|[.:/_-])(n|neutral|star)$/i;
+const NEUTRAL_NAME = /(^|[.:/_-])(n|neutral)$/i;
+const STAR_NAME = /(^|[.:/_-])star$/i;
 
 function cabs(c: Cx): number {
   return Math.hypot(c.re, c.im);
@@ -351,7 +354,7 @@ function buildTopology(prims: Primitive[]): Topology {
   for (const [root, members] of compMembers) {
     if (root === earthRoot) continue;
     const names = members.map((i) => nodeNames[i]).sort();
-    const ref = names.find((s) => NEUTRAL_NAME.test(s)) ?? names[0];
+    const ref = names.find((s) => NEUTRAL_NAME.test(s)) ?? names.find((s) => STAR_NAME.test(s)) ?? names[0];
     islandOfRoot.set(root, islands.length);
     islands.push({ island: { nodes: names, referenceNode: ref }, nodeSet: Int32Array.from(members), currentSources: [] });
   }
@@ -759,7 +762,7 @@ function solveTopology(
     };
     for (let a = 0; a < nz; a++) [prevRe[a], prevIm[a]] = terminal(a);
     let converged = false;
-    let lastChange = new Float64Array(nz);
+    const lastChange = new Float64Array(nz);
     while (iterations < maxIter) {
       // correction c = I(V) − y0·V for each load, injected as −c at `from`, +c at `to`
       bRe.set(asm.rhsRe);
@@ -807,8 +810,7 @@ function solveTopology(
       }
       if (!(worst < 1e3)) break; // diverging
     }
-    if (!converged) throw nonConvergence(t, prims, zipIdx, vRe, vIm, lastChange, iterations, lowPu);
-    lastChange = lastChange.fill(0);
+    if (!converged) throw nonConvergence(t, prims, zipIdx, vRe, vIm, corrRe, corrIm, lastChange, iterations, lowPu);
   }
   const tSol = now();
 
@@ -860,11 +862,16 @@ function checkCurrentSourceCutSets(t: Topology, prims: Primitive[]): void {
     }
     if (Math.hypot(re, im) > 1e-12 * scale && scale > 0) {
       const ids = isl.currentSources.map((k) => prims[k].id);
+      const names = isl.island.nodes;
+      const where =
+        names.length === 1
+          ? `node '${names[0]}', which has`
+          : `nodes ${names
+              .slice(0, 6)
+              .map((s) => `'${s}'`)
+              .join(', ')}${names.length > 6 ? ', …' : ''}, which have`;
       throw new IllPosedNetworkError(
-        `Current source${ids.length > 1 ? 's' : ''} ${ids.map((s) => `'${s}'`).join(', ')} drive${ids.length > 1 ? '' : 's'} a net ${+Math.hypot(re, im).toPrecision(6)} A into nodes ${isl.island.nodes
-          .slice(0, 6)
-          .map((s) => `'${s}'`)
-          .join(', ')}${isl.island.nodes.length > 6 ? ', …' : ''} that have no other path back: the current has nowhere to flow.`,
+        `Current source${ids.length > 1 ? 's' : ''} ${ids.map((s) => `'${s}'`).join(', ')} drive${ids.length > 1 ? '' : 's'} a net ${+Math.hypot(re, im).toPrecision(6)} A into ${where} no other connection to the network: the current has nowhere to flow.`,
         { elementIds: ids, nodes: isl.island.nodes },
       );
     }
@@ -893,24 +900,43 @@ function nonConvergence(
   zipIdx: number[],
   vRe: Float64Array,
   vIm: Float64Array,
+  corrRe: Float64Array,
+  corrIm: Float64Array,
   lastChange: Float64Array,
   iterations: number,
   lowPu: number,
 ): NonConvergenceError {
-  // worst mismatch: the load whose voltage still moved most in the last iteration
+  // Worst mismatch: the load whose law I(V) differs most, in VA, from the current the last linear
+  // solve gave it (y0·V + correction), at the last voltages.
   let worst = 0;
-  for (let a = 1; a < zipIdx.length; a++) if (!(lastChange[a] <= lastChange[worst])) worst = a;
+  let worstVa = -1;
+  const mismatch = new Float64Array(zipIdx.length);
+  for (let a = 0; a < zipIdx.length; a++) {
+    const e = prims[zipIdx[a]] as ZipLoad;
+    const [f, to] = t.elNodes[zipIdx[a]];
+    const vr = vRe[f] - vRe[to];
+    const vi = vIm[f] - vIm[to];
+    const v2 = e.ratedVolts * e.ratedVolts;
+    const y0r = e.ratedVA.re / v2;
+    const y0i = -e.ratedVA.im / v2;
+    const [ir, ii] = zipCurrent(e, vr, vi, lowPu);
+    const dr = y0r * vr - y0i * vi + corrRe[a] - ir;
+    const di = y0r * vi + y0i * vr + corrIm[a] - ii;
+    const va = Math.hypot(vr, vi) * Math.hypot(dr, di);
+    mismatch[a] = Number.isFinite(va) ? va : Infinity;
+    if (mismatch[a] > worstVa) {
+      worstVa = mismatch[a];
+      worst = a;
+    }
+  }
   const e = prims[zipIdx[worst]] as ZipLoad;
   const [f, to] = t.elNodes[zipIdx[worst]];
   const vr = vRe[f] - vRe[to];
   const vi = vIm[f] - vIm[to];
   const pu = Math.hypot(vr, vi) / e.ratedVolts;
-  const [ir, ii] = zipCurrent(e, vr, vi, lowPu);
-  const sr = vr * ir + vi * ii;
-  const si = vi * ir - vr * ii;
   const puText = Number.isFinite(pu) ? `${pu.toFixed(3)} pu` : 'not finite';
   return new NonConvergenceError(
-    `Voltage-dependent loads did not converge in ${iterations} iterations (possible voltage collapse: the loads ask for more power than the network can deliver). Worst mismatch at load '${e.id}': terminal voltage ${puText}, last change ${lastChange[worst].toExponential(2)} pu, drawing ${+sr.toPrecision(4)} + j${+si.toPrecision(4)} VA of ${e.ratedVA.re} + j${e.ratedVA.im} VA rated.`,
+    `Voltage-dependent loads did not converge in ${iterations} iterations (possible voltage collapse: the loads ask for more power than the network can deliver). Worst mismatch at load '${e.id}': ${+mismatch[worst].toPrecision(4)} VA at terminal voltage ${puText} (last change ${lastChange[worst].toExponential(2)} pu; rated ${e.ratedVA.re} + j${e.ratedVA.im} VA at ${e.ratedVolts} V).`,
     { elementIds: [e.id], nodes: [e.from, e.to] },
   );
 }

@@ -133,7 +133,7 @@ export function validatePrimitives(prims: readonly Primitive[]): void {
           push('zip', `${name}: 'zip' must hold finite fractions z, i, p`);
         } else {
           const s = (zip.z as number) + (zip.i as number) + (zip.p as number);
-          if (Math.abs(s - 1) > 1e-6) push('zip', `${name}: zip fractions must sum to 1 (got ${s})`);
+          if (Math.abs(s - 1) > 1e-6) push('zip', `${name}: zip fractions must sum to 1 (got ${+s.toPrecision(6)})`);
         }
         break;
       }

@@ -148,7 +148,7 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): { 
   // --- transformer-like stamps: three single-phase units, wye primary on bus 1, unearthed delta secondary
   if (chance(0.25)) {
     const y = { re: between(0.5, 2), im: -between(2, 8) }; // leakage admittance
-    const a = between(0.2, 0.6); // turns ratio (secondary/primary)
+    const a = between(0.2, 0.6); // the stamp forces V_primary = a·V_secondary at no load
     const wind = [['a', 'd.a', 'd.b'], ['b', 'd.b', 'd.c'], ['c', 'd.c', 'd.a']] as const;
     for (const [p, s1, s2] of wind) {
       const v = [1, -1, -a, a];

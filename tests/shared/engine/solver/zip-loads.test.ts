@@ -1,0 +1,117 @@
+/**
+ * Voltage-dependent (ZIP) loads: the iteration converges to S = V·I* at the solved voltage for
+ * each part (constant impedance ∝ V², constant current ∝ V, constant power), agrees with the
+ * closed-form solution of a source feeding a constant-power load, follows the documented
+ * low-voltage rule, and reports non-convergence naming the worst load.
+ */
+import { describe, expect, it } from 'vitest';
+import { NonConvergenceError } from '../../../../shared/engine/errors.ts';
+import { solvePrimitives } from '../../../../shared/engine/solver/index.ts';
+import type { Cx, Primitive, PrimitiveSolution } from '../../../../shared/engine/types.ts';
+import { cabs, expectInvariants, polar } from '../helpers/invariants.ts';
+
+const source = (r: number, x: number): Primitive => ({ type: 'voltageSource', id: 'V', plus: 's', minus: 'earth', volts: { re: 230, im: 0 }, seriesOhms: { re: r, im: x } });
+const load = (id: string, from: string, to: string, va: Cx, zip: { z: number; i: number; p: number }, ratedVolts = 230): Primitive => ({ type: 'zipLoad', id, from, to, ratedVolts, ratedVA: va, zip });
+
+/** S = V·I* drawn by a two-terminal load at its solved terminal voltage. */
+function drawn(sol: PrimitiveSolution, id: string, from: string, to: string): { s: Cx; v: number } {
+  const vf = sol.nodeVolts.get(from)!;
+  const vt = sol.nodeVolts.get(to)!;
+  const v = { re: vf.re - vt.re, im: vf.im - vt.im };
+  const i = sol.elementCurrents.get(id)![0];
+  return { s: { re: v.re * i.re + v.im * i.im, im: v.im * i.re - v.re * i.im }, v: cabs(v) };
+}
+
+describe('zip loads', () => {
+  it('constant power behind a resistance matches the closed form V = (E + √(E² − 4PR))/2 (C)', () => {
+    // E = 230 V, R = 1 Ω, P = 5 kW at unity power factor: V² − E·V + P·R = 0, upper root
+    const prims = [source(1, 0), load('L', 's', 'earth', { re: 5000, im: 0 }, { z: 0, i: 0, p: 1 })];
+    const sol = solvePrimitives(prims);
+    expectInvariants(prims, sol);
+    const { s, v } = drawn(sol, 'L', 's', 'earth');
+    expect(v).toBeCloseTo((230 + Math.sqrt(230 * 230 - 4 * 5000)) / 2, 6);
+    expect(Math.abs(s.re - 5000)).toBeLessThan(5000 * 1e-8);
+    expect(Math.abs(s.im)).toBeLessThan(5000 * 1e-8);
+    expect(sol.iterations).toBeGreaterThan(1);
+  });
+
+  it('each part draws its law at the solved voltage: z·S·v², i·S·v, p·S (v in per unit) (P)', () => {
+    const S: Cx = { re: 3000, im: 1000 };
+    const zip = { z: 0.3, i: 0.3, p: 0.4 };
+    const prims: Primitive[] = [
+      source(0.4, 0.8),
+      { type: 'impedance', id: 'line', from: 's', to: 'b', ohms: { re: 0.3, im: 0.2 } },
+      load('Lzip', 'b', 'earth', S, zip),
+      load('Lz', 'b', 'earth', S, { z: 1, i: 0, p: 0 }),
+      load('Li', 'b', 'earth', S, { z: 0, i: 1, p: 0 }),
+      load('Lp', 'b', 'earth', S, { z: 0, i: 0, p: 1 }),
+    ];
+    const sol = solvePrimitives(prims, { tolerance: 1e-12 });
+    expectInvariants(prims, sol);
+    const v = drawn(sol, 'Lz', 'b', 'earth').v / 230;
+    expect(v).toBeGreaterThan(0.7); // above the low-voltage threshold
+    expect(v).toBeLessThan(0.98);
+    const check = (id: string, factor: number) => {
+      const { s } = drawn(sol, id, 'b', 'earth');
+      expect(Math.hypot(s.re - S.re * factor, s.im - S.im * factor), id).toBeLessThan(1e-7 * cabs(S));
+    };
+    check('Lz', v * v);
+    check('Li', v);
+    check('Lp', 1);
+    check('Lzip', zip.z * v * v + zip.i * v + zip.p);
+  });
+
+  it('a constant-power load between two phases (delta-connected) also converges to its rating (P)', () => {
+    const prims: Primitive[] = [
+      { type: 'voltageSource', id: 'Va', plus: 'a', minus: 'earth', volts: polar(230, 0), seriesOhms: { re: 0.2, im: 0.4 } },
+      { type: 'voltageSource', id: 'Vb', plus: 'b', minus: 'earth', volts: polar(230, -120), seriesOhms: { re: 0.2, im: 0.4 } },
+      load('Lab', 'a', 'b', { re: 20000, im: 6000 }, { z: 0, i: 0, p: 1 }, 400),
+    ];
+    const sol = solvePrimitives(prims);
+    expectInvariants(prims, sol);
+    const { s } = drawn(sol, 'Lab', 'a', 'b');
+    expect(Math.hypot(s.re - 20000, s.im - 6000)).toBeLessThan(1e-5);
+  });
+
+  it('below the low-voltage threshold the constant-power part becomes the impedance it has at the threshold (documented rule)', () => {
+    // P far above what 1 Ω can deliver at 0.7 pu: the load ends as the impedance (0.7·230)²/P
+    const P = 50000;
+    const prims = [source(1, 0), load('L', 's', 'earth', { re: P, im: 0 }, { z: 0, i: 0, p: 1 })];
+    const sol = solvePrimitives(prims);
+    const zEq = (0.7 * 230) ** 2 / P;
+    const { v } = drawn(sol, 'L', 's', 'earth');
+    expect(v).toBeCloseTo((230 * zEq) / (zEq + 1), 6);
+    expect(v / 230).toBeLessThan(0.7);
+  });
+
+  it('non-convergence names the load with the worst mismatch', () => {
+    // with the threshold lowered to 0.05 pu, 20 kW behind 1 Ω has no solution (max transfer 13.2 kW)
+    const prims = [source(1, 0), load('Lsmall', 's', 'earth', { re: 100, im: 0 }, { z: 0.5, i: 0, p: 0.5 }), load('Lbig', 's', 'earth', { re: 20000, im: 0 }, { z: 0, i: 0, p: 1 })];
+    let err: unknown;
+    try {
+      solvePrimitives(prims, { lowVoltagePu: 0.05, maxIterations: 50 });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(NonConvergenceError);
+    const e = err as NonConvergenceError;
+    expect(e.code).toBe('non-convergence');
+    expect(e.elementIds).toEqual(['Lbig']);
+    expect(e.message).toMatch(/^Voltage-dependent loads did not converge in \d+ iterations \(possible voltage collapse: the loads ask for more power than the network can deliver\)\. Worst mismatch at load 'Lbig': [\d.e+-]+ VA at terminal voltage /);
+  });
+
+  it('an iteration limit too small for the tolerance is reported, not ignored', () => {
+    const prims = [source(1, 0), load('L', 's', 'earth', { re: 10000, im: 0 }, { z: 0, i: 0, p: 1 })];
+    expect(() => solvePrimitives(prims, { maxIterations: 3 })).toThrow(NonConvergenceError);
+    expect(() => solvePrimitives(prims, { maxIterations: 3 })).toThrow(/did not converge in 3 iterations/);
+  });
+
+  it('a pure constant-impedance zip load is linear: one iteration, S ∝ V² (P)', () => {
+    const prims = [source(1, 1), load('L', 's', 'earth', { re: 3000, im: 1000 }, { z: 1, i: 0, p: 0 })];
+    const sol = solvePrimitives(prims);
+    expect(sol.iterations).toBe(1);
+    const { s, v } = drawn(sol, 'L', 's', 'earth');
+    const f = (v / 230) ** 2;
+    expect(Math.hypot(s.re - 3000 * f, s.im - 1000 * f)).toBeLessThan(1e-9);
+  });
+});
