@@ -24,6 +24,7 @@ export {
 } from './schema/circuit.ts';
 export { complexSchema, earthingSchema, CONDUCTORS, PHASES, type Conductor, type Phase, type ComplexInput, type EarthingInput } from './schema/common.ts';
 export { toCx } from './schema/to-cx.ts';
+export { circuitJsonSchema } from './schema/json-schema.ts';
 export * from './schema/blocks.ts';
 export * from './schema/primitives.ts';
 export type * from './results/types.ts';

@@ -1,0 +1,28 @@
+/** The demo circuits solve with every invariant holding, and show what each is for. */
+import { describe, expect, it } from 'vitest';
+import { demoCircuits } from '../../../shared/engine/index.ts';
+import { solveChecked } from './solve-checked.ts';
+
+describe('demo circuits', () => {
+  it('have stable, distinct keys', () => {
+    expect(demoCircuits.map((d) => d.key)).toEqual(['open-neutral-208y120', 'split-phase-120-240', 'delta-wye-bank', 'feeder-earth-fault']);
+  });
+  for (const d of demoCircuits) {
+    it(`${d.key} solves with KCL, power balance and rotation invariance`, () => {
+      const r = solveChecked(d.circuit);
+      expect(r.buses.length).toBeGreaterThan(1);
+      expect(Object.keys(r.elements).length).toBe(d.circuit.elements.length);
+    });
+  }
+  it('feeder-earth-fault: the fault current is several times the load current and returns through earth and neutral (P)', () => {
+    const r = solveChecked(demoCircuits.find((d) => d.key === 'feeder-earth-fault')!.circuit);
+    const f = r.faults[0];
+    expect(f.phases).toEqual(['a']);
+    const loadI = r.elements['END-LOAD'].currents[1].mag;
+    expect(f.phaseCurrents.a.mag).toBeGreaterThan(5 * loadI);
+    expect(f.earthCurrent.mag).toBeCloseTo(f.phaseCurrents.a.mag, 6);
+    expect(f.sequence.zero.mag).toBeGreaterThan(0);
+    // the source sees the fault as a zero-sequence current in its earth bond
+    expect(r.elements['KX-SUB'].earthCurrent!.mag).toBeGreaterThan(100);
+  });
+});
