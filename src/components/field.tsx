@@ -1,7 +1,7 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 const CONTROL =
-  'rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
+  'rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint read-only:bg-sunken read-only:text-ink-muted aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
 
 interface FieldShellProps {
   id: string;

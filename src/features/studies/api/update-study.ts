@@ -22,5 +22,13 @@ export function useUpdateStudy(id: string) {
       queryClient.setQueryData(['studies', 'detail', id], study);
       return queryClient.invalidateQueries({ queryKey: ['studies', 'list'] });
     },
+    // On a conflict the page's record shows the saved version at once; the form keeps the user's edits.
+    onError: (error) => {
+      const current = conflictCurrent(error);
+      if (current) {
+        queryClient.setQueryData(['studies', 'detail', id], current);
+        return queryClient.invalidateQueries({ queryKey: ['studies', 'list'] });
+      }
+    },
   });
 }

@@ -48,10 +48,12 @@ export function StudiesList({ role }: { role: Role }) {
     [setSearch],
   );
 
+  const cloneMutate = clone.mutate;
+  const resetRemove = remove.reset;
   const onClone = useCallback(
     (study: StudySummary) => {
       setActionError(null);
-      clone.mutate(
+      cloneMutate(
         { id: study.id },
         {
           onSuccess: (created) => navigate(`/studies/${created.id}`),
@@ -59,13 +61,16 @@ export function StudiesList({ role }: { role: Role }) {
         },
       );
     },
-    [clone, navigate],
+    [cloneMutate, navigate],
   );
-  const onDelete = useCallback((study: StudySummary) => {
-    setActionError(null);
-    remove.reset();
-    setToDelete(study);
-  }, [remove]);
+  const onDelete = useCallback(
+    (study: StudySummary) => {
+      setActionError(null);
+      resetRemove();
+      setToDelete(study);
+    },
+    [resetRemove],
+  );
 
   // The filter box follows typing at once; the address (and so the request) after a short pause.
   const [filterText, setFilterText] = useState(params.q ?? '');

@@ -73,6 +73,11 @@ describe('study page', () => {
     expect(api.calls.find((c) => c.method === 'PATCH')?.body).toMatchObject({ version: 2, name: 'Hollin Cross feeder — my edit' });
     expect(screen.getByText('Nothing of yours was saved. Their version reads:')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Save changes' })).toBeDisabled();
+    // The record beside the form already shows the saved version; the form still holds my text.
+    const record = screen.getByRole('region', { name: 'Record' });
+    expect(within(record).getByText('v3')).toBeInTheDocument();
+    expect(within(record).getByText('Dilys Arkwright')).toBeInTheDocument();
+    expect(screen.getByLabelText('Name')).toHaveValue('Hollin Cross feeder — my edit');
 
     await user.click(screen.getByRole('button', { name: 'Reload theirs (discard my changes)' }));
     expect(screen.getByLabelText('Name')).toHaveValue('Hollin Cross feeder (rev B)');
