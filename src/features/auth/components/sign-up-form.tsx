@@ -6,6 +6,7 @@ import { PASSWORD_MIN, signUpRequestSchema, type Me } from '../../../../shared/a
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
+import { isApiError } from '../../../lib/api-client.ts';
 import { applyServerErrors } from '../../../lib/form-errors.ts';
 import { useSignUp } from '../api/sign-up.ts';
 
@@ -34,7 +35,14 @@ export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
     setProblem(null);
     signUp.mutate(values, {
       onSuccess: onSignedUp,
-      onError: (error) => setProblem(applyServerErrors(error, form.setError, ['name', 'email', 'password', 'teamName'])),
+      onError: (error) => {
+        // The only 409 of sign-up is a taken address: say it at the e-mail field.
+        if (isApiError(error, 409)) {
+          form.setError('email', { type: 'server', message: error.message });
+          return;
+        }
+        setProblem(applyServerErrors(error, form.setError, ['name', 'email', 'password', 'teamName']));
+      },
     });
   });
 

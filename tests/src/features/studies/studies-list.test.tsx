@@ -116,3 +116,26 @@ describe('studies list', () => {
     expect(within(templateRow).getByText('Template')).toBeInTheDocument();
   });
 });
+
+describe('studies list paging', () => {
+  it('shows the total and page count and asks the server for the next page', async () => {
+    const api = stubApi({
+      'GET /api/auth/me': () => ({ body: me('viewer') }),
+      'GET /api/studies': (req) => {
+        const page = Number(req.url.searchParams.get('page') ?? 1);
+        return { body: { items: [study({ name: `Page ${page} study` })], total: 45, page, pageSize: 20 } };
+      },
+    });
+    const user = userEvent.setup();
+    renderApp('/');
+    await screen.findByRole('link', { name: 'Page 1 study' });
+    const pager = screen.getByRole('navigation', { name: 'Pages of studies' });
+    expect(pager).toHaveTextContent('45 studies · page 1 of 3');
+    expect(within(pager).getByRole('button', { name: '← Previous page' })).toBeDisabled();
+
+    await user.click(within(pager).getByRole('button', { name: 'Next page →' }));
+    await screen.findByRole('link', { name: 'Page 2 study' });
+    expect(api.calls.at(-1)?.url.searchParams.get('page')).toBe('2');
+    expect(screen.getByRole('navigation', { name: 'Pages of studies' })).toHaveTextContent('page 2 of 3');
+  });
+});
