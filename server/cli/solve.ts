@@ -1,0 +1,130 @@
+/**
+ * `npm run -s solve -- <file.json> [--json]`: solve a Wyeward circuit file.
+ *
+ * Without --json: a readable report (buses, element currents, faults, totals, flags) with the
+ * safety caution. With --json: the results as JSON on stdout: `nodes` (voltage to earth per node)
+ * and `elements[id].currents` (conventions in docs/circuit-format.md), plus buses, faults, totals,
+ * floating parts and flags.
+ * Exit codes: 0 solved; 2 invalid input (unreadable file, malformed JSON, schema errors);
+ * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
+ * never a stack trace. Kept light on purpose (it is benchmarked against ngspice): file → parse →
+ * solve → write, importing only the engine.
+ */
+import { readFileSync } from 'node:fs';
+import { EngineError, solveCircuit, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
+
+const CAUTION =
+  'CAUTION: Wyeward is an engineering aid. Results are only as good as the model; designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.';
+
+/** Exit with one line on stderr. */
+function fail(code: number, message: string): never {
+  process.stderr.write(`solve: ${message.split('\n')[0]}\n`);
+  process.exit(code);
+}
+
+const num = (x: number) => (x >= 1e4 ? x.toFixed(0) : x >= 1e-3 || x === 0 ? x.toPrecision(4) : x.toExponential(2));
+const fmt = (p: Phasor) => `${num(p.mag)}∠${p.angleDeg.toFixed(1)}°`;
+const pad = (s: string, n: number) => (s.length >= n ? s : s + ' '.repeat(n - s.length));
+
+/** The readable report. */
+export function formatReport(r: CircuitResult): string {
+  const out: string[] = [];
+  out.push(`Wyeward circuit report${r.name ? `: ${r.name}` : ''}`);
+  out.push(CAUTION);
+  out.push(`RMS phasors (magnitude∠degrees); sequence ${r.conventions.sequence}; S = V·I* (load convention); ${r.frequencyHz} Hz; earth is the 0 V reference.`);
+  out.push('');
+  out.push('Buses');
+  for (const b of r.buses) {
+    const ln = Object.entries(b.lineToNeutral).map(([k, v]) => `${k}-${b.lnReference === 'neutral' ? 'n' : 'e'} ${fmt(v)} V`);
+    const ll = Object.entries(b.lineToLine).map(([k, v]) => `${k} ${fmt(v)} V`);
+    let line = `  ${pad(b.bus, 12)} ${ln.join('  ')}`;
+    if (ll.length) line += ` | ${ll.join('  ')}`;
+    out.push(line);
+    const extra: string[] = [];
+    if (b.neutralToEarth) extra.push(`n-earth ${fmt(b.neutralToEarth)} V${b.neutralShiftPercent !== undefined ? ` (${b.neutralShiftPercent.toFixed(1)} % of nominal)` : ''}`);
+    if (b.sequence) extra.push(`V0 ${fmt(b.sequence.zero)} V1 ${fmt(b.sequence.positive)} V2 ${fmt(b.sequence.negative)} V`);
+    if (b.iecUnbalancePercent !== undefined) extra.push(`unbalance IEC ${b.iecUnbalancePercent.toFixed(2)} % NEMA ${b.nemaUnbalancePercent!.toFixed(2)} % IEEE ${b.ieeeUnbalancePercent!.toFixed(2)} %`);
+    if (b.floating) extra.push('FLOATING (no path to earth)');
+    if (extra.length) out.push(`  ${pad('', 12)} ${extra.join('; ')}`);
+  }
+  out.push('');
+  out.push('Elements (currents per conductor; blocks: into the element at each port, sources: out of the source)');
+  for (const e of Object.values(r.elements)) {
+    const parts: string[] = [];
+    if (e.ports) {
+      for (const p of e.ports) parts.push(`${p.bus ?? p.nodes[0]}: ${p.conductors.map((c, k) => `${c} ${fmt(p.currents[k])} A`).join('  ')}`);
+    } else parts.push(e.currents.map((c) => `${fmt(c)} A`).join('  '));
+    out.push(`  ${pad(e.id, 12)} ${pad(e.type, 22)} ${parts.join(' | ')}`);
+    const extra = [`S ${(e.power.re / 1000).toFixed(3)} kW ${(e.power.im / 1000).toFixed(3)} kvar`];
+    if (e.losses) extra.push(`losses ${(e.losses.re / 1000).toFixed(3)} kW`);
+    if (e.loadingPercent !== undefined) extra.push(`loading ${e.loadingPercent.toFixed(1)} %`);
+    if (e.phaseShift) extra.push(`shift ${e.phaseShift.vectorGroup} (${e.phaseShift.convention}): LV lags HV by ${e.phaseShift.lvLagsHvDeg}° in ABC`);
+    if (e.earthCurrent) extra.push(`earth ${fmt(e.earthCurrent)} A`);
+    out.push(`  ${pad('', 12)} ${extra.join('; ')}`);
+  }
+  if (r.faults.length) {
+    out.push('');
+    out.push('Faults');
+    for (const f of r.faults) {
+      out.push(`  ${pad(f.id, 12)} ${f.kind} at ${f.bus} (${f.phases.join(',')}): Ia ${fmt(f.phaseCurrents.a)} Ib ${fmt(f.phaseCurrents.b)} Ic ${fmt(f.phaseCurrents.c)} A; I0 ${fmt(f.sequence.zero)} I1 ${fmt(f.sequence.positive)} I2 ${fmt(f.sequence.negative)} A; earth ${fmt(f.earthCurrent)} A`);
+    }
+  }
+  const t = r.totals;
+  out.push('');
+  out.push(`Totals: sources ${(t.sourcePower.re / 1000).toFixed(3)} kW ${(t.sourcePower.im / 1000).toFixed(3)} kvar; loads ${(t.loadPower.re / 1000).toFixed(3)} kW; losses ${(t.losses.re / 1000).toFixed(3)} kW; balance residual ${t.powerBalanceResidual.mag.toExponential(2)} VA; largest KCL residual ${t.maxKclResidualAmps.toExponential(2)} A`);
+  out.push('');
+  out.push(`Flags (${r.limits.name})`);
+  if (r.flags.length === 0) out.push('  none');
+  for (const f of r.flags) out.push(`  ${pad(f.severity.toUpperCase(), 9)} ${f.message}`);
+  out.push('');
+  return out.join('\n');
+}
+
+/** The JSON written with --json. */
+export function jsonResult(r: CircuitResult) {
+  const elements: Record<string, { type: string; currents: Phasor[]; currentDirection: string; ports?: unknown; power: Phasor; earthCurrent?: Phasor; losses?: Phasor; loadingPercent?: number }> = {};
+  for (const e of Object.values(r.elements)) {
+    elements[e.id] = {
+      type: e.type,
+      currents: e.currents,
+      currentDirection: e.currentDirection,
+      ...(e.ports ? { ports: e.ports.map((p) => ({ bus: p.bus, conductors: p.conductors })) } : {}),
+      power: e.power,
+      ...(e.earthCurrent ? { earthCurrent: e.earthCurrent } : {}),
+      ...(e.losses ? { losses: e.losses } : {}),
+      ...(e.loadingPercent !== undefined ? { loadingPercent: e.loadingPercent } : {}),
+    };
+  }
+  return { format: 'wyeward-result', version: 1, conventions: r.conventions, nodes: r.nodes, elements, buses: r.buses, faults: r.faults, totals: r.totals, floating: r.floating, flags: r.flags, iterations: r.iterations };
+}
+
+function main(argv: string[]): void {
+  const args = argv.filter((a) => a !== '--json');
+  const asJson = argv.includes('--json');
+  const unknownFlag = args.find((a) => a.startsWith('--'));
+  if (unknownFlag) fail(2, `unknown option ${unknownFlag} (usage: solve <file.json> [--json])`);
+  if (args.length !== 1) fail(2, 'usage: solve <file.json> [--json]');
+  const file = args[0];
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (e) {
+    fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  }
+  let input: unknown;
+  try {
+    input = JSON.parse(text);
+  } catch (e) {
+    fail(2, `${file} is not valid JSON: ${(e as Error).message}`);
+  }
+  let result: CircuitResult;
+  try {
+    result = solveCircuit(input);
+  } catch (e) {
+    if (e instanceof EngineError) fail(e.code === 'invalid-circuit' ? 2 : 3, e.message);
+    fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
+  }
+  process.stdout.write(asJson ? JSON.stringify(jsonResult(result)) + '\n' : formatReport(result));
+}
+
+main(process.argv.slice(2));
