@@ -29,6 +29,10 @@ export const JSON_LIMIT = '2mb';
 export function createApp({ db, config, mailer, mountClient }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
+  if (config.trustProxy) {
+    // A number means "this many proxies in front"; anything else is Express's list/keyword syntax.
+    app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
+  }
   const lucia = createLucia(db, { cookieSecure: config.cookieSecure });
   const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter() };
 

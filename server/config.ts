@@ -14,6 +14,8 @@ export interface Config {
   smtpUrl?: string;
   /** Sender address of outgoing mail (MAIL_FROM). */
   mailFrom: string;
+  /** Express "trust proxy" setting when behind a reverse proxy (TRUST_PROXY, e.g. 1 or loopback), so per-address sign-in limits see the client's address. */
+  trustProxy?: string;
   /** Mark the session cookie Secure (COOKIE_SECURE=1, or automatically when APP_URL is https). */
   cookieSecure: boolean;
 }
@@ -33,5 +35,6 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     smtpUrl: env.SMTP_URL || undefined,
     mailFrom: env.MAIL_FROM ?? 'Wyeward <no-reply@wyeward.test>',
     cookieSecure: env.COOKIE_SECURE === '1' || appUrl.startsWith('https://'),
+    trustProxy: env.TRUST_PROXY || undefined,
   };
 }

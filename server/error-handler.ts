@@ -4,7 +4,7 @@
  */
 import type { ErrorRequestHandler } from 'express';
 import { z } from 'zod';
-import type { ErrorBody } from '../shared/api/common.ts';
+import type { ErrorBody, ErrorCode } from '../shared/api/common.ts';
 import { AppError } from './errors.ts';
 
 /** `path.to.field` → first message, from a zod error. */
@@ -24,6 +24,16 @@ interface BodyParserError {
   statusCode?: number;
   limit?: number;
 }
+
+/** Contract codes for the 4xx statuses Express or body-parser may raise on their own. */
+const STATUS_CODES: Partial<Record<number, ErrorCode>> = {
+  401: 'unauthenticated',
+  403: 'forbidden',
+  404: 'not-found',
+  409: 'conflict',
+  413: 'payload-too-large',
+  429: 'rate-limited',
+};
 
 export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
   if (res.headersSent) return next(err);
@@ -45,19 +55,26 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
     const message = first ? (first[0] === '_' ? first[1] : `${first[0]}: ${first[1]}`) : 'The request is not valid.';
     return send(400, { code: 'validation', message, fields });
   }
-  const bp = err as BodyParserError;
-  if (bp && typeof bp === 'object' && typeof bp.type === 'string') {
-    if (bp.type === 'entity.parse.failed') {
-      return send(400, { code: 'validation', message: 'The request body is not valid JSON.', fields: { _: 'Malformed JSON' } });
-    }
-    if (bp.type === 'entity.too.large') {
-      const mb = bp.limit ? ` (limit ${(bp.limit / 1024 / 1024).toFixed(0)} MB)` : '';
-      return send(413, { code: 'payload-too-large', message: `The request body is too large${mb}.` });
-    }
-    const status = bp.status ?? bp.statusCode ?? 400;
-    if (status >= 400 && status < 500) {
-      return send(status, { code: 'validation', message: 'The request body could not be read (unsupported encoding or charset).' });
-    }
+  const bp = (err ?? {}) as BodyParserError;
+  if (bp.type === 'entity.parse.failed') {
+    return send(400, { code: 'validation', message: 'The request body is not valid JSON.', fields: { _: 'Malformed JSON' } });
+  }
+  if (bp.type === 'entity.too.large') {
+    const mb = bp.limit ? ` (limit ${(bp.limit / 1024 / 1024).toFixed(0)} MB)` : '';
+    return send(413, { code: 'payload-too-large', message: `The request body is too large${mb}.` });
+  }
+  // Other client errors raised by Express itself: an undecodable %-escape in the path, an unsupported
+  // charset or encoding of the body. They carry a 4xx status; keep it and use the contract's shape.
+  const status = bp.status ?? bp.statusCode;
+  if (typeof status === 'number' && status >= 400 && status < 500) {
+    const code = STATUS_CODES[status] ?? 'validation';
+    const message =
+      err instanceof URIError
+        ? 'The address contains an invalid %-escape.'
+        : bp.type
+          ? `The request could not be read (${bp.type.replace(/\./g, ' ')}).`
+          : 'The request could not be read.';
+    return send(status, { code, message });
   }
   console.error('Unhandled error:', err);
   return send(500, { code: 'internal', message: 'Something went wrong on the server; it has been logged.' });

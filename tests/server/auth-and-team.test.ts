@@ -148,6 +148,17 @@ describe('sign-in throttling', () => {
   });
 });
 
+describe('behind a reverse proxy (TRUST_PROXY=1)', () => {
+  it('counts failures per forwarded client address, not per proxy', async () => {
+    const proxied = makeApp(db, { TRUST_PROXY: '1' });
+    const attempt = (ip: string, i: number) =>
+      request(proxied.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email: `proxy-${i}@example.test`, password: 'guess guess' });
+    for (let i = 0; i < ADDRESS_FAILURES; i++) expect((await attempt('203.0.113.7', i)).status).toBe(401);
+    expect((await attempt('203.0.113.7', 99)).status).toBe(429);
+    expect((await attempt('198.51.100.20', 100)).status).toBe(401);
+  });
+});
+
 describe('same-origin rule', () => {
   it('refuses state-changing requests from a foreign Origin with 403 foreign-origin', async () => {
     const team = await makeTeam(db);

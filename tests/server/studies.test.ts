@@ -256,6 +256,12 @@ describe('errors', () => {
     expect(res.body.error.message).toMatch(/too large/);
   });
 
+  it('answers 400 in the contract shape to an undecodable %-escape in the path', async () => {
+    const res = await engineer.get('/api/studies/%E0%A4%A');
+    expect(res.status).toBe(400);
+    expect(res.body).toEqual({ error: { code: 'validation', message: 'The address contains an invalid %-escape.' } });
+  });
+
   it('answers unknown API routes with 404 JSON, also for other methods', async () => {
     for (const res of [await engineer.get('/api/studies-typo'), await engineer.put(`/api/studies/${randomUUID()}`).send({})]) {
       expect(res.status).toBe(404);
