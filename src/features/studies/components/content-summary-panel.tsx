@@ -19,6 +19,14 @@ export function ContentSummaryPanel({ circuit }: { circuit: unknown }) {
           <dd className="num">{s.buses.length}</dd>
           <dt className="text-ink-muted">Nominal voltages</dt>
           <dd className="num">{s.nominalVolts.length === 0 ? '—' : s.nominalVolts.map(formatVolts).join(', ')}</dd>
+          <dt className="text-ink-muted">Phase sequence</dt>
+          <dd className="num">{s.sequence ?? 'ABC'}{s.sequence ? '' : <span className="font-sans text-ink-muted"> (default)</span>}</dd>
+          {s.limitSet ? (
+            <>
+              <dt className="text-ink-muted">Limit set</dt>
+              <dd className="num">{s.limitSet}</dd>
+            </>
+          ) : null}
         </dl>
         <div>
           <h3 className="text-[12px] uppercase tracking-wide text-ink-muted">Elements by type</h3>
@@ -64,6 +72,8 @@ export function ContentSummaryPanel({ circuit }: { circuit: unknown }) {
       ) : null}
       <p className="border-t border-rule px-4 py-2 text-[12px] text-ink-muted">
         The diagram workspace, where this circuit is drawn and solved, arrives in a later version. {plural(s.elementCount, 'element')} stored.
+        When solved, Wyeward states phasors as RMS magnitude∠degrees with earth as the reference node, and complex power as
+        S = V·I* in load convention (Q &gt; 0 lagging).
       </p>
     </section>
   );

@@ -24,6 +24,10 @@ export interface ContentSummary {
   buses: string[];
   /** Distinct nominal voltages named in the circuit, in volts, ascending. */
   nominalVolts: number[];
+  /** Phase rotation the circuit states (`sequence`); null when it states none (the format's default is ABC). */
+  sequence: 'ABC' | 'ACB' | null;
+  /** Limit set named in the circuit's `limits.set`, or null. */
+  limitSet: string | null;
   /** What could not be read, in plain words. */
   problems: string[];
 }
@@ -90,7 +94,7 @@ const natural = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
 export function summarizeCircuit(circuit: unknown): ContentSummary {
   const problems: string[] = [];
   if (!isRecord(circuit)) {
-    return { frequencyHz: null, elementCount: 0, byType: [], buses: [], nominalVolts: [], problems: ['The study holds no circuit object.'] };
+    return { frequencyHz: null, elementCount: 0, byType: [], buses: [], nominalVolts: [], sequence: null, limitSet: null, problems: ['The study holds no circuit object.'] };
   }
 
   let frequencyHz: number | null = null;
@@ -135,12 +139,17 @@ export function summarizeCircuit(circuit: unknown): ContentSummary {
     .map(([type, count]) => ({ type, count }))
     .sort((a, b) => b.count - a.count || natural.compare(a.type, b.type));
 
+  const sequence = circuit.sequence === 'ABC' || circuit.sequence === 'ACB' ? circuit.sequence : null;
+  const limitSet = isRecord(circuit.limits) && typeof circuit.limits.set === 'string' ? circuit.limits.set : null;
+
   return {
     frequencyHz,
     elementCount: (elements ?? []).length,
     byType,
     buses: [...buses].sort(natural.compare),
     nominalVolts: [...volts].sort((a, b) => a - b),
+    sequence,
+    limitSet,
     problems,
   };
 }

@@ -5,7 +5,7 @@ import { busOfNode, summarizeCircuit } from '../../../../../src/features/studies
 describe('summarizeCircuit', () => {
   it('reports an empty 60 Hz circuit as empty, with its frequency', () => {
     const s = summarizeCircuit({ format: 'wyeward-circuit', version: 1, frequencyHz: 60, elements: [] });
-    expect(s).toEqual({ frequencyHz: 60, elementCount: 0, byType: [], buses: [], nominalVolts: [], problems: [] });
+    expect(s).toEqual({ frequencyHz: 60, elementCount: 0, byType: [], buses: [], nominalVolts: [], sequence: null, limitSet: null, problems: [] });
   });
 
   it('finds buses from conductor node names of primitives and leaves earth out', () => {
@@ -60,11 +60,20 @@ describe('summarizeCircuit', () => {
       format: 'wyeward-circuit',
       version: 1,
       frequencyHz: 60,
-      buses: [{ id: 'Main', nominalKv: 0.48 }, { name: 'Aux' }, 'Spare'],
+      buses: [{ id: 'Main', nominalKv: 0.48 }, { name: 'Aux', kvLL: 4.16 }, 'Spare'],
       elements: [],
     });
     expect(s.buses).toEqual(['Aux', 'Main', 'Spare']);
-    expect(s.nominalVolts).toEqual([480]);
+    expect(s.nominalVolts).toEqual([480, 4160]);
+  });
+
+  it('reports the stated phase sequence and limit set, and null when the circuit states none', () => {
+    const stated = summarizeCircuit({ format: 'wyeward-circuit', version: 1, frequencyHz: 50, sequence: 'ACB', limits: { set: 'iec-en' }, elements: [] });
+    expect(stated.sequence).toBe('ACB');
+    expect(stated.limitSet).toBe('iec-en');
+    const unstated = summarizeCircuit({ format: 'wyeward-circuit', version: 1, frequencyHz: 50, sequence: 'CBA', elements: [] });
+    expect(unstated.sequence).toBeNull();
+    expect(unstated.limitSet).toBeNull();
   });
 
   it('says what it cannot read instead of throwing', () => {
