@@ -1,5 +1,5 @@
 /** What `npm start` (index.ts) and `npm run dev` (dev.ts) share: open the database, seed, build the app, listen, shut down cleanly. */
-import type { Server } from 'node:http';
+import { createServer, type Server } from 'node:http';
 import path from 'node:path';
 import type { Express } from 'express';
 import { createApp } from './app.ts';
@@ -22,15 +22,27 @@ export async function prepareDatabase(config: Config, log: (msg: string) => void
   return db;
 }
 
+export interface RunOptions {
+  /** Extra clean-up on shutdown, before the database closes. */
+  onClose?: () => Promise<void>;
+  /** The HTTP server to serve on (dev mode shares it with vite's hot-reload socket); a new one by default. */
+  server?: Server;
+}
+
 /** Opens the database, seeds the demo team when asked, and serves the app with the given client. */
-export async function run(config: Config, mountClient: (app: Express) => void, onClose: () => Promise<void> = async () => {}) {
+export async function run(config: Config, mountClient: (app: Express) => void, { onClose = async () => {}, server = createServer() }: RunOptions = {}) {
   const started = Date.now();
   const db = await prepareDatabase(config);
   const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl });
   const app = createApp({ db, config, mailer, mountClient });
 
-  const server: Server = await new Promise((resolve, reject) => {
-    const s = app.listen(config.port, (err?: Error) => (err ? reject(err) : resolve(s)));
+  server.on('request', app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(config.port, () => {
+      server.off('error', reject);
+      resolve();
+    });
   });
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
