@@ -7,9 +7,20 @@ import { NotFoundRoute } from './routes/not-found.tsx';
 import { SignInRoute } from './routes/sign-in.tsx';
 import { SignUpRoute } from './routes/sign-up.tsx';
 import { StudiesRoute } from './routes/studies.tsx';
+import { parseStudyListParams, studiesQueryOptions } from '../features/studies/api/get-studies.ts';
+import { studyQueryOptions } from '../features/studies/api/get-study.ts';
+import { teamQueryOptions } from '../features/team/api/get-team.ts';
+import { mailQueryOptions } from '../features/team/api/get-mail.ts';
 
-/** The route table; the study and team pages load on demand so the list stays light. */
+/**
+ * The route table; the study and team pages load on demand so the list stays light. Loaders start
+ * each page's query while its code downloads (prefetch never throws: the page shows its own errors).
+ */
 export function createRoutes(queryClient: QueryClient): RouteObject[] {
+  const prefetch = (start: (client: QueryClient) => Promise<void>) => {
+    void start(queryClient);
+    return null;
+  };
   return [
     { path: '/sign-in', element: <SignInRoute />, errorElement: <RouteError /> },
     { path: '/sign-up', element: <SignUpRoute />, errorElement: <RouteError /> },
@@ -21,10 +32,20 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
       hydrateFallbackElement: <AppLayoutFallback />,
       errorElement: <RouteError />,
       children: [
-        { index: true, element: <StudiesRoute />, errorElement: <RouteError /> },
-        { path: 'studies/:id', lazy: () => import('./routes/study.tsx'), errorElement: <RouteError /> },
-        { path: 'team', lazy: () => import('./routes/team.tsx'), errorElement: <RouteError /> },
-        { path: 'team/mail', lazy: () => import('./routes/team-mail.tsx'), errorElement: <RouteError /> },
+        {
+          index: true,
+          element: <StudiesRoute />,
+          loader: ({ request }) => prefetch((qc) => qc.prefetchQuery(studiesQueryOptions(parseStudyListParams(new URL(request.url).searchParams)))),
+          errorElement: <RouteError />,
+        },
+        {
+          path: 'studies/:id',
+          lazy: () => import('./routes/study.tsx'),
+          loader: ({ params }) => prefetch((qc) => qc.prefetchQuery(studyQueryOptions(params.id ?? ''))),
+          errorElement: <RouteError />,
+        },
+        { path: 'team', lazy: () => import('./routes/team.tsx'), loader: () => prefetch((qc) => qc.prefetchQuery(teamQueryOptions())), errorElement: <RouteError /> },
+        { path: 'team/mail', lazy: () => import('./routes/team-mail.tsx'), loader: () => prefetch((qc) => qc.prefetchQuery(mailQueryOptions())), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundRoute /> },
       ],
     },
