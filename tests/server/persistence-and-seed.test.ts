@@ -12,6 +12,8 @@ import { openDb } from '../../server/db/index.ts';
 import { DEMO_TEAM_NAME } from '../../server/db/seed.ts';
 import { createMailer } from '../../server/mail/index.ts';
 import { prepareDatabase } from '../../server/runtime.ts';
+import { createApp } from '../../server/app.ts';
+import { serveClient } from '../../server/static-client.ts';
 import { makeApp, signedIn } from './helpers.ts';
 import { openTestDb, templateBlob } from './test-db.ts';
 
@@ -153,6 +155,30 @@ describe('client build check', () => {
     const t1 = new Date('2026-01-02T00:00:00Z');
     utimesSync(path.join(root, 'src', 'main.tsx'), t1, t1);
     expect(staleReason(root)).toBe('client sources changed since the last build');
+  });
+});
+
+describe('serving the client', () => {
+  it('serves dist files, index.html for app routes, and JSON 404s for unknown API routes', async () => {
+    const dist = tempDir('wyeward-dist-');
+    writeFileSync(path.join(dist, 'index.html'), '<!doctype html><title>Wyeward test shell</title>');
+    mkdirSync(path.join(dist, 'assets'));
+    writeFileSync(path.join(dist, 'assets', 'app.js'), 'console.log(1)');
+    const db = await openTestDb();
+    const t = makeApp(db);
+    const app = createApp({ db, config: t.config, mailer: t.mailer, mountClient: serveClient(dist) });
+    const asset = await request(app).get('/assets/app.js');
+    expect(asset.status).toBe(200);
+    expect(asset.text).toBe('console.log(1)');
+    for (const p of ['/', '/studies/123', '/invite/some-token']) {
+      const page = await request(app).get(p);
+      expect(page.status).toBe(200);
+      expect(page.text).toContain('Wyeward test shell');
+    }
+    const api = await request(app).get('/api/not-here');
+    expect(api.status).toBe(404);
+    expect(api.body.error.code).toBe('not-found');
+    await db.$client.close();
   });
 });
 
