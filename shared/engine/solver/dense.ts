@@ -92,6 +92,98 @@ export function denseInverse(a: DenseCx, relTol = 1e-13): DenseCx | null {
   return out;
 }
 
+let scratchRe = new Float64Array(64);
+let scratchIm = new Float64Array(64);
+
+/**
+ * Invert the n×n complex matrix stored row-major at offset `aOff` of (aRe, aIm) into (outRe, outIm)
+ * at `outOff`, by Gauss–Jordan elimination with partial pivoting, without allocating (the hot path
+ * of coupled-branch stamps). Returns false when a pivot falls below `relTol` × the largest entry.
+ */
+export function denseInverseInto(
+  n: number,
+  aRe: Float64Array,
+  aIm: Float64Array,
+  aOff: number,
+  outRe: Float64Array,
+  outIm: Float64Array,
+  outOff: number,
+  relTol = 1e-13,
+): boolean {
+  const m = 2 * n;
+  if (scratchRe.length < n * m) {
+    scratchRe = new Float64Array(n * m);
+    scratchIm = new Float64Array(n * m);
+  }
+  const re = scratchRe;
+  const im = scratchIm;
+  let scale = 0;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const xr = aRe[aOff + i * n + j];
+      const xi = aIm[aOff + i * n + j];
+      re[i * m + j] = xr;
+      im[i * m + j] = xi;
+      re[i * m + n + j] = i === j ? 1 : 0;
+      im[i * m + n + j] = 0;
+      const mag = Math.abs(xr) + Math.abs(xi);
+      if (mag > scale) scale = mag;
+    }
+  }
+  if (!(scale > 0)) return false;
+  for (let k = 0; k < n; k++) {
+    let piv = k;
+    let best = -1;
+    for (let i = k; i < n; i++) {
+      const mag = Math.abs(re[i * m + k]) + Math.abs(im[i * m + k]);
+      if (mag > best) {
+        best = mag;
+        piv = i;
+      }
+    }
+    if (best <= relTol * scale) return false;
+    if (piv !== k) {
+      for (let j = 0; j < m; j++) {
+        let t = re[k * m + j];
+        re[k * m + j] = re[piv * m + j];
+        re[piv * m + j] = t;
+        t = im[k * m + j];
+        im[k * m + j] = im[piv * m + j];
+        im[piv * m + j] = t;
+      }
+    }
+    const pr = re[k * m + k];
+    const pi = im[k * m + k];
+    const d = pr * pr + pi * pi;
+    const ir = pr / d;
+    const ii = -pi / d;
+    for (let j = 0; j < m; j++) {
+      const xr = re[k * m + j];
+      const xi = im[k * m + j];
+      re[k * m + j] = xr * ir - xi * ii;
+      im[k * m + j] = xr * ii + xi * ir;
+    }
+    for (let i = 0; i < n; i++) {
+      if (i === k) continue;
+      const fr = re[i * m + k];
+      const fi = im[i * m + k];
+      if (fr === 0 && fi === 0) continue;
+      for (let j = 0; j < m; j++) {
+        const xr = re[k * m + j];
+        const xi = im[k * m + j];
+        re[i * m + j] -= fr * xr - fi * xi;
+        im[i * m + j] -= fr * xi + fi * xr;
+      }
+    }
+  }
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) {
+      outRe[outOff + i * n + j] = re[i * m + n + j];
+      outIm[outOff + i * n + j] = im[i * m + n + j];
+    }
+  return true;
+}
+
 /**
  * LU with complete pivoting of a small complex matrix, revealing its numerical rank.
  * Pivots below `absTol` are treated as zero; the columns left without a pivot span the null space.

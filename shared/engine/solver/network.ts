@@ -28,8 +28,8 @@
 import { IllPosedNetworkError, InvalidCircuitError, NonConvergenceError, SingularNetworkError } from '../errors.ts';
 import type { Cx, FloatingIsland, Primitive, PrimitiveSolution, SolveOptions } from '../types.ts';
 import { EARTH } from '../types.ts';
-import { denseInverse, denseZeros } from './dense.ts';
-import { analyzePattern, factorNumeric, type NumericLu, type SymbolicLu } from './sparse-lu.ts';
+import { denseInverseInto } from './dense.ts';
+import { analyzePattern, createLuWorkspace, factorNumeric, type LuWorkspace, type NumericLu, type SymbolicLu } from './sparse-lu.ts';
 import { validatePrimitives } from './validate.ts';
 
 /** Solver options: SolveOptions plus the low-voltage rule of voltage-dependent loads. */
@@ -87,11 +87,11 @@ export function solvePrimitives(primitives: readonly Primitive[], options?: Solv
 /** Prepare a network for repeated solves; the symbolic analysis (ordering, fill pattern) is cached per topology. */
 export function createNetwork(primitives: readonly Primitive[]): Network {
   validatePrimitives(primitives);
-  let prims = primitives.slice();
   let t0 = now();
-  let topo = buildTopology(prims);
+  let topo = buildTopology(primitives.slice());
   let analyzeMs = now() - t0;
   let timings: SolveTimings = { analyzeMs, assembleMs: 0, factorMs: 0, solveMs: 0, totalMs: 0 };
+  let broken: unknown = null;
   return {
     get size() {
       return topo.nUnknowns;
@@ -106,11 +106,22 @@ export function createNetwork(primitives: readonly Primitive[]): Network {
         t0 = now();
         topo = buildTopology(copy);
         analyzeMs = now() - t0;
+      } else {
+        try {
+          loadValues(topo, copy);
+        } catch (e) {
+          // values half-loaded: force a rebuild on the next update, refuse to solve until then
+          topo.prims = [];
+          broken = e;
+          throw e;
+        }
+        topo.prims = copy;
       }
-      prims = copy;
+      broken = null;
     },
     solve(options) {
-      const r = solveTopology(topo, prims, options ?? {}, analyzeMs);
+      if (broken) throw broken;
+      const r = solveTopology(topo, options ?? {}, analyzeMs);
       analyzeMs = 0;
       timings = r.timings;
       return r.solution;
@@ -148,6 +159,19 @@ interface Topology {
   /** Per admittance-matrix element: its connectivity signature (sparsity and earth rows). */
   stampSignature: Map<number, string>;
   hasNonlinear: boolean;
+  /** Element ids, kind codes (K_…), closed state of switches, and values compiled into typed arrays. */
+  ids: string[];
+  kind: Uint8Array;
+  switchClosed: Uint8Array;
+  values: Values;
+  /** Coupled branches: offset of each element's n×n block (−1 for other kinds), its Z as last inverted, Y = Z⁻¹, validity. */
+  coupledOffset: Int32Array;
+  cz: { re: Float64Array; im: Float64Array };
+  cy: { re: Float64Array; im: Float64Array };
+  coupledValid: Uint8Array;
+  /** Value assembler and LU workspace, created on the first solve and reused. */
+  valueAssembler?: Assembler;
+  workspace?: LuWorkspace;
 }
 
 class Dsu {
@@ -426,16 +450,39 @@ function buildTopology(prims: Primitive[]): Topology {
     positions: new Int32Array(0),
     stampSignature,
     hasNonlinear,
+    ...coupledStorage(prims),
+    ids: prims.map((e) => e.id),
+    kind: Uint8Array.from(prims, kindCode),
+    switchClosed: Uint8Array.from(prims, (e) => (e.type === 'switch' && e.closed ? 1 : 0)),
+    values: allocValues(prims),
   };
+  loadValues(topo, prims);
 
   // 4. Pattern pass: record the matrix entries the stamps touch, then the symbolic analysis.
   const rec = { rows: [] as number[], cols: [] as number[] };
   const asm = makeAssembler(topo, nUnknowns, rec, null);
-  asm.stampAll(prims);
+  asm.stampAll();
   const { symbolic, positions } = analyzePattern(nUnknowns, Int32Array.from(rec.rows), Int32Array.from(rec.cols), rec.rows.length);
   topo.symbolic = symbolic;
   topo.positions = positions;
   return topo;
+}
+
+function coupledStorage(prims: Primitive[]) {
+  const coupledOffset = new Int32Array(prims.length).fill(-1);
+  let total = 0;
+  for (let k = 0; k < prims.length; k++) {
+    const e = prims[k];
+    if (e.type !== 'coupledBranch') continue;
+    coupledOffset[k] = total;
+    total += e.from.length * e.from.length;
+  }
+  return {
+    coupledOffset,
+    cz: { re: new Float64Array(total), im: new Float64Array(total) },
+    cy: { re: new Float64Array(total), im: new Float64Array(total) },
+    coupledValid: new Uint8Array(prims.length),
+  };
 }
 
 /** Path between a and b in the zero-impedance forest (element indices), for the loop message. */
@@ -518,6 +565,166 @@ function zeroImpedanceLoopError(prims: Primitive[], closing: number, path: numbe
 }
 
 // ---------------------------------------------------------------------------------------------
+// Element values, compiled into typed arrays once per `update` (the input objects come in many
+// shapes, and reading them in every solve was a measurable cost: property reads on objects of
+// mixed shapes are slow in V8; typed arrays are not).
+
+const K_IMPEDANCE = 0;
+const K_SOURCE_Z = 1;
+const K_SOURCE_IDEAL = 2;
+const K_CURRENT = 3;
+const K_COUPLED = 4;
+const K_SWITCH = 5;
+const K_ADMITTANCE = 6;
+const K_ZIP = 7;
+
+/** Per-element values in typed arrays (meaning per kind in the comments). */
+interface Values {
+  /** impedance: 1/Z; source with series impedance: 1/Zs; zip load: y0 = conj(S)/Vr² (siemens). */
+  yRe: Float64Array;
+  yIm: Float64Array;
+  /** source: EMF (V); current source: amps (A); zip load: ratedVA (VA). */
+  sRe: Float64Array;
+  sIm: Float64Array;
+  /** zip load: ratedVolts and the z, i, p fractions. */
+  zipVolts: Float64Array;
+  zipZ: Float64Array;
+  zipI: Float64Array;
+  zipP: Float64Array;
+  /** admittance stamps: offset of each n×n block, and the values. */
+  stampOffset: Int32Array;
+  stampRe: Float64Array;
+  stampIm: Float64Array;
+}
+
+function kindCode(e: Primitive): number {
+  switch (e.type) {
+    case 'impedance':
+      return K_IMPEDANCE;
+    case 'voltageSource':
+      return isIdealSource(e) ? K_SOURCE_IDEAL : K_SOURCE_Z;
+    case 'currentSource':
+      return K_CURRENT;
+    case 'coupledBranch':
+      return K_COUPLED;
+    case 'switch':
+      return K_SWITCH;
+    case 'admittanceMatrix':
+      return K_ADMITTANCE;
+    case 'zipLoad':
+      return K_ZIP;
+  }
+}
+
+function allocValues(prims: Primitive[]): Values {
+  const n = prims.length;
+  const stampOffset = new Int32Array(n).fill(-1);
+  let total = 0;
+  for (let k = 0; k < n; k++) {
+    const e = prims[k];
+    if (e.type !== 'admittanceMatrix') continue;
+    stampOffset[k] = total;
+    total += e.nodes.length * e.nodes.length;
+  }
+  return {
+    yRe: new Float64Array(n),
+    yIm: new Float64Array(n),
+    sRe: new Float64Array(n),
+    sIm: new Float64Array(n),
+    zipVolts: new Float64Array(n),
+    zipZ: new Float64Array(n),
+    zipI: new Float64Array(n),
+    zipP: new Float64Array(n),
+    stampOffset,
+    stampRe: new Float64Array(total),
+    stampIm: new Float64Array(total),
+  };
+}
+
+/** Read the element values into the topology's typed arrays (coupled-branch inverses are refreshed only where Z changed). */
+function loadValues(t: Topology, prims: Primitive[]): void {
+  const v = t.values;
+  for (let k = 0; k < prims.length; k++) {
+    const e = prims[k];
+    switch (e.type) {
+      case 'impedance': {
+        const d = e.ohms.re * e.ohms.re + e.ohms.im * e.ohms.im;
+        v.yRe[k] = e.ohms.re / d;
+        v.yIm[k] = -e.ohms.im / d;
+        break;
+      }
+      case 'voltageSource': {
+        v.sRe[k] = e.volts.re;
+        v.sIm[k] = e.volts.im;
+        if (t.kind[k] === K_SOURCE_Z) {
+          const z = e.seriesOhms!;
+          const d = z.re * z.re + z.im * z.im;
+          v.yRe[k] = z.re / d;
+          v.yIm[k] = -z.im / d;
+        }
+        break;
+      }
+      case 'currentSource':
+        v.sRe[k] = e.amps.re;
+        v.sIm[k] = e.amps.im;
+        break;
+      case 'coupledBranch': {
+        const m = e.from.length;
+        const o = t.coupledOffset[k];
+        if (t.coupledValid[k] && sameMatrix(t.cz.re, t.cz.im, o, e.ohms)) break;
+        for (let i = 0; i < m; i++)
+          for (let j = 0; j < m; j++) {
+            t.cz.re[o + i * m + j] = e.ohms[i][j].re;
+            t.cz.im[o + i * m + j] = e.ohms[i][j].im;
+          }
+        t.coupledValid[k] = 0;
+        if (!denseInverseInto(m, t.cz.re, t.cz.im, o, t.cy.re, t.cy.im, o))
+          throw new InvalidCircuitError(
+            `Invalid circuit: coupled branch '${e.id}' has a singular impedance matrix (a conductor with zero impedance?); use switches for direct connections`,
+            [{ path: `elements[${k}].ohms`, message: 'singular impedance matrix' }],
+            { elementIds: [e.id] },
+          );
+        t.coupledValid[k] = 1;
+        break;
+      }
+      case 'admittanceMatrix': {
+        const m = e.nodes.length;
+        const o = v.stampOffset[k];
+        for (let i = 0; i < m; i++)
+          for (let j = 0; j < m; j++) {
+            v.stampRe[o + i * m + j] = e.siemens[i][j].re;
+            v.stampIm[o + i * m + j] = e.siemens[i][j].im;
+          }
+        break;
+      }
+      case 'zipLoad': {
+        const v2 = e.ratedVolts * e.ratedVolts;
+        v.sRe[k] = e.ratedVA.re;
+        v.sIm[k] = e.ratedVA.im;
+        v.yRe[k] = e.ratedVA.re / v2;
+        v.yIm[k] = -e.ratedVA.im / v2;
+        v.zipVolts[k] = e.ratedVolts;
+        v.zipZ[k] = e.zip.z;
+        v.zipI[k] = e.zip.i;
+        v.zipP[k] = e.zip.p;
+        break;
+      }
+      case 'switch':
+        break;
+    }
+  }
+}
+
+function sameMatrix(re: Float64Array, im: Float64Array, off: number, z: Cx[][]): boolean {
+  const m = z.length;
+  for (let i = 0; i < m; i++) {
+    const row = z[i];
+    for (let j = 0; j < m; j++) if (row[j].re !== re[off + i * m + j] || row[j].im !== im[off + i * m + j]) return false;
+  }
+  return true;
+}
+
+// ---------------------------------------------------------------------------------------------
 // Assembly: stamps into the permuted value arrays (positions recorded once per topology).
 
 interface Assembler {
@@ -527,17 +734,10 @@ interface Assembler {
   rhsIm: Float64Array;
   aRe: Float64Array;
   aIm: Float64Array;
-  /** Inverse impedance matrices of coupled branches (by element index), set by stampAll. */
-  coupledY: Map<number, { re: Float64Array; im: Float64Array }>;
-  stampAll(prims: Primitive[]): void;
+  stampAll(): void;
 }
 
-function makeAssembler(
-  t: Topology,
-  n: number,
-  rec: { rows: number[]; cols: number[] } | null,
-  values: { nnz: number } | null,
-): Assembler {
+function makeAssembler(t: Topology, n: number, rec: { rows: number[]; cols: number[] } | null, values: { nnz: number } | null): Assembler {
   const nn = t.nodeNames.length;
   const unknownOf = t.unknownOf;
   const offRe = new Float64Array(nn);
@@ -546,8 +746,6 @@ function makeAssembler(
   const rhsIm = new Float64Array(n);
   const aRe = new Float64Array(values ? values.nnz : 0);
   const aIm = new Float64Array(values ? values.nnz : 0);
-  const positions = t.positions;
-  const coupledY = new Map<number, { re: Float64Array; im: Float64Array }>();
   let cursor = 0;
 
   /** Nodal entry: current into the element at node r gains y·V(c). */
@@ -566,7 +764,7 @@ function makeAssembler(
       rec.rows.push(ur);
       rec.cols.push(uc);
     } else {
-      const p = positions[cursor++];
+      const p = t.positions[cursor++];
       aRe[p] += yr;
       aIm[p] += yi;
     }
@@ -584,7 +782,9 @@ function makeAssembler(
     rhsIm[u] += im;
   };
 
-  const stampAll = (prims: Primitive[]): void => {
+  const stampAll = (): void => {
+    const v = t.values;
+    const kind = t.kind;
     cursor = 0;
     rhsRe.fill(0);
     rhsIm.fill(0);
@@ -599,64 +799,46 @@ function makeAssembler(
       const p = t.treeParent[c];
       let re = offRe[p];
       let im = offIm[p];
-      const s = t.treeSign[c];
-      if (s !== 0) {
-        const v = (prims[t.treeEdge[c]] as Extract<Primitive, { type: 'voltageSource' }>).volts;
-        re += s * v.re;
-        im += s * v.im;
+      const sg = t.treeSign[c];
+      if (sg !== 0) {
+        const el = t.treeEdge[c];
+        re += sg * v.sRe[el];
+        im += sg * v.sIm[el];
       }
       offRe[c] = re;
       offIm[c] = im;
     }
-    for (let k = 0; k < prims.length; k++) {
-      const e = prims[k];
+    for (let k = 0; k < kind.length; k++) {
       const nodes = t.elNodes[k];
-      switch (e.type) {
-        case 'impedance': {
-          const d = e.ohms.re * e.ohms.re + e.ohms.im * e.ohms.im;
-          branch(nodes[0], nodes[1], e.ohms.re / d, -e.ohms.im / d);
+      switch (kind[k]) {
+        case K_IMPEDANCE:
+        case K_ZIP: // the whole rated power as an admittance in the matrix; the rest is a correcting injection
+          branch(nodes[0], nodes[1], v.yRe[k], v.yIm[k]);
           break;
-        }
-        case 'voltageSource': {
-          if (isIdealSource(e)) break;
-          const z = e.seriesOhms!;
-          const d = z.re * z.re + z.im * z.im;
-          const yr = z.re / d;
-          const yi = -z.im / d;
+        case K_SOURCE_Z: {
+          const yr = v.yRe[k];
+          const yi = v.yIm[k];
           branch(nodes[0], nodes[1], yr, yi);
           // Norton equivalent: E/Zs injected into plus, drawn from minus
-          const jr = e.volts.re * yr - e.volts.im * yi;
-          const ji = e.volts.re * yi + e.volts.im * yr;
+          const jr = v.sRe[k] * yr - v.sIm[k] * yi;
+          const ji = v.sRe[k] * yi + v.sIm[k] * yr;
           inject(nodes[0], jr, ji);
           inject(nodes[1], -jr, -ji);
           break;
         }
-        case 'currentSource':
-          inject(nodes[1], e.amps.re, e.amps.im);
-          inject(nodes[0], -e.amps.re, -e.amps.im);
+        case K_CURRENT:
+          inject(nodes[1], v.sRe[k], v.sIm[k]);
+          inject(nodes[0], -v.sRe[k], -v.sIm[k]);
           break;
-        case 'switch':
-          break;
-        case 'coupledBranch': {
-          const m = e.from.length;
-          const z = denseZeros(m);
+        case K_COUPLED: {
+          const m = nodes.length >> 1;
+          const o = t.coupledOffset[k];
+          const yRe = t.cy.re;
+          const yIm = t.cy.im;
           for (let i = 0; i < m; i++)
             for (let j = 0; j < m; j++) {
-              z.re[i * m + j] = e.ohms[i][j].re;
-              z.im[i * m + j] = e.ohms[i][j].im;
-            }
-          const y = denseInverse(z);
-          if (!y)
-            throw new InvalidCircuitError(
-              `Invalid circuit: coupled branch '${e.id}' has a singular impedance matrix (a conductor with zero impedance?); use switches for direct connections`,
-              [{ path: `elements[${k}].ohms`, message: 'singular impedance matrix' }],
-              { elementIds: [e.id] },
-            );
-          coupledY.set(k, { re: y.re, im: y.im });
-          for (let i = 0; i < m; i++)
-            for (let j = 0; j < m; j++) {
-              const yr = y.re[i * m + j];
-              const yi = y.im[i * m + j];
+              const yr = yRe[o + i * m + j];
+              const yi = yIm[o + i * m + j];
               entry(nodes[i], nodes[j], yr, yi);
               entry(nodes[m + i], nodes[m + j], yr, yi);
               entry(nodes[i], nodes[m + j], -yr, -yi);
@@ -664,54 +846,46 @@ function makeAssembler(
             }
           break;
         }
-        case 'admittanceMatrix': {
-          const m = e.nodes.length;
-          for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) entry(nodes[i], nodes[j], e.siemens[i][j].re, e.siemens[i][j].im);
+        case K_ADMITTANCE: {
+          const m = nodes.length;
+          const o = v.stampOffset[k];
+          for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) entry(nodes[i], nodes[j], v.stampRe[o + i * m + j], v.stampIm[o + i * m + j]);
           break;
         }
-        case 'zipLoad': {
-          // the whole rated power as an impedance in the matrix; the rest is a correcting injection
-          const v2 = e.ratedVolts * e.ratedVolts;
-          branch(nodes[0], nodes[1], e.ratedVA.re / v2, -e.ratedVA.im / v2);
+        default: // ideal sources and switches: folded into the supernodes
           break;
-        }
       }
     }
   };
-  return { offRe, offIm, rhsRe, rhsIm, aRe, aIm, coupledY, stampAll };
+  return { offRe, offIm, rhsRe, rhsIm, aRe, aIm, stampAll };
 }
 
 // ---------------------------------------------------------------------------------------------
 // Solve: factor, iterate voltage-dependent loads, recover currents.
 
-type ZipLoad = Extract<Primitive, { type: 'zipLoad' }>;
+/** Scratch for zipCurrent's result (re, im), to keep the inner loops free of allocation. */
+const ZC = new Float64Array(2);
 
-/** Current drawn by a zip load (from → to) at terminal voltage V = vr + j·vi, with the low-voltage rule. */
-function zipCurrent(e: ZipLoad, vr: number, vi: number, lowPu: number): [number, number] {
-  const vrated = e.ratedVolts;
+/** Current drawn by zip load k (from → to) at terminal voltage V = vr + j·vi, with the low-voltage rule; result in ZC. */
+function zipCurrent(v: Values, k: number, vr: number, vi: number, lowPu: number): void {
+  const vrated = v.zipVolts[k];
   const m2 = vr * vr + vi * vi;
   const m = Math.sqrt(m2);
   const pu = m / vrated;
-  const sr = e.ratedVA.re;
-  const si = e.ratedVA.im;
-  // I = g·V with g = conj(S_part)·factor
-  let f = e.zip.z / (vrated * vrated);
+  // I = g·V with g = conj(S)·f, f summing the parts: z/Vr², i/(Vr·|V|), p/|V|²
+  let f = v.zipZ[k] / (vrated * vrated);
   if (pu >= lowPu && m > 0) {
-    f += e.zip.i / (vrated * m) + e.zip.p / m2;
+    f += v.zipI[k] / (vrated * m) + v.zipP[k] / m2;
   } else {
-    f += e.zip.i / (lowPu * vrated * vrated) + e.zip.p / (lowPu * lowPu * vrated * vrated);
+    f += v.zipI[k] / (lowPu * vrated * vrated) + v.zipP[k] / (lowPu * lowPu * vrated * vrated);
   }
-  const gr = sr * f;
-  const gi = -si * f;
-  return [gr * vr - gi * vi, gr * vi + gi * vr];
+  const gr = v.sRe[k] * f;
+  const gi = -v.sIm[k] * f;
+  ZC[0] = gr * vr - gi * vi;
+  ZC[1] = gr * vi + gi * vr;
 }
 
-function solveTopology(
-  t: Topology,
-  prims: Primitive[],
-  options: SolverOptions,
-  analyzeMs: number,
-): { solution: PrimitiveSolution; timings: SolveTimings } {
+function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): { solution: PrimitiveSolution; timings: SolveTimings } {
   const tStart = now();
   const tol = options.tolerance ?? DEFAULT_TOLERANCE;
   const maxIter = options.maxIterations ?? DEFAULT_MAX_ITERATIONS;
@@ -720,29 +894,32 @@ function solveTopology(
   if (!Number.isInteger(maxIter) || maxIter < 1) throw new InvalidCircuitError(`Invalid solve options: maxIterations must be a positive integer (got ${maxIter})`);
   if (!(lowPu > 0 && lowPu <= 1)) throw new InvalidCircuitError(`Invalid solve options: lowVoltagePu must be in (0, 1] (got ${lowPu})`);
 
-  checkCurrentSourceCutSets(t, prims);
+  checkCurrentSourceCutSets(t);
 
   const n = t.nUnknowns;
   const s = t.symbolic;
-  const asm = makeAssembler(t, n, null, { nnz: s.rowIdx.length });
-  asm.stampAll(prims);
+  const v = t.values;
+  // the value assembler and the LU workspace are kept per topology (no reallocation between solves)
+  const asm = (t.valueAssembler ??= makeAssembler(t, n, null, { nnz: s.rowIdx.length }));
+  asm.stampAll();
   const tAsm = now();
-  const lu = factorNumeric(s, asm.aRe, asm.aIm);
+  const lu = factorNumeric(s, asm.aRe, asm.aIm, undefined, undefined, (t.workspace ??= createLuWorkspace(s)));
   const tFac = now();
 
   const nn = t.nodeNames.length;
   const vRe = new Float64Array(nn);
   const vIm = new Float64Array(nn);
+  const unknownOf = t.unknownOf;
   const setVoltages = (x: { re: Float64Array; im: Float64Array }) => {
     for (let i = 0; i < nn; i++) {
-      const u = t.unknownOf[i];
+      const u = unknownOf[i];
       vRe[i] = asm.offRe[i] + (u >= 0 ? x.re[u] : 0);
       vIm[i] = asm.offIm[i] + (u >= 0 ? x.im[u] : 0);
     }
   };
 
   const zipIdx: number[] = [];
-  for (let k = 0; k < prims.length; k++) if (prims[k].type === 'zipLoad' && (prims[k] as ZipLoad).zip.z !== 1) zipIdx.push(k);
+  for (let k = 0; k < t.kind.length; k++) if (t.kind[k] === K_ZIP && v.zipZ[k] !== 1) zipIdx.push(k);
 
   let iterations = 1;
   let x = lu.solve(asm.rhsRe, asm.rhsIm);
@@ -756,29 +933,28 @@ function solveTopology(
     const corrIm = new Float64Array(nz);
     const bRe = new Float64Array(n);
     const bIm = new Float64Array(n);
-    const terminal = (a: number) => {
-      const [f, to] = t.elNodes[zipIdx[a]];
-      return [vRe[f] - vRe[to], vIm[f] - vIm[to]];
-    };
-    for (let a = 0; a < nz; a++) [prevRe[a], prevIm[a]] = terminal(a);
+    for (let a = 0; a < nz; a++) {
+      const nodes = t.elNodes[zipIdx[a]];
+      prevRe[a] = vRe[nodes[0]] - vRe[nodes[1]];
+      prevIm[a] = vIm[nodes[0]] - vIm[nodes[1]];
+    }
     let converged = false;
     const lastChange = new Float64Array(nz);
     while (iterations < maxIter) {
-      // correction c = I(V) − y0·V for each load, injected as −c at `from`, +c at `to`
+      // Chord iteration (current injection): the matrix holds y0 = conj(S)/Vr² for each load, and
+      // the correction c = I(V) − y0·V at the last voltages is injected as −c at `from`, +c at `to`.
       bRe.set(asm.rhsRe);
       bIm.set(asm.rhsIm);
       for (let a = 0; a < nz; a++) {
-        const e = prims[zipIdx[a]] as ZipLoad;
-        const [vr, vi] = [prevRe[a], prevIm[a]];
-        const [ir, ii] = zipCurrent(e, vr, vi, lowPu);
-        const v2 = e.ratedVolts * e.ratedVolts;
-        const y0r = e.ratedVA.re / v2;
-        const y0i = -e.ratedVA.im / v2;
-        corrRe[a] = ir - (y0r * vr - y0i * vi);
-        corrIm[a] = ii - (y0r * vi + y0i * vr);
-        const [f, to] = t.elNodes[zipIdx[a]];
-        const uf = t.unknownOf[f];
-        const ut = t.unknownOf[to];
+        const k = zipIdx[a];
+        const vr = prevRe[a];
+        const vi = prevIm[a];
+        zipCurrent(v, k, vr, vi, lowPu);
+        corrRe[a] = ZC[0] - (v.yRe[k] * vr - v.yIm[k] * vi);
+        corrIm[a] = ZC[1] - (v.yRe[k] * vi + v.yIm[k] * vr);
+        const nodes = t.elNodes[k];
+        const uf = unknownOf[nodes[0]];
+        const ut = unknownOf[nodes[1]];
         if (uf >= 0) {
           bRe[uf] -= corrRe[a];
           bIm[uf] -= corrIm[a];
@@ -796,9 +972,10 @@ function solveTopology(
       setVoltages(x);
       let worst = 0;
       for (let a = 0; a < nz; a++) {
-        const [vr, vi] = terminal(a);
-        const e = prims[zipIdx[a]] as ZipLoad;
-        const ch = Math.hypot(vr - prevRe[a], vi - prevIm[a]) / e.ratedVolts;
+        const nodes = t.elNodes[zipIdx[a]];
+        const vr = vRe[nodes[0]] - vRe[nodes[1]];
+        const vi = vIm[nodes[0]] - vIm[nodes[1]];
+        const ch = Math.hypot(vr - prevRe[a], vi - prevIm[a]) / v.zipVolts[zipIdx[a]];
         lastChange[a] = ch;
         if (ch > worst) worst = ch;
         prevRe[a] = vr;
@@ -810,11 +987,11 @@ function solveTopology(
       }
       if (!(worst < 1e3)) break; // diverging
     }
-    if (!converged) throw nonConvergence(t, prims, zipIdx, vRe, vIm, corrRe, corrIm, lastChange, iterations, lowPu);
+    if (!converged) throw nonConvergence(t, zipIdx, vRe, vIm, corrRe, corrIm, lastChange, iterations, lowPu);
   }
   const tSol = now();
 
-  const { currents, maxKcl } = elementCurrents(t, prims, asm, vRe, vIm, lowPu);
+  const { currents, maxKcl } = elementCurrents(t, vRe, vIm, lowPu);
   const nodeVolts = new Map<string, Cx>();
   for (let i = 0; i < nn; i++) nodeVolts.set(t.nodeNames[i], { re: vRe[i], im: vIm[i] });
   const floating: FloatingIsland[] = t.islands.map((i) => ({ nodes: i.island.nodes.slice(), referenceNode: i.island.referenceNode }));
@@ -845,7 +1022,8 @@ function checkFinite(x: { re: Float64Array; im: Float64Array }, t: Topology): vo
 }
 
 /** A floating island whose current sources do not sum to zero has nowhere for that current to flow. */
-function checkCurrentSourceCutSets(t: Topology, prims: Primitive[]): void {
+function checkCurrentSourceCutSets(t: Topology): void {
+  const v = t.values;
   for (const isl of t.islands) {
     if (isl.currentSources.length === 0) continue;
     const inside = new Set(isl.nodeSet);
@@ -853,15 +1031,14 @@ function checkCurrentSourceCutSets(t: Topology, prims: Primitive[]): void {
     let im = 0;
     let scale = 0;
     for (const k of isl.currentSources) {
-      const e = prims[k] as Extract<Primitive, { type: 'currentSource' }>;
       const [a, b] = t.elNodes[k];
       const sgn = (inside.has(b) ? 1 : 0) - (inside.has(a) ? 1 : 0);
-      re += sgn * e.amps.re;
-      im += sgn * e.amps.im;
-      scale = Math.max(scale, cabs(e.amps));
+      re += sgn * v.sRe[k];
+      im += sgn * v.sIm[k];
+      scale = Math.max(scale, Math.hypot(v.sRe[k], v.sIm[k]));
     }
     if (Math.hypot(re, im) > 1e-12 * scale && scale > 0) {
-      const ids = isl.currentSources.map((k) => prims[k].id);
+      const ids = isl.currentSources.map((k) => t.ids[k]);
       const names = isl.island.nodes;
       const where =
         names.length === 1
@@ -896,7 +1073,6 @@ function numericIslands(t: Topology, lu: NumericLu): FloatingIsland[] {
 
 function nonConvergence(
   t: Topology,
-  prims: Primitive[],
   zipIdx: number[],
   vRe: Float64Array,
   vIm: Float64Array,
@@ -908,20 +1084,18 @@ function nonConvergence(
 ): NonConvergenceError {
   // Worst mismatch: the load whose law I(V) differs most, in VA, from the current the last linear
   // solve gave it (y0·V + correction), at the last voltages.
+  const v = t.values;
   let worst = 0;
   let worstVa = -1;
   const mismatch = new Float64Array(zipIdx.length);
   for (let a = 0; a < zipIdx.length; a++) {
-    const e = prims[zipIdx[a]] as ZipLoad;
-    const [f, to] = t.elNodes[zipIdx[a]];
+    const k = zipIdx[a];
+    const [f, to] = t.elNodes[k];
     const vr = vRe[f] - vRe[to];
     const vi = vIm[f] - vIm[to];
-    const v2 = e.ratedVolts * e.ratedVolts;
-    const y0r = e.ratedVA.re / v2;
-    const y0i = -e.ratedVA.im / v2;
-    const [ir, ii] = zipCurrent(e, vr, vi, lowPu);
-    const dr = y0r * vr - y0i * vi + corrRe[a] - ir;
-    const di = y0r * vi + y0i * vr + corrIm[a] - ii;
+    zipCurrent(v, k, vr, vi, lowPu);
+    const dr = v.yRe[k] * vr - v.yIm[k] * vi + corrRe[a] - ZC[0];
+    const di = v.yRe[k] * vi + v.yIm[k] * vr + corrIm[a] - ZC[1];
     const va = Math.hypot(vr, vi) * Math.hypot(dr, di);
     mismatch[a] = Number.isFinite(va) ? va : Infinity;
     if (mismatch[a] > worstVa) {
@@ -929,130 +1103,127 @@ function nonConvergence(
       worst = a;
     }
   }
-  const e = prims[zipIdx[worst]] as ZipLoad;
-  const [f, to] = t.elNodes[zipIdx[worst]];
-  const vr = vRe[f] - vRe[to];
-  const vi = vIm[f] - vIm[to];
-  const pu = Math.hypot(vr, vi) / e.ratedVolts;
+  const k = zipIdx[worst];
+  const [f, to] = t.elNodes[k];
+  const pu = Math.hypot(vRe[f] - vRe[to], vIm[f] - vIm[to]) / v.zipVolts[k];
   const puText = Number.isFinite(pu) ? `${pu.toFixed(3)} pu` : 'not finite';
   return new NonConvergenceError(
-    `Voltage-dependent loads did not converge in ${iterations} iterations (possible voltage collapse: the loads ask for more power than the network can deliver). Worst mismatch at load '${e.id}': ${+mismatch[worst].toPrecision(4)} VA at terminal voltage ${puText} (last change ${lastChange[worst].toExponential(2)} pu; rated ${e.ratedVA.re} + j${e.ratedVA.im} VA at ${e.ratedVolts} V).`,
-    { elementIds: [e.id], nodes: [e.from, e.to] },
+    `Voltage-dependent loads did not converge in ${iterations} iterations (possible voltage collapse: the loads ask for more power than the network can deliver). Worst mismatch at load '${t.ids[k]}': ${+mismatch[worst].toPrecision(4)} VA at terminal voltage ${puText} (last change ${lastChange[worst].toExponential(2)} pu; rated ${v.sRe[k]} + j${v.sIm[k]} VA at ${v.zipVolts[k]} V).`,
+    { elementIds: [t.ids[k]], nodes: [t.nodeNames[f], t.nodeNames[to]] },
   );
 }
 
-function elementCurrents(
-  t: Topology,
-  prims: Primitive[],
-  asm: Assembler,
-  vRe: Float64Array,
-  vIm: Float64Array,
-  lowPu: number,
-): { currents: Map<string, Cx[]>; maxKcl: number } {
+/** Element currents in the conventions of types.ts, and the largest KCL residual (A). */
+function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowPu: number): { currents: Map<string, Cx[]>; maxKcl: number } {
   const nn = t.nodeNames.length;
+  const v = t.values;
+  const kind = t.kind;
+  const ids = t.ids;
   // outflow[i]: current leaving node i into the (non-tree) elements
   const oRe = new Float64Array(nn);
   const oIm = new Float64Array(nn);
-  const out = (i: number, re: number, im: number) => {
-    oRe[i] += re;
-    oIm[i] += im;
-  };
   const currents = new Map<string, Cx[]>();
   const treeEls: number[] = [];
-  for (let k = 0; k < prims.length; k++) {
-    const e = prims[k];
+  for (let k = 0; k < kind.length; k++) {
     const nodes = t.elNodes[k];
-    switch (e.type) {
-      case 'impedance': {
-        const dr = vRe[nodes[0]] - vRe[nodes[1]];
-        const di = vIm[nodes[0]] - vIm[nodes[1]];
-        const d = e.ohms.re * e.ohms.re + e.ohms.im * e.ohms.im;
-        const ir = (dr * e.ohms.re + di * e.ohms.im) / d;
-        const ii = (di * e.ohms.re - dr * e.ohms.im) / d;
-        currents.set(e.id, [{ re: ir, im: ii }]);
-        out(nodes[0], ir, ii);
-        out(nodes[1], -ir, -ii);
-        break;
-      }
-      case 'voltageSource': {
-        if (isIdealSource(e)) {
-          treeEls.push(k);
-          break;
-        }
-        // I = (E − (V+ − V−)) / Zs, leaving plus into the circuit
-        const z = e.seriesOhms!;
-        const dr = e.volts.re - (vRe[nodes[0]] - vRe[nodes[1]]);
-        const di = e.volts.im - (vIm[nodes[0]] - vIm[nodes[1]]);
-        const d = z.re * z.re + z.im * z.im;
-        const ir = (dr * z.re + di * z.im) / d;
-        const ii = (di * z.re - dr * z.im) / d;
-        currents.set(e.id, [{ re: ir, im: ii }]);
-        out(nodes[0], -ir, -ii);
-        out(nodes[1], ir, ii);
-        break;
-      }
-      case 'currentSource':
-        currents.set(e.id, [{ re: e.amps.re, im: e.amps.im }]);
-        out(nodes[0], e.amps.re, e.amps.im);
-        out(nodes[1], -e.amps.re, -e.amps.im);
-        break;
-      case 'switch':
-        if (e.closed) treeEls.push(k);
-        else currents.set(e.id, [{ re: 0, im: 0 }]);
-        break;
-      case 'coupledBranch': {
-        const m = e.from.length;
-        const y = asm.coupledY.get(k)!;
-        const list: Cx[] = [];
-        for (let i = 0; i < m; i++) {
-          let ir = 0;
-          let ii = 0;
-          for (let j = 0; j < m; j++) {
-            const dr = vRe[nodes[j]] - vRe[nodes[m + j]];
-            const di = vIm[nodes[j]] - vIm[nodes[m + j]];
-            const yr = y.re[i * m + j];
-            const yi = y.im[i * m + j];
-            ir += yr * dr - yi * di;
-            ii += yr * di + yi * dr;
-          }
-          list.push({ re: ir, im: ii });
-          out(nodes[i], ir, ii);
-          out(nodes[m + i], -ir, -ii);
-        }
-        currents.set(e.id, list);
-        break;
-      }
-      case 'admittanceMatrix': {
-        const m = e.nodes.length;
-        const list: Cx[] = [];
-        for (let i = 0; i < m; i++) {
-          let ir = 0;
-          let ii = 0;
-          for (let j = 0; j < m; j++) {
-            const y = e.siemens[i][j];
-            ir += y.re * vRe[nodes[j]] - y.im * vIm[nodes[j]];
-            ii += y.re * vIm[nodes[j]] + y.im * vRe[nodes[j]];
-          }
-          list.push({ re: ir, im: ii });
-          out(nodes[i], ir, ii);
-        }
-        currents.set(e.id, list);
-        break;
-      }
-      case 'zipLoad': {
-        const [ir, ii] = zipCurrent(e, vRe[nodes[0]] - vRe[nodes[1]], vIm[nodes[0]] - vIm[nodes[1]], lowPu);
-        currents.set(e.id, [{ re: ir, im: ii }]);
-        out(nodes[0], ir, ii);
-        out(nodes[1], -ir, -ii);
-        break;
-      }
+    const kk = kind[k];
+    if (kk === K_SOURCE_IDEAL || (kk === K_SWITCH && t.switchClosed[k])) {
+      treeEls.push(k);
+      continue;
     }
+    if (kk === K_COUPLED) {
+      const m = nodes.length >> 1;
+      const o = t.coupledOffset[k];
+      const yRe = t.cy.re;
+      const yIm = t.cy.im;
+      const list: Cx[] = new Array(m);
+      for (let i = 0; i < m; i++) {
+        let ir = 0;
+        let ii = 0;
+        for (let j = 0; j < m; j++) {
+          const dr = vRe[nodes[j]] - vRe[nodes[m + j]];
+          const di = vIm[nodes[j]] - vIm[nodes[m + j]];
+          const yr = yRe[o + i * m + j];
+          const yi = yIm[o + i * m + j];
+          ir += yr * dr - yi * di;
+          ii += yr * di + yi * dr;
+        }
+        list[i] = { re: ir, im: ii };
+        oRe[nodes[i]] += ir;
+        oIm[nodes[i]] += ii;
+        oRe[nodes[m + i]] -= ir;
+        oIm[nodes[m + i]] -= ii;
+      }
+      currents.set(ids[k], list);
+      continue;
+    }
+    if (kk === K_ADMITTANCE) {
+      const m = nodes.length;
+      const o = v.stampOffset[k];
+      const list: Cx[] = new Array(m);
+      for (let i = 0; i < m; i++) {
+        let ir = 0;
+        let ii = 0;
+        for (let j = 0; j < m; j++) {
+          const yr = v.stampRe[o + i * m + j];
+          const yi = v.stampIm[o + i * m + j];
+          ir += yr * vRe[nodes[j]] - yi * vIm[nodes[j]];
+          ii += yr * vIm[nodes[j]] + yi * vRe[nodes[j]];
+        }
+        list[i] = { re: ir, im: ii };
+        oRe[nodes[i]] += ir;
+        oIm[nodes[i]] += ii;
+      }
+      currents.set(ids[k], list);
+      continue;
+    }
+    // two-terminal elements: ir + j·ii flows from nodes[0] to nodes[1] through the element
+    const a = nodes[0];
+    const b = nodes[1];
+    const dr = vRe[a] - vRe[b];
+    const di = vIm[a] - vIm[b];
+    let ir = 0;
+    let ii = 0;
+    let cr = 0; // the reported current (same as ir, ii except for sources)
+    let ci = 0;
+    if (kk === K_IMPEDANCE) {
+      ir = v.yRe[k] * dr - v.yIm[k] * di;
+      ii = v.yRe[k] * di + v.yIm[k] * dr;
+      cr = ir;
+      ci = ii;
+    } else if (kk === K_SOURCE_Z) {
+      // I = (E − (V+ − V−)) / Zs, leaving plus into the circuit (so flowing minus → plus inside)
+      const er = v.sRe[k] - dr;
+      const ei = v.sIm[k] - di;
+      cr = v.yRe[k] * er - v.yIm[k] * ei;
+      ci = v.yRe[k] * ei + v.yIm[k] * er;
+      ir = -cr;
+      ii = -ci;
+    } else if (kk === K_CURRENT) {
+      ir = v.sRe[k];
+      ii = v.sIm[k];
+      cr = ir;
+      ci = ii;
+    } else if (kk === K_ZIP) {
+      zipCurrent(v, k, dr, di, lowPu);
+      ir = ZC[0];
+      ii = ZC[1];
+      cr = ir;
+      ci = ii;
+    }
+    // (open switch: zero)
+    currents.set(ids[k], [{ re: cr, im: ci }]);
+    oRe[a] += ir;
+    oIm[a] += ii;
+    oRe[b] -= ir;
+    oIm[b] -= ii;
   }
   // Ideal elements: KCL leaf to root along each zero-impedance tree. F = net current leaving a
   // subtree into the other elements; the edge to the parent brings exactly F into the subtree.
-  const fRe = Float64Array.from(oRe);
-  const fIm = Float64Array.from(oIm);
-  const edgeCurrent = new Map<number, Cx>();
+  const fRe = oRe;
+  const fIm = oIm;
+  const edgeRe = new Float64Array(kind.length);
+  const edgeIm = new Float64Array(kind.length);
   const order = t.treeOrder;
   let maxKcl = 0;
   for (let q = order.length - 1; q >= 0; q--) {
@@ -1068,51 +1239,19 @@ function elementCurrents(
       maxKcl = Math.max(maxKcl, Math.hypot(Fr, Fi));
       continue;
     }
-    const e = prims[el];
-    let sign: number; // current in the element's convention = sign × (current from parent into child)
-    if (e.type === 'switch') sign = t.elNodes[el][1] === c ? 1 : -1; // from parent to child = from → to
-    else sign = t.elNodes[el][0] === c ? 1 : -1; // source: current leaving plus = current arriving at plus
-    edgeCurrent.set(el, { re: sign * Fr, im: sign * Fi });
+    // switch: current from → to, i.e. from parent to child when the child is `to`; source: the
+    // current leaving plus into the circuit is the current arriving at plus from the parent side
+    const sign = kind[el] === K_SWITCH ? (t.elNodes[el][1] === c ? 1 : -1) : t.elNodes[el][0] === c ? 1 : -1;
+    edgeRe[el] = sign * Fr;
+    edgeIm[el] = sign * Fi;
   }
-  for (const k of treeEls) currents.set(prims[k].id, [edgeCurrent.get(k) ?? { re: 0, im: 0 }]);
-  // KCL residual: nodes off the trees and the roots of trees other than earth's
+  for (const k of treeEls) currents.set(ids[k], [{ re: edgeRe[k], im: edgeIm[k] }]);
+  // KCL residual: nodes off the trees and the roots of trees other than earth's (the tree edges
+  // balance every other node exactly by construction)
   for (let i = 1; i < nn; i++) {
     if (t.treeParent[i] !== -1) continue;
-    if (t.unknownOf[i] < 0) continue; // earth-tree root is earth itself; earth is not checked
+    if (t.unknownOf[i] < 0) continue;
     maxKcl = Math.max(maxKcl, Math.hypot(fRe[i], fIm[i]));
   }
-  // Recompute from the element currents as an independent self-check (KCL at every node but earth).
-  const chkRe = new Float64Array(nn);
-  const chkIm = new Float64Array(nn);
-  for (let k = 0; k < prims.length; k++) {
-    const e = prims[k];
-    const list = currents.get(e.id)!;
-    const nodes = t.elNodes[k];
-    const add = (i: number, c: Cx, s: number) => {
-      chkRe[i] += s * c.re;
-      chkIm[i] += s * c.im;
-    };
-    switch (e.type) {
-      case 'voltageSource':
-        add(nodes[0], list[0], -1);
-        add(nodes[1], list[0], 1);
-        break;
-      case 'coupledBranch': {
-        const m = e.from.length;
-        for (let i = 0; i < m; i++) {
-          add(nodes[i], list[i], 1);
-          add(nodes[m + i], list[i], -1);
-        }
-        break;
-      }
-      case 'admittanceMatrix':
-        for (let i = 0; i < nodes.length; i++) add(nodes[i], list[i], 1);
-        break;
-      default:
-        add(nodes[0], list[0], 1);
-        add(nodes[1], list[0], -1);
-    }
-  }
-  for (let i = 1; i < nn; i++) maxKcl = Math.max(maxKcl, Math.hypot(chkRe[i], chkIm[i]));
   return { currents, maxKcl };
 }

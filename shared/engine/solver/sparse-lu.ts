@@ -129,18 +129,23 @@ function buildSymmetricPattern(
     tmp[fill[c]++] = map(r);
     tmp[fill[r]++] = map(c);
   }
-  // per (mapped) column: sort and dedupe
-  const colPtr = new Int32Array(n + 1);
-  const chunks: Int32Array[] = new Array(n);
+  // per column: sort and dedupe in place (typed-array sort is numeric), then lay the columns out
+  // in mapped order
+  const len = new Int32Array(n);
   for (let j = 0; j < n; j++) {
-    const seg = tmp.subarray(start[j], start[j + 1]).slice().sort();
+    const seg = tmp.subarray(start[j], start[j + 1]);
+    seg.sort();
     let m = 0;
     for (let q = 0; q < seg.length; q++) if (q === 0 || seg[q] !== seg[q - 1]) seg[m++] = seg[q];
-    chunks[map(j)] = seg.subarray(0, m);
+    len[map(j)] = m;
   }
-  for (let j = 0; j < n; j++) colPtr[j + 1] = colPtr[j] + chunks[j].length;
+  const colPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) colPtr[j + 1] = colPtr[j] + len[j];
   const rowIdx = new Int32Array(colPtr[n]);
-  for (let j = 0; j < n; j++) rowIdx.set(chunks[j], colPtr[j]);
+  for (let j = 0; j < n; j++) {
+    const mj = map(j);
+    rowIdx.set(tmp.subarray(start[j], start[j] + len[mj]), colPtr[mj]);
+  }
   return { colPtr, rowIdx };
 }
 
@@ -168,32 +173,79 @@ export const DEFAULT_RANK_TOL = 1e-11;
  * Numerical factorization of the matrix whose values are given on the permuted pattern
  * (`aRe`/`aIm` indexed like `symbolic.rowIdx`: entry (rowIdx[p], column) of P·A·Pᵀ).
  */
+/** Reusable arrays for repeated factorizations of one symbolic pattern (avoids reallocating ~20 MB per solve at 80 000 unknowns). */
+export interface LuWorkspace {
+  li: Int32Array;
+  lxr: Float64Array;
+  lxi: Float64Array;
+  uxr: Float64Array;
+  uxi: Float64Array;
+  dr: Float64Array;
+  di: Float64Array;
+  yr: Float64Array;
+  yi: Float64Array;
+  xr: Float64Array;
+  xi: Float64Array;
+  pattern: Int32Array;
+  flag: Int32Array;
+  lcount: Int32Array;
+  isDeferred: Uint8Array;
+  scale: Float64Array;
+  wr: Float64Array;
+  wi: Float64Array;
+}
+
+/** Allocate a workspace for factorizations of `s`. */
+export function createLuWorkspace(s: SymbolicLu): LuWorkspace {
+  const n = s.n;
+  const lnz = s.lnz;
+  return {
+    li: new Int32Array(lnz),
+    lxr: new Float64Array(lnz),
+    lxi: new Float64Array(lnz),
+    uxr: new Float64Array(lnz),
+    uxi: new Float64Array(lnz),
+    dr: new Float64Array(n),
+    di: new Float64Array(n),
+    yr: new Float64Array(n),
+    yi: new Float64Array(n),
+    xr: new Float64Array(n),
+    xi: new Float64Array(n),
+    pattern: new Int32Array(n),
+    flag: new Int32Array(n),
+    lcount: new Int32Array(n),
+    isDeferred: new Uint8Array(n),
+    scale: new Float64Array(n),
+    wr: new Float64Array(n),
+    wi: new Float64Array(n),
+  };
+}
+
+/**
+ * Numerical factorization of the matrix whose values are given on the permuted pattern
+ * (`aRe`/`aIm` indexed like `symbolic.rowIdx`: entry (rowIdx[p], column) of P·A·Pᵀ).
+ * With a workspace, its arrays are reused: a previous factorization on the same workspace is then invalid.
+ */
 export function factorNumeric(
   s: SymbolicLu,
   aRe: Float64Array,
   aIm: Float64Array,
   pivotTol = DEFAULT_PIVOT_TOL,
   rankTol = DEFAULT_RANK_TOL,
+  workspace?: LuWorkspace,
 ): NumericLu {
   const { n, colPtr, rowIdx, tpos, parent, lp } = s;
-  const lnz = s.lnz;
-  const li = new Int32Array(lnz);
-  const lxr = new Float64Array(lnz);
-  const lxi = new Float64Array(lnz);
-  const uxr = new Float64Array(lnz);
-  const uxi = new Float64Array(lnz);
-  const dr = new Float64Array(n);
-  const di = new Float64Array(n);
-  const yr = new Float64Array(n); // column k of A above the diagonal, reduced
-  const yi = new Float64Array(n);
-  const xr = new Float64Array(n); // row k of A left of the diagonal, reduced
-  const xi = new Float64Array(n);
-  const pattern = new Int32Array(n);
-  const flag = new Int32Array(n);
-  const lcount = new Int32Array(n);
-  const isDeferred = new Uint8Array(n);
+  const ws = workspace ?? createLuWorkspace(s);
+  const { li, lxr, lxi, uxr, uxi, dr, di, yr, yi, xr, xi, pattern, flag, lcount, isDeferred, scale } = ws;
+  // yr/yi/xr/xi are left zero by every step; the counters and flags must start clean
+  lcount.fill(0);
+  isDeferred.fill(0);
+  flag.fill(-1);
+  yr.fill(0);
+  yi.fill(0);
+  xr.fill(0);
+  xi.fill(0);
   const deferredP: number[] = [];
-  const scale = new Float64Array(n);
   let minRel = Infinity;
 
   for (let k = 0; k < n; k++) {
@@ -227,8 +279,6 @@ export function factorNumeric(
       while (len > 0) pattern[--top] = pattern[--len];
     }
     scale[k] = sc;
-    const start = lp[k] + 0; // positions appended in step k are tracked via lcount of each column
-    void start;
     const firstTop = top;
     for (; top < n; top++) {
       const i = pattern[top];
@@ -292,8 +342,8 @@ export function factorNumeric(
 
   const perm = s.perm;
   const pinv = s.pinv;
-  const wr = new Float64Array(n);
-  const wi = new Float64Array(n);
+  const wr = ws.wr;
+  const wi = ws.wi;
 
   /** Solve A'·x = b in permuted space, in place (A' = A with deferred rows/columns set to identity). */
   const solvePermuted = (vr: Float64Array, vi: Float64Array): void => {
