@@ -118,7 +118,13 @@ function mergeSolidEarthBonds(expansions: Expansion[]): void {
   const find = (x: string): string => {
     let r = x;
     while (parent.has(r) && parent.get(r) !== r) r = parent.get(r)!;
-    parent.set(x, r);
+    // path compression keeps long chains of switches linear
+    let y = x;
+    while (y !== r) {
+      const next = parent.get(y)!;
+      parent.set(y, r);
+      y = next;
+    }
     return r;
   };
   const union = (a: string, b: string) => {

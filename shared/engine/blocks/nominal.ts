@@ -37,21 +37,25 @@ export function inferNominals(circuit: Circuit, split: Set<string>): Map<string,
       set(el.from, el.primary.includes('n') ? el.kvHigh * Math.sqrt(3) : el.kvHigh);
     }
   }
-  // Carry nominals across lines and switches (same voltage level on both ends).
-  const links = circuit.elements.filter((e) => e.type === 'line' || e.type === 'switch3') as { from: string; to: string }[];
-  let changed = true;
-  while (changed) {
-    changed = false;
-    for (const l of links) {
-      const a = out.get(l.from);
-      const b = out.get(l.to);
-      if (a && !b) {
-        set(l.to, a.vLL / 1000);
-        changed = true;
-      } else if (b && !a) {
-        set(l.from, b.vLL / 1000);
-        changed = true;
-      }
+  // Carry nominals across lines and switches (same voltage level on both ends): breadth-first.
+  const adj = new Map<string, string[]>();
+  const link = (x: string, y: string) => {
+    if (!adj.has(x)) adj.set(x, []);
+    adj.get(x)!.push(y);
+  };
+  for (const e of circuit.elements) {
+    if (e.type === 'line' || e.type === 'switch3') {
+      link(e.from, e.to);
+      link(e.to, e.from);
+    }
+  }
+  const queue = [...out.keys()];
+  for (let k = 0; k < queue.length; k++) {
+    const nom = out.get(queue[k])!;
+    for (const next of adj.get(queue[k]) ?? []) {
+      if (out.has(next)) continue;
+      set(next, nom.vLL / 1000);
+      queue.push(next);
     }
   }
   return out;

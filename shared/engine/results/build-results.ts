@@ -147,9 +147,11 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
     ...(ports ? { ports } : {}),
     power: toPhasor(power),
   };
-  const earthInto = into.get(EARTH);
-  if (earthInto && abs(earthInto) > 0) result.earthCurrent = toPhasor(neg(earthInto));
-  else if (e.primitives.some((t) => t.role === 'earth')) result.earthCurrent = toPhasor(ZERO);
+  // Current into earth: by KCL over the block, the sum of the currents entering it at every other node
+  // (this also catches the implicit earth return of admittance stamps, e.g. line shunt admittance).
+  let toEarth = ZERO;
+  for (const [node, i] of into) if (node !== EARTH) toEarth = add(toEarth, i);
+  if (into.has(EARTH) || e.primitives.some((t) => t.role === 'earth' || t.prim.type === 'admittanceMatrix')) result.earthCurrent = toPhasor(toEarth);
   const abcPort = e.ports?.find((p) => ['a', 'b', 'c'].every((c) => p.conductors.includes(c)));
   if (abcPort && ports) {
     const pr = ports[e.ports!.indexOf(abcPort)];

@@ -20,12 +20,29 @@ export function formatPath(path: readonly PropertyKey[]): string {
   return s === '' ? '(root)' : s;
 }
 
-/** Walk a value and report every NaN or ±Infinity (zod would report them less plainly). */
+/** Walk a value and report every NaN or ±Infinity (zod would report them less plainly); one path stack, no copies. */
 function nonFinite(value: unknown, path: PropertyKey[], out: CircuitIssue[]): void {
   if (typeof value === 'number') {
     if (!Number.isFinite(value)) out.push({ path: formatPath(path), message: `must be a finite number (got ${String(value)})` });
-  } else if (Array.isArray(value)) value.forEach((v, i) => nonFinite(v, [...path, i], out));
-  else if (value !== null && typeof value === 'object') for (const [k, v] of Object.entries(value)) nonFinite(v, [...path, k], out);
+  } else if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const v = value[i];
+      if (typeof v === 'number' && Number.isFinite(v)) continue;
+      if (typeof v === 'string' || typeof v === 'boolean') continue;
+      path.push(i);
+      nonFinite(v, path, out);
+      path.pop();
+    }
+  } else if (value !== null && typeof value === 'object') {
+    for (const k in value) {
+      const v = (value as Record<string, unknown>)[k];
+      if (typeof v === 'number' && Number.isFinite(v)) continue;
+      if (typeof v === 'string' || typeof v === 'boolean') continue;
+      path.push(k);
+      nonFinite(v, path, out);
+      path.pop();
+    }
+  }
 }
 
 function zodIssues(error: z.ZodError, prefix: PropertyKey[]): CircuitIssue[] {
