@@ -1,11 +1,13 @@
 /** What `npm start` (index.ts) and `npm run dev` (dev.ts) share: open the database, seed, build the app, listen, shut down cleanly. */
 import { createServer, type Server } from 'node:http';
 import path from 'node:path';
+import { lt } from 'drizzle-orm';
 import type { Express } from 'express';
 import { createApp } from './app.ts';
 import type { Config } from './config.ts';
 import { DEMO_ACCOUNTS } from './db/demo-accounts.ts';
 import { closeDb, openDb } from './db/index.ts';
+import { sessions } from './db/schema.ts';
 import { seedDemo } from './db/seed.ts';
 import { createMailer } from './mail/index.ts';
 
@@ -15,6 +17,8 @@ export const ROOT = path.resolve(import.meta.dirname, '..');
 /** Opens (and migrates) the database under DATA_DIR and, in demo mode, seeds the demo team into an empty one. */
 export async function prepareDatabase(config: Config, log: (msg: string) => void = console.log) {
   const db = await openDb({ dataDir: path.join(config.dataDir, 'pglite') });
+  // lucia drops an expired session when it is presented; this clears the ones never presented again.
+  await db.delete(sessions).where(lt(sessions.expiresAt, new Date()));
   if (config.demo) {
     const seeded = await seedDemo(db);
     if (seeded.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);

@@ -47,6 +47,8 @@ describe('restart', () => {
     expect(edited.status).toBe(200);
     const cookie = (await request(app).post('/api/auth/sign-in').send({ email: 'owner@wyeward.test', password: DEMO_PASSWORD })).headers['set-cookie'];
     const before = (await engineer.get('/api/studies?pageSize=100')).body;
+    const ownerId = (await db.$client.query<{ id: string }>(`select id from users where email = 'owner@wyeward.test'`)).rows[0].id;
+    await db.$client.query(`insert into sessions (id, user_id, expires_at) values ('long-expired', $1, now() - interval '1 day')`, [ownerId]);
     await db.$client.close();
 
     db = await prepareDatabase(config, quiet);
@@ -56,6 +58,10 @@ describe('restart', () => {
     expect(after.body).toEqual(before);
     const study = await request(app).get(`/api/studies/${created.body.id}`).set('Cookie', cookie);
     expect(study.body).toMatchObject({ name: 'Survives restart', description: 'edited before close', version: 2 });
+    // Start-up cleared the expired session and kept the live ones.
+    const left = await db.$client.query<{ id: string }>('select id from sessions');
+    expect(left.rows.map((r) => r.id)).not.toContain('long-expired');
+    expect(left.rows.length).toBeGreaterThanOrEqual(2);
     await db.$client.close();
   });
 });
