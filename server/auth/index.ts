@@ -23,7 +23,6 @@ export interface Actor {
 }
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Locals {
       user: User | null;
