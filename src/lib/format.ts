@@ -27,11 +27,9 @@ export function formatVolts(volts: number): string {
   return `${Number(volts.toPrecision(6))} V`;
 }
 
-/** Seconds as plain words for a wait: "45 seconds", "3 minutes", "1 minute 5 seconds". */
+/** Seconds as plain words for a wait, rounded up: "45 seconds", "1 minute", "15 minutes" (891 s). */
 export function formatWait(seconds: number): string {
   const s = Math.max(1, Math.ceil(seconds));
   if (s < 60) return plural(s, 'second');
-  const m = Math.floor(s / 60);
-  const rest = s % 60;
-  return rest === 0 ? plural(m, 'minute') : `${plural(m, 'minute')} ${plural(rest, 'second')}`;
+  return plural(Math.ceil(s / 60), 'minute');
 }

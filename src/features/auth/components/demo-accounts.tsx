@@ -26,11 +26,11 @@ export function DemoAccounts({ onUse }: { onUse: (email: string, password: strin
         {demo.data.accounts.map((a) => (
           <li key={a.email} className="flex items-center gap-3 py-2">
             <div className="min-w-0 flex-1">
-              <p className="flex items-center gap-2">
-                <span className="num truncate text-[13px]">{a.email}</span>
+              <p className="num text-[13px] break-all">{a.email}</p>
+              <p className="mt-0.5 flex items-start gap-2 text-[12px] text-ink-muted">
                 <RoleBadge role={a.role} />
+                <span>{ROLE_HINT[a.role]}</span>
               </p>
-              <p className="text-[12px] text-ink-muted">{ROLE_HINT[a.role]}</p>
             </div>
             <Button size="sm" variant="ghost" aria-label={`Use the ${a.role} account ${a.email}`} onClick={() => onUse(a.email, a.password)}>
               Use this account
