@@ -103,6 +103,10 @@ describe('demo seed', () => {
     for (const s of list.items) {
       const demoCircuit = demoCircuits.find((c) => c.name === s.name)!;
       expect(s.elementCount).toBe(demoCircuit.circuit.elements.length);
+      // A seeded study saves back unchanged: its content passes the same validation as any edit.
+      const detail = (await engineer.get(`/api/studies/${s.id}`)).body;
+      const saved = await engineer.patch(`/api/studies/${s.id}`).send({ version: detail.version, content: detail.content });
+      expect(saved.status, JSON.stringify(saved.body)).toBe(200);
     }
 
     // A second start adds nothing.
