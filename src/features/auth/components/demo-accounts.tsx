@@ -18,7 +18,7 @@ export function DemoAccounts({ onUse }: { onUse: (email: string, password: strin
         This server runs in demo mode with an invented team and studies.
         {samePassword ? (
           <>
-            {' '}Every account uses the password <code className="num rounded-[2px] bg-sunken px-1">{password}</code>.
+            {' '}Every account uses the password <code className="num rounded-[2px] bg-sunken px-1 whitespace-nowrap">{password}</code>.
           </>
         ) : null}
       </p>
