@@ -9,8 +9,9 @@
  * - voltage source: `V… plus minus AC |E| ∠E`, behind its series impedance if any;
  * - current source: `I… from to AC |I| ∠I` (SPICE current flows from n+ through the source to n−, our convention too);
  * - closed switch: a 0 V source from → to (its current is the switch current); open switch: omitted;
- * - coupled branch: per conductor R_ii, L_ii, a 0 V sense source, then one CCVS (H) per real mutual
- *   term R_ij·I_j; the reactive mutual terms are inductive couplings K_ij = X_ij/√(X_ii·X_jj);
+ * - coupled branch: per conductor R_ii and L_ii; the reactive mutual terms are inductive couplings
+ *   K_ij = X_ij/√(X_ii·X_jj); a real mutual term R_ij·I_j is a CCVS (H) in conductor i sensing a
+ *   0 V source in conductor j (only where such terms exist: they make ngspice much slower);
  * - admittance stamp: real parts as VCCS (G); imaginary parts through an auxiliary node per
  *   controlling voltage (E copies V_j, a capacitor C = 1/ω draws j·V_j through a 0 V sense source)
  *   mirrored into each row by CCCS (F) with gain B_ij;
@@ -130,11 +131,15 @@ export function toNetlist(prims: readonly Primitive[], frequencyHz: number, refe
         break;
       case 'coupledBranch': {
         const m = e.from.length;
+        // a conductor needs a 0 V sense source only if another conductor has a real mutual term on it
+        const needSense = Array.from({ length: m }, (_, j) => e.ohms.some((row, i) => i !== j && row[j].re !== 0));
+        const hasH = Array.from({ length: m }, (_, i) => e.ohms[i].some((z, j) => i !== j && z.re !== 0));
         const sense: string[] = [];
         const inductor: string[] = [];
         const chains: { at: string; to: string }[] = [];
         for (let i = 0; i < m; i++) {
           let at = node(e.from[i]);
+          const to = node(e.to[i]);
           const zii = e.ohms[i][i];
           if (zii.re !== 0) {
             const nx = fresh();
@@ -142,17 +147,29 @@ export function toNetlist(prims: readonly Primitive[], frequencyHz: number, refe
             at = nx;
           }
           if (!(zii.im > 0)) throw new Error(`toNetlist: coupled branch ${e.id} needs inductive self terms`);
-          const nl = fresh();
+          const direct = !needSense[i] && !hasH[i];
+          const nl = direct ? to : fresh();
           const l = name('L');
           lines.push(`${l} ${at} ${nl} ${num(zii.im / w)}`);
           inductor.push(l);
-          const ns = fresh();
-          const s = name('V');
-          lines.push(`${s} ${nl} ${ns} 0`);
-          sense.push(s);
-          chains.push({ at: ns, to: node(e.to[i]) });
+          if (direct) {
+            sense.push('');
+            chains.push({ at: '', to });
+            continue;
+          }
+          if (needSense[i]) {
+            const ns = fresh();
+            const sv = name('V');
+            lines.push(`${sv} ${nl} ${ns} 0`);
+            sense.push(sv);
+            chains.push({ at: ns, to });
+          } else {
+            sense.push('');
+            chains.push({ at: nl, to });
+          }
         }
         for (let i = 0; i < m; i++) {
+          if (chains[i].at === '') continue;
           let at = chains[i].at;
           for (let j = 0; j < m; j++) {
             if (j === i || e.ohms[i][j].re === 0) continue;
