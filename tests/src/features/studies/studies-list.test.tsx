@@ -103,6 +103,37 @@ describe('studies list', () => {
     expect(screen.getAllByRole('button', { name: /^Delete / })).toHaveLength(3);
   });
 
+  it('asks before deleting: Escape cancels and returns focus, confirming sends the DELETE and refreshes the list', async () => {
+    let deleted: string | null = null;
+    const api = stubApi({
+      'GET /api/auth/me': () => ({ body: me('engineer') }),
+      'GET /api/studies': listStudies,
+      'DELETE /api/studies/:id': (req) => {
+        deleted = req.url.pathname.split('/').at(-1) ?? null;
+        return { status: 204 };
+      },
+    });
+    renderApp('/');
+    const user = userEvent.setup();
+    const target = STUDIES[0];
+    const deleteButton = await screen.findByRole('button', { name: `Delete ${target.name}` });
+
+    await user.click(deleteButton);
+    expect(screen.getByRole('dialog', { name: 'Delete this study?' })).toHaveTextContent(target.name);
+    await user.keyboard('{Escape}');
+    expect(screen.queryByRole('dialog')).not.toBeInTheDocument();
+    expect(deleteButton).toHaveFocus();
+    expect(deleted).toBeNull();
+
+    const listCalls = () => api.calls.filter((c) => c.method === 'GET' && c.url.pathname === '/api/studies').length;
+    const before = listCalls();
+    await user.click(deleteButton);
+    await user.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Delete study' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(deleted).toBe(target.id);
+    await waitFor(() => expect(listCalls()).toBeGreaterThan(before));
+  });
+
   it.each(['viewer', 'reviewer'] as const)('hides New study, clone and delete from a %s', async (role) => {
     setup(role);
     await screen.findByRole('link', { name: 'Apsley feeder unbalance' });

@@ -71,6 +71,34 @@ describe('team page', () => {
     expect(api.calls.find((c) => c.method === 'POST')?.body).toEqual({ email: 'tamsin@harrowgate.test', role: 'viewer' });
   });
 
+  it('revokes a pending invitation and removes a member after confirmation', async () => {
+    let revoked = false;
+    let removed = false;
+    const { api } = setup('owner', {
+      'DELETE /api/team/invites/:id': () => {
+        revoked = true;
+        return { status: 204 };
+      },
+      'DELETE /api/team/members/:userId': () => {
+        removed = true;
+        return { status: 204 };
+      },
+    });
+    const user = userEvent.setup();
+    await user.click(await screen.findByRole('button', { name: 'Revoke the invitation for newcomer@harrowgate.test' }));
+    await waitFor(() => expect(revoked).toBe(true));
+    expect(api.calls.find((c) => c.method === 'DELETE')?.url.pathname).toBe('/api/team/invites/inv1');
+
+    await user.click(screen.getByRole('button', { name: 'Remove Oskar Penhale from the team' }));
+    const dialog = screen.getByRole('dialog', { name: 'Remove this member?' });
+    expect(dialog).toHaveTextContent('oskar@harrowgate.test');
+    expect(removed).toBe(false);
+    await user.click(within(dialog).getByRole('button', { name: 'Remove member' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(removed).toBe(true);
+    expect(api.calls.filter((c) => c.method === 'DELETE').map((c) => c.url.pathname)).toEqual(['/api/team/invites/inv1', '/api/team/members/u-eng']);
+  });
+
   it('shows a viewer the members read-only: no role selects, no invites, no mail', async () => {
     setup('viewer');
     expect(await screen.findByText('Oskar Penhale')).toBeInTheDocument();
