@@ -197,6 +197,8 @@ class Dsu {
   }
 }
 
+const EMPTY_ADJ: { to: number; el: number }[] = [];
+
 const NEUTRAL_NAME = /(^|[.:/_-])(n|neutral)$/i;
 const STAR_NAME = /(^|[.:/_-])star$/i;
 
@@ -321,15 +323,17 @@ function buildTopology(prims: Primitive[]): Topology {
 
   // 1. Zero-impedance loops (ideal sources, closed switches): ill-posed, rejected first.
   const zdsu = new Dsu(nn);
-  const fAdj: { to: number; el: number }[][] = Array.from({ length: nn }, () => []);
+  // adjacency of the zero-impedance forest, allocated only for the nodes it touches
+  const fAdj: { to: number; el: number }[][] = new Array(nn).fill(EMPTY_ADJ);
+  const adjOf = (i: number) => (fAdj[i] === EMPTY_ADJ ? (fAdj[i] = []) : fAdj[i]);
   for (let k = 0; k < prims.length; k++) {
     const e = prims[k];
     const zeroImpedance = (e.type === 'switch' && e.closed) || isIdealSource(e);
     if (!zeroImpedance) continue;
     const [a, b] = elNodes[k];
     if (!zdsu.union(a, b)) throw zeroImpedanceLoopError(prims, k, forestPath(fAdj, a, b));
-    fAdj[a].push({ to: b, el: k });
-    fAdj[b].push({ to: a, el: k });
+    adjOf(a).push({ to: b, el: k });
+    adjOf(b).push({ to: a, el: k });
   }
 
   // 2. Galvanic components and floating islands.
@@ -395,8 +399,8 @@ function buildTopology(prims: Primitive[]): Topology {
   for (const isl of islands) {
     const r = nodeIndex.get(isl.island.referenceNode)!;
     zdsu.union(r, 0);
-    fAdj[r].push({ to: 0, el: VIRTUAL });
-    fAdj[0].push({ to: r, el: VIRTUAL });
+    adjOf(r).push({ to: 0, el: VIRTUAL });
+    adjOf(0).push({ to: r, el: VIRTUAL });
   }
 
   // 3. Zero-impedance trees (BFS from earth first, then from the lowest-numbered node of each tree).
@@ -459,10 +463,10 @@ function buildTopology(prims: Primitive[]): Topology {
   loadValues(topo, prims);
 
   // 4. Pattern pass: record the matrix entries the stamps touch, then the symbolic analysis.
-  const rec = { rows: [] as number[], cols: [] as number[] };
+  const rec: Recorder = { rows: new Int32Array(1024), cols: new Int32Array(1024), count: 0 };
   const asm = makeAssembler(topo, nUnknowns, rec, null);
   asm.stampAll();
-  const { symbolic, positions } = analyzePattern(nUnknowns, Int32Array.from(rec.rows), Int32Array.from(rec.cols), rec.rows.length);
+  const { symbolic, positions } = analyzePattern(nUnknowns, rec.rows, rec.cols, rec.count);
   topo.symbolic = symbolic;
   topo.positions = positions;
   return topo;
@@ -737,7 +741,14 @@ interface Assembler {
   stampAll(): void;
 }
 
-function makeAssembler(t: Topology, n: number, rec: { rows: number[]; cols: number[] } | null, values: { nnz: number } | null): Assembler {
+/** Matrix entries recorded by the pattern pass (growable typed arrays). */
+interface Recorder {
+  rows: Int32Array;
+  cols: Int32Array;
+  count: number;
+}
+
+function makeAssembler(t: Topology, n: number, rec: Recorder | null, values: { nnz: number } | null): Assembler {
   const nn = t.nodeNames.length;
   const unknownOf = t.unknownOf;
   const offRe = new Float64Array(nn);
@@ -761,8 +772,16 @@ function makeAssembler(t: Topology, n: number, rec: { rows: number[]; cols: numb
     }
     if (uc < 0) return;
     if (rec) {
-      rec.rows.push(ur);
-      rec.cols.push(uc);
+      if (rec.count === rec.rows.length) {
+        const r2 = new Int32Array(rec.count * 2);
+        r2.set(rec.rows);
+        rec.rows = r2;
+        const c2 = new Int32Array(rec.count * 2);
+        c2.set(rec.cols);
+        rec.cols = c2;
+      }
+      rec.rows[rec.count] = ur;
+      rec.cols[rec.count++] = uc;
     } else {
       const p = t.positions[cursor++];
       aRe[p] += yr;

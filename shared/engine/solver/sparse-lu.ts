@@ -129,15 +129,34 @@ function buildSymmetricPattern(
     tmp[fill[c]++] = map(r);
     tmp[fill[r]++] = map(c);
   }
-  // per column: sort and dedupe in place (typed-array sort is numeric), then lay the columns out
-  // in mapped order
+  // per column: drop duplicates with a marker array (stamps repeat entries a lot: a coupled
+  // 4×4 branch touches each pair of its nodes several times), then insertion-sort what is left
+  // (columns of nodal matrices are short); then lay the columns out in mapped order
   const len = new Int32Array(n);
+  const mark = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
-    const seg = tmp.subarray(start[j], start[j + 1]);
-    seg.sort();
-    let m = 0;
-    for (let q = 0; q < seg.length; q++) if (q === 0 || seg[q] !== seg[q - 1]) seg[m++] = seg[q];
-    len[map(j)] = m;
+    const lo = start[j];
+    const hi = start[j + 1];
+    let m = lo;
+    for (let q = lo; q < hi; q++) {
+      const r = tmp[q];
+      if (mark[r] === j) continue;
+      mark[r] = j;
+      tmp[m++] = r;
+    }
+    if (m - lo > 64) tmp.subarray(lo, m).sort();
+    else {
+      for (let q = lo + 1; q < m; q++) {
+        const x = tmp[q];
+        let r = q - 1;
+        while (r >= lo && tmp[r] > x) {
+          tmp[r + 1] = tmp[r];
+          r--;
+        }
+        tmp[r + 1] = x;
+      }
+    }
+    len[map(j)] = m - lo;
   }
   const colPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) colPtr[j + 1] = colPtr[j] + len[j];

@@ -26,10 +26,84 @@ function nodeIssue(v: unknown, what: string): string | null {
   return null;
 }
 
+const finiteCx = (v: unknown): boolean => isCx(v) && Number.isFinite(v.re) && Number.isFinite(v.im);
+const goodNode = (v: unknown): boolean => typeof v === 'string' && v.length > 0;
+const goodPair = (a: unknown, b: unknown): boolean => goodNode(a) && goodNode(b) && a !== b;
+
+function goodMatrix(z: unknown, n: number): boolean {
+  if (!Array.isArray(z) || z.length !== n) return false;
+  for (let i = 0; i < n; i++) {
+    const row = z[i];
+    if (!Array.isArray(row) || row.length !== n) return false;
+    for (let j = 0; j < n; j++) if (!finiteCx(row[j])) return false;
+  }
+  return true;
+}
+
+function goodNodeList(nodes: unknown): nodes is string[] {
+  if (!Array.isArray(nodes) || nodes.length === 0) return false;
+  for (let i = 0; i < nodes.length; i++) {
+    if (!goodNode(nodes[i])) return false;
+    for (let j = 0; j < i; j++) if (nodes[j] === nodes[i]) return false;
+  }
+  return true;
+}
+
+/** Fast check of one element without building any message (the common, valid case). */
+function quickValid(e: Record<string, unknown>): boolean {
+  switch (e.type) {
+    case 'impedance': {
+      const z = e.ohms as Cx;
+      return goodPair(e.from, e.to) && finiteCx(z) && (z.re !== 0 || z.im !== 0);
+    }
+    case 'voltageSource':
+      return goodPair(e.plus, e.minus) && finiteCx(e.volts) && (e.seriesOhms === undefined || finiteCx(e.seriesOhms));
+    case 'currentSource':
+      return goodPair(e.from, e.to) && finiteCx(e.amps);
+    case 'switch':
+      return goodPair(e.from, e.to) && typeof e.closed === 'boolean';
+    case 'coupledBranch': {
+      const from = e.from;
+      const to = e.to;
+      if (!Array.isArray(from) || !Array.isArray(to) || from.length !== to.length) return false;
+      return goodNodeList([...from, ...to]) && goodMatrix(e.ohms, from.length);
+    }
+    case 'admittanceMatrix':
+      return goodNodeList(e.nodes) && goodMatrix(e.siemens, (e.nodes as string[]).length);
+    case 'zipLoad': {
+      const zip = e.zip as { z: number; i: number; p: number } | undefined;
+      return (
+        goodPair(e.from, e.to) &&
+        typeof e.ratedVolts === 'number' &&
+        Number.isFinite(e.ratedVolts) &&
+        e.ratedVolts > 0 &&
+        finiteCx(e.ratedVA) &&
+        typeof zip === 'object' &&
+        zip !== null &&
+        Number.isFinite(zip.z) &&
+        Number.isFinite(zip.i) &&
+        Number.isFinite(zip.p) &&
+        Math.abs(zip.z + zip.i + zip.p - 1) <= 1e-6
+      );
+    }
+    default:
+      return false;
+  }
+}
+
 /** Check every primitive; throws InvalidCircuitError listing the problems (first one in the message). */
 export function validatePrimitives(prims: readonly Primitive[]): void {
-  const issues: Issue[] = [];
   if (!Array.isArray(prims)) throw new InvalidCircuitError('Primitives must be an array', [{ path: '', message: 'not an array' }]);
+  // fast path: every element valid and every id unique, no strings built
+  const ids = new Set<string>();
+  let firstBad = -1;
+  for (let k = 0; k < prims.length && firstBad < 0; k++) {
+    const e = prims[k] as unknown as Record<string, unknown>;
+    if (typeof e !== 'object' || e === null || typeof e.id !== 'string' || e.id.length === 0 || ids.has(e.id) || !quickValid(e)) firstBad = k;
+    else ids.add(e.id);
+  }
+  if (firstBad < 0) return;
+  const issues: Issue[] = [];
   const seen = new Set<string>();
   for (let k = 0; k < prims.length; k++) {
     const e = prims[k] as unknown as Record<string, unknown>;
@@ -138,6 +212,11 @@ export function validatePrimitives(prims: readonly Primitive[]): void {
         break;
       }
     }
+  }
+  if (issues.length === 0) {
+    // the fast check and the detailed one disagree: still refuse, naming the element
+    const e = prims[firstBad] as unknown as { id?: unknown };
+    issues.push({ path: `elements[${firstBad}]`, message: `element '${String(e?.id)}' is not a valid primitive`, id: typeof e?.id === 'string' ? e.id : undefined });
   }
   if (issues.length > 0) {
     const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
