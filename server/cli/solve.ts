@@ -1,16 +1,17 @@
 /**
- * `npm run -s solve -- <file.json> [--json]`: solve a Wyeward circuit file.
+ * `npm run -s solve -- <file.json> [--json [--full]]`: solve a Wyeward circuit file.
  *
  * Without --json: a readable report (buses, element currents, faults, totals, flags) with the
  * safety caution. With --json: the results as JSON on stdout: `nodes` (voltage to earth per node)
- * and `elements[id].currents` (conventions in docs/circuit-format.md), plus buses, faults, totals,
- * floating parts and flags.
+ * and `elements[id].currents` (conventions in docs/circuit-format.md), plus faults, totals,
+ * floating parts and flags; `--full` adds the per-bus results and all per-element fields.
  * Exit codes: 0 solved; 2 invalid input (unreadable file, malformed JSON, schema errors);
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
  * never a stack trace. Kept light on purpose (it is benchmarked against ngspice): file → parse →
  * solve → write, importing only the engine.
  */
 import { readFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
 import { EngineError, solveCircuit, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
 
 const CAUTION =
@@ -80,30 +81,40 @@ export function formatReport(r: CircuitResult): string {
   return out.join('\n');
 }
 
-/** The JSON written with --json. */
-export function jsonResult(r: CircuitResult) {
-  const elements: Record<string, { type: string; currents: Phasor[]; currentDirection: string; ports?: unknown; power: Phasor; earthCurrent?: Phasor; losses?: Phasor; loadingPercent?: number }> = {};
+/**
+ * The JSON written with --json: `nodes`, `elements[id].currents` (+ type, direction, ports of
+ * blocks), faults, totals, floating parts and flags. `--full` adds the per-bus results and every
+ * per-element field (larger: about 4× on big feeders).
+ */
+export function jsonResult(r: CircuitResult, full = false) {
+  const elements: Record<string, unknown> = {};
   for (const e of Object.values(r.elements)) {
-    elements[e.id] = {
-      type: e.type,
-      currents: e.currents,
-      currentDirection: e.currentDirection,
-      ...(e.ports ? { ports: e.ports.map((p) => ({ bus: p.bus, conductors: p.conductors })) } : {}),
-      power: e.power,
-      ...(e.earthCurrent ? { earthCurrent: e.earthCurrent } : {}),
-      ...(e.losses ? { losses: e.losses } : {}),
-      ...(e.loadingPercent !== undefined ? { loadingPercent: e.loadingPercent } : {}),
-    };
+    if (full) elements[e.id] = e;
+    else if (e.ports) elements[e.id] = { type: e.type, currentDirection: e.currentDirection, ports: e.ports.map((p) => ({ bus: p.bus, conductors: p.conductors })), currents: e.currents };
+    else elements[e.id] = { type: e.type, currents: e.currents };
   }
-  return { format: 'wyeward-result', version: 1, conventions: r.conventions, nodes: r.nodes, elements, buses: r.buses, faults: r.faults, totals: r.totals, floating: r.floating, flags: r.flags, iterations: r.iterations };
+  return {
+    format: 'wyeward-result',
+    version: 1,
+    conventions: r.conventions,
+    nodes: r.nodes,
+    elements,
+    ...(full ? { buses: r.buses } : {}),
+    faults: r.faults,
+    totals: r.totals,
+    floating: r.floating,
+    flags: r.flags,
+    iterations: r.iterations,
+  };
 }
 
 function main(argv: string[]): void {
-  const args = argv.filter((a) => a !== '--json');
+  const args = argv.filter((a) => a !== '--json' && a !== '--full');
   const asJson = argv.includes('--json');
+  const full = argv.includes('--full');
   const unknownFlag = args.find((a) => a.startsWith('--'));
-  if (unknownFlag) fail(2, `unknown option ${unknownFlag} (usage: solve <file.json> [--json])`);
-  if (args.length !== 1) fail(2, 'usage: solve <file.json> [--json]');
+  if (unknownFlag) fail(2, `unknown option ${unknownFlag} (usage: solve <file.json> [--json [--full]])`);
+  if (args.length !== 1) fail(2, 'usage: solve <file.json> [--json [--full]]');
   const file = args[0];
   let text: string;
   try {
@@ -124,7 +135,8 @@ function main(argv: string[]): void {
     if (e instanceof EngineError) fail(e.code === 'invalid-circuit' ? 2 : 3, e.message);
     fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
   }
-  process.stdout.write(asJson ? JSON.stringify(jsonResult(result)) + '\n' : formatReport(result));
+  process.stdout.write(asJson ? JSON.stringify(jsonResult(result, full)) + '\n' : formatReport(result));
 }
 
-main(process.argv.slice(2));
+// Run only as a program (tests and tools may import the formatters).
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main(process.argv.slice(2));

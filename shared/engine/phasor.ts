@@ -27,7 +27,8 @@ export const mul = (a: Cx, b: Cx): Cx => ({ re: a.re * b.re - a.im * b.im, im: a
 export const scale = (a: Cx, k: number): Cx => ({ re: a.re * k, im: a.im * k });
 export const conj = (a: Cx): Cx => ({ re: a.re, im: -a.im });
 export const neg = (a: Cx): Cx => ({ re: -a.re, im: -a.im });
-export const abs = (a: Cx): number => Math.hypot(a.re, a.im);
+// sqrt rather than Math.hypot: several times faster in V8, and RMS phasors never come near overflow.
+export const abs = (a: Cx): number => Math.sqrt(a.re * a.re + a.im * a.im);
 /** Angle in degrees, in (−180, 180]. */
 export const angleDeg = (a: Cx): number => (a.re === 0 && a.im === 0 ? 0 : Math.atan2(a.im, a.re) / DEG);
 export const div = (a: Cx, b: Cx): Cx => {

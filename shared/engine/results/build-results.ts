@@ -2,7 +2,7 @@
  * Turn a primitive solution back into per-bus and per-block results: voltages, sequence
  * components, unbalance, port currents, powers, losses, loading, faults, totals and flags.
  */
-import type { Cx, PrimitiveSolution } from '../types.ts';
+import type { Cx, Primitive, PrimitiveSolution } from '../types.ts';
 import { EARTH } from '../types.ts';
 import { abs, add, conj, mul, neg, scale, sub, sum, toPhasor, ZERO, type Phasor } from '../phasor.ts';
 import type { Circuit } from '../schema/circuit.ts';
@@ -45,10 +45,12 @@ function busResults(ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveS
       buses.get(s.bus)!.add(s.conductor);
     }
   }
-  const V = (bus: string, c: string): Cx => sol.nodeVolts.get(`${bus}.${c}`) ?? ZERO;
   const out: BusResult[] = [];
   for (const bus of order) {
     const present = buses.get(bus)!;
+    const volts: Record<string, Cx> = {};
+    for (const c of present) volts[c] = sol.nodeVolts.get(`${bus}.${c}`) ?? ZERO;
+    const V = (_bus: string, c: string): Cx => volts[c] ?? ZERO;
     const conductors = CONDUCTORS.filter((c) => present.has(c));
     if (conductors.length === 0) continue;
     const split = ctx.splitPhase.has(bus) || present.has('1') || present.has('2');
@@ -98,8 +100,67 @@ interface ElementWork {
   internalLoss?: Cx;
 }
 
+/** Power absorbed by one primitive, Σ V·I* over its terminals (currents into the element). */
+function absorbedPower(p: Primitive, I: readonly Cx[], V: (n: string) => Cx): Cx {
+  let re = 0;
+  let im = 0;
+  const acc = (node: string, i: Cx, sign: number) => {
+    const v = V(node);
+    re += sign * (v.re * i.re + v.im * i.im);
+    im += sign * (v.im * i.re - v.re * i.im);
+  };
+  switch (p.type) {
+    case 'voltageSource':
+      acc(p.plus, I[0], -1);
+      acc(p.minus, I[0], 1);
+      break;
+    case 'coupledBranch':
+      for (let k = 0; k < p.from.length; k++) {
+        acc(p.from[k], I[k], 1);
+        acc(p.to[k], I[k], -1);
+      }
+      break;
+    case 'admittanceMatrix':
+      for (let k = 0; k < p.nodes.length; k++) acc(p.nodes[k], I[k], 1);
+      break;
+    default:
+      acc(p.from, I[0], 1);
+      acc(p.to, I[0], -1);
+  }
+  return { re, im };
+}
+
+/** A bare primitive: its currents are the solver's (fast path: large primitive-only files). */
+function primitiveResult(e: Expansion, sol: PrimitiveSolution, V: (n: string) => Cx): ElementWork {
+  const t = e.primitives[0];
+  const I = sol.elementCurrents.get(t.prim.id) ?? [];
+  const absorbed = I.length ? absorbedPower(t.prim, I, V) : ZERO;
+  const isSource = e.category === 'source';
+  const result: ElementResult = {
+    id: e.id,
+    type: e.type,
+    category: e.category,
+    currents: I.map(toPhasor),
+    currentDirection: 'primitive',
+    power: toPhasor(isSource ? neg(absorbed) : absorbed),
+  };
+  let emf: Cx | undefined;
+  if (t.prim.type === 'voltageSource' && I.length) {
+    emf = mul(t.prim.volts, conj(I[0]));
+    result.emfPower = toPhasor(emf);
+  } else if (t.prim.type === 'currentSource') emf = neg(absorbed);
+  let internalLoss: Cx | undefined;
+  if (isSource && emf) {
+    internalLoss = add(emf, absorbed);
+    result.losses = toPhasor(internalLoss);
+  }
+  if (e.category === 'series') result.losses = result.power;
+  return { result, absorbed, emf, internalLoss };
+}
+
 function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | 'ACB'): ElementWork {
   const V = (n: string): Cx => sol.nodeVolts.get(n) ?? ZERO;
+  if (!e.ports) return primitiveResult(e, sol, V);
   const into = new Map<string, Cx>();
   const perPhase = new Map<string, Cx>();
   const branch = new Map<string, Cx>();
@@ -190,11 +251,22 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
   const works = expansions.map((e) => elementResult(e, sol, ctx.sequence));
   const elements: Record<string, ElementResult> = {};
   for (const w of works) elements[w.result.id] = w.result;
-  const pick = (cat: string) => sum(works.filter((w) => w.result.category === cat).map((w) => w.absorbed));
-  const sourcePower = sum(works.filter((w) => w.result.category === 'source').map((w) => w.emf ?? neg(w.absorbed)));
-  const loadPower = pick('load');
-  const faultPower = pick('fault');
-  const losses = add(add(pick('series'), pick('earthing')), sum(works.map((w) => w.internalLoss ?? ZERO)));
+  const acc: Record<string, { re: number; im: number }> = { source: { re: 0, im: 0 }, load: { re: 0, im: 0 }, fault: { re: 0, im: 0 }, losses: { re: 0, im: 0 } };
+  const addTo = (key: string, c: Cx) => {
+    acc[key].re += c.re;
+    acc[key].im += c.im;
+  };
+  for (const w of works) {
+    const cat = w.result.category;
+    if (cat === 'source') addTo('source', w.emf ?? neg(w.absorbed));
+    else if (cat === 'load' || cat === 'fault') addTo(cat, w.absorbed);
+    else addTo('losses', w.absorbed); // series elements and earth electrodes
+    if (w.internalLoss) addTo('losses', w.internalLoss);
+  }
+  const sourcePower = acc.source;
+  const loadPower = acc.load;
+  const faultPower = acc.fault;
+  const losses = acc.losses;
   const residual = sub(sub(sub(sourcePower, loadPower), faultPower), losses);
   const faults: FaultResult[] = [];
   for (const e of expansions) {

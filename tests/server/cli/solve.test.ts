@@ -54,7 +54,15 @@ describe('solve CLI', () => {
     expect(out.elements['PM-BANK'].currents.length).toBe(3 + 4); // HV a,b,c + LV a,b,c,n
     expect(out.elements['PM-BANK'].ports).toEqual([{ bus: 'PMT', conductors: ['a', 'b', 'c'] }, { bus: 'PM208', conductors: ['a', 'b', 'c', 'n'] }]);
     expect(out.elements['OFFICES'].currentDirection).toBe('into-element');
+    expect(out.buses).toBeUndefined();
+  });
+  it('--json --full adds per-bus results and every element field', () => {
+    const demo = demoCircuits.find((d) => d.key === 'delta-wye-bank')!;
+    const r = run([file('bank-full.json', demo.circuit), '--json', '--full']);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout);
     expect(out.buses.find((b: { bus: string }) => b.bus === 'PM208').lineToNeutral.a.angleDeg).toBeLessThan(-25);
+    expect(out.elements['PM-BANK'].loadingPercent).toBeGreaterThan(0);
   });
   it('without --json prints the readable report with the safety caution and flags', () => {
     const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!;
@@ -86,7 +94,7 @@ describe('solve CLI', () => {
   it('no file argument: exit 2 with the usage line', () => {
     const r = run([]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toBe('solve: usage: solve <file.json> [--json]\n');
+    expect(r.stderr).toBe('solve: usage: solve <file.json> [--json [--full]]\n');
   });
   it('a network that cannot be solved (source shorted by a switch): exit 3 naming the elements', () => {
     const r = run([file('short.json', { ...primitives, elements: [...primitives.elements, { type: 'switch', id: 'SHORT', from: 'n1', to: 'earth', closed: true }] })]);
