@@ -35,30 +35,25 @@ export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32A
     // The neighbours of v become a clique (the fill of eliminating v), and v leaves their lists.
     for (let a = 0; a < nb.length; a++) {
       const u = nb[a];
-      const old = adj[u];
-      const next: number[] = [];
-      const stamp = step * 2 + 1; // unique per (step, u) pass through `mark`
-      mark[u] = stamp;
-      for (let b = 0; b < old.length; b++) {
-        const w = old[b];
-        if (w === v || eliminated[w]) continue;
-        if (mark[w] !== stamp) {
-          mark[w] = stamp;
-          next.push(w);
-        }
+      // in place (no allocation): drop v and eliminated vertices, then add the missing members of nb
+      const list = adj[u];
+      mark[u] = step;
+      let m = 0;
+      for (let b = 0; b < list.length; b++) {
+        const w = list[b];
+        if (w === v || eliminated[w] || mark[w] === step) continue;
+        mark[w] = step;
+        list[m++] = w;
       }
+      list.length = m;
       for (let b = 0; b < nb.length; b++) {
         const w = nb[b];
-        if (mark[w] !== stamp) {
-          mark[w] = stamp;
-          next.push(w);
-        }
+        if (mark[w] !== step) list.push(w);
       }
-      // reset marks so the next neighbour's pass (same stamp value) starts clean
+      // reset the marks for the next neighbour's pass
       mark[u] = -1;
-      for (let b = 0; b < next.length; b++) mark[next[b]] = -1;
-      adj[u] = next;
-      heap.push(next.length, u);
+      for (let b = 0; b < list.length; b++) mark[list[b]] = -1;
+      heap.push(list.length, u);
     }
     adj[v] = [];
     step++;
