@@ -76,7 +76,9 @@ export function nominalBetween(nom: BusNominal | undefined, c1: string, c2: stri
 /** Expand a load into one primitive per branch. */
 export function expandLoad(el: LoadElement, ctx: ExpandContext): Expansion {
   const nomBus = ctx.nominal.get(el.bus);
-  const nom: BusNominal | undefined = el.kvLL !== undefined ? { vLL: el.kvLL * 1000, vLN: (el.kvLL * 1000) / Math.sqrt(3) } : nomBus;
+  // a load's own kvLL: line to line (split-phase bus: leg to leg, so leg to neutral is half of it)
+  const split = ctx.splitPhase.has(el.bus);
+  const nom: BusNominal | undefined = el.kvLL !== undefined ? { vLL: el.kvLL * 1000, vLN: (el.kvLL * 1000) / (split ? 2 : Math.sqrt(3)) } : nomBus;
   let branches: { key: string; from: string; to: string; rated?: number }[];
   const star = el.connection === 'wyeFloating' ? `${el.id}#star` : busNode(el.bus, 'n');
   if (el.connection === 'wye' || el.connection === 'wyeFloating') {

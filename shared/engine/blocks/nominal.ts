@@ -6,13 +6,28 @@
 import type { Circuit } from '../schema/circuit.ts';
 import type { BusNominal } from './expansion.ts';
 
-/** Buses with split-phase conductors (1, 2). */
+const isLeg = (c: string) => c === '1' || c === '2';
+
+/** Conductors a line carries (before any are opened). */
+function lineConductors(el: Extract<Circuit['elements'][number], { type: 'line' }>): string[] {
+  const imp = el.impedance;
+  if (imp.kind === 'perConductor') return Object.keys(imp.ohmsPerLength);
+  if (imp.kind === 'matrix') return imp.conductors;
+  if (imp.kind === 'carson') return imp.conductors.map((c) => c.conductor);
+  return ['a', 'b', 'c'];
+}
+
+/** Buses with split-phase conductors (1, 2): fed by split-phase blocks, or joined to such buses by lines and switches carrying legs. */
 export function splitPhaseBuses(circuit: Circuit): Set<string> {
   const s = new Set<string>();
   for (const el of circuit.elements) {
     if (el.type === 'splitPhaseSource') s.add(el.bus);
-    if (el.type === 'splitPhaseTransformer') s.add(el.to);
-    if (el.type === 'load' && el.between?.some((c) => c === '1' || c === '2')) s.add(el.bus);
+    else if (el.type === 'splitPhaseTransformer') s.add(el.to);
+    else if (el.type === 'load' && el.between?.some(isLeg)) s.add(el.bus);
+    else if ((el.type === 'line' && lineConductors(el).some(isLeg)) || (el.type === 'switch3' && el.conductors.some(isLeg))) {
+      s.add(el.from);
+      s.add(el.to);
+    }
   }
   return s;
 }

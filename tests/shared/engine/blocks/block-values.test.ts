@@ -141,3 +141,19 @@ describe('switch3 and earthing', () => {
     expect(r.elements.E0.earthCurrent!.mag).toBe(0);
   });
 });
+
+describe('nominal voltages', () => {
+  it('a split-phase bus reached only through a service line has a 120 V leg nominal, so a kW load is rated at 120 V (P)', () => {
+    const r = solveChecked(withElements([
+      { type: 'splitPhaseSource', id: 'S', bus: 'POLE' },
+      { type: 'line', id: 'SVC', from: 'POLE', to: 'METER', length: 10, lengthUnit: 'm', impedance: { kind: 'perConductor', ohmsPerLength: { '1': 1e-4, '2': 1e-4, n: 1e-4 } } },
+      { type: 'switch3', id: 'MAIN', from: 'METER', to: 'PANEL', conductors: ['1', '2', 'n'] },
+      { type: 'load', id: 'L', bus: 'PANEL', connection: 'single', between: ['1', 'n'], each: { kw: 1.2 } },
+    ]));
+    const panel = r.buses.find((b) => b.bus === 'PANEL')!;
+    expect(panel.kind).toBe('splitPhase');
+    expect(panel.nominalVLN).toBe(120);
+    expect(r.elements.L.power.re).toBeGreaterThan(1190); // 1.2 kW at 120 V, minus a small drop
+    expect(r.elements.L.power.re).toBeLessThan(1200);
+  });
+});
