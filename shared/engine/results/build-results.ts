@@ -4,7 +4,7 @@
  */
 import type { Cx, Primitive, PrimitiveSolution } from '../types.ts';
 import { EARTH } from '../types.ts';
-import { abs, add, conj, mul, neg, scale, sub, sum, toPhasor, ZERO, type Phasor } from '../phasor.ts';
+import { abs, add, conj, mul, neg, scale, sub, toPhasor, ZERO, type Phasor } from '../phasor.ts';
 import type { Circuit } from '../schema/circuit.ts';
 import { CONDUCTORS } from '../schema/common.ts';
 import type { ExpandContext, Expansion } from '../blocks/expansion.ts';

@@ -27,7 +27,7 @@ export function rotateSources(prims: Primitive[], deg: number): Primitive[] {
 export function solveChecked(circuit: CircuitInput, limits?: LimitsInput): CircuitResult {
   const prepared = prepareCircuit(circuit);
   // Voltage-dependent loads iterate to a tolerance; a tight one keeps their KCL mismatch below the checks' 1e-9.
-  const sol = solvePrimitives(prepared.primitives, { tolerance: 1e-13 });
+  const sol = solvePrimitives(prepared.primitives, { tolerance: 1e-11 });
   expectInvariants(prepared.primitives, sol);
   const result = buildResults(prepared.circuit, prepared.context, prepared.expansions, sol, resolveLimits(prepared.circuit.limits, limits));
   const scale = Math.max(1, result.totals.sourcePower.mag);
@@ -35,7 +35,7 @@ export function solveChecked(circuit: CircuitInput, limits?: LimitsInput): Circu
   expect(result.totals.maxKclResidualAmps).toBeLessThan(1e-6);
   // Rotation: every phasor turns by the same angle (floating islands keep their reference at 0 V).
   const theta = 37;
-  const rotated = solvePrimitives(rotateSources(prepared.primitives, theta), { tolerance: 1e-13 });
+  const rotated = solvePrimitives(rotateSources(prepared.primitives, theta), { tolerance: 1e-11 });
   let vmax = 0;
   for (const v of sol.nodeVolts.values()) vmax = Math.max(vmax, Math.hypot(v.re, v.im));
   for (const [node, v] of sol.nodeVolts) {
