@@ -1011,6 +1011,19 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
   const tSol = now();
 
   const { currents, maxKcl } = elementCurrents(t, vRe, vIm, lowPu);
+  // A numerically floating part (found by the LU border) cannot take a net current: if KCL fails,
+  // something drives current into it with no way back.
+  if (lu.nullVectors.length > 0 && maxKcl > 1e-9 * Math.max(largestCurrent(currents), admittanceScale(t) * largestVoltage(vRe, vIm), 1e-12)) {
+    const isl = numericIslands(t, lu);
+    const nodes = isl.flatMap((i) => i.nodes);
+    throw new IllPosedNetworkError(
+      `A net current of ${+maxKcl.toPrecision(4)} A is driven into the floating part ${nodes
+        .slice(0, 6)
+        .map((x) => `'${x}'`)
+        .join(', ')}${nodes.length > 6 ? ', …' : ''}, which is coupled to the rest only magnetically (admittance stamps): the current has nowhere to flow.`,
+      { nodes },
+    );
+  }
   const nodeVolts = new Map<string, Cx>();
   for (let i = 0; i < nn; i++) nodeVolts.set(t.nodeNames[i], { re: vRe[i], im: vIm[i] });
   const floating: FloatingIsland[] = t.islands.map((i) => ({ nodes: i.island.nodes.slice(), referenceNode: i.island.referenceNode }));
@@ -1130,6 +1143,26 @@ function nonConvergence(
     `Voltage-dependent loads did not converge in ${iterations} iterations (possible voltage collapse: the loads ask for more power than the network can deliver). Worst mismatch at load '${t.ids[k]}': ${+mismatch[worst].toPrecision(4)} VA at terminal voltage ${puText} (last change ${lastChange[worst].toExponential(2)} pu; rated ${v.sRe[k]} + j${v.sIm[k]} VA at ${v.zipVolts[k]} V).`,
     { elementIds: [t.ids[k]], nodes: [t.nodeNames[f], t.nodeNames[to]] },
   );
+}
+
+/** Largest admittance magnitude of any element (S): with the largest voltage, the scale of the currents' roundoff. */
+function admittanceScale(t: Topology): number {
+  let m = 0;
+  const arrays = [t.values.yRe, t.values.yIm, t.values.stampRe, t.values.stampIm, t.cy.re, t.cy.im];
+  for (const a of arrays) for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]));
+  return m;
+}
+
+function largestVoltage(vRe: Float64Array, vIm: Float64Array): number {
+  let m = 0;
+  for (let i = 0; i < vRe.length; i++) m = Math.max(m, Math.abs(vRe[i]) + Math.abs(vIm[i]));
+  return m;
+}
+
+function largestCurrent(currents: Map<string, Cx[]>): number {
+  let m = 0;
+  for (const list of currents.values()) for (const c of list) m = Math.max(m, Math.abs(c.re) + Math.abs(c.im));
+  return m;
 }
 
 /** Element currents in the conventions of types.ts, and the largest KCL residual (A). */

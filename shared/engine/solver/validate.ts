@@ -14,10 +14,26 @@ function isCx(v: unknown): v is Cx {
   return typeof v === 'object' && v !== null && typeof (v as Cx).re === 'number' && typeof (v as Cx).im === 'number';
 }
 
+/**
+ * Magnitudes the solver accepts: finite, at most 1e100, and (for impedances) non-zero at least
+ * 1e-100. Far beyond any physical network, and it keeps products and inverses clear of overflow
+ * and underflow in double precision (a 1e-320 Ω impedance has no finite admittance).
+ */
+export const MAX_MAGNITUDE = 1e100;
+export const MIN_IMPEDANCE = 1e-100;
+
 function cxIssue(v: unknown, path: string, what: string): string | null {
   if (!isCx(v)) return `${what} must be a complex value { re, im }`;
   if (!Number.isFinite(v.re) || !Number.isFinite(v.im)) return `${what} must be finite (got ${v.re} + j${v.im})`;
+  if (Math.abs(v.re) > MAX_MAGNITUDE || Math.abs(v.im) > MAX_MAGNITUDE) return `${what} is out of range (got ${v.re} + j${v.im}; at most 1e100 in magnitude)`;
   void path;
+  return null;
+}
+
+function impedanceIssue(v: Cx, what: string): string | null {
+  const m = Math.max(Math.abs(v.re), Math.abs(v.im));
+  if (m === 0) return null; // reported separately where zero is not allowed
+  if (m < MIN_IMPEDANCE) return `${what} is too small to invert (got ${v.re} + j${v.im}; use a closed switch for a direct connection)`;
   return null;
 }
 
@@ -26,7 +42,9 @@ function nodeIssue(v: unknown, what: string): string | null {
   return null;
 }
 
-const finiteCx = (v: unknown): boolean => isCx(v) && Number.isFinite(v.re) && Number.isFinite(v.im);
+const finiteCx = (v: unknown): boolean =>
+  isCx(v) && Number.isFinite(v.re) && Number.isFinite(v.im) && Math.abs(v.re) <= MAX_MAGNITUDE && Math.abs(v.im) <= MAX_MAGNITUDE;
+const invertible = (z: Cx): boolean => Math.max(Math.abs(z.re), Math.abs(z.im)) >= MIN_IMPEDANCE;
 const goodNode = (v: unknown): boolean => typeof v === 'string' && v.length > 0;
 const goodPair = (a: unknown, b: unknown): boolean => goodNode(a) && goodNode(b) && a !== b;
 
@@ -54,10 +72,14 @@ function quickValid(e: Record<string, unknown>): boolean {
   switch (e.type) {
     case 'impedance': {
       const z = e.ohms as Cx;
-      return goodPair(e.from, e.to) && finiteCx(z) && (z.re !== 0 || z.im !== 0);
+      return goodPair(e.from, e.to) && finiteCx(z) && invertible(z);
     }
     case 'voltageSource':
-      return goodPair(e.plus, e.minus) && finiteCx(e.volts) && (e.seriesOhms === undefined || finiteCx(e.seriesOhms));
+      return (
+        goodPair(e.plus, e.minus) &&
+        finiteCx(e.volts) &&
+        (e.seriesOhms === undefined || (finiteCx(e.seriesOhms) && ((e.seriesOhms as Cx).re === 0 && (e.seriesOhms as Cx).im === 0 ? true : invertible(e.seriesOhms as Cx))))
+      );
     case 'currentSource':
       return goodPair(e.from, e.to) && finiteCx(e.amps);
     case 'switch':
@@ -76,7 +98,8 @@ function quickValid(e: Record<string, unknown>): boolean {
         goodPair(e.from, e.to) &&
         typeof e.ratedVolts === 'number' &&
         Number.isFinite(e.ratedVolts) &&
-        e.ratedVolts > 0 &&
+        e.ratedVolts >= 1e-6 &&
+        e.ratedVolts <= MAX_MAGNITUDE &&
         finiteCx(e.ratedVA) &&
         typeof zip === 'object' &&
         zip !== null &&
@@ -139,12 +162,16 @@ export function validatePrimitives(prims: readonly Primitive[]): void {
         push('ohms', m);
         if (!m && (e.ohms as Cx).re === 0 && (e.ohms as Cx).im === 0)
           push('ohms', `${name} has zero impedance (use a closed switch for a direct connection)`);
+        else if (!m) push('ohms', impedanceIssue(e.ohms as Cx, `${name}: impedance 'ohms'`));
         break;
       }
       case 'voltageSource': {
         twoTerminal('plus', 'minus');
         push('volts', cxIssue(e.volts, 'volts', `${name}: 'volts'`));
-        if (e.seriesOhms !== undefined) push('seriesOhms', cxIssue(e.seriesOhms, 'seriesOhms', `${name}: 'seriesOhms'`));
+        if (e.seriesOhms !== undefined) {
+          const m = cxIssue(e.seriesOhms, 'seriesOhms', `${name}: 'seriesOhms'`);
+          push('seriesOhms', m ?? impedanceIssue(e.seriesOhms as Cx, `${name}: 'seriesOhms'`));
+        }
         break;
       }
       case 'currentSource': {
@@ -201,6 +228,7 @@ export function validatePrimitives(prims: readonly Primitive[]): void {
         twoTerminal('from', 'to');
         if (typeof e.ratedVolts !== 'number' || !Number.isFinite(e.ratedVolts) || e.ratedVolts <= 0)
           push('ratedVolts', `${name}: 'ratedVolts' must be a positive finite number of volts`);
+        else if (e.ratedVolts < 1e-6 || e.ratedVolts > MAX_MAGNITUDE) push('ratedVolts', `${name}: 'ratedVolts' is out of range (got ${e.ratedVolts} V)`);
         push('ratedVA', cxIssue(e.ratedVA, 'ratedVA', `${name}: 'ratedVA'`));
         const zip = e.zip as { z: unknown; i: unknown; p: unknown } | undefined;
         if (typeof zip !== 'object' || zip === null || ![zip.z, zip.i, zip.p].every((v) => typeof v === 'number' && Number.isFinite(v))) {

@@ -105,6 +105,22 @@ describe('ill-posed networks are rejected before factoring', () => {
     expect(e.message).toBe("Current source 'J1' drives a net 2 A into nodes 'x', 'y', which have no other connection to the network: the current has nowhere to flow.");
   });
 
+  it('a current source into a part that floats behind a transformer stamp (found numerically)', () => {
+    const a = 0.5;
+    const w = [1, -1, -a, a];
+    const e = failure([
+      V('V1', 'p', 'earth', 230),
+      { type: 'admittanceMatrix', id: 'T', nodes: ['p', 'earth', 's1', 's2'], siemens: w.map((x) => w.map((y) => ({ re: x * y, im: -5 * x * y }))) },
+      R('RL', 's1', 's2', 10),
+      { type: 'currentSource', id: 'J', from: 'earth', to: 's1', amps: { re: 2, im: 0 } },
+    ]);
+    expect(e).toBeInstanceOf(IllPosedNetworkError);
+    expect(e.message).toBe(
+      "A net current of 2 A is driven into the floating part 's1', 's2', which is coupled to the rest only magnetically (admittance stamps): the current has nowhere to flow.",
+    );
+    expect(e.nodes).toEqual(['s1', 's2']);
+  });
+
   it('two current sources in a cut set that balance each other are accepted (the island floats)', () => {
     const sol = solvePrimitives([
       V('V1', 'a', 'earth', 120),
@@ -135,6 +151,18 @@ describe('invalid primitives get an InvalidCircuitError naming the element and f
     ['unknown type', [{ type: 'resistor', id: 'R', from: 'a', to: 'earth' }], "Invalid circuit: element 'R' has unknown type 'resistor'", 'elements[0].type'],
     ['missing node in a switch', [{ type: 'switch', id: 'S', from: '', to: 'earth', closed: true }], "Invalid circuit: element 'S': 'from' must be a non-empty node name", 'elements[0].from'],
     ['element tied to itself', [{ type: 'impedance', id: 'R', from: 'a', to: 'a', ohms: { re: 1, im: 0 } }], "Invalid circuit: element 'R' connects node 'a' to itself", 'elements[0].to'],
+    [
+      'an impedance too small to invert',
+      [{ type: 'impedance', id: 'R', from: 'a', to: 'earth', ohms: { re: 1e-320, im: 0 } }],
+      "Invalid circuit: element 'R': impedance 'ohms' is too small to invert (got 1e-320 + j0; use a closed switch for a direct connection)",
+      'elements[0].ohms',
+    ],
+    [
+      'a value out of range',
+      [{ type: 'currentSource', id: 'J', from: 'earth', to: 'a', amps: { re: 1e300, im: 0 } }],
+      "Invalid circuit: element 'J': 'amps' is out of range (got 1e+300 + j0; at most 1e100 in magnitude)",
+      'elements[0].amps',
+    ],
     [
       'coupled branch of the wrong size',
       [{ type: 'coupledBranch', id: 'K', from: ['a', 'b'], to: ['c', 'd'], ohms: [[{ re: 1, im: 1 }]] }],
