@@ -6,7 +6,7 @@
  */
 export * from './types.ts';
 export * from './errors.ts';
-export { solveCircuit, prepareCircuit, type SolveCircuitOptions, type PreparedCircuit } from './solve-circuit.ts';
+export { solveCircuit, prepareCircuit, circuitResults, type SolveCircuitOptions, type PreparedCircuit } from './solve-circuit.ts';
 export { parseCircuit, formatPath, type CircuitIssue } from './schema/parse-circuit.ts';
 export {
   circuitSchema,

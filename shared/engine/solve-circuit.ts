@@ -4,7 +4,7 @@
  * browser, a Web Worker and Node alike.
  */
 import { InvalidCircuitError } from './errors.ts';
-import { EARTH, type Primitive } from './types.ts';
+import { EARTH, type Primitive, type PrimitiveSolution } from './types.ts';
 import { parseCircuit } from './schema/parse-circuit.ts';
 import type { Circuit, LimitsInput } from './schema/circuit.ts';
 import { expandCircuit, expandContext } from './blocks/expand.ts';
@@ -53,6 +53,14 @@ export function prepareCircuit(input: unknown): PreparedCircuit {
   const { expansions, primitives } = expandCircuit(circuit, context);
   checkSwitchNodes(circuit, expansions);
   return { circuit, context, expansions, primitives };
+}
+
+/**
+ * Results of a prepared circuit from a primitive solution. For live re-solving keep a
+ * `createNetwork(prepared.primitives)`, `update` it after an edit and pass its solution here.
+ */
+export function circuitResults(prepared: PreparedCircuit, solution: PrimitiveSolution, options: Pick<SolveCircuitOptions, 'limits'> = {}): CircuitResult {
+  return buildResults(prepared.circuit, prepared.context, prepared.expansions, solution, resolveLimits(prepared.circuit.limits, options.limits));
 }
 
 /** Solve a circuit file (unknown input, validated) and return the typed results. Throws the typed errors of errors.ts. */

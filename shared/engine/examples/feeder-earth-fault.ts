@@ -2,7 +2,9 @@
  * Demo 4: a small four-wire 12.47 kV feeder out of the invented Kestrel Cross substation, two
  * overhead sections with conductor data (modified Carson equations), the neutral earthed at the
  * far end, loads along the way and a bolted phase-a-to-earth fault at the end of the feeder.
- * Conductor data are illustrative (not a catalogue).
+ * The pole-top geometry and conductor data are those of the textbook configuration in Kersting,
+ * *Distribution System Modeling and Analysis*, ch. 4 (336,400 26/7 ACSR phases, 4/0 6/1 ACSR neutral);
+ * the feeder, loads and source strength are invented.
  */
 import type { CircuitInput } from '../schema/circuit.ts';
 

@@ -7,9 +7,7 @@
  * `expectBalanced` adds: V0 = V2 = 0 at every three-phase bus and no neutral current anywhere.
  */
 import { expect } from 'vitest';
-import { prepareCircuit, solvePrimitives, type CircuitInput, type CircuitResult, type Cx, type Primitive } from '../../../shared/engine/index.ts';
-import { buildResults } from '../../../shared/engine/results/build-results.ts';
-import { resolveLimits } from '../../../shared/engine/limits/limit-sets.ts';
+import { circuitResults, prepareCircuit, solvePrimitives, type CircuitInput, type CircuitResult, type Cx, type Primitive } from '../../../shared/engine/index.ts';
 import type { LimitsInput } from '../../../shared/engine/schema/circuit.ts';
 import { expectInvariants } from './helpers/invariants.ts';
 
@@ -29,7 +27,7 @@ export function solveChecked(circuit: CircuitInput, limits?: LimitsInput): Circu
   // Voltage-dependent loads iterate to a tolerance; a tight one keeps their KCL mismatch below the checks' 1e-9.
   const sol = solvePrimitives(prepared.primitives, { tolerance: 1e-11 });
   expectInvariants(prepared.primitives, sol);
-  const result = buildResults(prepared.circuit, prepared.context, prepared.expansions, sol, resolveLimits(prepared.circuit.limits, limits));
+  const result = circuitResults(prepared, sol, { limits });
   const scale = Math.max(1, result.totals.sourcePower.mag);
   expect(result.totals.powerBalanceResidual.mag, 'power-balance residual of the results').toBeLessThanOrEqual(1e-8 * scale);
   expect(result.totals.maxKclResidualAmps).toBeLessThan(1e-6);
