@@ -65,6 +65,14 @@ export const studies = pgTable(
     /** Optimistic-concurrency counter: every write must name the version it edited. */
     version: integer('version').notNull().default(1),
     clonedFrom: uuid('cloned_from'),
+    /** Revision number of the source study this one was started from. */
+    clonedFromRevision: integer('cloned_from_revision'),
+    /** Who asked for the current (or last) review, whom they chose, and which revision is under review. */
+    reviewRequestedBy: text('review_requested_by').references(() => users.id),
+    reviewers: jsonb('reviewers').$type<string[]>().notNull().default([]),
+    reviewRevision: integer('review_revision'),
+    /** The revision the current approval is bound to (null unless approved). */
+    approvedRevision: integer('approved_revision'),
     createdBy: text('created_by')
       .notNull()
       .references(() => users.id),
@@ -119,4 +127,129 @@ export const auditEvents = pgTable(
     at: ts('at').notNull().defaultNow(),
   },
   (t) => [index('audit_team_at_idx').on(t.teamId, t.at), index('audit_study_idx').on(t.studyId)],
+);
+
+/** Immutable snapshots of a study's content, one per save, numbered from 1 per study. */
+export const studyRevisions = pgTable(
+  'study_revisions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    /** `{ circuit, layout?, settings? }`. */
+    content: jsonb('content').notNull(),
+    message: text('message').notNull().default(''),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    engineVersion: text('engine_version').notNull(),
+    /** ResultsSummary of shared/review/summary.ts. */
+    summary: jsonb('summary').notNull(),
+    restoredFrom: integer('restored_from'),
+    createdAt: ts('created_at').notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('study_revisions_number_idx').on(t.studyId, t.number)],
+);
+
+/** Every review transition (request, approve, request-changes, reset by an edit), kept for the record. */
+export const reviewEvents = pgTable(
+  'review_events',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    actorId: text('actor_id')
+      .notNull()
+      .references(() => users.id),
+    action: text('action', { enum: ['request', 'approve', 'request-changes', 'reset'] }).notNull(),
+    fromStatus: text('from_status').notNull(),
+    toStatus: text('to_status').notNull(),
+    revision: integer('revision'),
+    reviewers: jsonb('reviewers').$type<string[]>().notNull().default([]),
+    message: text('message').notNull().default(''),
+    at: ts('at').notNull().defaultNow(),
+  },
+  (t) => [index('review_events_study_idx').on(t.studyId, t.at)],
+);
+
+/** Comment threads on a study; plain text, optionally anchored to an element id or a result row. */
+export const comments = pgTable(
+  'comments',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    parentId: uuid('parent_id'),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    body: text('body').notNull(),
+    anchor: jsonb('anchor'),
+    revision: integer('revision'),
+    mentions: jsonb('mentions').$type<string[]>().notNull().default([]),
+    resolvedAt: ts('resolved_at'),
+    resolvedBy: text('resolved_by').references(() => users.id),
+    createdAt: ts('created_at').notNull().defaultNow(),
+    editedAt: ts('edited_at'),
+    deletedAt: ts('deleted_at'),
+  },
+  (t) => [index('comments_study_idx').on(t.studyId, t.createdAt)],
+);
+
+/** In-app notifications of one user. */
+export const notifications = pgTable(
+  'notifications',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['review-requested', 'mention', 'changes-requested', 'approved'] }).notNull(),
+    studyId: uuid('study_id').references(() => studies.id, { onDelete: 'cascade' }),
+    actorId: text('actor_id')
+      .notNull()
+      .references(() => users.id),
+    text: text('text').notNull(),
+    createdAt: ts('created_at').notNull().defaultNow(),
+    readAt: ts('read_at'),
+  },
+  (t) => [index('notifications_user_idx').on(t.userId, t.createdAt)],
+);
+
+/** Files attached to a study; the bytes live under DATA_DIR/attachments/<id>. */
+export const attachments = pgTable(
+  'attachments',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    fileName: text('file_name').notNull(),
+    contentType: text('content_type').notNull(),
+    size: integer('size').notNull(),
+    uploadedBy: text('uploaded_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: ts('created_at').notNull().defaultNow(),
+  },
+  (t) => [index('attachments_study_idx').on(t.studyId, t.createdAt)],
 );

@@ -14,6 +14,21 @@ export const AUDIT_ACTIONS = [
   'invite.accept',
   'member.role',
   'member.remove',
+  'revision.create',
+  'revision.restore',
+  'review.request',
+  'review.approve',
+  'review.request-changes',
+  'review.reset',
+  'comment.create',
+  'comment.edit',
+  'comment.delete',
+  'comment.resolve',
+  'comment.reopen',
+  'attachment.upload',
+  'attachment.delete',
+  'study.import',
+  'study.export',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -29,6 +44,10 @@ export type AuditEvent = z.infer<typeof auditEventSchema>;
 
 export const auditQuerySchema = z.object({
   studyId: z.string().optional(),
+  /** An exact action, or a prefix ending in "." (`review.`). */
+  action: z.string().trim().max(100).optional(),
+  /** A user id. */
+  actor: z.string().trim().max(100).optional(),
   page: z.coerce.number().int().min(1).max(100_000).default(1),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;

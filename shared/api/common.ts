@@ -29,6 +29,7 @@ export const ERROR_CODES = [
   'rate-limited',
   'foreign-origin',
   'payload-too-large',
+  'unsupported-media-type',
   'internal',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -19,10 +19,11 @@ export const circuitEnvelopeSchema = z.looseObject({
 });
 export type CircuitEnvelope = z.infer<typeof circuitEnvelopeSchema>;
 
-/** What a study holds: the circuit and, optionally, the diagram layout. */
+/** What a study holds: the circuit and, optionally, the diagram layout and the workspace settings (both kept verbatim). */
 export const studyContentSchema = z.object({
   circuit: circuitEnvelopeSchema,
   layout: z.unknown().optional(),
+  settings: z.unknown().optional(),
 });
 export type StudyContent = z.infer<typeof studyContentSchema>;
 
@@ -55,6 +56,17 @@ export type StudySummary = z.infer<typeof studySummarySchema>;
 export const studyDetailSchema = studySummarySchema.extend({
   content: studyContentSchema,
   clonedFrom: z.object({ id: z.string(), name: z.string() }).nullable(),
+  /** Revision of the source this study was started from (issue 5). */
+  clonedFromRevision: z.number().int().nullable().optional(),
+  /** Number of the latest revision; null for a study never saved since revisions exist. */
+  revision: z.number().int().nullable().optional(),
+  /** The open (or last) review request. */
+  review: z
+    .object({ requestedBy: userRefSchema, reviewers: z.array(userRefSchema), revision: z.number().int() })
+    .nullable()
+    .optional(),
+  /** The revision the current approval is bound to (null unless approved). */
+  approvedRevision: z.number().int().nullable().optional(),
 });
 export type StudyDetail = z.infer<typeof studyDetailSchema>;
 
@@ -96,6 +108,8 @@ export const updateStudyRequestSchema = z.object({
   description: studyDescriptionSchema.optional(),
   content: studyContentSchema.optional(),
   isTemplate: z.boolean().optional(),
+  /** Message of the revision a content change makes. */
+  message: z.string().trim().max(500, 'Message is at most 500 characters').optional(),
 });
 export type UpdateStudyRequest = z.infer<typeof updateStudyRequestSchema>;
 
