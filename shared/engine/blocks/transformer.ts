@@ -98,6 +98,7 @@ export function leakagePu(el: { percentR?: number; percentX?: number; percentZ?:
 /** Expand a three-phase bank into three unit stamps plus star-point earthing. */
 export function expandTransformer(el: TransformerElement): Expansion {
   if (el.from === el.to) throw new InvalidCircuitError(`transformer ${el.id}: "from" and "to" must be different buses`, [], { elementIds: [el.id] });
+  if (el.kvHigh < el.kvLow) throw new InvalidCircuitError(`transformer ${el.id}: kvHigh (${el.kvHigh} kV) is below kvLow (${el.kvLow} kV); "from" is the high-voltage side (the phase shift is stated HV to LV)`, [], { elementIds: [el.id] });
   const arr = bankArrangement(el);
   const vHvW = arr.hv === 'wye' ? (el.kvHigh * 1000) / Math.sqrt(3) : el.kvHigh * 1000;
   const vLvW = arr.lv === 'wye' ? (el.kvLow * 1000) / Math.sqrt(3) : el.kvLow * 1000;

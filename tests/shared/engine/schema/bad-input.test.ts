@@ -89,8 +89,12 @@ describe('invalid circuits', () => {
     expect(e.issues[0].message).toBe('give exactly one of "vectorGroup" (IEC clock notation) or "connection" (North American rule) (id "T")');
   });
   it('rejects an unrealisable vector group', () => {
-    const e = errorOf({ ...header, elements: [src, { type: 'transformer', id: 'T', from: 'B', to: 'C', kva: 100, kvHigh: 0.208, kvLow: 0.48, vectorGroup: 'Dyn0', percentX: 5 }] });
+    const e = errorOf({ ...header, elements: [src, { type: 'transformer', id: 'T', from: 'B', to: 'C', kva: 100, kvHigh: 0.208, kvLow: 0.12, vectorGroup: 'Dyn0', percentX: 5 }] });
     expect(e.message).toMatch(/^transformer T: vector group Dyn0 is not realisable/);
+  });
+  it('rejects a bank whose "from" side is the low-voltage side', () => {
+    const e = errorOf({ ...header, elements: [src, { type: 'transformer', id: 'T', from: 'B', to: 'C', kva: 100, kvHigh: 0.208, kvLow: 0.48, connection: 'D-Yg', percentX: 5 }] });
+    expect(e.message).toBe('transformer T: kvHigh (0.208 kV) is below kvLow (0.48 kV); "from" is the high-voltage side (the phase shift is stated HV to LV)');
   });
   it('rejects kW loads on a bus with no known voltage', () => {
     const e = errorOf({ ...header, elements: [{ type: 'voltageSource', id: 'V', plus: 'X.a', minus: 'earth', volts: 120 }, { type: 'load', id: 'L', bus: 'X', connection: 'single', between: ['a', 'n'], each: { kw: 1 } }] });
