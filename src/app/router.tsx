@@ -22,6 +22,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
     return null;
   };
   return [
+    // No loaders here: the signed-out pages render at once (the demo list starts loading immediately).
     { path: '/sign-in', element: <SignInRoute />, errorElement: <RouteError /> },
     { path: '/sign-up', element: <SignUpRoute />, errorElement: <RouteError /> },
     { path: '/invite/:token', element: <AcceptInviteRoute />, errorElement: <RouteError /> },

@@ -42,6 +42,28 @@ describe('signed-in layout', () => {
     expect(api.calls.some((c) => c.method === 'POST' && c.url.pathname === '/api/auth/sign-out')).toBe(true);
   });
 
+  it('sends someone known to be signed in from the sign-in page back to the studies', async () => {
+    const api = stubApi({
+      'GET /api/auth/me': () => ({ body: me('engineer') }),
+      'GET /api/studies': () => ({ body: { items: [], total: 0, page: 1, pageSize: 20 } }),
+    });
+    const { router } = renderApp('/');
+    expect(await screen.findByRole('heading', { name: 'Studies' })).toBeInTheDocument();
+    const meCalls = api.calls.filter((c) => c.url.pathname === '/api/auth/me').length;
+    await router.navigate('/sign-in');
+    await waitFor(() => expect(router.state.location.pathname).toBe('/'));
+    expect(screen.getByRole('heading', { name: 'Studies' })).toBeInTheDocument();
+    // Decided from the cache, without asking the server again.
+    expect(api.calls.filter((c) => c.url.pathname === '/api/auth/me').length).toBe(meCalls);
+  });
+
+  it('does not ask the server who is signed in on the sign-in page (no 401 in the console)', async () => {
+    const api = stubApi({ 'GET /api/auth/demo': () => ({ body: { demo: false, accounts: [] } }) });
+    renderApp('/sign-in');
+    expect(await screen.findByRole('heading', { name: 'Sign in to Wyeward' })).toBeInTheDocument();
+    expect(api.calls.map((c) => c.url.pathname)).toEqual(['/api/auth/demo']);
+  });
+
   it('shows a not-found page for an unknown address inside the app', async () => {
     stubApi({ 'GET /api/auth/me': () => ({ body: me('viewer') }) });
     renderApp('/no/such/page');

@@ -87,6 +87,25 @@ describe('sign-in page', () => {
     expect(api.calls.find((c) => c.method === 'POST')?.body).toEqual({ email: 'engineer@wyeward.test', password: 'wyeward-demo' });
   });
 
+  it('after signing in goes back to the page the visitor was sent away from', async () => {
+    let signedIn = false;
+    stubApi({
+      'GET /api/auth/demo': () => ({ body: demo }),
+      'POST /api/auth/sign-in': () => {
+        signedIn = true;
+        return { body: me('owner') };
+      },
+      'GET /api/auth/me': () => (signedIn ? { body: me('owner') } : apiError(401, 'unauthenticated', 'Sign in first.')),
+      'GET /api/team': () => ({ body: { team: { id: 't1', name: 'Harrowgate Works' }, members: [], invites: [] } }),
+    });
+    const user = userEvent.setup();
+    const { router } = renderApp('/sign-in?next=%2Fteam');
+    await user.click(await screen.findByRole('button', { name: 'Use the owner account owner@wyeward.test' }));
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByRole('heading', { name: 'Harrowgate Works' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/team');
+  });
+
   it('hides the demo list when demo mode is off', async () => {
     stubApi({ 'GET /api/auth/demo': () => ({ body: { demo: false, accounts: [] } }) });
     const { queryClient } = renderApp('/sign-in');

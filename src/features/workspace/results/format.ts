@@ -1,0 +1,48 @@
+/** Number formatting of the results: RMS magnitude∠degrees, powers in kW/kvar/kVA, always with units. */
+import type { Phasor } from '../../../../shared/engine/index.ts';
+
+/** A magnitude with about four significant figures (no exponent for the ranges a study sees). */
+export function formatMagnitude(x: number): string {
+  const a = Math.abs(x);
+  if (!Number.isFinite(x)) return String(x);
+  if (a === 0) return '0';
+  if (a >= 1000) return x.toFixed(0);
+  if (a >= 100) return x.toFixed(1);
+  if (a >= 10) return x.toFixed(2);
+  if (a >= 0.001) return x.toFixed(3);
+  return x.toExponential(2);
+}
+
+/** An angle in degrees with one decimal, using a true minus sign ("−2.1°"); 0.0° for a zero phasor. */
+export function formatAngle(deg: number): string {
+  const r = Math.round(deg * 10) / 10;
+  const v = Object.is(r, -0) || r === 0 ? 0 : r;
+  return `${v < 0 ? '−' : ''}${Math.abs(v).toFixed(1)}°`;
+}
+
+/** RMS magnitude∠degrees with a unit: "141.6 V∠−2.1°". */
+export function formatPhasor(p: Phasor | undefined, unit: string): string {
+  if (!p) return '—';
+  return `${formatMagnitude(p.mag)} ${unit}∠${formatAngle(p.angleDeg)}`;
+}
+
+/** A plain value with its unit: "47.3 %". */
+export function formatValue(x: number | undefined, unit: string, digits?: number): string {
+  if (x === undefined || !Number.isFinite(x)) return '—';
+  return `${digits === undefined ? formatMagnitude(x) : x.toFixed(digits)} ${unit}`;
+}
+
+/** Power in kW (real part of S in VA). */
+export const kW = (s: Phasor | undefined): string => formatValue(s ? s.re / 1000 : undefined, 'kW');
+/** Reactive power in kvar (imaginary part of S in VA). */
+export const kvar = (s: Phasor | undefined): string => formatValue(s ? s.im / 1000 : undefined, 'kvar');
+/** Apparent power in kVA. */
+export const kVA = (s: Phasor | undefined): string => formatValue(s ? s.mag / 1000 : undefined, 'kVA');
+
+/** Power factor |P|/|S| with "lagging" when Q > 0 (load convention), "leading" when Q < 0. */
+export function formatPowerFactor(s: Phasor | undefined): string {
+  if (!s || s.mag === 0) return '—';
+  const pf = Math.abs(s.re) / s.mag;
+  const sense = Math.abs(s.im) < 1e-9 * s.mag ? '' : s.im > 0 ? ' lagging' : ' leading';
+  return `${pf.toFixed(3)}${sense}`;
+}

@@ -1,0 +1,95 @@
+/**
+ * What the canvas draws on top of the diagram after a solve (contract 4): per bus the
+ * line-to-neutral magnitudes, the neutral shift and the worst flag; per element the currents per
+ * conductor and its flags. Plain data, so the canvas nodes stay simple and memoisable.
+ */
+import type { CircuitResult, Flag } from '../../../../shared/engine/index.ts';
+
+/** Overlay of one bus. */
+export interface BusOverlay {
+  bus: string;
+  /** |V| line-to-neutral (or to earth when the bus has no neutral) per phase, V. */
+  vln: Record<string, number>;
+  /** |V n-earth|, V (buses with a neutral). */
+  neutralShiftV?: number;
+  /** |V n-earth| in % of nominal V_LN. */
+  neutralShiftPercent?: number;
+  flags: Flag[];
+  worstFlag?: Flag;
+  /** True when the bus lies in a part with no path to earth. */
+  floating: boolean;
+}
+
+/** One conductor current of an element, RMS. */
+export interface ConductorCurrent {
+  /** Index of the element's port (0 = first bus connection). */
+  port: number;
+  bus?: string;
+  conductor: string;
+  /** A. */
+  mag: number;
+  angleDeg: number;
+}
+
+/** Overlay of one element (id = canvas node id). */
+export interface ElementOverlay {
+  id: string;
+  type: string;
+  /** Direction of `currents`, as the engine reports it. */
+  direction: 'into-element' | 'out-of-element' | 'primitive';
+  currents: ConductorCurrent[];
+  /** Transformers: highest winding current, % of rating. */
+  loadingPercent?: number;
+  flags: Flag[];
+  worstFlag?: Flag;
+}
+
+export interface DiagramOverlays {
+  buses: Record<string, BusOverlay>;
+  elements: Record<string, ElementOverlay>;
+}
+
+const RANK: Record<Flag['severity'], number> = { info: 0, warning: 1, violation: 2 };
+
+/** The most severe of a list of flags (first one wins a tie); undefined for none. */
+export function worstFlag(flags: readonly Flag[]): Flag | undefined {
+  let worst: Flag | undefined;
+  for (const f of flags) if (!worst || RANK[f.severity] > RANK[worst.severity]) worst = f;
+  return worst;
+}
+
+/** Overlay data for every bus and element of a result. */
+export function diagramOverlays(result: CircuitResult): DiagramOverlays {
+  const buses: Record<string, BusOverlay> = {};
+  for (const b of result.buses) {
+    const flags = result.flags.filter((f) => f.bus === b.bus && !f.elementId);
+    const vln: Record<string, number> = {};
+    for (const [ph, v] of Object.entries(b.lineToNeutral)) vln[ph] = v.mag;
+    buses[b.bus] = {
+      bus: b.bus,
+      vln,
+      neutralShiftV: b.neutralToEarth?.mag,
+      neutralShiftPercent: b.neutralShiftPercent,
+      flags,
+      worstFlag: worstFlag(flags),
+      floating: b.floating,
+    };
+  }
+  const elements: Record<string, ElementOverlay> = {};
+  for (const e of Object.values(result.elements)) {
+    const flags = result.flags.filter((f) => f.elementId === e.id);
+    const currents: ConductorCurrent[] = [];
+    if (e.ports && e.ports.length > 0) {
+      e.ports.forEach((p, port) =>
+        p.conductors.forEach((conductor, i) => {
+          const c = p.currents[i];
+          if (c) currents.push({ port, bus: p.bus, conductor, mag: c.mag, angleDeg: c.angleDeg });
+        }),
+      );
+    } else {
+      e.currents.forEach((c, i) => currents.push({ port: 0, conductor: String(i + 1), mag: c.mag, angleDeg: c.angleDeg }));
+    }
+    elements[e.id] = { id: e.id, type: e.type, direction: e.currentDirection, currents, loadingPercent: e.loadingPercent, flags, worstFlag: worstFlag(flags) };
+  }
+  return { buses, elements };
+}

@@ -1,0 +1,26 @@
+/** Messages between the page and the solve worker (structured-clone safe: plain data only). */
+import type { CircuitResult, LimitsInput, SolveTimings } from '../../../../shared/engine/index.ts';
+
+/** A solve request; `id` increases with every edit so stale answers can be dropped. */
+export interface SolveRequest {
+  id: number;
+  circuit: unknown;
+  limits?: LimitsInput;
+}
+
+/**
+ * An engine error as plain fields (an Error's own properties do not survive postMessage).
+ * `code` is the engine's EngineErrorCode, or 'internal' for anything unexpected.
+ */
+export interface LiveSolveError {
+  code: string;
+  message: string;
+  elementIds: string[];
+  nodes: string[];
+  issues?: { path: string; message: string }[];
+}
+
+/** `ms`: the whole request in the worker (validate, expand, solve, build results); `timings`: the solver's part (analysis is 0 ms when the topology was reused). */
+export type SolveResponse =
+  | { id: number; ok: true; result: CircuitResult; ms: number; timings: SolveTimings }
+  | { id: number; ok: false; error: LiveSolveError; ms: number };
