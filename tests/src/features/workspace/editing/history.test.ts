@@ -1,0 +1,34 @@
+import { describe, expect, it } from 'vitest';
+import { HISTORY_LIMIT, historyReducer, initHistory, type History, type HistoryAction } from '../../../../../src/features/workspace/editing/history.ts';
+
+const run = (h: History<string>, ...actions: HistoryAction<string>[]) => actions.reduce(historyReducer<string>, h);
+
+describe('historyReducer', () => {
+  it('undoes and redoes commits in order', () => {
+    const h = run(initHistory('a'), { type: 'commit', next: 'b' }, { type: 'commit', next: 'c' });
+    expect(h).toEqual({ past: ['a', 'b'], present: 'c', future: [] });
+    const u = run(h, { type: 'undo' }, { type: 'undo' });
+    expect(u).toEqual({ past: [], present: 'a', future: ['b', 'c'] });
+    expect(run(u, { type: 'undo' })).toBe(u); // nothing more to undo
+    expect(run(u, { type: 'redo' }).present).toBe('b');
+  });
+
+  it('drops the redo stack on a new edit', () => {
+    const h = run(initHistory('a'), { type: 'commit', next: 'b' }, { type: 'undo' }, { type: 'commit', next: 'x' });
+    expect(h).toEqual({ past: ['a'], present: 'x', future: [] });
+  });
+
+  it('replace changes the present without an entry; mark records where a drag began', () => {
+    const h = run(initHistory('a'), { type: 'replace', next: 'a1' }, { type: 'replace', next: 'a2' }, { type: 'mark', before: 'a' });
+    expect(h).toEqual({ past: ['a'], present: 'a2', future: [] });
+    expect(run(h, { type: 'undo' }).present).toBe('a');
+  });
+
+  it('keeps at most HISTORY_LIMIT entries and resets to a fresh history', () => {
+    let h = initHistory('0');
+    for (let i = 1; i <= HISTORY_LIMIT + 5; i++) h = historyReducer(h, { type: 'commit', next: String(i) });
+    expect(h.past).toHaveLength(HISTORY_LIMIT);
+    expect(h.past[0]).toBe('5');
+    expect(run(h, { type: 'reset', next: 'z' })).toEqual({ past: [], present: 'z', future: [] });
+  });
+});
