@@ -21,6 +21,22 @@ export function toLiveSolveError(e: unknown): LiveSolveError {
   return { code: 'internal', message: `The solver stopped unexpectedly: ${message}`, elementIds: [], nodes: [] };
 }
 
+/**
+ * Schema problems come with JSON paths (`elements[3].each.kw`) but no element ids: take the id of
+ * each element a path points into, so the canvas can show the error beside it.
+ */
+export function elementIdsFromIssues(circuit: unknown, issues: readonly { path: string }[]): string[] {
+  const elements = (circuit as { elements?: unknown } | null)?.elements;
+  if (!Array.isArray(elements)) return [];
+  const ids = new Set<string>();
+  for (const { path } of issues) {
+    const m = /^elements\[(\d+)\]/.exec(path);
+    const el = m ? (elements[Number(m[1])] as { id?: unknown } | undefined) : undefined;
+    if (el && typeof el.id === 'string') ids.add(el.id);
+  }
+  return [...ids];
+}
+
 /** A stateful handler: request in, response out (never throws). */
 export function createSolveHandler(): (req: SolveRequest) => SolveResponse {
   let network: Network | null = null;
@@ -37,7 +53,9 @@ export function createSolveHandler(): (req: SolveRequest) => SolveResponse {
     } catch (e) {
       // A failed update may leave the cached network unusable: start afresh next time.
       network = null;
-      return { id: req.id, ok: false, error: toLiveSolveError(e), ms: now() - t0 };
+      const error = toLiveSolveError(e);
+      if (error.elementIds.length === 0 && error.issues) error.elementIds = elementIdsFromIssues(req.circuit, error.issues);
+      return { id: req.id, ok: false, error, ms: now() - t0 };
     }
   };
 }
