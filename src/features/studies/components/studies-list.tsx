@@ -144,6 +144,13 @@ export function StudiesList({ role }: { role: Role }) {
               {studies.error.message}
             </Notice>
           </div>
+        ) : data && data.items.length === 0 && data.total > 0 ? (
+          <p className="px-3 py-6 text-center text-sm text-ink-muted">
+            Page <span className="num">{data.page}</span> is past the end of the list.{' '}
+            <button type="button" className="font-semibold text-accent underline underline-offset-2" onClick={() => update({ page: null })}>
+              Go to the first page
+            </button>
+          </p>
         ) : data && data.items.length === 0 ? (
           <p className="px-3 py-6 text-center text-sm text-ink-muted">
             {params.q || params.template

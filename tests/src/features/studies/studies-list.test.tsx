@@ -170,3 +170,22 @@ describe('studies list paging', () => {
     expect(screen.getByRole('navigation', { name: 'Pages of studies' })).toHaveTextContent('page 2 of 3');
   });
 });
+
+describe('studies list past the last page', () => {
+  it('says so and offers the first page instead of claiming there are no studies', async () => {
+    stubApi({
+      'GET /api/auth/me': () => ({ body: me('viewer') }),
+      'GET /api/studies': (req) => {
+        const page = Number(req.url.searchParams.get('page') ?? 1);
+        return { body: { items: page === 1 ? [study({ name: 'Only study' })] : [], total: 1, page, pageSize: 20 } };
+      },
+    });
+    const user = userEvent.setup();
+    const { router } = renderApp('/?page=7');
+    expect(await screen.findByText(/is past the end of the list/)).toBeInTheDocument();
+    expect(screen.queryByText('No studies yet.')).not.toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Go to the first page' }));
+    expect(await screen.findByRole('link', { name: 'Only study' })).toBeInTheDocument();
+    expect(router.state.location.search).toBe('');
+  });
+});
