@@ -33,8 +33,16 @@ export interface PreparedCircuit {
 
 /** A switch must join nodes that something else uses (a typo in a node name otherwise goes unnoticed). */
 function checkSwitchNodes(circuit: Circuit, expansions: Expansion[]): void {
+  if (!circuit.elements.some((el) => el.type === 'switch')) return;
+  // count, per node, the primitives touching it (a primitive touching a node twice counts once)
   const uses = new Map<string, number>();
-  for (const e of expansions) for (const t of e.primitives) for (const n of new Set(primitiveNodes(t.prim))) uses.set(n, (uses.get(n) ?? 0) + 1);
+  for (const e of expansions)
+    for (const t of e.primitives) {
+      const nodes = primitiveNodes(t.prim);
+      nodes.forEach((n, k) => {
+        if (nodes.indexOf(n) === k) uses.set(n, (uses.get(n) ?? 0) + 1);
+      });
+    }
   circuit.elements.forEach((el, i) => {
     if (el.type !== 'switch') return;
     for (const end of ['from', 'to'] as const) {
