@@ -37,7 +37,8 @@ export interface RunOptions {
 export async function run(config: Config, mountClient: (app: Express) => void, { onClose = async () => {}, server = createServer() }: RunOptions = {}) {
   const started = Date.now();
   const db = await prepareDatabase(config);
-  const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl });
+  const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
+  const mail = await mailer.start();
   const app = createApp({ db, config, mailer, mountClient });
 
   server.on('request', app);
@@ -51,6 +52,11 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   console.log(`Wyeward is running at http://localhost:${port} (data in ${config.dataDir}; started in ${((Date.now() - started) / 1000).toFixed(1)} s)`);
+  console.log(
+    mail.local
+      ? `Mail goes to the local fake SMTP server at ${mail.smtp} and is stored in ${path.join(config.dataDir, 'mail')} (set SMTP_URL for real delivery).`
+      : `Mail goes to ${mail.smtp}; a copy is kept in ${path.join(config.dataDir, 'mail')}.`,
+  );
   if (config.demo) {
     console.log('Demo mode is on (DEMO=0 turns it off). Demo accounts:');
     for (const a of DEMO_ACCOUNTS) console.log(`  ${a.role.padEnd(9)} ${a.email}  password: ${a.password}`);
@@ -68,6 +74,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
     server.closeAllConnections();
     try {
       await onClose();
+      await mailer.close();
       await closeDb(db);
       process.exit(0);
     } catch (err) {

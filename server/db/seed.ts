@@ -10,7 +10,8 @@ import { demoCircuits } from '../../shared/engine/index.ts';
 import { hashPassword } from '../auth/passwords.ts';
 import { DEMO_ACCOUNTS } from './demo-accounts.ts';
 import type { Db } from './index.ts';
-import { auditEvents, memberships, studies, teams, users } from './schema.ts';
+import { appendRevision } from '../services/revisions.ts';
+import { auditEvents, memberships, reviewEvents, studies, teams, users } from './schema.ts';
 
 export const DEMO_TEAM_NAME = 'Brackenmoor PPD — Kestle Ford Distribution';
 
@@ -51,6 +52,7 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
       await tx.insert(memberships).values({ userId: id, teamId: team.id, role: a.role, createdAt: joined });
     }
 
+    const reviewerId = idByEmail.get('reviewer@wyeward.test')!;
     let made = 0;
     for (const [i, demo] of demoCircuits.entries()) {
       const look = STUDY_LOOKS[i % STUDY_LOOKS.length];
@@ -72,8 +74,32 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
           updatedBy,
           createdAt,
           updatedAt,
+          ...(look.status !== 'draft'
+            ? { reviewRequestedBy: createdBy, reviewers: [reviewerId], reviewRevision: 1, approvedRevision: look.status === 'approved' ? 1 : null }
+            : {}),
         })
         .returning({ id: studies.id });
+      // Revision 1 with the engine's summary, and the review history that led to the study's status.
+      await appendRevision(tx, { studyId: study.id, teamId: team.id, authorId: createdBy, content: { circuit: demo.circuit }, message: 'Initial revision', at: createdAt, audit: false });
+      if (look.status !== 'draft') {
+        const requestedAt = new Date(createdAt.getTime() + 3600 * 1000);
+        await tx.insert(reviewEvents).values({ studyId: study.id, teamId: team.id, actorId: createdBy, action: 'request', fromStatus: 'draft', toStatus: 'in-review', revision: 1, reviewers: [reviewerId], message: 'Ready for a check.', at: requestedAt });
+        if (look.status !== 'in-review') {
+          const approved = look.status === 'approved';
+          await tx.insert(reviewEvents).values({
+            studyId: study.id,
+            teamId: team.id,
+            actorId: reviewerId,
+            action: approved ? 'approve' : 'request-changes',
+            fromStatus: 'in-review',
+            toStatus: look.status,
+            revision: 1,
+            reviewers: [reviewerId],
+            message: approved ? 'Checked against the field readings; fine to reuse.' : 'Please add the service earthing resistance measured on site.',
+            at: new Date(requestedAt.getTime() + 3600 * 1000),
+          });
+        }
+      }
       await tx.insert(auditEvents).values({
         teamId: team.id,
         actorId: createdBy,

@@ -1,13 +1,14 @@
 /**
- * Outgoing mail through nodemailer. Every message is rendered to RFC 822 and kept under
- * `<dir>/<id>.eml` with `<id>.json` metadata, so owners can read it in the app without a mail
- * server. When SMTP_URL is set the message is also delivered over SMTP.
+ * Outgoing mail through nodemailer over SMTP. Without SMTP_URL the mailer starts the local fake
+ * SMTP server (sink.ts) on first use and sends to it; the sink stores what it receives under
+ * DATA_DIR/mail, where owners read it in the app. With SMTP_URL mail goes to that server and a
+ * sent copy is stored in the same folder. If sending fails, the copy is stored anyway and the
+ * failure logged, so an invite link is never lost.
  */
-import { randomBytes } from 'node:crypto';
-import { mkdir, readFile, readdir, writeFile } from 'node:fs/promises';
-import path from 'node:path';
-import nodemailer from 'nodemailer';
+import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import type { MailMessage, MailSummary } from '../../shared/api/mail.ts';
+import { startMailSink, type MailSink } from './sink.ts';
+import { getMail, ID_HEADER, listMail, newMailId, storeMail, TEAM_HEADER } from './store.ts';
 
 export interface OutgoingMail {
   /** The team the message belongs to: only that team's owners can read it in the app. */
@@ -15,88 +16,96 @@ export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
+  /** An HTML alternative; every user-written part must already be escaped (templates.ts). */
   html?: string;
 }
 
-interface StoredMail extends MailMessage {
-  teamId: string;
-}
-
 export interface Mailer {
-  /** Renders, stores and (with SMTP) delivers a message; returns its id. */
+  /** Sends a message (and makes sure a copy is stored); returns its id. */
   send(mail: OutgoingMail): Promise<string>;
   /** The team's messages, newest first. */
   list(teamId: string): Promise<MailSummary[]>;
   /** One message of the team, or null. */
   get(teamId: string, id: string): Promise<MailMessage | null>;
+  /** Starts the local SMTP server now (when no SMTP_URL) and says where mail goes. */
+  start(): Promise<{ smtp: string; local: boolean }>;
+  /** Stops the local SMTP server, if started. */
+  close(): Promise<void>;
 }
 
-const ID_RE = /^\d{13}-[0-9a-f]{8}$/;
+export interface MailerOptions {
+  /** The mail folder (DATA_DIR/mail). */
+  dir: string;
+  from: string;
+  /** A real SMTP server (SMTP_URL); without it the local sink is used. */
+  smtpUrl?: string;
+  /** Port of the local sink (SMTP_SINK_PORT; 0 = a free port). */
+  sinkPort?: number;
+}
 
-/** Creates the mailer writing under `dir` (DATA_DIR/mail in the server). */
-export function createMailer({ dir, from, smtpUrl }: { dir: string; from: string; smtpUrl?: string }): Mailer {
+/** Creates the mailer writing under `dir`. */
+export function createMailer({ dir, from, smtpUrl, sinkPort = 0 }: MailerOptions): Mailer {
   const render = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'unix' });
-  const smtp = smtpUrl ? nodemailer.createTransport(smtpUrl) : null;
+  let sink: Promise<MailSink> | null = null;
+  let transport: Promise<Transporter> | null = null;
 
-  async function readStored(id: string): Promise<StoredMail | null> {
-    if (!ID_RE.test(id)) return null;
-    try {
-      return JSON.parse(await readFile(path.join(dir, `${id}.json`), 'utf8')) as StoredMail;
-    } catch {
-      return null;
-    }
+  function getTransport(): Promise<Transporter> {
+    transport ??= (async () => {
+      if (smtpUrl) return nodemailer.createTransport(smtpUrl);
+      sink ??= startMailSink({ dir, port: sinkPort });
+      const s = await sink;
+      return nodemailer.createTransport({ host: s.host, port: s.port, secure: false, ignoreTLS: true });
+    })();
+    return transport;
+  }
+
+  async function storeCopy(id: string, mail: OutgoingMail, message: SendMailOptions) {
+    const info = await render.sendMail(message);
+    await storeMail(dir, info.message as Buffer, {
+      id,
+      teamId: mail.teamId,
+      to: mail.to,
+      from,
+      subject: mail.subject,
+      sentAt: new Date().toISOString(),
+      text: mail.text,
+      ...(mail.html ? { html: mail.html } : {}),
+    });
   }
 
   return {
     async send(mail) {
-      await mkdir(dir, { recursive: true });
-      // The id sorts by time: 13-digit epoch milliseconds, then random hex against collisions.
-      const id = `${String(Date.now()).padStart(13, '0')}-${randomBytes(4).toString('hex')}`;
-      const message = { from, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html };
-      const info = await render.sendMail(message);
-      await writeFile(path.join(dir, `${id}.eml`), info.message as Buffer);
-      const stored: StoredMail = {
-        id,
-        teamId: mail.teamId,
-        to: mail.to,
+      const id = newMailId();
+      const message: SendMailOptions = {
         from,
+        to: mail.to,
         subject: mail.subject,
-        sentAt: new Date().toISOString(),
         text: mail.text,
         ...(mail.html ? { html: mail.html } : {}),
+        headers: { [TEAM_HEADER]: mail.teamId, [ID_HEADER]: id },
       };
-      await writeFile(path.join(dir, `${id}.json`), JSON.stringify(stored, null, 2));
-      if (smtp) {
-        try {
-          await smtp.sendMail(message);
-        } catch (err) {
-          // The copy under DATA_DIR stays readable in the app; the owner can pass the link on by hand.
-          console.error(`SMTP delivery of mail ${id} to ${mail.to} failed:`, err);
-        }
+      try {
+        await (await getTransport()).sendMail(message);
+        // The sink stored the message before acknowledging it; a real server keeps nothing for us.
+        if (smtpUrl) await storeCopy(id, mail, message);
+      } catch (err) {
+        console.error(`SMTP delivery of mail ${id} to ${mail.to} failed (a copy is kept under DATA_DIR/mail):`, err);
+        await storeCopy(id, mail, message);
       }
       return id;
     },
-
-    async list(teamId) {
-      let names: string[];
-      try {
-        names = await readdir(dir);
-      } catch {
-        return [];
-      }
-      const ids = names.filter((n) => n.endsWith('.json')).map((n) => n.slice(0, -5));
-      const all = await Promise.all(ids.map(readStored));
-      return all
-        .filter((m): m is StoredMail => m !== null && m.teamId === teamId)
-        .sort((a, b) => (a.id < b.id ? 1 : a.id > b.id ? -1 : 0))
-        .map(({ id, to, subject, sentAt }) => ({ id, to, subject, sentAt }));
+    list: (teamId) => listMail(dir, teamId),
+    get: (teamId, id) => getMail(dir, teamId, id),
+    async start() {
+      if (smtpUrl) return { smtp: new URL(smtpUrl).host, local: false };
+      await getTransport();
+      const s = await sink!;
+      return { smtp: `${s.host}:${s.port}`, local: true };
     },
-
-    async get(teamId, id) {
-      const m = await readStored(id);
-      if (!m || m.teamId !== teamId) return null;
-      const { teamId: _team, ...message } = m;
-      return message;
+    async close() {
+      if (sink) await (await sink).close();
+      sink = null;
+      transport = null;
     },
   };
 }

@@ -1,6 +1,7 @@
 /** Studies: team-scoped, soft-deleted, optimistically versioned. A study of another team is "not found". */
-import { and, asc, count, desc, eq, ilike, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, isNull, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { studyRevisions } from '../db/schema.ts';
 import {
   emptyStudyContent,
   type CloneStudyRequest,
@@ -13,11 +14,13 @@ import {
   type StudySummary,
   type UpdateStudyRequest,
 } from '../../shared/api/studies.ts';
+import type { RevisionSummary } from '../../shared/api/revisions.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
-import { studies, users } from '../db/schema.ts';
+import { reviewEvents, studies, users } from '../db/schema.ts';
 import { AppError, isUuid, notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
+import { appendRevision, ensureRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
 import { validateCircuit } from './study-content.ts';
 
 const createdByUser = alias(users, 'created_by_user');
@@ -76,7 +79,7 @@ function toSummary(r: SummaryRow): StudySummary {
 }
 
 /** The live (not deleted) studies of the actor's team, as a WHERE clause. */
-function visible(actor: Actor, id?: string): SQL {
+export function visible(actor: Actor, id?: string): SQL {
   return and(eq(studies.teamId, actor.teamId), isNull(studies.deletedAt), id ? eq(studies.id, id) : undefined)!;
 }
 
@@ -107,11 +110,32 @@ export async function listStudies(db: Db, actor: Actor, q: ListStudiesQuery): Pr
   return { items: rows.map(toSummary), total, page: q.page, pageSize: q.pageSize };
 }
 
+/** Names of users by id (for reviewer lists). */
+async function userRefs(db: Conn, ids: string[]): Promise<{ id: string; name: string }[]> {
+  if (ids.length === 0) return [];
+  const rows = await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids));
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  return ids.map((id) => byId.get(id)).filter((r): r is { id: string; name: string } => r !== undefined);
+}
+
 /** One study of the actor's team, or 404. */
-export async function getStudy(db: Db, actor: Actor, id: string): Promise<StudyDetail> {
+export async function getStudy(db: Conn, actor: Actor, id: string): Promise<StudyDetail> {
   if (!isUuid(id)) throw notFound();
   const [row] = await db
-    .select({ ...summaryColumns, content: studies.content, sourceId: source.id, sourceName: source.name })
+    .select({
+      ...summaryColumns,
+      content: studies.content,
+      sourceId: source.id,
+      sourceName: source.name,
+      clonedFromRevision: studies.clonedFromRevision,
+      reviewRequestedBy: studies.reviewRequestedBy,
+      reviewers: studies.reviewers,
+      reviewRevision: studies.reviewRevision,
+      approvedRevision: studies.approvedRevision,
+      revision: sql<number | null>`(select max(${studyRevisions.number}) from ${studyRevisions} where ${studyRevisions.studyId} = ${studies.id})`.mapWith(
+        (v: unknown) => (v === null ? null : Number(v)),
+      ),
+    })
     .from(studies)
     .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
     .innerJoin(updatedByUser, eq(updatedByUser.id, studies.updatedBy))
@@ -119,81 +143,193 @@ export async function getStudy(db: Db, actor: Actor, id: string): Promise<StudyD
     .where(visible(actor, id))
     .limit(1);
   if (!row) throw notFound();
+  let review: StudyDetail['review'] = null;
+  if (row.reviewRequestedBy && row.reviewRevision !== null) {
+    const [requestedBy] = await userRefs(db, [row.reviewRequestedBy]);
+    review = { requestedBy: requestedBy ?? { id: row.reviewRequestedBy, name: '(removed)' }, reviewers: await userRefs(db, row.reviewers), revision: row.reviewRevision };
+  }
   return {
     ...toSummary(row),
     content: row.content as StudyContent,
     clonedFrom: row.sourceId && row.sourceName !== null ? { id: row.sourceId, name: row.sourceName } : null,
+    clonedFromRevision: row.clonedFromRevision,
+    revision: row.revision ?? null,
+    review,
+    approvedRevision: row.approvedRevision,
   };
 }
 
-/** Creates a study (empty 60 Hz circuit when no content is given). */
-export async function createStudy(db: Db, actor: Actor, input: CreateStudyRequest): Promise<CreatedStudy> {
-  const content = input.content ?? emptyStudyContent();
-  validateCircuit(content);
-  const [row] = await db
+/** Inserts a study with revision 1 (inside the caller's transaction) and records it. */
+async function insertStudy(
+  tx: Conn,
+  actor: Actor,
+  v: { name: string; description: string; content: StudyContent; clonedFrom?: string; clonedFromRevision?: number; message: string },
+): Promise<CreatedStudy> {
+  const [row] = await tx
     .insert(studies)
     .values({
       teamId: actor.teamId,
-      name: input.name,
-      description: input.description ?? '',
-      content,
+      name: v.name,
+      description: v.description,
+      content: v.content,
+      clonedFrom: v.clonedFrom ?? null,
+      clonedFromRevision: v.clonedFromRevision ?? null,
       createdBy: actor.userId,
       updatedBy: actor.userId,
     })
     .returning({ id: studies.id, version: studies.version });
-  await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'study.create', studyId: row.id, detail: { name: input.name } });
+  await appendRevision(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, content: v.content, message: v.message });
   return row;
 }
 
+/** Creates a study (empty 60 Hz circuit when no content is given) with its first revision. */
+export async function createStudy(db: Db, actor: Actor, input: CreateStudyRequest): Promise<CreatedStudy> {
+  const content = input.content ?? emptyStudyContent();
+  validateCircuit(content);
+  return db.transaction(async (tx) => {
+    const row = await insertStudy(tx, actor, { name: input.name, description: input.description ?? '', content, message: 'Created' });
+    await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.create', studyId: row.id, detail: { name: input.name } });
+    return row;
+  });
+}
+
+/** Creates a study from an imported file (validated by the caller) with its first revision. */
+export async function createImportedStudy(db: Db, actor: Actor, v: { name: string; description: string; content: StudyContent; format: string }): Promise<CreatedStudy> {
+  validateCircuit(v.content);
+  return db.transaction(async (tx) => {
+    const row = await insertStudy(tx, actor, { ...v, message: `Imported from a ${v.format} file` });
+    await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.import', studyId: row.id, detail: { name: v.name, format: v.format } });
+    return row;
+  });
+}
+
+/** An edit: the contract's PATCH fields plus, for revisions, the message and the restored revision. */
+export interface StudyEdit extends UpdateStudyRequest {
+  restoredFrom?: number;
+  /** Refuse (409) when the content equals the latest revision (POST /revisions, restore). */
+  requireChange?: boolean;
+}
+
 /**
- * Applies an edit made on `input.version`. If someone saved in between, nothing is written and
- * 409 `version-conflict` carries the current study, so the client can merge instead of overwrite.
+ * Applies an edit made on `input.version`, in one transaction. If someone saved in between,
+ * nothing is written and 409 `version-conflict` carries the current study, so the client can merge
+ * instead of overwrite. Content that differs from the latest revision makes a new revision and
+ * returns a reviewed or approved study to draft (the approval stays on record as a `reset` event);
+ * an edited template stops being one, since templates are always approved.
  */
-export async function updateStudy(db: Db, actor: Actor, id: string, input: UpdateStudyRequest): Promise<StudyDetail> {
+export async function applyEdit(db: Db, actor: Actor, id: string, input: StudyEdit): Promise<{ study: StudyDetail; revision: RevisionSummary | null }> {
   if (!isUuid(id)) throw notFound();
   if (input.content) validateCircuit(input.content);
-  const before = await getStudy(db, actor, id);
-  const changes: Partial<typeof studies.$inferInsert> = {};
-  if (input.name !== undefined) changes.name = input.name;
-  if (input.description !== undefined) changes.description = input.description;
-  if (input.content !== undefined) changes.content = input.content;
-  if (input.isTemplate !== undefined) changes.isTemplate = input.isTemplate;
+  const made = await db.transaction(async (tx) => {
+    const [before] = await tx.select().from(studies).where(visible(actor, id)).limit(1);
+    if (!before) throw notFound();
+    let changed = false;
+    let latestNumber: number | null = null;
+    if (input.content !== undefined) {
+      const latest = await ensureRevision(tx, before);
+      latestNumber = latest.number;
+      changed = !sameContent(latest.content, input.content);
+    }
+    const changes: Partial<typeof studies.$inferInsert> = {};
+    if (input.name !== undefined) changes.name = input.name;
+    if (input.description !== undefined) changes.description = input.description;
+    if (input.content !== undefined) changes.content = input.content;
+    const reset = changed && before.status !== 'draft';
+    if (reset) {
+      changes.status = 'draft';
+      changes.approvedRevision = null;
+    }
+    let isTemplate = before.isTemplate;
+    if (input.isTemplate !== undefined) isTemplate = input.isTemplate;
+    else if (changed && before.isTemplate) isTemplate = false;
+    if (isTemplate !== before.isTemplate) changes.isTemplate = isTemplate;
 
-  const updated = await db
-    .update(studies)
-    .set({ ...changes, version: sql`${studies.version} + 1`, updatedBy: actor.userId, updatedAt: new Date() })
-    .where(and(visible(actor, id), eq(studies.version, input.version)))
-    .returning({ id: studies.id });
-  if (updated.length === 0) {
-    const current = await getStudy(db, actor, id); // 404 if it was deleted meanwhile
-    throw new AppError(
-      409,
-      'version-conflict',
-      `This study was changed by ${current.updatedBy.name} since you opened it (your version ${input.version}, now ${current.version}).`,
-      { body: { current } },
-    );
-  }
+    const updated = await tx
+      .update(studies)
+      .set({ ...changes, version: sql`${studies.version} + 1`, updatedBy: actor.userId, updatedAt: new Date() })
+      .where(and(visible(actor, id), eq(studies.version, input.version)))
+      .returning({ id: studies.id });
+    if (updated.length === 0) {
+      const current = await getStudy(tx, actor, id);
+      throw new AppError(
+        409,
+        'version-conflict',
+        `This study was changed by ${current.updatedBy.name} since you opened it (your version ${input.version}, now ${current.version}).`,
+        { body: { current } },
+      );
+    }
+    if (input.requireChange && !changed) {
+      throw new AppError(409, 'conflict', `Nothing changed since revision ${latestNumber}; no revision was made.`);
+    }
+    if (input.isTemplate === true && !before.isTemplate && (before.status !== 'approved' || changed)) {
+      throw new AppError(
+        409,
+        'conflict',
+        changed
+          ? 'A template must be approved; this save changes the content, so mark it as a template after it is approved again.'
+          : `Only an approved study can be marked as a template (this one is ${before.status}).`,
+      );
+    }
 
-  const fields = Object.keys(changes).filter((k) => k !== 'isTemplate');
-  if (fields.length > 0) {
-    await recordAudit(db, {
-      teamId: actor.teamId,
-      actorId: actor.userId,
-      action: 'study.update',
-      studyId: id,
-      detail: { fields, version: input.version + 1 },
-    });
+    let revisionNumber: number | null = null;
+    if (changed && input.content) {
+      const rev = await appendRevision(tx, {
+        studyId: id,
+        teamId: actor.teamId,
+        authorId: actor.userId,
+        content: input.content,
+        message: input.message,
+        restoredFrom: input.restoredFrom ?? null,
+      });
+      revisionNumber = rev.number;
+    }
+    if (reset) {
+      const recordRevision = before.approvedRevision ?? before.reviewRevision;
+      await tx.insert(reviewEvents).values({
+        studyId: id,
+        teamId: actor.teamId,
+        actorId: actor.userId,
+        action: 'reset',
+        fromStatus: before.status,
+        toStatus: 'draft',
+        revision: recordRevision,
+        reviewers: before.reviewers,
+        message: `Edited in revision ${revisionNumber}; back to draft.`,
+      });
+      await recordAudit(tx, {
+        teamId: actor.teamId,
+        actorId: actor.userId,
+        action: 'review.reset',
+        studyId: id,
+        detail: { fromStatus: before.status, approvedRevision: before.approvedRevision, revision: revisionNumber },
+      });
+    }
+    const fields = Object.keys(changes).filter((k) => ['name', 'description', 'content'].includes(k));
+    if (fields.length > 0) {
+      await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.update', studyId: id, detail: { fields, version: input.version + 1 } });
+    }
+    if (isTemplate !== before.isTemplate) {
+      await recordAudit(tx, {
+        teamId: actor.teamId,
+        actorId: actor.userId,
+        action: 'study.template',
+        studyId: id,
+        detail: { isTemplate, ...(input.isTemplate === undefined ? { reason: 'content edited' } : {}) },
+      });
+    }
+    return revisionNumber;
+  });
+  const study = await getStudy(db, actor, id);
+  let revision: RevisionSummary | null = null;
+  if (made !== null) {
+    revision = (await listRevisions(db, id)).find((r) => r.number === made) ?? null;
   }
-  if (input.isTemplate !== undefined && input.isTemplate !== before.isTemplate) {
-    await recordAudit(db, {
-      teamId: actor.teamId,
-      actorId: actor.userId,
-      action: 'study.template',
-      studyId: id,
-      detail: { isTemplate: input.isTemplate },
-    });
-  }
-  return getStudy(db, actor, id);
+  return { study, revision };
+}
+
+/** PATCH /api/studies/:id. */
+export async function updateStudy(db: Db, actor: Actor, id: string, input: UpdateStudyRequest): Promise<StudyDetail> {
+  return (await applyEdit(db, actor, id, input)).study;
 }
 
 /** Soft-deletes a study. */
@@ -208,28 +344,46 @@ export async function deleteStudy(db: Db, actor: Actor, id: string): Promise<voi
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'study.delete', studyId: id, detail: { name: deleted[0].name } });
 }
 
-/** Copies a study (how a study is started from a template); the copy is a draft, not a template, and remembers its source. */
+/**
+ * Copies a study (how a study is started from a template): circuit, layout and settings become
+ * revision 1 of a draft that remembers its source and the source's revision.
+ */
 export async function cloneStudy(db: Db, actor: Actor, id: string, input: CloneStudyRequest): Promise<CreatedStudy> {
   const from = await getStudy(db, actor, id);
   const name = input.name ?? `${from.name} (copy)`.slice(0, 200);
-  const [row] = await db
-    .insert(studies)
-    .values({
-      teamId: actor.teamId,
+  return db.transaction(async (tx) => {
+    const [raw] = await tx.select().from(studies).where(visible(actor, id)).limit(1);
+    if (!raw) throw notFound();
+    const sourceRev = await ensureRevision(tx, raw);
+    const content = sourceRev.content as StudyContent;
+    const row = await insertStudy(tx, actor, {
       name,
       description: from.description,
-      content: from.content,
+      content,
       clonedFrom: from.id,
-      createdBy: actor.userId,
-      updatedBy: actor.userId,
-    })
-    .returning({ id: studies.id, version: studies.version });
-  await recordAudit(db, {
-    teamId: actor.teamId,
-    actorId: actor.userId,
-    action: 'study.clone',
-    studyId: row.id,
-    detail: { sourceId: from.id, sourceName: from.name, fromTemplate: from.isTemplate },
+      clonedFromRevision: sourceRev.number,
+      message: `${from.isTemplate ? 'New from template' : 'Copy of'} "${from.name}" revision ${sourceRev.number}`,
+    });
+    await recordAudit(tx, {
+      teamId: actor.teamId,
+      actorId: actor.userId,
+      action: 'study.clone',
+      studyId: row.id,
+      detail: { sourceId: from.id, sourceName: from.name, sourceRevision: sourceRev.number, fromTemplate: from.isTemplate },
+    });
+    return row;
   });
-  return row;
+}
+
+/** The templates of the team (approved studies marked as templates), as in `GET /api/studies?template=true`. */
+export async function listTemplates(db: Db, actor: Actor): Promise<{ items: StudySummary[] }> {
+  const rows = await db
+    .select(summaryColumns)
+    .from(studies)
+    .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
+    .innerJoin(updatedByUser, eq(updatedByUser.id, studies.updatedBy))
+    .where(and(visible(actor), eq(studies.isTemplate, true)))
+    .orderBy(asc(sql`lower(${studies.name})`), asc(studies.id))
+    .limit(500);
+  return { items: rows.map(toSummary) };
 }

@@ -3,6 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { eq } from 'drizzle-orm';
 import request from 'supertest';
 import type { Role } from '../../shared/api/common.ts';
 import { emptyStudyContent } from '../../shared/api/studies.ts';
@@ -58,6 +59,14 @@ export async function makeStudy(db: Db, teamId: string, userId: string, name = `
     .values({ teamId, name, content: emptyStudyContent(), createdBy: userId, updatedBy: userId })
     .returning({ id: studies.id, version: studies.version });
   return s;
+}
+
+/**
+ * Marks a study approved directly in the database (set-up shortcut for tests of templates; the
+ * review flow that normally gets there is tested in review.test.ts).
+ */
+export async function markApproved(db: Db, studyId: string, revision = 1) {
+  await db.update(studies).set({ status: 'approved', approvedRevision: revision }).where(eq(studies.id, studyId));
 }
 
 /** A supertest agent signed in as `email` (keeps the session cookie). */

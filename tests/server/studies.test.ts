@@ -4,7 +4,7 @@ import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JSON_LIMIT } from '../../server/app.ts';
 import type { Db } from '../../server/db/index.ts';
-import { circuitWith, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
+import { circuitWith, makeApp, markApproved, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
 let db: Db;
@@ -121,7 +121,8 @@ describe('list', () => {
     for (const name of ['Delta bank Ridgeway', 'Ashgrove open neutral', 'cedar split-phase', '100%_literal']) {
       ids[name] = (await create(a, { name })).id;
     }
-    await a.patch(`/api/studies/${ids['Delta bank Ridgeway']}`).send({ version: 1, isTemplate: true });
+    await markApproved(db, ids['Delta bank Ridgeway']);
+    expect((await a.patch(`/api/studies/${ids['Delta bank Ridgeway']}`).send({ version: 1, isTemplate: true })).status).toBe(200);
     await a.delete(`/api/studies/${ids['cedar split-phase']}`);
     listAgent = a;
   });
@@ -170,6 +171,7 @@ describe('list', () => {
 describe('templates, clone and delete', () => {
   it('starts a study from a template: a draft copy that records its source and is not a template', async () => {
     const { id } = await create(engineer, { name: 'Service template', content: circuitWith(2) });
+    await markApproved(db, id);
     const marked = await engineer.patch(`/api/studies/${id}`).send({ version: 1, isTemplate: true });
     expect(marked.body.isTemplate).toBe(true);
     const clone = await engineer.post(`/api/studies/${id}/clone`).send({ name: 'Service at 14 Quarry Lane' });
@@ -207,13 +209,14 @@ describe('templates, clone and delete', () => {
 describe('audit trail', () => {
   it('records create, update, template change, clone and delete with the actor and study', async () => {
     const { id } = await create(engineer, { name: 'Audited' });
+    await markApproved(db, id);
     await engineer.patch(`/api/studies/${id}`).send({ version: 1, name: 'Audited 2', isTemplate: true });
     const clone = await engineer.post(`/api/studies/${id}/clone`).send({});
     await engineer.delete(`/api/studies/${id}`);
     const res = await owner.get(`/api/audit?studyId=${id}`);
     expect(res.status).toBe(200);
     const actions = res.body.items.map((e: { action: string }) => e.action).sort();
-    expect(actions).toEqual(['study.create', 'study.delete', 'study.template', 'study.update']);
+    expect(actions).toEqual(['revision.create', 'study.create', 'study.delete', 'study.template', 'study.update']);
     expect(res.body.items.every((e: { actor: { name: string }; studyId: string }) => e.actor.name === 'Edda Engineer' && e.studyId === id)).toBe(true);
     const cloned = await owner.get(`/api/audit?studyId=${clone.body.id}`);
     expect(cloned.body.items[0]).toMatchObject({ action: 'study.clone', detail: { sourceId: id } });
