@@ -239,6 +239,28 @@ describe('solvePrimitives on hand-checkable networks', () => {
     expectInvariants(opened, s3);
   });
 
+  it('createNetwork: a bad value in an update is refused, and the network solves again after a good update', () => {
+    const z = (x: number): Cx[][] => [
+      [{ re: 1, im: x }, { re: 0, im: 0.5 }],
+      [{ re: 0, im: 0.5 }, { re: 1, im: x }],
+    ];
+    const prims = (x: number): Primitive[] => [
+      { type: 'voltageSource', id: 'V', plus: 'a', minus: 'earth', volts: { re: 100, im: 0 } },
+      { type: 'switch', id: 'G', from: 'b', to: 'earth', closed: true },
+      { type: 'coupledBranch', id: 'K', from: ['a', 'b'], to: ['a2', 'b2'], ohms: z(x) },
+      { type: 'impedance', id: 'R', from: 'a2', to: 'b2', ohms: { re: 10, im: 0 } },
+    ];
+    const net = createNetwork(prims(2));
+    const good = net.solve();
+    // a singular Z (two equal rows) cannot be inverted into a nodal stamp
+    const singular: Primitive[] = prims(2).map((e) => (e.type === 'coupledBranch' ? { ...e, ohms: [[{ re: 1, im: 1 }, { re: 1, im: 1 }], [{ re: 1, im: 1 }, { re: 1, im: 1 }]] } : e));
+    expect(() => net.update(singular)).toThrow(/coupled branch 'K' has a singular impedance matrix/);
+    expect(() => net.solve()).toThrow(/coupled branch 'K' has a singular impedance matrix/);
+    net.update(prims(2));
+    const again = net.solve();
+    expectCx(again.nodeVolts.get('a2'), good.nodeVolts.get('a2')!, 1e-12, 'V(a2) after recovery');
+  });
+
   it('rotating every source angle by 40° rotates every phasor by 40° (P)', () => {
     const base = r1('solid');
     const rotated = base.map((e) => (e.type === 'voltageSource' ? { ...e, volts: mul(e.volts, polar(1, 40)) } : e));
