@@ -41,6 +41,12 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
         },
         {
           path: 'studies/:id',
+          lazy: () => import('./routes/study-workspace.tsx'),
+          loader: ({ params }) => prefetch((qc) => qc.prefetchQuery(studyQueryOptions(params.id ?? ''))),
+          errorElement: <RouteError />,
+        },
+        {
+          path: 'studies/:id/details',
           lazy: () => import('./routes/study.tsx'),
           loader: ({ params }) => prefetch((qc) => qc.prefetchQuery(studyQueryOptions(params.id ?? ''))),
           errorElement: <RouteError />,

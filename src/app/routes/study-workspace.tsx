@@ -1,0 +1,32 @@
+import { Link, useParams } from 'react-router';
+import { Loading } from '../../components/loading.tsx';
+import { Notice } from '../../components/notice.tsx';
+import { isApiError } from '../../lib/api-client.ts';
+import { useMe } from '../../lib/auth.ts';
+import { useStudy } from '../../features/studies/api/get-study.ts';
+import { WorkspacePage } from '../../features/workspace/workspace-page.tsx';
+
+/** The study's workspace (canvas, properties, live results); loaded on demand so the studies list stays light. */
+export function Component() {
+  const { id = '' } = useParams();
+  const me = useMe();
+  const study = useStudy(id);
+  if (!me.data) return null;
+  if (study.isPending) return <Loading label="Loading the study…" />;
+  if (study.isError) {
+    return (
+      <div className="mx-auto max-w-3xl">
+        {isApiError(study.error, 404) ? (
+          <Notice tone="error" title="Study not found.">
+            It may have been deleted, or it belongs to another team. <Link to="/" className="font-semibold text-accent underline">Back to studies</Link>
+          </Notice>
+        ) : (
+          <Notice tone="error" title="The study could not be loaded.">
+            {study.error.message}
+          </Notice>
+        )}
+      </div>
+    );
+  }
+  return <WorkspacePage key={id} study={study.data} role={me.data.role} />;
+}

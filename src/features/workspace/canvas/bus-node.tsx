@@ -1,0 +1,68 @@
+/**
+ * A bus: a heavy bar with a bundled handle on top and bottom (all conductors in one wire) and one
+ * handle per conductor underneath, each coloured by the wiring standard and labelled, so colour is
+ * never the only cue. After a solve it shows line-to-neutral voltages and the neutral shift.
+ */
+import { Handle, Position, type NodeProps } from '@xyflow/react';
+import { memo } from 'react';
+import { phaseStyle } from '../results/phase-style.ts';
+import { busConductors, type BusNode } from '../model/types.ts';
+import { useCanvasView } from './canvas-context.tsx';
+
+export const BUS_WIDTH = 260;
+const HANDLE = 'h-3! w-3! rounded-full! border-2! border-panel!';
+
+function fmt(v: number): string {
+  return v >= 100 ? v.toFixed(1) : v >= 10 ? v.toFixed(2) : v.toFixed(3);
+}
+
+export const BusNodeView = memo(function BusNodeView({ data, selected }: NodeProps<BusNode>) {
+  const view = useCanvasView();
+  const conds = busConductors(data.splitPhase);
+  const ov = view.overlays?.buses[data.name];
+  const flag = ov?.worstFlag;
+  return (
+    <div className="relative" style={{ width: BUS_WIDTH }} aria-label={`Bus ${data.name}`}>
+      <div className="mb-1 flex items-baseline gap-2 text-[12px]">
+        <span className="num font-semibold text-ink">{data.name}</span>
+        <span className="num text-ink-muted">{data.kvLL !== undefined ? `${data.kvLL} kV` : data.splitPhase ? '120/240 V' : ''}</span>
+        {flag ? (
+          <span className={`ml-auto rounded-[2px] px-1 text-[11px] font-semibold ${flag.severity === 'violation' ? 'bg-danger-soft text-danger' : flag.severity === 'warning' ? 'bg-caution-soft text-caution' : 'bg-sunken text-ink-muted'}`} title={flag.message}>
+            {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
+          </span>
+        ) : null}
+      </div>
+      <div className={`h-2.5 rounded-[1px] ${selected ? 'bg-accent' : 'bg-ink'}`} />
+      <Handle id="all" type="source" position={Position.Top} style={{ left: 24, top: 20 }} className="h-3! w-5! rounded-[2px]! border-2! border-panel! bg-ink!" aria-label={`${data.name}: all conductors (top)`} title="All conductors" />
+      <Handle id="allb" type="source" position={Position.Bottom} style={{ left: 24, top: 31 }} className="h-3! w-5! rounded-[2px]! border-2! border-panel! bg-ink!" aria-label={`${data.name}: all conductors (bottom)`} title="All conductors" />
+      {conds.map((c, i) => {
+        const st = phaseStyle(c, view.wiringStandard);
+        const left = 80 + i * 48;
+        return (
+          <div key={c}>
+            <Handle id={c} type="source" position={Position.Bottom} style={{ left, top: 31, background: st.color }} className={HANDLE} aria-label={`${data.name}: conductor ${st.label}`} title={`${st.label} (${st.colorName})`} />
+            <span className="num pointer-events-none absolute text-[10px] font-semibold" style={{ left: left + 8, top: 32, color: st.color }}>
+              {st.label}
+            </span>
+          </div>
+        );
+      })}
+      <div className="h-5" />
+      {ov ? (
+        <div className="num mt-0.5 flex flex-wrap gap-x-2 text-[10.5px] leading-tight text-ink-muted">
+          {Object.entries(ov.vln).map(([ph, v]) => (
+            <span key={ph}>
+              {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V
+            </span>
+          ))}
+          {ov.neutralShiftV !== undefined ? (
+            <span className={`rounded-[2px] px-1 font-semibold ${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10 ? 'bg-danger-soft text-danger' : 'bg-sunken text-ink'}`} title="Neutral-to-earth voltage (neutral shift)">
+              N–E {fmt(ov.neutralShiftV)} V
+            </span>
+          ) : null}
+          {ov.floating ? <span className="font-semibold text-caution">floating</span> : null}
+        </div>
+      ) : null}
+    </div>
+  );
+});

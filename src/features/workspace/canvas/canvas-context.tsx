@@ -1,0 +1,30 @@
+/**
+ * What canvas nodes and edges read besides their own data: read-only mode, the wiring-colour
+ * standard, the overlays of the latest solve and the problems to show beside elements. A context,
+ * so node data stays plain parameters and custom nodes stay memoised.
+ */
+import { createContext, useContext } from 'react';
+import type { DiagramOverlays } from '../results/overlays.ts';
+import type { WiringStandard } from '../model/layout.ts';
+
+export interface CanvasView {
+  readOnly: boolean;
+  wiringStandard: WiringStandard;
+  overlays: DiagramOverlays | null;
+  /** Canvas node id → messages to show beside it (unwired ports, engine errors naming it). */
+  problems: Record<string, string[]>;
+  /** Canvas node id → bus names whose results belong to it (its own and private terminal buses). */
+  busNamesOf: (nodeId: string) => string[];
+}
+
+export const CanvasViewContext = createContext<CanvasView>({
+  readOnly: true,
+  wiringStandard: 'north-american',
+  overlays: null,
+  problems: {},
+  busNamesOf: () => [],
+});
+
+export function useCanvasView(): CanvasView {
+  return useContext(CanvasViewContext);
+}

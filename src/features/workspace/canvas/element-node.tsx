@@ -1,0 +1,103 @@
+/**
+ * An element: its symbol, id and a one-line summary, handles for its ports (bundled ports in ink,
+ * single-conductor terminals labelled 1/2 or H1/H2), and after a solve its worst flag; problems
+ * (unwired ports, engine errors naming it) are written beside it.
+ */
+import { Handle, Position, type NodeProps } from '@xyflow/react';
+import { memo } from 'react';
+import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
+import { elementPorts, type PortSide } from '../model/ports.ts';
+import type { ElementNode } from '../model/types.ts';
+import { useCanvasView } from './canvas-context.tsx';
+import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
+
+const POSITION: Record<PortSide, Position> = { top: Position.Top, bottom: Position.Bottom, left: Position.Left, right: Position.Right };
+
+/** A short parameter line under the id. */
+export function elementSummary(el: CircuitElementInput): string {
+  switch (el.type) {
+    case 'source':
+      return `${el.kvLL} kV ${el.connection ?? 'wye'}`;
+    case 'splitPhaseSource':
+      return `${el.voltsLN ?? 120}/${2 * (el.voltsLN ?? 120)} V`;
+    case 'line':
+      return `${el.length} ${el.lengthUnit ?? 'km'}`;
+    case 'transformer':
+      return `${el.kva} kVA ${el.connection ?? el.vectorGroup ?? ''}`;
+    case 'splitPhaseTransformer':
+      return `${el.kva} kVA ${el.primary.join('–').toUpperCase()}`;
+    case 'load': {
+      const spec = el.each ?? el.total;
+      const kw = spec && 'kw' in spec ? `${spec.kw} kW` : '';
+      const conn = el.connection === 'single' ? (el.between ?? []).join('–').toUpperCase() : el.connection;
+      return `${conn} ${kw}`.trim();
+    }
+    case 'capacitorBank':
+      return `${el.kvar} kvar`;
+    case 'switch3':
+      return el.closed === false ? 'open' : 'closed';
+    case 'earthing':
+      return `${typeof el.ohms === 'number' ? el.ohms : '≠0'} Ω`;
+    case 'fault':
+      return el.kind;
+    default:
+      return el.type;
+  }
+}
+
+export const ElementNodeView = memo(function ElementNodeView({ id, data, selected }: NodeProps<ElementNode>) {
+  const view = useCanvasView();
+  const el = data.element;
+  const ports = elementPorts(el);
+  const ov = view.overlays?.elements[id];
+  const flag = ov?.worstFlag;
+  const problems = view.problems[id] ?? [];
+  const sides = new Map<PortSide, number>();
+  for (const p of ports) sides.set(p.side, (sides.get(p.side) ?? 0) + 1);
+  const seen = new Map<PortSide, number>();
+  return (
+    <div className="relative w-[64px]" aria-label={`${ELEMENT_WORDS[el.type] ?? el.type} ${id}`}>
+      <svg width={64} height={64} viewBox="0 0 64 64" className={selected ? 'text-accent' : 'text-ink'} aria-hidden="true">
+        <ElementSymbol element={el} />
+      </svg>
+      {ports.map((p) => {
+        const count = sides.get(p.side) ?? 1;
+        const k = seen.get(p.side) ?? 0;
+        seen.set(p.side, k + 1);
+        const offset = count === 1 ? 32 : 16 + (32 * k) / (count - 1);
+        const horizontal = p.side === 'top' || p.side === 'bottom';
+        return (
+          <Handle
+            key={p.id}
+            id={p.id}
+            type="source"
+            position={POSITION[p.side]}
+            style={horizontal ? { left: offset } : { top: offset }}
+            className={p.mode === 'bundle' ? 'h-3! w-5! rounded-[2px]! border-2! border-panel! bg-ink!' : 'h-3! w-3! rounded-full! border-2! border-ink! bg-panel!'}
+            aria-label={`${id}: ${p.label ? `terminal ${p.label}` : p.field === 'to' ? 'receiving end' : p.field === 'from' ? 'sending end' : 'port'}`}
+            title={p.label || p.field}
+          >
+            {p.label ? <span className="num pointer-events-none absolute -top-3.5 left-3 text-[9px] font-semibold text-ink-muted">{p.label}</span> : null}
+          </Handle>
+        );
+      })}
+      <div className="pointer-events-none absolute left-[68px] top-2 w-max max-w-[150px] text-[11px] leading-tight">
+        <div className="num font-semibold text-ink">{id}</div>
+        <div className="num text-ink-muted">{elementSummary(el)}</div>
+        {ov?.loadingPercent !== undefined ? <div className="num text-ink-muted">{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
+        {flag ? (
+          <div className={`font-semibold ${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
+            {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
+          </div>
+        ) : null}
+      </div>
+      {problems.length > 0 ? (
+        <div role="note" className="absolute left-0 top-[68px] w-[210px] rounded-[2px] border border-danger bg-danger-soft px-1.5 py-1 text-[11px] leading-snug text-danger">
+          {problems.map((m) => (
+            <p key={m}>{m}</p>
+          ))}
+        </div>
+      ) : null}
+    </div>
+  );
+});

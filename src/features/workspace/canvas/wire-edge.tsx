@@ -1,0 +1,61 @@
+/**
+ * A connection between an element port and a bus. A bundled wire is drawn heavy in ink; a
+ * single-conductor wire in its phase colour and dash with its label. Opened conductors are written
+ * on the wire ("N open") and the wire is drawn broken; after a solve the currents of that port sit
+ * beside it.
+ */
+import { BaseEdge, EdgeLabelRenderer, getSmoothStepPath, useInternalNode, type EdgeProps } from '@xyflow/react';
+import { memo } from 'react';
+import { phaseStyle } from '../results/phase-style.ts';
+import { elementPorts, isBundleHandle } from '../model/ports.ts';
+import type { WorkspaceEdge, WorkspaceNode } from '../model/types.ts';
+import { useCanvasView } from './canvas-context.tsx';
+
+function amps(a: number): string {
+  return a >= 100 ? a.toFixed(0) : a >= 10 ? a.toFixed(1) : a.toFixed(2);
+}
+
+export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<WorkspaceEdge>) {
+  const { id, source, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, targetHandleId, sourceHandleId, data, selected } = props;
+  const view = useCanvasView();
+  const el = useInternalNode<WorkspaceNode>(source);
+  const [path, lx, ly] = getSmoothStepPath({ sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, borderRadius: 6 });
+  const open = data?.open ?? [];
+  const single = !isBundleHandle(targetHandleId);
+  const st = single ? phaseStyle(targetHandleId ?? '', view.wiringStandard) : null;
+  const stroke = selected ? 'var(--color-accent)' : st ? st.color : 'var(--color-ink)';
+
+  // Currents of this port (engine port index = order of distinct element fields).
+  let currents: { conductor: string; mag: number }[] = [];
+  const ov = view.overlays?.elements[source];
+  if (ov && el && el.data.kind === 'element') {
+    const ports = elementPorts(el.data.element);
+    const fields = [...new Set(ports.map((p) => p.field))];
+    const port = ports.find((p) => p.id === sourceHandleId);
+    const idx = port ? fields.indexOf(port.field) : -1;
+    currents = ov.currents.filter((c) => c.port === idx && (!single || c.conductor === targetHandleId));
+  }
+
+  return (
+    <>
+      <BaseEdge id={id} path={path} style={{ stroke, strokeWidth: single ? 2 : 3.2, strokeDasharray: open.length > 0 ? '2 5' : st?.dash || undefined }} interactionWidth={16} />
+      <EdgeLabelRenderer>
+        {open.length > 0 || currents.length > 0 ? (
+          <div
+            className="nodrag nopan num pointer-events-none absolute rounded-[2px] border border-rule bg-panel/95 px-1 text-[10px] leading-tight"
+            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${ly}px)` }}
+          >
+            {open.length > 0 ? (
+              <div className="font-semibold text-danger">{open.map((c) => phaseStyle(c, view.wiringStandard).label).join(', ')} open</div>
+            ) : null}
+            {currents.map((c) => (
+              <span key={c.conductor} className="mr-1 whitespace-nowrap" style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
+                {phaseStyle(c.conductor, view.wiringStandard).label} {amps(c.mag)} A
+              </span>
+            ))}
+          </div>
+        ) : null}
+      </EdgeLabelRenderer>
+    </>
+  );
+});

@@ -1,0 +1,179 @@
+/**
+ * Property form of one element, built from its field list with react-hook-form + zod. Each input
+ * parses units and complex values as typed (a plain-words message at the field otherwise); on
+ * Enter or leaving a field the whole element is checked with the engine's own schema and applied.
+ * Selects that change the element's shape apply at once.
+ */
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useId, useMemo } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { elementSchemas, formatPath, type CircuitElementInput } from '../../../../shared/engine/index.ts';
+import { formatComplex, parseComplex } from './complex-input.ts';
+import { elementFields, fieldKey, getPath, selectValue, setPath, type FieldSpec } from './fields.ts';
+import { formatQuantity, parseLength, parseQuantity } from './unit-input.ts';
+
+type Values = Record<string, string>;
+
+function parseField(f: FieldSpec, text: string, el: CircuitElementInput): { ok: true; value: unknown } | { ok: false; message: string } {
+  const t = text.trim();
+  if ('optional' in f && f.optional && t === '') return { ok: true, value: undefined };
+  switch (f.kind) {
+    case 'quantity':
+      return parseQuantity(t, f.dimension, f.unit);
+    case 'complex':
+      return parseComplex(t);
+    case 'length': {
+      const r = parseLength(t, (getPath(el, 'lengthUnit') as 'km' | 'm' | 'mi' | 'ft' | undefined) ?? 'km');
+      return r;
+    }
+    case 'phases': {
+      if (t === '') return { ok: true, value: undefined };
+      const letters = t.toLowerCase().split(/[\s,;]+/).filter(Boolean);
+      if (letters.some((l) => !['a', 'b', 'c'].includes(l))) return { ok: false, message: 'List phases as letters a, b or c, e.g. “a” or “b, c”.' };
+      return { ok: true, value: letters };
+    }
+    case 'text':
+      return t === '' && f.optional ? { ok: true, value: undefined } : { ok: true, value: t };
+    case 'select':
+      return { ok: true, value: t };
+  }
+}
+
+function display(f: FieldSpec, el: CircuitElementInput): string {
+  const v = getPath(el, f.path);
+  switch (f.kind) {
+    case 'quantity':
+      return typeof v === 'number' ? formatQuantity(v, f.unit) : '';
+    case 'complex':
+      return v === undefined ? '' : formatComplex(v as never) + (f.unit ? ` ${f.unit}` : '');
+    case 'length':
+      return `${v} ${(getPath(el, 'lengthUnit') as string | undefined) ?? 'km'}`;
+    case 'phases':
+      return Array.isArray(v) ? v.join(', ') : '';
+    case 'text':
+      return typeof v === 'string' ? v : '';
+    case 'select':
+      return selectValue(el, f);
+  }
+}
+
+const INPUT = 'nodrag num h-7 w-full rounded-[3px] border border-rule-strong bg-panel px-1.5 text-[13px] disabled:border-rule disabled:bg-sunken disabled:text-ink-muted aria-[invalid=true]:border-danger';
+
+/** Edits `element`; `onApply` receives the checked element. */
+export function ElementForm({ element, readOnly, onApply }: { element: CircuitElementInput; readOnly: boolean; onApply: (next: CircuitElementInput) => void }) {
+  const fields = useMemo(() => elementFields(element), [element]);
+  const formId = useId();
+  const schema = useMemo(
+    () =>
+      z.object(
+        Object.fromEntries(
+          fields.map((f) => [
+            fieldKey(f.path),
+            z.string().superRefine((s, ctx) => {
+              const r = parseField(f, s, element);
+              if (!r.ok) ctx.addIssue({ code: 'custom', message: r.message });
+            }),
+          ]),
+        ),
+      ),
+    [fields, element],
+  );
+  const defaults = useMemo(() => Object.fromEntries(fields.map((f) => [fieldKey(f.path), display(f, element)])), [fields, element]);
+  const form = useForm<Values>({ resolver: zodResolver(schema), defaultValues: defaults, values: defaults, mode: 'onBlur' });
+  const formError = form.formState.errors.root?.message;
+
+  const apply = (values: Values) => {
+    const next = structuredClone(element) as Record<string, unknown>;
+    for (const f of fields) {
+      if (f.kind === 'select') continue;
+      const r = parseField(f, values[fieldKey(f.path)] ?? '', element);
+      if (!r.ok) return;
+      if (f.kind === 'length') {
+        const v = r.value as { length: number; unit: string };
+        next.length = v.length;
+        next.lengthUnit = v.unit;
+      } else setPath(next, f.path, r.value);
+    }
+    const checked = elementSchemas[element.type].safeParse(next);
+    if (!checked.success) {
+      for (const issue of checked.error.issues) {
+        const path = issue.path.map(String).join('.');
+        const f = fields.find((x) => path === x.path || path.startsWith(`${x.path}.`) || x.path.startsWith(`${path}.`));
+        if (f) form.setError(fieldKey(f.path), { message: readable(issue.message) });
+        else form.setError('root', { message: `${formatPath(issue.path as (string | number)[])}: ${readable(issue.message)}` });
+      }
+      return;
+    }
+    if (JSON.stringify(next) !== JSON.stringify(element)) onApply(next as CircuitElementInput);
+  };
+  const submit = form.handleSubmit(apply);
+
+  const choose = (f: Extract<FieldSpec, { kind: 'select' }>, value: string) => {
+    const next = f.choose ? f.choose(element, value) : (() => {
+      const c = structuredClone(element) as Record<string, unknown>;
+      setPath(c, f.path, value);
+      return c as CircuitElementInput;
+    })();
+    const checked = elementSchemas[next.type].safeParse(next);
+    if (!checked.success) {
+      form.setError(fieldKey(f.path), { message: readable(checked.error.issues[0]?.message ?? 'not accepted') });
+      return;
+    }
+    onApply(next);
+  };
+
+  return (
+    <form id={formId} onSubmit={(e) => void submit(e)} noValidate aria-label={`Properties of ${element.id}`}>
+      <fieldset disabled={readOnly} className="flex flex-col gap-2">
+        {fields.map((f) => {
+          const key = fieldKey(f.path);
+          const err = form.formState.errors[key]?.message;
+          const inputId = `${formId}-${key}`;
+          return (
+            <div key={key} className="flex flex-col gap-0.5">
+              <label htmlFor={inputId} className="text-[12px] text-ink-muted">
+                {f.label}
+                {f.kind === 'quantity' && f.unit ? <span className="num"> ({f.unit})</span> : f.kind === 'complex' ? <span className="num"> ({f.unit}, R+jX or mag∠deg)</span> : null}
+              </label>
+              {f.kind === 'select' ? (
+                <select id={inputId} className={INPUT} value={selectValue(element, f)} onChange={(e) => choose(f, e.target.value)}>
+                  {f.options.map((o) => (
+                    <option key={o.value} value={o.value}>
+                      {o.label}
+                    </option>
+                  ))}
+                </select>
+              ) : (
+                <input
+                  id={inputId}
+                  className={INPUT}
+                  autoComplete="off"
+                  spellCheck={false}
+                  aria-invalid={err ? true : undefined}
+                  aria-describedby={err ? `${inputId}-err` : undefined}
+                  {...form.register(key, { onBlur: () => void submit() })}
+                />
+              )}
+              {err ? (
+                <p id={`${inputId}-err`} className="text-[12px] text-danger">
+                  {err}
+                </p>
+              ) : null}
+            </div>
+          );
+        })}
+        {formError ? <p className="text-[12px] text-danger">{formError}</p> : null}
+        {fields.length === 0 ? <p className="text-[12px] text-ink-muted">This element is edited in the circuit file.</p> : null}
+        <button type="submit" className="sr-only">
+          Apply
+        </button>
+      </fieldset>
+    </form>
+  );
+}
+
+/** Engine messages speak of fields in quotes; keep them, but start with a capital. */
+function readable(m: string): string {
+  return m.charAt(0).toUpperCase() + m.slice(1);
+}

@@ -1,0 +1,580 @@
+/**
+ * The study workspace: palette, canvas, properties, live results. The canvas document (nodes, edges,
+ * settings) lives in an undo/redo history; every change converts to the engine's circuit format and
+ * re-solves in a Web Worker (W2's `useLiveSolve`), whose overlays the nodes draw. Engineers and
+ * owners edit and save; reviewers and viewers get the same view read-only.
+ */
+import '@xyflow/react/dist/style.css';
+import {
+  Background,
+  ConnectionMode,
+  MiniMap,
+  ReactFlow,
+  ReactFlowProvider,
+  applyEdgeChanges,
+  applyNodeChanges,
+  useReactFlow,
+  type Connection,
+  type EdgeChange,
+  type NodeChange,
+  type NodeTypes,
+  type EdgeTypes,
+} from '@xyflow/react';
+import { useCallback, useEffect, useMemo, useReducer, useRef, useState } from 'react';
+import { Link, useBlocker } from 'react-router';
+import type { StudyDetail } from '../../../shared/api/studies.ts';
+import type { Role } from '../../../shared/api/common.ts';
+import type { CircuitElementInput, CircuitInput } from '../../../shared/engine/index.ts';
+import { StatusBadge } from '../../components/badges.tsx';
+import { Button } from '../../components/button.tsx';
+import { can } from '../../lib/authorization.ts';
+import { BusNodeView } from './canvas/bus-node.tsx';
+import { CanvasViewContext, type CanvasView } from './canvas/canvas-context.tsx';
+import { ElementNodeView } from './canvas/element-node.tsx';
+import { Palette } from './canvas/palette.tsx';
+import { WireEdgeView } from './canvas/wire-edge.tsx';
+import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog, type ConflictSummary } from './editing/dialogs.tsx';
+import { historyReducer, initHistory } from './editing/history.ts';
+import { shortcutOf } from './editing/shortcuts.ts';
+import { canvasToCircuit } from './model/canvas-to-circuit.ts';
+import { busNodeId, canvasLayout, circuitToCanvas, wireId } from './model/circuit-to-canvas.ts';
+import { freshId, newElement, type PaletteItem } from './model/defaults.ts';
+import { readLayout, type StudySettings } from './model/layout.ts';
+import { elementPorts, isBundleHandle } from './model/ports.ts';
+import { isBusNode, isElementNode, type BusNodeData, type Conductor, type WorkspaceEdge, type WorkspaceNode } from './model/types.ts';
+import { PropertyPanel, type Selection } from './properties/property-panel.tsx';
+import { SettingsDialog } from './properties/settings-dialog.tsx';
+import { diagramOverlays } from './results/overlays.ts';
+import { conflictOf, useSaveStudy } from './save-study.ts';
+import { useLiveSolve } from './solve/use-live-solve.ts';
+
+const nodeTypes: NodeTypes = { bus: BusNodeView, element: ElementNodeView };
+const edgeTypes: EdgeTypes = { wire: WireEdgeView };
+
+interface Doc {
+  nodes: WorkspaceNode[];
+  edges: WorkspaceEdge[];
+  settings: StudySettings;
+}
+
+function docOf(study: StudyDetail): Doc {
+  const { nodes, edges, settings } = circuitToCanvas(study.content.circuit as unknown as CircuitInput, readLayout(study.content.layout));
+  return { nodes, edges, settings };
+}
+
+/** Differences of element sets between two circuits (for the conflict dialog). */
+function compareCircuits(mine: CircuitInput, theirs: CircuitInput): ConflictSummary {
+  const a = new Map(mine.elements.map((e) => [e.id, JSON.stringify(e)] as const));
+  const b = new Map(theirs.elements.map((e) => [e.id, JSON.stringify(e)] as const));
+  return {
+    added: [...b.keys()].filter((k) => !a.has(k)),
+    removed: [...a.keys()].filter((k) => !b.has(k)),
+    changed: [...b.keys()].filter((k) => a.has(k) && a.get(k) !== b.get(k)),
+  };
+}
+
+function inField(target: EventTarget | null): boolean {
+  const el = target as HTMLElement | null;
+  return !!el && (el.tagName === 'INPUT' || el.tagName === 'TEXTAREA' || el.tagName === 'SELECT' || el.isContentEditable);
+}
+
+export interface WorkspacePageProps {
+  study: StudyDetail;
+  role: Role;
+  /** W2's results panel, rendered under the canvas (passed in so the page composes without owning it). */
+  renderResults?: (props: { circuit: CircuitInput | null; live: ReturnType<typeof useLiveSolve>; selection: string | null; wiringStandard: StudySettings['wiringStandard'] }) => React.ReactNode;
+}
+
+export function WorkspacePage(props: WorkspacePageProps) {
+  return (
+    <ReactFlowProvider>
+      <Workspace {...props} />
+    </ReactFlowProvider>
+  );
+}
+
+function Workspace({ study, role, renderResults }: WorkspacePageProps) {
+  const readOnly = !can(role, 'study:edit');
+  const rf = useReactFlow<WorkspaceNode, WorkspaceEdge>();
+  const [hist, dispatch] = useReducer(historyReducer<Doc>, study, (s) => initHistory(docOf(s)));
+  const doc = hist.present;
+  const [savedDoc, setSavedDoc] = useState<Doc>(hist.present);
+  const [baseVersion, setBaseVersion] = useState(study.version);
+  const dirty = doc !== savedDoc && !readOnly;
+  const [snap, setSnap] = useState(true);
+  const [dialog, setDialog] = useState<null | 'save' | 'settings' | 'help'>(null);
+  const [theirs, setTheirs] = useState<StudyDetail | null>(null);
+  const [pendingMessage, setPendingMessage] = useState<string | undefined>(undefined);
+  const save = useSaveStudy(study.id);
+  const clipboard = useRef<{ nodes: WorkspaceNode[]; edges: WorkspaceEdge[] } | null>(null);
+  const dragStart = useRef<Doc | null>(null);
+  const docRef = useRef(doc);
+  docRef.current = doc;
+
+  const commit = useCallback((next: Doc) => dispatch({ type: 'commit', next }), []);
+
+  // ---- circuit and live solve ----
+  const conversion = useMemo(() => canvasToCircuit(doc.nodes, doc.edges, doc.settings), [doc.nodes, doc.edges, doc.settings]);
+  const circuitKey = JSON.stringify(conversion.circuit);
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- the key stands for the circuit's content
+  const circuit = useMemo(() => conversion.circuit, [circuitKey]);
+  const live = useLiveSolve(circuit.elements.length > 0 ? circuit : null);
+  const overlays = useMemo(() => (live.result ? diagramOverlays(live.result) : null), [live.result]);
+
+  const problems = useMemo(() => {
+    const out: Record<string, string[]> = {};
+    const add = (id: string, m: string) => (out[id] = [...(out[id] ?? []), m]);
+    for (const p of conversion.problems) add(p.nodeId, p.message);
+    if (live.status === 'error' && live.error) {
+      const targets = new Set<string>();
+      for (const id of live.error.elementIds ?? []) {
+        const node = conversion.map.elementToNode[id] ?? conversion.map.elementToNode[id.split('/')[0]];
+        if (node) targets.add(node);
+      }
+      for (const n of live.error.nodes ?? []) {
+        const bus = conversion.map.busToNode[n.split('.')[0]];
+        if (bus) targets.add(bus);
+      }
+      for (const t of targets) add(t, live.error.message);
+    }
+    return out;
+  }, [conversion, live.status, live.error]);
+
+  const view = useMemo<CanvasView>(
+    () => ({
+      readOnly,
+      wiringStandard: doc.settings.wiringStandard,
+      overlays,
+      problems,
+      busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
+    }),
+    [readOnly, doc.settings.wiringStandard, overlays, problems, conversion.map],
+  );
+
+  // ---- canvas changes ----
+  const onNodesChange = useCallback(
+    (changes: NodeChange<WorkspaceNode>[]) => {
+      const cur = docRef.current;
+      const editable = changes.filter((c) => c.type !== 'remove' && (!readOnly || c.type === 'select' || c.type === 'dimensions'));
+      if (editable.length === 0) return;
+      dispatch({ type: 'replace', next: { ...cur, nodes: applyNodeChanges(editable, cur.nodes) } });
+    },
+    [readOnly],
+  );
+  const onEdgesChange = useCallback((changes: EdgeChange<WorkspaceEdge>[]) => {
+    const cur = docRef.current;
+    const selects = changes.filter((c) => c.type === 'select');
+    if (selects.length === 0) return;
+    dispatch({ type: 'replace', next: { ...cur, edges: applyEdgeChanges(selects, cur.edges) } });
+  }, []);
+
+  /** Element end, port and bus end of a proposed connection, or a reason it cannot be made. */
+  const resolveConnection = useCallback((c: Connection | WorkspaceEdge) => {
+    const nodes = docRef.current.nodes;
+    const s = nodes.find((n) => n.id === c.source);
+    const t = nodes.find((n) => n.id === c.target);
+    if (!s || !t) return null;
+    const [el, port, bus, handle] = isElementNode(s) && isBusNode(t) ? [s, c.sourceHandle, t, c.targetHandle] : isBusNode(s) && isElementNode(t) ? [t, c.targetHandle, s, c.sourceHandle] : [null, null, null, null];
+    if (!el || !bus || !port) return null;
+    const spec = elementPorts(el.data.element).find((p) => p.id === port);
+    if (!spec) return null;
+    const bundle = isBundleHandle(handle);
+    if (spec.mode === 'bundle' && !bundle) return null;
+    if (spec.mode === 'conductor' && bundle && spec.field !== 'node') return null;
+    return { element: el, port, bus, handle: handle ?? 'all' };
+  }, []);
+
+  const onConnect = useCallback(
+    (c: Connection) => {
+      if (readOnly) return;
+      const r = resolveConnection(c);
+      if (!r) return;
+      const cur = docRef.current;
+      const id = wireId(r.element.id, r.port);
+      const edge: WorkspaceEdge = { id, type: 'wire', source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
+      commit({ ...cur, edges: [...cur.edges.filter((e) => e.id !== id), edge] });
+    },
+    [readOnly, resolveConnection, commit],
+  );
+
+  // ---- editing actions ----
+  const taken = useCallback((d: Doc) => new Set(d.nodes.flatMap((n) => (isBusNode(n) ? [n.data.name, n.id] : [n.id]))), []);
+
+  const freeSpot = useCallback(
+    (d: Doc, w: number, h: number) => {
+      const el = document.querySelector('.react-flow');
+      const rect = el?.getBoundingClientRect();
+      const centre = rect ? rf.screenToFlowPosition({ x: rect.left + rect.width * 0.35, y: rect.top + rect.height * 0.3 }) : { x: 0, y: 0 };
+      const boxes = d.nodes.map((n) => ({ x: n.position.x, y: n.position.y, w: isBusNode(n) ? 270 : 170, h: isBusNode(n) ? 70 : 100 }));
+      for (let ring = 0; ring < 40; ring++) {
+        for (let col = 0; col <= ring; col++) {
+          const x = Math.round((centre.x + col * 180) / 10) * 10;
+          const y = Math.round((centre.y + (ring - col) * 110) / 10) * 10;
+          if (!boxes.some((b) => x < b.x + b.w && x + w > b.x && y < b.y + b.h && y + h > b.y)) return { x, y };
+        }
+      }
+      return centre;
+    },
+    [rf],
+  );
+
+  const addItem = useCallback(
+    (item: PaletteItem) => {
+      const cur = docRef.current;
+      const ids = taken(cur);
+      const deselected = cur.nodes.map((n) => (n.selected ? { ...n, selected: false } : n));
+      if (item.kind === 'bus') {
+        const name = freshId('B', ids);
+        const node: WorkspaceNode = { id: busNodeId(name), type: 'bus', position: freeSpot(cur, 270, 70), selected: true, data: { kind: 'bus', name, splitPhase: false } };
+        commit({ ...cur, nodes: [...deselected, node] });
+        return;
+      }
+      const id = freshId(item.prefix, ids);
+      const element = newElement(item, id, cur.settings.shiftConvention);
+      const node: WorkspaceNode = { id, type: 'element', position: freeSpot(cur, 170, 100), selected: true, data: { kind: 'element', element } };
+      commit({ ...cur, nodes: [...deselected, node], edges: cur.edges.map((e) => (e.selected ? { ...e, selected: false } : e)) });
+    },
+    [commit, freeSpot, taken],
+  );
+
+  const updateElement = useCallback(
+    (id: string, next: CircuitElementInput) => {
+      const cur = docRef.current;
+      const ports = new Set(elementPorts(next).map((p) => p.id));
+      commit({
+        ...cur,
+        nodes: cur.nodes.map((n) => (n.id === id && isElementNode(n) ? { ...n, data: { ...n.data, element: next } } : n)),
+        // A load turned single-phase (or back) has other ports: drop wires to ports that went away.
+        edges: cur.edges.filter((e) => e.source !== id || ports.has(e.sourceHandle ?? '')),
+      });
+    },
+    [commit],
+  );
+
+  const updateBus = useCallback(
+    (id: string, next: BusNodeData) => {
+      const cur = docRef.current;
+      const conds = new Set(next.splitPhase ? ['1', '2', 'n', 'all', 'allb'] : ['a', 'b', 'c', 'n', 'all', 'allb']);
+      commit({
+        ...cur,
+        nodes: cur.nodes.map((n) => (n.id === id && isBusNode(n) ? { ...n, data: next } : n)),
+        edges: cur.edges.filter((e) => e.target !== id || conds.has(e.targetHandle ?? 'all')),
+      });
+    },
+    [commit],
+  );
+
+  const toggleOpen = useCallback(
+    (edgeId: string, c: Conductor) => {
+      const cur = docRef.current;
+      commit({
+        ...cur,
+        edges: cur.edges.map((e) => {
+          if (e.id !== edgeId) return e;
+          const open = e.data?.open ?? [];
+          return { ...e, data: { open: open.includes(c) ? open.filter((x) => x !== c) : [...open, c] } };
+        }),
+      });
+    },
+    [commit],
+  );
+
+  const deleteSelection = useCallback(() => {
+    const cur = docRef.current;
+    const gone = new Set(cur.nodes.filter((n) => n.selected).map((n) => n.id));
+    const edges = cur.edges.filter((e) => !e.selected && !gone.has(e.source) && !gone.has(e.target));
+    if (gone.size === 0 && edges.length === cur.edges.length) return;
+    commit({ ...cur, nodes: cur.nodes.filter((n) => !gone.has(n.id)), edges });
+  }, [commit]);
+
+  const copySelection = useCallback(() => {
+    const cur = docRef.current;
+    const nodes = cur.nodes.filter((n) => n.selected);
+    const ids = new Set(nodes.map((n) => n.id));
+    clipboard.current = { nodes, edges: cur.edges.filter((e) => ids.has(e.source) && ids.has(e.target)) };
+  }, []);
+
+  const paste = useCallback(() => {
+    const clip = clipboard.current;
+    if (!clip || clip.nodes.length === 0) return;
+    const cur = docRef.current;
+    const ids = taken(cur);
+    const rename = new Map<string, string>();
+    const pasted: WorkspaceNode[] = clip.nodes.map((n) => {
+      const position = { x: n.position.x + 40, y: n.position.y + 40 };
+      if (isBusNode(n)) {
+        const name = freshId(`${n.data.name.replace(/\d+$/, '')}`, ids);
+        ids.add(name);
+        const id = busNodeId(name);
+        ids.add(id);
+        rename.set(n.id, id);
+        return { ...n, id, position, selected: true, data: { ...n.data, name } };
+      }
+      const id = freshId(n.id.replace(/\d+$/, ''), ids);
+      ids.add(id);
+      rename.set(n.id, id);
+      return { ...n, id, position, selected: true, data: { ...n.data, element: { ...n.data.element, id } } };
+    });
+    const edges = clip.edges.map((e) => {
+      const source = rename.get(e.source)!;
+      return { ...e, id: wireId(source, e.sourceHandle ?? ''), source, target: rename.get(e.target)!, selected: false };
+    });
+    commit({ ...cur, nodes: [...cur.nodes.map((n) => (n.selected ? { ...n, selected: false } : n)), ...pasted], edges: [...cur.edges, ...edges] });
+  }, [commit, taken]);
+
+  const deselect = useCallback(() => {
+    const cur = docRef.current;
+    dispatch({ type: 'replace', next: { ...cur, nodes: cur.nodes.map((n) => (n.selected ? { ...n, selected: false } : n)), edges: cur.edges.map((e) => (e.selected ? { ...e, selected: false } : e)) } });
+  }, []);
+
+  // ---- save ----
+  const content = useCallback(
+    (d: Doc) => ({ circuit: canvasToCircuit(d.nodes, d.edges, d.settings).circuit as unknown as StudyDetail['content']['circuit'], layout: canvasLayout(d.nodes, d.edges, d.settings, rf.getViewport()) }),
+    [rf],
+  );
+  const doSave = useCallback(
+    (message: string | undefined, version: number) => {
+      const snapshot = docRef.current;
+      save.mutate(
+        { version, content: content(snapshot), ...(message ? { message } : {}) },
+        {
+          onSuccess: (saved) => {
+            setSavedDoc(snapshot);
+            setBaseVersion(saved.version);
+            setDialog(null);
+            setTheirs(null);
+          },
+          onError: (e) => {
+            const current = conflictOf(e);
+            if (current) {
+              setDialog(null);
+              setTheirs(current);
+            }
+          },
+        },
+      );
+    },
+    [save, content],
+  );
+  const openSave = useCallback(() => {
+    if (readOnly) return;
+    save.reset();
+    setDialog('save');
+  }, [readOnly, save]);
+
+  const loadTheirs = useCallback(() => {
+    if (!theirs) return;
+    const next = docOf(theirs);
+    dispatch({ type: 'reset', next });
+    setSavedDoc(next);
+    setBaseVersion(theirs.version);
+    setTheirs(null);
+  }, [theirs]);
+
+  // ---- keyboard ----
+  useEffect(() => {
+    function onKey(e: KeyboardEvent) {
+      if (document.querySelector('[role="dialog"]')) return;
+      const action = shortcutOf(e, inField(e.target));
+      if (!action) return;
+      if (readOnly && ['undo', 'redo', 'paste', 'delete', 'save'].includes(action)) return;
+      e.preventDefault();
+      switch (action) {
+        case 'undo':
+          return dispatch({ type: 'undo' });
+        case 'redo':
+          return dispatch({ type: 'redo' });
+        case 'copy':
+          return copySelection();
+        case 'paste':
+          return paste();
+        case 'delete':
+          return deleteSelection();
+        case 'save':
+          return openSave();
+        case 'fit':
+          return void rf.fitView({ padding: 0.15, duration: 200 });
+        case 'grid':
+          return setSnap((s) => !s);
+        case 'deselect':
+          return deselect();
+        case 'help':
+          return setDialog('help');
+      }
+    }
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [readOnly, copySelection, paste, deleteSelection, openSave, rf, deselect]);
+
+  // ---- unsaved-changes guard ----
+  const blocker = useBlocker(({ currentLocation, nextLocation }) => dirty && currentLocation.pathname !== nextLocation.pathname);
+  useEffect(() => {
+    if (!dirty) return;
+    const onUnload = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+      e.returnValue = '';
+    };
+    window.addEventListener('beforeunload', onUnload);
+    return () => window.removeEventListener('beforeunload', onUnload);
+  }, [dirty]);
+
+  // ---- selection ----
+  const selection = useMemo<Selection>(() => {
+    const n = doc.nodes.find((x) => x.selected);
+    if (n) return isBusNode(n) ? { kind: 'bus', id: n.id, data: n.data } : { kind: 'element', id: n.id, element: n.data.element };
+    const e = doc.edges.find((x) => x.selected);
+    if (e) {
+      const bus = doc.nodes.find((x) => x.id === e.target);
+      if (bus && isBusNode(bus)) return { kind: 'edge', edge: e, elementId: e.source, busName: bus.data.name, splitPhase: bus.data.splitPhase };
+    }
+    return null;
+  }, [doc.nodes, doc.edges]);
+  const selectedName = selection?.kind === 'bus' ? selection.data.name : selection?.kind === 'element' ? selection.id : selection?.kind === 'edge' ? selection.elementId : null;
+
+  const busList = useMemo(() => doc.nodes.filter(isBusNode).map((b) => ({ id: b.id, name: b.data.name, kvLL: b.data.kvLL })), [doc.nodes]);
+  const applySettings = useCallback(
+    (s: StudySettings, kv: Record<string, number | undefined>) => {
+      const cur = docRef.current;
+      commit({
+        ...cur,
+        settings: s,
+        nodes: cur.nodes.map((n) => {
+          if (!isBusNode(n) || !(n.id in kv) || kv[n.id] === n.data.kvLL) return n;
+          const data = { ...n.data };
+          if (kv[n.id] === undefined) delete data.kvLL;
+          else data.kvLL = kv[n.id];
+          return { ...n, data };
+        }),
+      });
+      setDialog(null);
+    },
+    [commit],
+  );
+
+  const layout = readLayout(study.content.layout);
+  const statusText =
+    live.status === 'solving' ? 'Solving…' : live.status === 'ok' ? `Solved in ${live.ms?.toFixed(1) ?? '–'} ms` : live.status === 'error' ? 'The circuit cannot be solved (see the note by the element)' : circuit.elements.length === 0 ? 'Add a source, a bus and loads to begin' : '';
+
+  return (
+    <CanvasViewContext.Provider value={view}>
+      <div className="flex flex-col gap-2">
+        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+          <nav aria-label="Breadcrumb" className="text-[13px] text-ink-muted">
+            <Link to="/" className="text-accent hover:underline">
+              Studies
+            </Link>{' '}
+            <span aria-hidden="true">/</span>{' '}
+          </nav>
+          <h1 className="text-lg">{study.name}</h1>
+          <StatusBadge status={study.status} />
+          <span className="num text-[12px] text-ink-muted">v{baseVersion}</span>
+          <Link to={`/studies/${study.id}/details`} className="text-[13px] text-accent hover:underline">
+            Details and record
+          </Link>
+          {readOnly ? <span className="rounded-[2px] bg-sunken px-1.5 text-[12px] font-semibold text-ink-muted">Read-only ({role})</span> : null}
+          {dirty ? <span className="text-[12px] font-semibold text-caution">● Unsaved changes</span> : null}
+        </div>
+
+        <div role="toolbar" aria-label="Workspace tools" className="flex flex-wrap items-center gap-1.5 rounded-[3px] border border-rule bg-panel px-2 py-1">
+          {readOnly ? null : (
+            <>
+              <Button size="sm" variant="primary" onClick={openSave} aria-label="Save study" disabled={conversion.problems.length > 0} title={conversion.problems.length > 0 ? 'Wire or delete unconnected elements first' : 'Save study (Ctrl+S)'}>
+                Save study
+              </Button>
+              <Button size="sm" onClick={() => dispatch({ type: 'undo' })} disabled={hist.past.length === 0} aria-label="Undo" title="Undo (Ctrl+Z)">
+                ↶ Undo
+              </Button>
+              <Button size="sm" onClick={() => dispatch({ type: 'redo' })} disabled={hist.future.length === 0} aria-label="Redo" title="Redo (Ctrl+Shift+Z)">
+                ↷ Redo
+              </Button>
+              <span className="mx-1 h-5 w-px bg-rule" aria-hidden="true" />
+            </>
+          )}
+          <Button size="sm" onClick={() => void rf.fitView({ padding: 0.15, duration: 200 })} aria-label="Fit view" title="Fit view (F)">
+            Fit view
+          </Button>
+          <Button size="sm" onClick={() => setSnap((s) => !s)} aria-pressed={snap} title="Snap to grid (G)">
+            Snap to grid {snap ? 'on' : 'off'}
+          </Button>
+          <Button size="sm" onClick={() => setDialog('settings')} aria-label="Study settings">
+            Study settings
+          </Button>
+          <Button size="sm" onClick={() => setDialog('help')} aria-label="Keyboard shortcuts" title="Keyboard shortcuts (?)">
+            ? Shortcuts
+          </Button>
+          <span role="status" className="num ml-auto text-[12px] text-ink-muted">
+            {doc.settings.frequencyHz} Hz · {doc.settings.sequence} · {doc.settings.shiftConvention === 'iec' ? 'IEC clock shift' : 'N. American shift (LV lags 30°)'} · {statusText}
+          </span>
+        </div>
+        {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
+
+        <div className="flex h-[62vh] min-h-[440px] overflow-hidden rounded-[3px] border border-rule bg-paper">
+          {readOnly ? null : <Palette onAdd={addItem} />}
+          <div className="relative min-w-0 flex-1" aria-label="Diagram">
+            <ReactFlow<WorkspaceNode, WorkspaceEdge>
+              nodes={doc.nodes}
+              edges={doc.edges}
+              nodeTypes={nodeTypes}
+              edgeTypes={edgeTypes}
+              onNodesChange={onNodesChange}
+              onEdgesChange={onEdgesChange}
+              onConnect={onConnect}
+              isValidConnection={(c) => resolveConnection(c as Connection) !== null}
+              connectionMode={ConnectionMode.Loose}
+              onNodeDragStart={() => (dragStart.current = docRef.current)}
+              onNodeDragStop={() => {
+                if (dragStart.current) dispatch({ type: 'mark', before: dragStart.current });
+                dragStart.current = null;
+              }}
+              nodesDraggable={!readOnly}
+              nodesConnectable={!readOnly}
+              elementsSelectable
+              deleteKeyCode={null}
+              snapToGrid={snap}
+              snapGrid={[10, 10]}
+              defaultViewport={layout?.viewport}
+              fitView={!layout?.viewport}
+              fitViewOptions={{ padding: 0.15 }}
+              minZoom={0.2}
+              maxZoom={3}
+              proOptions={{ hideAttribution: true }}
+              ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select; arrow keys move a selected node.' }}
+            >
+              <Background gap={20} size={1} color="#d3d0c6" />
+              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" nodeColor={(n) => (n.type === 'bus' ? '#1c2226' : '#7d858c')} />
+            </ReactFlow>
+            {doc.nodes.length === 0 ? (
+              <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
+                {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
+              </p>
+            ) : null}
+          </div>
+          <PropertyPanel
+            selection={selection}
+            readOnly={readOnly}
+            wiringStandard={doc.settings.wiringStandard}
+            busNames={busList.map((b) => b.name)}
+            onElement={updateElement}
+            onBus={updateBus}
+            onToggleOpen={toggleOpen}
+          />
+        </div>
+
+        {renderResults ? renderResults({ circuit: circuit.elements.length > 0 ? circuit : null, live, selection: selectedName, wiringStandard: doc.settings.wiringStandard }) : null}
+      </div>
+
+      <SaveDialog open={dialog === 'save'} busy={save.isPending} error={save.isError && !conflictOf(save.error) ? save.error.message : undefined} onCancel={() => setDialog(null)} onSave={(m) => { setPendingMessage(m || undefined); doSave(m || undefined, baseVersion); }} />
+      <ConflictDialog
+        theirs={theirs}
+        diff={theirs ? compareCircuits(circuit, theirs.content.circuit as unknown as CircuitInput) : { added: [], removed: [], changed: [] }}
+        busy={save.isPending}
+        onCancel={() => setTheirs(null)}
+        onLoadTheirs={loadTheirs}
+        onOverwrite={() => theirs && doSave(pendingMessage, theirs.version)}
+      />
+      <SettingsDialog open={dialog === 'settings'} settings={doc.settings} buses={busList} readOnly={readOnly} onClose={() => setDialog(null)} onApply={applySettings} />
+      <ShortcutsDialog open={dialog === 'help'} onClose={() => setDialog(null)} />
+      <LeaveDialog open={blocker.state === 'blocked'} onStay={() => blocker.reset?.()} onLeave={() => blocker.proceed?.()} />
+    </CanvasViewContext.Provider>
+  );
+}
