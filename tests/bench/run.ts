@@ -9,7 +9,9 @@
  * - `ngspice -b` on the same network as an AC netlist (binary raw output, no operating point);
  * - the CLI end to end, `npm run -s solve -- file.json --json` (start, read, solve, write);
  * - the ratio ngspice / CLI (issue targets: ≥ 5× at 5 000 buses, ≥ 20× at 20 000).
- * Environment: BENCH_SIZES=100,1000 limits the sizes; BENCH_NO_SPICE=1 skips ngspice.
+ * Environment: BENCH_SIZES=25,1000 picks the sizes (25 buses ≈ 100 elements); BENCH_NO_SPICE=1 skips
+ * ngspice; BENCH_SPICE_TIMEOUT_S (default 900) stops a long ngspice run (the ratio is then a lower bound).
+ * Each row is printed as soon as it is measured.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -17,7 +19,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
 import { createNetwork, solvePrimitives } from '../../shared/engine/solver/index.ts';
 import type { Primitive } from '../../shared/engine/types.ts';
-import { NGSPICE, runNgspice, toNetlist } from '../shared/engine/spice/netlist.ts';
+import { NGSPICE, NgspiceTimeout, runNgspice, toNetlist } from '../shared/engine/spice/netlist.ts';
 import { radialFeeder } from './feeder.ts';
 
 const root = path.resolve(import.meta.dirname, '../..');
@@ -56,6 +58,7 @@ interface Row {
   warmFactorSolveMs: number;
   fullMs: number;
   spiceMs?: number;
+  spiceStopped?: boolean;
   cliMs?: number;
   cliNodeMs?: number;
   cliNote?: string;
@@ -66,6 +69,10 @@ const spiceOn = process.env.BENCH_NO_SPICE !== '1' && existsSync(NGSPICE);
 const cliPath = path.join(root, 'server/cli/solve.ts');
 const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
 const rows: Row[] = [];
+const HEADER = [
+  '| network | elements | unknowns | LU non-zeros | cold (analyse + solve) | warm solve (median) | of which assembly | of which factor + solve | solvePrimitives (full) | ngspice -b | CLI (npm run -s solve --json) | CLI (node direct) | ngspice / CLI |',
+  '|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|',
+].join('\n');
 
 console.log(`Wyeward solver benchmark — Node ${process.version}, ${cpus().length} cores, load average at start ${loadavg()[0].toFixed(2)}`);
 console.log('Random radial four-wire feeders (seeded): wye/delta/single-phase loads, neutral earthed every 4th bus, coupled 4×4 line sections.\n');
@@ -114,10 +121,15 @@ try {
     if (spiceOn) {
       process.stdout.write('ngspice… ');
       const net2 = toNetlist(prims, file.frequencyHz);
+      const limit = Number(process.env.BENCH_SPICE_TIMEOUT_S ?? 900) * 1000;
+      const t = performance.now();
       try {
-        row.spiceMs = runNgspice(net2.text).ms;
+        row.spiceMs = runNgspice(net2.text, limit).ms;
       } catch (e) {
-        console.log(`ngspice failed: ${(e as Error).message.split('\n')[0]}`);
+        if (e instanceof NgspiceTimeout) {
+          row.spiceMs = performance.now() - t;
+          row.spiceStopped = true;
+        } else console.log(`ngspice failed: ${(e as Error).message.split('\n')[0]}`);
       }
     }
     if (existsSync(cliPath)) {
@@ -133,20 +145,23 @@ try {
     }
     rows.push(row);
     console.log('done');
+    console.log(`  ${formatRow(row)}`);
   }
 } finally {
   rmSync(dir, { recursive: true, force: true });
 }
 
-console.log('\n| network | elements | unknowns | LU non-zeros | cold (analyse + solve) | warm solve (median) | of which assembly | of which factor + solve | solvePrimitives (full) | ngspice -b | CLI (npm run -s solve --json) | CLI (node direct) | ngspice / CLI |');
-console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|');
+console.log('\n' + HEADER);
 for (const r of rows) {
-  const ratio = r.spiceMs !== undefined && r.cliMs !== undefined ? `${(r.spiceMs / r.cliMs).toFixed(1)}×` : '—';
-  console.log(
-    `| ${r.label} | ${r.elements} | ${r.unknowns} | ${r.factorNnz} | ${ms(r.coldMs)} | ${ms(r.warmMs)} | ${ms(r.warmAssembleMs)} | ${ms(r.warmFactorSolveMs)} | ${ms(r.fullMs)} | ${ms(r.spiceMs)} | ${ms(r.cliMs)} | ${ms(r.cliNodeMs)} | ${ratio} |`,
-  );
+  console.log(formatRow(r));
   if (r.cliNote) console.log(`  note (${r.label}): ${r.cliNote}`);
 }
 console.log(`\nLoad average at the end ${loadavg()[0].toFixed(2)} on ${cpus().length} cores (figures scale with it on a shared machine).`);
 console.log('Targets (issue 3): warm 100-element solve < 2 ms; warm 20 000-bus solve < 100 ms; CLI ≥ 5× faster than ngspice at 5 000 buses, ≥ 20× at 20 000.');
 if (!spiceOn) console.log('ngspice not run (missing or BENCH_NO_SPICE=1).');
+
+function formatRow(r: Row): string {
+  const stop = r.spiceStopped ? '> ' : '';
+  const ratio = r.spiceMs !== undefined && r.cliMs !== undefined ? `${stop}${(r.spiceMs / r.cliMs).toFixed(1)}×` : '—';
+  return `| ${r.label} | ${r.elements} | ${r.unknowns} | ${r.factorNnz} | ${ms(r.coldMs)} | ${ms(r.warmMs)} | ${ms(r.warmAssembleMs)} | ${ms(r.warmFactorSolveMs)} | ${ms(r.fullMs)} | ${stop}${ms(r.spiceMs)} | ${ms(r.cliMs)} | ${ms(r.cliNodeMs)} | ${ratio} |`;
+}

@@ -238,17 +238,21 @@ export function parseRaw(buf: Buffer): Map<string, Cx> {
   return out;
 }
 
+/** ngspice did not finish within the time allowed. */
+export class NgspiceTimeout extends Error {}
+
 /** Run ngspice in batch mode on a netlist; returns the raw vectors, the SPICE output text and the wall time (ms). */
-export function runNgspice(text: string): { vectors: Map<string, Cx>; ms: number; log: string } {
+export function runNgspice(text: string, timeoutMs?: number): { vectors: Map<string, Cx>; ms: number; log: string } {
   const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-spice-'));
   try {
     const cir = path.join(dir, 'net.cir');
     const raw = path.join(dir, 'net.raw');
     writeFileSync(cir, text);
     const t0 = performance.now();
-    const r = spawnSync(NGSPICE, ['-b', '-r', raw, cir], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+    const r = spawnSync(NGSPICE, ['-b', '-r', raw, cir], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024, timeout: timeoutMs, killSignal: 'SIGKILL' });
     const ms = performance.now() - t0;
     const log = `${r.stdout ?? ''}${r.stderr ?? ''}`;
+    if (timeoutMs !== undefined && r.signal === 'SIGKILL') throw new NgspiceTimeout(`ngspice stopped after ${Math.round(ms / 1000)} s`);
     if (r.error) throw new Error(`cannot run ${NGSPICE}: ${r.error.message}`);
     if (r.status !== 0) throw new Error(`ngspice exited with ${r.status}:\n${log.slice(-2000)}`);
     // ngspice exits 0 even when the analysis is aborted (e.g. "matrix is singular")
