@@ -1,14 +1,14 @@
 /** Number formatting of the results: RMS magnitude∠degrees, powers in kW/kvar/kVA, always with units. */
 import type { Phasor } from '../../../../shared/engine/index.ts';
 
-/** A magnitude with about four significant figures (no exponent for the ranges a study sees). */
+/** A magnitude with a tenth above 10 (141.6, 7199.6), then three or four significant figures (no exponent for the ranges a study sees). */
 export function formatMagnitude(x: number): string {
   const a = Math.abs(x);
   if (!Number.isFinite(x)) return String(x);
   if (a === 0) return '0';
-  if (a >= 1000) return x.toFixed(0);
-  if (a >= 100) return x.toFixed(1);
-  if (a >= 10) return x.toFixed(2);
+  if (a >= 100000) return x.toFixed(0);
+  if (a >= 10) return x.toFixed(1);
+  if (a >= 1) return x.toFixed(2);
   if (a >= 0.001) return x.toFixed(3);
   return x.toExponential(2);
 }

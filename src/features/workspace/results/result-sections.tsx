@@ -1,0 +1,223 @@
+/** The smaller sections of the results panel: limits and flags, power balance, transformers, faults, floating parts, caution. */
+import type { CircuitResult, Flag } from '../../../../shared/engine/index.ts';
+import { SEVERITY } from './flag-mark.tsx';
+import { formatMagnitude, formatPhasor, formatValue, kvar, kW } from './format.ts';
+import { phaseStyle, type WiringStandard } from './phase-style.ts';
+
+const METRIC_NAME = { iec: 'IEC negative-sequence factor |V2|/|V1|', nema: 'NEMA line-voltage unbalance (max deviation from average)', ieee: 'IEEE phase-voltage unbalance (line-to-neutral)' } as const;
+
+/** The limit set in force and every flag, most severe first. */
+export function FlagsSection({ result }: { result: CircuitResult }) {
+  const l = result.limits;
+  const rank = { violation: 0, warning: 1, info: 2 } as const;
+  const flags = result.flags.slice().sort((a, b) => rank[a.severity] - rank[b.severity]);
+  const metric = l.unbalanceMetric;
+  const metricValue = (b: CircuitResult['buses'][number]) => (metric === 'iec' ? b.iecUnbalancePercent : metric === 'nema' ? b.nemaUnbalancePercent : b.ieeeUnbalancePercent);
+  return (
+    <section aria-labelledby="res-flags">
+      <h3 id="res-flags" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
+        Limits and flags
+      </h3>
+      <p className="text-[12px]">
+        Limit set in force: <strong>{l.name}</strong>. Voltage warning outside {l.voltageWarningPu.map((x) => x.toFixed(3)).join('–')} pu, violation outside{' '}
+        {l.voltageViolationPu.map((x) => x.toFixed(3)).join('–')} pu; unbalance: {METRIC_NAME[metric]} ≤ {l.unbalancePercent} %; neutral shift ≤ {l.neutralShiftPercent} % of nominal V_LN; transformer loading ≤ {l.loadingPercent} %.
+      </p>
+      <ul className="mt-1 text-[12px]" aria-label="Unbalance against the limit">
+        {result.buses
+          .filter((b) => metricValue(b) !== undefined)
+          .map((b) => {
+            const v = metricValue(b)!;
+            const over = v > l.unbalancePercent;
+            return (
+              <li key={b.bus} className="num">
+                {b.bus}: {v.toFixed(2)} % {over ? <span className="font-semibold text-caution">over {l.unbalancePercent} %</span> : <span className="text-ok">within {l.unbalancePercent} %</span>}
+              </li>
+            );
+          })}
+      </ul>
+      {flags.length === 0 ? (
+        <p className="mt-1 text-[12px] text-ok">
+          <span aria-hidden="true">✓ </span>No flags: every bus and element is within the limit set.
+        </p>
+      ) : (
+        <ul className="mt-1 space-y-0.5 text-[12px]" aria-label="Flags">
+          {flags.map((f, i) => (
+            <FlagRow key={i} flag={f} />
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+
+function FlagRow({ flag }: { flag: Flag }) {
+  const s = SEVERITY[flag.severity];
+  return (
+    <li className="flex gap-1.5">
+      <span className={`inline-flex h-4 shrink-0 items-center gap-0.5 rounded-[2px] border px-1 text-[10px] font-semibold uppercase ${s.cls}`}>
+        <span aria-hidden="true">{s.sign}</span>
+        {s.word}
+      </span>
+      <span>{flag.message}</span>
+    </li>
+  );
+}
+
+/** Power totals and the balance check: source = load + faults + losses, residual shown. */
+export function PowerSummary({ result }: { result: CircuitResult }) {
+  const t = result.totals;
+  // A residual within a millionth of the source power (or 1 mVA) is rounding (P: solver tolerance).
+  const tol = Math.max(1e-3, 1e-6 * t.sourcePower.mag);
+  const ok = t.powerBalanceResidual.mag <= tol;
+  const rows: [string, typeof t.sourcePower][] = [
+    ['Delivered by sources', t.sourcePower],
+    ['Absorbed by loads', t.loadPower],
+    ['Absorbed at faults', t.faultPower],
+    ['Losses', t.losses],
+  ];
+  return (
+    <section aria-labelledby="res-power">
+      <h3 id="res-power" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
+        Power balance
+      </h3>
+      <table aria-label="Power summary" className="text-[12px]">
+        <thead>
+          <tr className="text-ink-muted">
+            <th scope="col" className="pr-3 text-left font-semibold" />
+            <th scope="col" className="px-2 text-right font-semibold">P (kW)</th>
+            <th scope="col" className="px-2 text-right font-semibold">Q (kvar)</th>
+          </tr>
+        </thead>
+        <tbody className="num">
+          {rows.map(([label, s]) => (
+            <tr key={label}>
+              <th scope="row" className="pr-3 text-left font-normal" style={{ fontFamily: 'var(--font-sans)' }}>
+                {label}
+              </th>
+              <td className="px-2 text-right">{kW(s)}</td>
+              <td className="px-2 text-right">{kvar(s)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="mt-1 text-[12px]">
+        Check, source = load + faults + losses: residual{' '}
+        <span className="num">
+          {formatMagnitude(t.powerBalanceResidual.re)} W, {formatMagnitude(t.powerBalanceResidual.im)} var
+        </span>{' '}
+        {ok ? <span className="font-semibold text-ok">✓ balanced</span> : <span className="font-semibold text-danger">✕ does not balance: check the model</span>}. Largest KCL residual{' '}
+        <span className="num">{formatValue(t.maxKclResidualAmps, 'A')}</span>.
+      </p>
+    </section>
+  );
+}
+
+/** Transformer loading and the phase shift in force. */
+export function TransformerSection({ result }: { result: CircuitResult }) {
+  const xs = Object.values(result.elements).filter((e) => e.loadingPercent !== undefined || e.phaseShift);
+  if (xs.length === 0) return null;
+  return (
+    <section aria-labelledby="res-xfmr">
+      <h3 id="res-xfmr" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
+        Transformers
+      </h3>
+      <p className="text-[11px] text-ink-muted">Shift convention: {result.conventions.transformerShift}</p>
+      <ul className="text-[12px]">
+        {xs.map((e) => {
+          const over = e.loadingPercent !== undefined && e.loadingPercent > result.limits.loadingPercent;
+          return (
+            <li key={e.id}>
+              <strong>{e.id}</strong>: loading <span className="num">{formatValue(e.loadingPercent, '%', 1)}</span>
+              {over ? <span className="ml-1 font-semibold text-caution">(over {result.limits.loadingPercent} %)</span> : null}
+              {e.phaseShift ? (
+                <>
+                  {' '}
+                  · {e.phaseShift.vectorGroup}, low side lags high side by <span className="num">{e.phaseShift.lvLagsHvDeg}°</span> ({e.phaseShift.convention === 'iec' ? 'IEC clock number' : 'North American rule'})
+                </>
+              ) : null}
+              {e.losses ? (
+                <>
+                  {' '}
+                  · losses <span className="num">{kW(e.losses)}</span>
+                </>
+              ) : null}
+            </li>
+          );
+        })}
+      </ul>
+    </section>
+  );
+}
+
+/** Fault currents, when the study has a fault element. */
+export function FaultSection({ result, standard }: { result: CircuitResult; standard: WiringStandard }) {
+  if (result.faults.length === 0) return null;
+  return (
+    <section aria-labelledby="res-faults">
+      <h3 id="res-faults" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
+        Faults
+      </h3>
+      <table aria-label="Fault currents" className="text-[12px]">
+        <thead className="text-ink-muted">
+          <tr>
+            <th scope="col" className="pr-2 text-left">Fault</th>
+            {(['a', 'b', 'c'] as const).map((p) => (
+              <th key={p} scope="col" className="px-2 text-right">
+                I {phaseStyle(p, standard).label} (A∠°)
+              </th>
+            ))}
+            <th scope="col" className="px-2 text-right">I to earth (A∠°)</th>
+            <th scope="col" className="px-2 text-right">I1, I2, I0 (A)</th>
+          </tr>
+        </thead>
+        <tbody className="num">
+          {result.faults.map((f) => (
+            <tr key={f.id}>
+              <th scope="row" className="pr-2 text-left" style={{ fontFamily: 'var(--font-sans)' }}>
+                {f.id} <span className="font-normal text-ink-muted">({f.kind}, {f.phases.join('')} at {f.bus})</span>
+              </th>
+              {(['a', 'b', 'c'] as const).map((p) => (
+                <td key={p} className="px-2 text-right">
+                  {formatPhasor(f.phaseCurrents[p], 'A')}
+                </td>
+              ))}
+              <td className="px-2 text-right">{formatPhasor(f.earthCurrent, 'A')}</td>
+              <td className="px-2 text-right">
+                {[f.sequence.positive, f.sequence.negative, f.sequence.zero].map((s) => formatMagnitude(s.mag)).join(', ')}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </section>
+  );
+}
+
+/** Parts of the network with no path to earth. */
+export function FloatingNotices({ result }: { result: CircuitResult }) {
+  if (result.floating.length === 0) return null;
+  return (
+    <div role="note" aria-label="Floating parts" className="rounded-[3px] border border-caution/50 bg-caution-soft px-2 py-1 text-[12px]">
+      {result.floating.map((f, i) => (
+        <p key={i}>
+          <span aria-hidden="true">! </span>
+          <strong>Floating part:</strong> {f.nodes.length} node{f.nodes.length === 1 ? '' : 's'} ({f.nodes.slice(0, 6).join(', ')}
+          {f.nodes.length > 6 ? ', …' : ''}) have no path to earth. Their voltages to earth are shown with {f.referenceNode} held at 0 V, so only voltages within the part are meaningful.
+        </p>
+      ))}
+    </div>
+  );
+}
+
+/** The safety caution every results view carries (BRIEF.md, "Safety"). */
+export function ResultsCaution() {
+  return (
+    <p role="note" aria-label="Results caution" className="border-t border-rule pt-2 text-[11px] text-ink-muted">
+      <span className="font-semibold text-caution">
+        <span aria-hidden="true">⚠ </span>Caution:
+      </span>{' '}
+      Wyeward is an engineering aid; these results are only as good as the model. Designs must follow local codes and be checked under licensed practice.
+      Lost-neutral conditions put dangerous voltages on equipment.
+    </p>
+  );
+}

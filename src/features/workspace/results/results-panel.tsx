@@ -1,0 +1,205 @@
+/**
+ * The results panel (contract 5): status of the live solve, the engine error in plain words,
+ * floating parts, limits and flags, bus and element tables, the phasor diagram and waveforms of
+ * the selected bus/element, transformers, faults, the power balance and the safety caution.
+ * `selection` is the canvas's selected bus name or element id, so the panel follows the canvas.
+ */
+import { useId, useMemo, useState, type ReactNode } from 'react';
+import type { CircuitResult } from '../../../../shared/engine/index.ts';
+import type { LiveSolveError } from '../solve/solve-protocol.ts';
+import type { LiveSolveStatus } from '../solve/use-live-solve.ts';
+import { BusTable } from './bus-table.tsx';
+import { ElementTable } from './element-table.tsx';
+import { formatMagnitude } from './format.ts';
+import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
+import { PhasorDiagram } from './phasor-diagram.tsx';
+import { FaultSection, FlagsSection, FloatingNotices, PowerSummary, ResultsCaution, TransformerSection } from './result-sections.tsx';
+import { WaveformChart, type WaveSignal } from './waveform-chart.tsx';
+
+export interface ResultsPanelProps {
+  status: LiveSolveStatus;
+  result?: CircuitResult;
+  error?: LiveSolveError;
+  /** True when `result` belongs to an earlier edit (solving or failed since). */
+  stale?: boolean;
+  ms?: number;
+  /** Selected canvas node: a bus name or an element id. */
+  selection?: string | null;
+  /** Called when a table row is chosen, so the canvas can follow. */
+  onSelect?: (id: string) => void;
+  standard?: WiringStandard;
+}
+
+const CODE_WORDS: Record<string, string> = {
+  'invalid-circuit': 'The circuit has a problem to fix',
+  'ill-posed-network': 'The network has no unique solution',
+  'singular-network': 'The network could not be solved',
+  'non-convergence': 'The voltage-dependent loads did not converge',
+  internal: 'The solve failed',
+};
+
+/** The bus the panel shows: the selected bus, the first bus of a selected element, else the bus with the largest neutral shift. */
+export function pickBus(result: CircuitResult, selection: string | null | undefined): string | undefined {
+  if (selection) {
+    if (result.buses.some((b) => b.bus === selection)) return selection;
+    const el = result.elements[selection];
+    const bus = el?.ports?.find((p) => p.bus)?.bus;
+    if (bus) return bus;
+  }
+  let best = result.buses[0];
+  for (const b of result.buses) if ((b.neutralToEarth?.mag ?? 0) > (best?.neutralToEarth?.mag ?? 0)) best = b;
+  return best?.bus;
+}
+
+function StatusLine({ status, ms, stale }: { status: LiveSolveStatus; ms?: number; stale?: boolean }) {
+  const text =
+    status === 'idle'
+      ? 'Nothing to solve yet: add a source and a load.'
+      : status === 'solving'
+        ? stale
+          ? 'Solving the latest edit… (showing the previous solution)'
+          : 'Solving…'
+        : status === 'ok'
+          ? `Solved${ms !== undefined ? ` in ${ms < 10 ? ms.toFixed(1) : ms.toFixed(0)} ms` : ''}.`
+          : stale
+            ? 'The latest edit could not be solved; showing the last good solution.'
+            : 'The circuit could not be solved.';
+  return (
+    <p role="status" className={`text-[12px] ${status === 'error' ? 'text-danger' : 'text-ink-muted'}`}>
+      {text}
+    </p>
+  );
+}
+
+function ErrorNotice({ error }: { error: LiveSolveError }) {
+  return (
+    <div role="alert" className="rounded-[3px] border border-danger/50 bg-danger-soft px-2 py-1.5 text-[12px]">
+      <p className="font-semibold">
+        <span aria-hidden="true">✕ </span>
+        {CODE_WORDS[error.code] ?? CODE_WORDS.internal}
+        {error.elementIds.length > 0 ? ` (${error.elementIds.join(', ')})` : ''}
+      </p>
+      <p>{error.message}</p>
+      {error.issues && error.issues.length > 0 ? (
+        <ul className="mt-0.5 list-disc pl-4">
+          {error.issues.slice(0, 8).map((i, k) => (
+            <li key={k}>
+              <span className="num text-ink-muted">{i.path}</span>: {i.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
+  );
+}
+
+function Section({ title, children }: { title: string; children: ReactNode }) {
+  const id = useId();
+  return (
+    <section aria-labelledby={id} className="space-y-1">
+      <h3 id={id} className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
+        {title}
+      </h3>
+      {children}
+    </section>
+  );
+}
+
+export function ResultsPanel({ status, result, error, stale, ms, selection, onSelect, standard = 'iec-60445' }: ResultsPanelProps) {
+  const [busChoice, setBusChoice] = useState<string | null>(null);
+  const [elementChoice, setElementChoice] = useState<string | null>(null);
+  const selectId = useId();
+  // A new canvas selection overrides the panel's own choice.
+  const [lastSelection, setLastSelection] = useState(selection);
+  if (selection !== lastSelection) {
+    setLastSelection(selection);
+    setBusChoice(null);
+    setElementChoice(null);
+  }
+  const busName = result ? (busChoice && result.buses.some((b) => b.bus === busChoice) ? busChoice : pickBus(result, selection)) : undefined;
+  const bus = result?.buses.find((b) => b.bus === busName);
+  const elementId = result ? (elementChoice && result.elements[elementChoice] ? elementChoice : selection && result.elements[selection] ? selection : undefined) : undefined;
+  const element = elementId ? result?.elements[elementId] : undefined;
+
+  const voltages = useMemo<WaveSignal[]>(
+    () =>
+      bus
+        ? Object.entries(bus.lineToNeutral).map(([p, v]) => {
+            const s = phaseStyle(p, standard);
+            return { id: `v-${p}`, label: `${lnLabel(p, standard, bus.lnReference)} ${formatMagnitude(v.mag)} V`, phasor: v, color: s.color, dash: s.dash };
+          })
+        : [],
+    [bus, standard],
+  );
+  const currents = useMemo<WaveSignal[]>(() => {
+    const port = element?.ports?.[0];
+    if (!port) return [];
+    return port.conductors.map((c, i) => {
+      const s = phaseStyle(c, standard);
+      return { id: `i-${c}`, label: `I ${s.label} ${formatMagnitude(port.currents[i].mag)} A`, phasor: port.currents[i], color: s.color, dash: s.dash };
+    });
+  }, [element, standard]);
+
+  return (
+    <section aria-label="Results" className="space-y-3 bg-panel p-3">
+      <div className="flex items-baseline justify-between gap-2">
+        <h2 className="text-[14px] font-semibold">Results</h2>
+        <StatusLine status={status} ms={ms} stale={stale} />
+      </div>
+      {status === 'error' && error ? <ErrorNotice error={error} /> : null}
+      {result ? (
+        <div className={`space-y-4 ${stale ? 'opacity-70' : ''}`}>
+          <p className="text-[11px] text-ink-muted">
+            {result.frequencyHz} Hz, sequence {result.conventions.sequence}; phasors RMS, magnitude∠degrees; {result.conventions.power}.
+          </p>
+          <FloatingNotices result={result} />
+          <FlagsSection result={result} />
+          <BusTable result={result} standard={standard} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+          {bus ? (
+            <Section title={`Phasors at bus ${bus.bus}`}>
+              <label htmlFor={selectId} className="mr-1 text-[12px]">
+                Bus for phasor diagram
+              </label>
+              <select id={selectId} value={bus.bus} onChange={(e) => setBusChoice(e.target.value)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
+                {result.buses.map((b) => (
+                  <option key={b.bus} value={b.bus}>
+                    {b.bus}
+                  </option>
+                ))}
+              </select>
+              <p className="text-[12px]">
+                Neutral shift at {bus.bus}:{' '}
+                <strong className="num" data-testid="selected-neutral-shift">
+                  {bus.neutralToEarth ? `${formatMagnitude(bus.neutralToEarth.mag)} V` : 'no neutral'}
+                </strong>
+                {bus.neutralShiftPercent !== undefined ? <span className="num"> ({bus.neutralShiftPercent.toFixed(1)} % of nominal V_LN)</span> : null}
+              </p>
+              <PhasorDiagram bus={bus} standard={standard} />
+            </Section>
+          ) : null}
+          <Section title="Waveforms over one cycle">
+            <label className="mr-1 text-[12px]" htmlFor={`${selectId}-el`}>
+              Element for currents
+            </label>
+            <select id={`${selectId}-el`} value={elementId ?? ''} onChange={(e) => setElementChoice(e.target.value || null)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
+              <option value="">none</option>
+              {Object.values(result.elements)
+                .filter((e) => e.ports?.length)
+                .map((e) => (
+                  <option key={e.id} value={e.id}>
+                    {e.id}
+                  </option>
+                ))}
+            </select>
+            <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
+          </Section>
+          <ElementTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+          <TransformerSection result={result} />
+          <FaultSection result={result} standard={standard} />
+          <PowerSummary result={result} />
+        </div>
+      ) : null}
+      <ResultsCaution />
+    </section>
+  );
+}
