@@ -175,7 +175,6 @@ interface Topology {
   positions: Int32Array;
   /** Per admittance-matrix element: its connectivity signature (sparsity and earth rows). */
   stampSignature: Map<number, string>;
-  hasNonlinear: boolean;
   /** Element ids, kind codes (K_…), closed state of switches, and values compiled into typed arrays. */
   ids: string[];
   kind: Uint8Array;
@@ -356,7 +355,6 @@ function buildTopology(prims: Primitive[]): Topology {
   // 2. Galvanic components and floating islands.
   const dsu = new Dsu(nn);
   const stampSignature = new Map<number, string>();
-  let hasNonlinear = false;
   for (let k = 0; k < prims.length; k++) {
     const e = prims[k];
     const nodes = elNodes[k];
@@ -365,7 +363,6 @@ function buildTopology(prims: Primitive[]): Topology {
       case 'voltageSource':
       case 'zipLoad':
         dsu.union(nodes[0], nodes[1]);
-        if (e.type === 'zipLoad' && e.zip.z !== 1) hasNonlinear = true;
         break;
       case 'switch':
         if (e.closed) dsu.union(nodes[0], nodes[1]);
@@ -470,7 +467,6 @@ function buildTopology(prims: Primitive[]): Topology {
     symbolic: undefined as unknown as SymbolicLu,
     positions: new Int32Array(0),
     stampSignature,
-    hasNonlinear,
     ...coupledStorage(prims),
     ids: prims.map((e) => e.id),
     kind: Uint8Array.from(prims, kindCode),
@@ -553,14 +549,13 @@ function zeroImpedanceLoopError(prims: Primitive[], closing: number, path: numbe
       { elementIds: ids, nodes: [s.plus, s.minus] },
     );
   }
-  // EMF around the loop: walk the loop from the closing element's minus terminal.
+  // EMF around the loop: walk it from the closing element's first terminal, through that element, and back along the forest path.
   let emf = { re: 0, im: 0 };
   const closingEl = prims[closing];
   const ends = elementNodes(closingEl);
-  let at = ends[1];
   const walk = [closing, ...path.slice().reverse()];
   // orient every element along the walk: closing goes ends[0] → ends[1], then path back to ends[0]
-  at = ends[0];
+  let at = ends[0];
   for (const k of walk) {
     const [x, y] = elementNodes(prims[k]);
     const next = x === at ? y : x;

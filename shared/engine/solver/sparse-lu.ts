@@ -360,7 +360,6 @@ export function factorNumeric(
   }
 
   const perm = s.perm;
-  const pinv = s.pinv;
   const wr = ws.wr;
   const wi = ws.wi;
 
@@ -529,7 +528,6 @@ export function factorNumeric(
     return { re: outRe, im: outIm };
   };
 
-  void pinv;
   return {
     symbolic: s,
     deferred: deferredP.map((k) => perm[k]),
