@@ -12,6 +12,8 @@ import { auditRoutes } from './routes/audit.ts';
 import { authRoutes } from './routes/auth.ts';
 import type { RouteContext } from './routes/context.ts';
 import { mailRoutes } from './routes/mail.ts';
+import { notificationRoutes, templateRoutes } from './routes/notifications.ts';
+import { reviewRoutes } from './routes/review.ts';
 import { studyRoutes } from './routes/studies.ts';
 import { inviteRoutes, teamRoutes } from './routes/team.ts';
 
@@ -48,7 +50,10 @@ export function createApp({ db, config, mailer, mountClient }: AppDeps): Express
     res.json({ ok: true });
   });
   api.use('/auth', authRoutes(ctx));
+  api.use('/studies', reviewRoutes(ctx));
   api.use('/studies', studyRoutes(ctx));
+  api.use('/templates', templateRoutes(ctx));
+  api.use('/notifications', notificationRoutes(ctx));
   api.use('/team', teamRoutes(ctx));
   api.use('/invites', inviteRoutes(ctx));
   api.use('/mail', mailRoutes(ctx));

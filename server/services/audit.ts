@@ -1,5 +1,5 @@
 /** The audit trail: every sign-up, study change, invite and role change is recorded with who, what, when and which study. */
-import { and, count, desc, eq } from 'drizzle-orm';
+import { and, count, desc, eq, like } from 'drizzle-orm';
 import { AUDIT_PAGE_SIZE, type AuditAction, type AuditListResponse, type AuditQuery } from '../../shared/api/audit.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
@@ -23,10 +23,21 @@ export async function recordAudit(
   });
 }
 
-/** The team's events, newest first, optionally of one study. */
+/** The team's events, newest first, optionally of one study, one action (or action prefix) and one actor. */
 export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<AuditListResponse> {
   if (q.studyId !== undefined && !isUuid(q.studyId)) return { items: [], total: 0 };
-  const where = and(eq(auditEvents.teamId, actor.teamId), q.studyId ? eq(auditEvents.studyId, q.studyId) : undefined);
+  // An action ending in "." is a prefix (`review.` = every review action); LIKE wildcards are escaped.
+  const action = q.action
+    ? q.action.endsWith('.')
+      ? like(auditEvents.action, `${q.action.replace(/[\\%_]/g, (c) => `\\${c}`)}%`)
+      : eq(auditEvents.action, q.action)
+    : undefined;
+  const where = and(
+    eq(auditEvents.teamId, actor.teamId),
+    q.studyId ? eq(auditEvents.studyId, q.studyId) : undefined,
+    action,
+    q.actor ? eq(auditEvents.actorId, q.actor) : undefined,
+  );
   const [rows, [{ total }]] = await Promise.all([
     db
       .select({

@@ -16,7 +16,7 @@ export const INVITE_DAYS = 7;
 const ROLE_WORDS: Record<Role, string> = {
   owner: 'an owner (manages members, roles and every study)',
   engineer: 'an engineer (creates, edits and clones studies, marks templates)',
-  reviewer: 'a reviewer (reads studies; review arrives in a later version)',
+  reviewer: 'a reviewer (reads studies, comments on them, approves them or asks for changes)',
   viewer: 'a viewer (reads studies)',
 };
 
