@@ -13,6 +13,7 @@ const LL_ORDER = ['ab', 'bc', 'ca', '12'];
 /** "141.6∠−2.1°" (the unit is in the header); "—" when absent. */
 export function PhasorCell({ p }: { p?: Phasor }) {
   if (!p) return <span className="text-ink-faint">—</span>;
+  if (p.mag < 1e-6) return <span>0</span>;
   return (
     <span>
       {formatMagnitude(p.mag)}
@@ -84,16 +85,16 @@ function busColumns(result: CircuitResult, standard: WiringStandard): ResultColu
     ...llPresent.map((p) => phasorColumn<BusResult>(`ll-${p}`, phaseStyle(p, standard).label, 'V', (b) => b.lineToLine[p])),
     {
       id: 'shift',
-      header: 'Neutral shift (V, % of nominal V_LN)',
+      header: 'Neutral shift (V, %)',
       numeric: true,
       sortValue: (b) => b.neutralToEarth?.mag,
       render: (b) => <span data-testid={`neutral-shift-${b.bus}`}>{formatNeutralShift(b)}</span>,
       tsvHeader: ['Neutral shift (V)', 'Neutral shift (% of nominal V_LN)'],
       tsv: (b) => [b.neutralToEarth?.mag.toString() ?? '', b.neutralShiftPercent?.toString() ?? ''],
     },
-    pct('iec', 'Unbalance IEC V2/V1', (b) => b.iecUnbalancePercent),
-    pct('nema', 'Unbalance NEMA', (b) => b.nemaUnbalancePercent),
-    pct('ieee', 'Unbalance IEEE', (b) => b.ieeeUnbalancePercent),
+    pct('iec', 'IEC V2/V1', (b) => b.iecUnbalancePercent),
+    pct('nema', 'NEMA', (b) => b.nemaUnbalancePercent),
+    pct('ieee', 'IEEE', (b) => b.ieeeUnbalancePercent),
     {
       id: 'flags',
       header: 'Flags',
@@ -108,6 +109,14 @@ function busColumns(result: CircuitResult, standard: WiringStandard): ResultColu
 /** Bus voltages of a result; `selectedBus` highlights the canvas selection. */
 export function BusTable({ result, standard, selectedBus, onSelectBus }: { result: CircuitResult; standard: WiringStandard; selectedBus?: string | null; onSelectBus?: (bus: string) => void }) {
   const columns = useMemo(() => busColumns(result, standard), [result, standard]);
-  return <ResultsTable label="Bus voltages" rows={result.buses} columns={columns} rowId={(b) => b.bus} selectedId={selectedBus} onRowSelect={onSelectBus} />;
+  return (
+    <div>
+      <ResultsTable label="Bus voltages" rows={result.buses} columns={columns} rowId={(b) => b.bus} selectedId={selectedBus} onRowSelect={onSelectBus} />
+      <p className="mt-1 text-[11px] text-ink-muted">
+        RMS, magnitude∠degrees. Line-to-neutral columns are to earth at a bus without a neutral. Neutral shift: neutral-to-earth voltage, V and % of nominal V_LN.
+        Unbalance: IEC |V2|/|V1|; NEMA line-voltage max deviation from average; IEEE phase-voltage (line-to-neutral) max deviation.
+      </p>
+    </div>
+  );
 }
 

@@ -5,12 +5,17 @@ import type { Phasor } from '../../../../shared/engine/index.ts';
 export function formatMagnitude(x: number): string {
   const a = Math.abs(x);
   if (!Number.isFinite(x)) return String(x);
-  if (a === 0) return '0';
+  // Below a microvolt / microampere is rounding noise of the solve, not a value.
+  if (a < 1e-6) return '0';
   if (a >= 100000) return x.toFixed(0);
   if (a >= 10) return x.toFixed(1);
   if (a >= 1) return x.toFixed(2);
-  if (a >= 0.001) return x.toFixed(3);
-  return x.toExponential(2);
+  return x.toFixed(3);
+}
+
+/** An axis tick: the shortest exact form of a round number (50, 2.5, 0.25, 8000). */
+export function formatTick(x: number): string {
+  return String(Number(x.toPrecision(6)));
 }
 
 /** An angle in degrees with one decimal, using a true minus sign ("−2.1°"); 0.0° for a zero phasor. */
@@ -23,6 +28,7 @@ export function formatAngle(deg: number): string {
 /** RMS magnitude∠degrees with a unit: "141.6 V∠−2.1°". */
 export function formatPhasor(p: Phasor | undefined, unit: string): string {
   if (!p) return '—';
+  if (p.mag < 1e-6) return `0 ${unit}`;
   return `${formatMagnitude(p.mag)} ${unit}∠${formatAngle(p.angleDeg)}`;
 }
 

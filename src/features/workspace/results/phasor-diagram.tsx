@@ -7,7 +7,7 @@
 import { arc, line } from 'd3-shape';
 import { useId, useState } from 'react';
 import type { BusResult } from '../../../../shared/engine/index.ts';
-import { formatPhasor, formatMagnitude } from './format.ts';
+import { formatPhasor, formatTick } from './format.ts';
 import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
 import { busVectors, layoutVectors, sequenceVectors, ticks, type DiagramVector, type Pt, type ScreenVector } from './phasor-geometry.ts';
 
@@ -21,24 +21,26 @@ const ring = arc<{ r: number }>()
   .endAngle(2 * Math.PI);
 
 const SHIFT_COLOUR = '#9c3424';
-const SEQ_STYLE: Record<string, { color: string; dash: string; label: string }> = {
-  '1': { color: '#1e5a6b', dash: '', label: 'V1 (positive)' },
-  '2': { color: '#9c3424', dash: '6 3', label: 'V2 (negative)' },
-  '0': { color: '#6b5a1e', dash: '2 3', label: 'V0 (zero)' },
+const SEQ_STYLE: Record<string, { color: string; dash: string; label: string; name: string }> = {
+  '1': { color: '#1e5a6b', dash: '', label: 'V1', name: 'V1 positive' },
+  '2': { color: '#9c3424', dash: '6 3', label: 'V2', name: 'V2 negative' },
+  '0': { color: '#6b5a1e', dash: '2 3', label: 'V0', name: 'V0 zero' },
 };
 
 /** Style and label of a vector. */
 export function vectorStyle(v: DiagramVector, standard: WiringStandard, lnReference: 'neutral' | 'earth'): { color: string; dash: string; label: string; width: number } {
   if (v.set === 'shift') return { color: SHIFT_COLOUR, dash: '', label: 'N–E shift', width: 2.5 };
-  if (v.set === 'sequence') return { ...SEQ_STYLE[v.key], width: 2 };
+  if (v.set === 'sequence') return { color: SEQ_STYLE[v.key].color, dash: SEQ_STYLE[v.key].dash, label: SEQ_STYLE[v.key].label, width: 2 };
   const s = phaseStyle(v.key, standard);
   if (v.set === 'ln') return { color: s.color, dash: s.dash, label: lnLabel(v.key, standard, lnReference), width: 2 };
   return { color: s.color, dash: s.dash, label: s.label, width: 1 };
 }
 
-function Axes({ frame, unit }: { frame: ReturnType<typeof layoutVectors>['frame']; unit: string }) {
+function Axes({ frame, unit, outerOnly = false }: { frame: ReturnType<typeof layoutVectors>['frame']; unit: string; outerOnly?: boolean }) {
   const { cx, cy, k, padding, size } = frame;
   const ts = ticks(frame);
+  // Tick labels below the real axis, right of centre; a small diagram labels only its outer ring.
+  const labelled = outerOnly ? ts.slice(-1) : ts;
   return (
     <g aria-hidden="true">
       {ts.map((t) => (
@@ -46,12 +48,12 @@ function Axes({ frame, unit }: { frame: ReturnType<typeof layoutVectors>['frame'
       ))}
       <line x1={padding - 8} y1={cy} x2={size - padding + 8} y2={cy} stroke="#aaa698" strokeWidth={0.75} />
       <line x1={cx} y1={padding - 8} x2={cx} y2={size - padding + 8} stroke="#aaa698" strokeWidth={0.75} />
-      {ts.map((t) => (
+      {labelled.map((t) => (
         <text key={t} x={cx + t * k} y={cy + 11} textAnchor="middle" fontSize={9} fill="#56606a" className="num">
-          {formatMagnitude(t)}
+          {formatTick(t)}
         </text>
       ))}
-      <text x={size - 4} y={cy - 5} textAnchor="end" fontSize={10} fill="#56606a">
+      <text x={size - 4} y={cy - 14} textAnchor="end" fontSize={10} fill="#56606a">
         Re ({unit})
       </text>
       <text x={cx + 5} y={12} fontSize={10} fill="#56606a">
@@ -62,6 +64,8 @@ function Axes({ frame, unit }: { frame: ReturnType<typeof layoutVectors>['frame'
 }
 
 function Vector({ v, style }: { v: ScreenVector; style: ReturnType<typeof vectorStyle> }) {
+  // A vector shorter than its arrow head (a neutral shift of a few volts) is a dot: no label to crowd the origin.
+  if (v.length < 4) return null;
   return (
     <g>
       <path d={path([v.tail, v.tip]) ?? ''} fill="none" stroke={style.color} strokeWidth={style.width} strokeDasharray={style.dash || undefined} />
@@ -100,7 +104,7 @@ export function PhasorDiagram({ bus, standard, size = 300 }: { bus: BusResult; s
   // Laid out over every vector, so toggling a set never rescales the picture.
   const { frame, vectors: laidOut } = layoutVectors(all, size, 34);
   const vectors = laidOut.filter((v) => shown[v.set]);
-  const seq = bus.sequence ? layoutVectors(sequenceVectors(bus.sequence), 160, 22) : null;
+  const seq = bus.sequence ? layoutVectors(sequenceVectors(bus.sequence), 180, 26) : null;
   const ref = bus.lnReference;
   return (
     <div className="flex flex-wrap gap-4">
@@ -117,7 +121,7 @@ export function PhasorDiagram({ bus, standard, size = 300 }: { bus: BusResult; s
             <circle cx={frame.toScreen(bus.neutralToEarth).x} cy={frame.toScreen(bus.neutralToEarth).y} r={3} fill="#fcfcfa" stroke={SHIFT_COLOUR} strokeWidth={1.5} />
           ) : null}
           <text x={6} y={size - 6} fontSize={10} fill="#56606a">
-            Scale: one ring = {formatMagnitude(frame.step)} V · origin = earth
+            Scale: one ring = {formatTick(frame.step)} V · origin = earth
           </text>
         </svg>
         <fieldset className="mt-1 flex gap-3 text-[12px]">
@@ -141,16 +145,16 @@ export function PhasorDiagram({ bus, standard, size = 300 }: { bus: BusResult; s
         </ul>
         {seq && bus.sequence ? (
           <div className="mt-3">
-            <svg role="img" aria-label={`Sequence components, bus ${bus.bus}`} width={160} height={160} viewBox="0 0 160 160" className="rounded-[3px] border border-rule bg-panel">
-              <Axes frame={seq.frame} unit="V" />
+            <svg role="img" aria-label={`Sequence components, bus ${bus.bus}`} width={180} height={180} viewBox="0 0 180 180" className="rounded-[3px] border border-rule bg-panel">
+              <Axes frame={seq.frame} unit="V" outerOnly />
               {seq.vectors.map((v) => (
                 <Vector key={v.id} v={v} style={vectorStyle(v, standard, ref)} />
               ))}
             </svg>
-            <p className="text-[11px] text-ink-muted">Sequence components of the phase-to-earth voltages (a = 1∠120°); one ring = {formatMagnitude(seq.frame.step)} V.</p>
+            <p className="text-[11px] text-ink-muted">Sequence components of the phase-to-earth voltages (a = 1∠120°); one ring = {formatTick(seq.frame.step)} V.</p>
             <ul className="mt-1 space-y-0.5">
               {sequenceVectors(bus.sequence).map((v) => (
-                <LegendRow key={v.id} style={vectorStyle(v, standard, ref)} value={formatPhasor(v.value, 'V')} />
+                <LegendRow key={v.id} style={{ ...vectorStyle(v, standard, ref), label: SEQ_STYLE[v.key].name }} value={formatPhasor(v.value, 'V')} />
               ))}
             </ul>
           </div>

@@ -86,6 +86,28 @@ export function labelPosition(tail: Pt, tip: Pt, gap = 10): { x: number; y: numb
   return { x: tip.x + ux * gap, y: tip.y + uy * gap, anchor, baseline };
 }
 
+/**
+ * Label of a side (a line-to-line vector between two phase points, which already carry the
+ * line-to-neutral labels): at the middle of the side, `gap` px out on the side away from `away`.
+ */
+export function midLabelPosition(tail: Pt, tip: Pt, away: Pt, gap = 9): { x: number; y: number; anchor: 'start' | 'middle' | 'end'; baseline: 'auto' | 'middle' | 'hanging' } {
+  const mx = (tail.x + tip.x) / 2;
+  const my = (tail.y + tip.y) / 2;
+  const dx = tip.x - tail.x;
+  const dy = tip.y - tail.y;
+  const len = Math.hypot(dx, dy);
+  if (len < 1e-9) return { x: mx, y: my, anchor: 'middle', baseline: 'middle' };
+  let nx = -dy / len;
+  let ny = dx / len;
+  if ((mx - away.x) * nx + (my - away.y) * ny < 0) {
+    nx = -nx;
+    ny = -ny;
+  }
+  const anchor = nx > 0.35 ? 'start' : nx < -0.35 ? 'end' : 'middle';
+  const baseline = ny > 0.35 ? 'hanging' : ny < -0.35 ? 'auto' : 'middle';
+  return { x: mx + nx * gap, y: my + ny * gap, anchor, baseline };
+}
+
 /** One vector of the diagram, in the complex plane. */
 export interface DiagramVector {
   id: string;
@@ -142,6 +164,8 @@ export interface ScreenVector extends DiagramVector {
   tip: Pt;
   head: [Pt, Pt, Pt] | null;
   label: ReturnType<typeof labelPosition>;
+  /** Screen length of the vector, px. */
+  length: number;
 }
 
 /** Lay vectors out in a frame that holds all their end points. */
@@ -152,7 +176,9 @@ export function layoutVectors(vectors: readonly DiagramVector[], size: number, p
     vectors: vectors.map((v) => {
       const tail = frame.toScreen(v.from);
       const tip = frame.toScreen(v.to);
-      return { ...v, tail, tip, head: arrowHead(tail, tip), label: labelPosition(tail, tip) };
+      // Line-to-line labels go mid-side, outward from the origin, so they never sit on the phase-point labels.
+      const label = v.set === 'll' ? midLabelPosition(tail, tip, { x: frame.cx, y: frame.cy }) : labelPosition(tail, tip);
+      return { ...v, tail, tip, head: arrowHead(tail, tip), label, length: Math.hypot(tip.x - tail.x, tip.y - tail.y) };
     }),
   };
 }

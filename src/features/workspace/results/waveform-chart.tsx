@@ -5,7 +5,7 @@
 import { line } from 'd3-shape';
 import { useId, useState } from 'react';
 import type { Phasor } from '../../../../shared/engine/index.ts';
-import { formatMagnitude } from './format.ts';
+import { formatMagnitude, formatTick } from './format.ts';
 import { niceScale } from './phasor-geometry.ts';
 import { sampleWaveform } from './waveform.ts';
 
@@ -24,7 +24,7 @@ const PAD = { l: 48, r: 10, t: 10, b: 26 };
 
 function Chart({ title, unit, signals, frequencyHz }: { title: string; unit: string; signals: WaveSignal[]; frequencyHz: number }) {
   const peak = Math.max(0, ...signals.map((s) => Math.SQRT2 * s.phasor.mag));
-  const { step, extent } = niceScale(peak, 2);
+  const { step, extent } = niceScale(peak, 3);
   const periodMs = 1000 / frequencyHz;
   const x = (tMs: number) => PAD.l + (tMs / periodMs) * (W - PAD.l - PAD.r);
   const y = (v: number) => PAD.t + ((extent - v) / (2 * extent)) * (H - PAD.t - PAD.b);
@@ -41,7 +41,7 @@ function Chart({ title, unit, signals, frequencyHz }: { title: string; unit: str
           <g key={v}>
             <line x1={PAD.l} x2={W - PAD.r} y1={y(v)} y2={y(v)} stroke={v === 0 ? '#aaa698' : '#e9e7e1'} strokeWidth={0.75} />
             <text x={PAD.l - 4} y={y(v)} textAnchor="end" dominantBaseline="middle" className="num">
-              {formatMagnitude(v)}
+              {formatTick(v)}
             </text>
           </g>
         ))}

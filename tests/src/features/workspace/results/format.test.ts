@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatAngle, formatMagnitude, formatPhasor, formatPowerFactor } from '../../../../../src/features/workspace/results/format.ts';
+import { formatAngle, formatMagnitude, formatPhasor, formatPowerFactor, formatTick } from '../../../../../src/features/workspace/results/format.ts';
 
 describe('results formatting', () => {
   it('shows magnitudes to a tenth above 10 and to three or four figures below', () => {
@@ -9,6 +9,10 @@ describe('results formatting', () => {
     expect(formatMagnitude(3.456)).toBe('3.46');
     expect(formatMagnitude(0.01234)).toBe('0.012');
     expect(formatMagnitude(0)).toBe('0');
+    expect(formatMagnitude(4.13e-12)).toBe('0'); // solver rounding noise, not a current
+  });
+  it('writes axis ticks in their shortest exact form', () => {
+    expect([50, 2.5, 0.25, 8000, 0.1 + 0.2].map(formatTick)).toEqual(['50', '2.5', '0.25', '8000', '0.3']);
   });
   it('writes angles with a true minus sign and no negative zero', () => {
     expect(formatAngle(-2.14)).toBe('−2.1°');
@@ -18,6 +22,7 @@ describe('results formatting', () => {
   it('writes a phasor as RMS magnitude, unit, ∠degrees', () => {
     expect(formatPhasor({ re: 0, im: 0, mag: 141.58, angleDeg: -2.14 }, 'V')).toBe('141.6 V∠−2.1°');
     expect(formatPhasor(undefined, 'A')).toBe('—');
+    expect(formatPhasor({ re: 1e-13, im: 0, mag: 1e-13, angleDeg: 52.1 }, 'A')).toBe('0 A');
   });
   it('gives the power factor with its sense in load convention (Q > 0 lagging)', () => {
     expect(formatPowerFactor({ re: 800, im: 600, mag: 1000, angleDeg: 36.87 })).toBe('0.800 lagging');

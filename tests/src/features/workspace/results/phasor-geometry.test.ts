@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit } from '../../../../../shared/engine/index.ts';
-import { arrowHead, busVectors, labelPosition, layoutVectors, makeFrame, niceScale, sequenceVectors, ticks } from '../../../../../src/features/workspace/results/phasor-geometry.ts';
+import { arrowHead, busVectors, labelPosition, layoutVectors, makeFrame, midLabelPosition, niceScale, sequenceVectors, ticks } from '../../../../../src/features/workspace/results/phasor-geometry.ts';
 
 const demo = (key: string) => solveCircuit(demoCircuits.find((d) => d.key === key)!.circuit);
 
@@ -67,6 +67,14 @@ describe('labelPosition', () => {
     expect(labelPosition({ x: 0, y: 0 }, { x: 50, y: 0 }, 10)).toMatchObject({ x: 60, y: 0, anchor: 'start', baseline: 'middle' });
     expect(labelPosition({ x: 0, y: 0 }, { x: -50, y: 0 }, 10)).toMatchObject({ x: -60, anchor: 'end' });
     expect(labelPosition({ x: 0, y: 0 }, { x: 0, y: -50 }, 10)).toMatchObject({ y: -60, anchor: 'middle', baseline: 'auto' });
+  });
+});
+
+describe('midLabelPosition', () => {
+  it('puts a side label at the middle of the side, on the side away from the given point', () => {
+    // side from (0,0) to (100,0); centre below it (y = 50) → label above (smaller y)
+    expect(midLabelPosition({ x: 0, y: 0 }, { x: 100, y: 0 }, { x: 50, y: 50 }, 9)).toMatchObject({ x: 50, y: -9, anchor: 'middle', baseline: 'auto' });
+    expect(midLabelPosition({ x: 0, y: 0 }, { x: 100, y: 0 }, { x: 50, y: -50 }, 9)).toMatchObject({ x: 50, y: 9, baseline: 'hanging' });
   });
 });
 
