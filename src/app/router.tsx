@@ -51,6 +51,13 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           loader: ({ params }) => prefetch((qc) => qc.prefetchQuery(studyQueryOptions(params.id ?? ''))),
           errorElement: <RouteError />,
         },
+        // Review and reuse (issue 5): history, revisions, diffs, templates, notifications, audit.
+        { path: 'studies/:id/history', lazy: () => import('./routes/study-history.tsx'), errorElement: <RouteError /> },
+        { path: 'studies/:id/revisions/:n', lazy: () => import('./routes/study-revision.tsx'), errorElement: <RouteError /> },
+        { path: 'studies/:id/diff', lazy: () => import('./routes/study-diff.tsx'), errorElement: <RouteError /> },
+        { path: 'templates', lazy: () => import('./routes/templates.tsx'), errorElement: <RouteError /> },
+        { path: 'notifications', lazy: () => import('./routes/notifications.tsx'), errorElement: <RouteError /> },
+        { path: 'audit', lazy: () => import('./routes/audit.tsx'), errorElement: <RouteError /> },
         { path: 'team', lazy: () => import('./routes/team.tsx'), loader: () => prefetch((qc) => qc.prefetchQuery(teamQueryOptions())), errorElement: <RouteError /> },
         { path: 'team/mail', lazy: () => import('./routes/team-mail.tsx'), loader: () => prefetch((qc) => qc.prefetchQuery(mailQueryOptions())), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundRoute /> },

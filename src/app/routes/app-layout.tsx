@@ -3,6 +3,7 @@ import { Link, Navigate, NavLink, Outlet, redirect, useLocation, useNavigate, ty
 import { RoleBadge } from '../../components/badges.tsx';
 import { Button } from '../../components/button.tsx';
 import { SafetyNote } from '../../components/safety-note.tsx';
+import { NotificationBell } from '../../features/notifications/components/notification-bell.tsx';
 import { isApiError } from '../../lib/api-client.ts';
 import { meQueryOptions, useMe, useSignOut } from '../../lib/auth.ts';
 import { can } from '../../lib/authorization.ts';
@@ -65,6 +66,9 @@ export function AppLayout() {
             <NavLink to="/" className={() => navClass(location.pathname === '/' || location.pathname.startsWith('/studies/'))}>
               Studies
             </NavLink>
+            <NavLink to="/templates" className={NAV_LINK}>
+              Templates
+            </NavLink>
             <NavLink to="/team" end className={NAV_LINK}>
               Team
             </NavLink>
@@ -73,8 +77,14 @@ export function AppLayout() {
                 Outgoing mail
               </NavLink>
             ) : null}
+            {role === 'owner' ? (
+              <NavLink to="/audit" className={NAV_LINK}>
+                Audit
+              </NavLink>
+            ) : null}
           </nav>
           <div className="ml-auto flex items-center gap-3 text-[13px]">
+            <NotificationBell />
             <span className="text-console-muted">
               Team <span className="font-semibold text-console-ink">{team.name}</span>
             </span>

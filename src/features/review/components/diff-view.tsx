@@ -1,0 +1,201 @@
+import type { RevisionDiff } from '../../../../shared/api/revisions.ts';
+import { formatDelta, formatQuantity, formatValue } from '../utils/format-values.ts';
+import { ResultsCaution } from './results-caution.tsx';
+
+const KIND_LABEL: Record<RevisionDiff['results'][number]['kind'], string> = {
+  'bus-voltage': 'Bus voltage',
+  'neutral-current': 'Neutral current',
+  'neutral-shift': 'Neutral shift',
+  unbalance: 'Unbalance',
+};
+
+const H3 = 'text-[12px] font-semibold uppercase tracking-wide text-ink-muted';
+const TABLE = 'w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted';
+
+function Empty({ children }: { children: string }) {
+  return <p className="text-[13px] text-ink-muted">{children}</p>;
+}
+
+/**
+ * What a reviewer reads first: the change in key results (words and numbers with units), flags
+ * that appeared or cleared, then the model edits element by element and parameter by parameter.
+ */
+export function DiffView({ diff }: { diff: RevisionDiff }) {
+  const { elements } = diff;
+  const same = diff.from === diff.to;
+  const nothing =
+    elements.added.length + elements.removed.length + elements.changed.length + diff.circuit.length + diff.results.length + diff.flags.added.length + diff.flags.removed.length === 0 &&
+    !diff.layoutChanged &&
+    !diff.settingsChanged;
+  return (
+    <div className="flex flex-col gap-4">
+      {same ? <Empty>{`Both sides are revision ${diff.to}: nothing to compare.`}</Empty> : nothing ? <Empty>No differences between these revisions.</Empty> : null}
+
+      {diff.solve.from === 'error' || diff.solve.to === 'error' ? (
+        <div role="status" className="rounded-[3px] border border-danger/50 bg-danger-soft px-3 py-2 text-[13px]">
+          <span aria-hidden="true">✕ </span>
+          {diff.solve.from === 'error' ? <span className="block">Revision {diff.from} does not solve: {diff.solve.fromError ?? 'engine error'}</span> : null}
+          {diff.solve.to === 'error' ? <span className="block">Revision {diff.to} does not solve: {diff.solve.toError ?? 'engine error'}</span> : null}
+        </div>
+      ) : null}
+
+      <section aria-labelledby="diff-results" className="flex flex-col gap-2">
+        <h3 id="diff-results" className={H3}>
+          Results
+        </h3>
+        {diff.results.length === 0 ? (
+          <Empty>No key result changed by more than 0.05 of its unit.</Empty>
+        ) : (
+          <>
+            <ul aria-label="Result changes in words" className="flex flex-col gap-0.5 text-sm">
+              {diff.results.map((r) => (
+                <li key={`${r.kind}:${r.key}`} className="num">
+                  {r.text}
+                </li>
+              ))}
+            </ul>
+            <div className="overflow-x-auto">
+              <table aria-label="Result changes" className={TABLE}>
+                <thead>
+                  <tr>
+                    <th scope="col">Quantity</th>
+                    <th scope="col">Where</th>
+                    <th scope="col" className="text-right">
+                      Revision {diff.from}
+                    </th>
+                    <th scope="col" className="text-right">
+                      Revision {diff.to}
+                    </th>
+                    <th scope="col" className="text-right">
+                      Change
+                    </th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {diff.results.map((r) => (
+                    <tr key={`${r.kind}:${r.key}`}>
+                      <td>{KIND_LABEL[r.kind]}</td>
+                      <td>{r.label}</td>
+                      <td className="num text-right">{r.from === null ? 'absent' : formatQuantity(r.from, r.unit)}</td>
+                      <td className="num text-right">{r.to === null ? 'absent' : formatQuantity(r.to, r.unit)}</td>
+                      <td className="num text-right font-semibold">{formatDelta(r.delta, r.unit)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          </>
+        )}
+        <ResultsCaution />
+      </section>
+
+      <section aria-labelledby="diff-flags" className="flex flex-col gap-1">
+        <h3 id="diff-flags" className={H3}>
+          Flags
+        </h3>
+        {diff.flags.added.length + diff.flags.removed.length === 0 ? (
+          <Empty>No flag appeared or cleared.</Empty>
+        ) : (
+          <ul aria-label="Flag changes" className="flex flex-col gap-0.5 text-sm">
+            {diff.flags.added.map((f) => (
+              <li key={`+${f.key}`} className="text-danger">
+                <span aria-hidden="true">▲ </span>
+                {f.text}
+              </li>
+            ))}
+            {diff.flags.removed.map((f) => (
+              <li key={`-${f.key}`} className="text-ok">
+                <span aria-hidden="true">▽ </span>
+                {f.text}
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+
+      <section aria-labelledby="diff-elements" className="flex flex-col gap-2">
+        <h3 id="diff-elements" className={H3}>
+          Elements
+        </h3>
+        {elements.added.length + elements.removed.length + elements.changed.length === 0 ? <Empty>No element added, removed or changed.</Empty> : null}
+        {elements.added.length > 0 ? (
+          <p className="text-sm">
+            <span className="font-semibold">Added:</span>{' '}
+            {elements.added.map((e, i) => (
+              <span key={e.id}>
+                {i > 0 ? ', ' : ''}
+                <span className="num">{e.id}</span> ({e.type})
+              </span>
+            ))}
+          </p>
+        ) : null}
+        {elements.removed.length > 0 ? (
+          <p className="text-sm">
+            <span className="font-semibold">Removed:</span>{' '}
+            {elements.removed.map((e, i) => (
+              <span key={e.id}>
+                {i > 0 ? ', ' : ''}
+                <span className="num">{e.id}</span> ({e.type})
+              </span>
+            ))}
+          </p>
+        ) : null}
+        {elements.changed.map((e) => (
+          <div key={e.id} className="overflow-x-auto">
+            <table aria-label={`Changes to ${e.id}`} className={TABLE}>
+              <caption className="text-left text-sm font-semibold">
+                <span className="num">{e.id}</span> <span className="font-normal text-ink-muted">({e.type})</span>
+              </caption>
+              <thead>
+                <tr>
+                  <th scope="col">Parameter</th>
+                  <th scope="col">Revision {diff.from}</th>
+                  <th scope="col">Revision {diff.to}</th>
+                </tr>
+              </thead>
+              <tbody>
+                {e.changes.map((c) => (
+                  <tr key={c.path}>
+                    <td className="num">{c.path}</td>
+                    <td className="num">{formatValue(c.from)}</td>
+                    <td className="num">{formatValue(c.to)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        ))}
+      </section>
+
+      {diff.circuit.length > 0 || diff.layoutChanged || diff.settingsChanged ? (
+        <section aria-labelledby="diff-circuit" className="flex flex-col gap-1">
+          <h3 id="diff-circuit" className={H3}>
+            Circuit, layout and settings
+          </h3>
+          {diff.circuit.length > 0 ? (
+            <table aria-label="Circuit changes" className={TABLE}>
+              <thead>
+                <tr>
+                  <th scope="col">Setting</th>
+                  <th scope="col">Revision {diff.from}</th>
+                  <th scope="col">Revision {diff.to}</th>
+                </tr>
+              </thead>
+              <tbody>
+                {diff.circuit.map((c) => (
+                  <tr key={c.path}>
+                    <td className="num">{c.path}</td>
+                    <td className="num">{formatValue(c.from)}</td>
+                    <td className="num">{formatValue(c.to)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          ) : null}
+          {diff.layoutChanged ? <p className="text-[13px] text-ink-muted">The diagram layout changed.</p> : null}
+          {diff.settingsChanged ? <p className="text-[13px] text-ink-muted">The workspace settings changed.</p> : null}
+        </section>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,22 @@
+import type { Role } from '../../../../shared/api/common.ts';
+import { useStudyRecord } from '../api/get-study-record.ts';
+import { AttachmentsPanel } from './attachments-panel.tsx';
+import { circuitElementIds, CommentsPanel } from './comments-panel.tsx';
+import { ReviewPanel } from './review-panel.tsx';
+
+/** The review side of the study page: status and actions, comments, files. Composed beside the workspace by the route. */
+export function StudyReview({ studyId, role, userId, selectedElementId }: { studyId: string; role: Role; userId: string; selectedElementId?: string | null }) {
+  const study = useStudyRecord(studyId);
+  if (!study.data) return null; // the study page shows the loading and error states
+  return (
+    <div className="mx-auto grid w-full max-w-6xl gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
+      <div className="flex min-w-0 flex-col gap-4">
+        <CommentsPanel studyId={studyId} role={role} userId={userId} elementIds={circuitElementIds(study.data.content.circuit)} selectedElementId={selectedElementId} />
+      </div>
+      <div className="flex flex-col gap-4">
+        <ReviewPanel studyId={studyId} role={role} userId={userId} />
+        <AttachmentsPanel studyId={studyId} role={role} userId={userId} />
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,26 @@
+/** Formatting of diff values and result quantities for the review pages. */
+
+/** A changed parameter's value as text: numbers as written, absent as "—", objects as compact JSON. */
+export function formatValue(v: unknown): string {
+  if (v === null || v === undefined) return '—';
+  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : String(v);
+  if (typeof v === 'string') return v === '' ? '""' : v;
+  if (typeof v === 'boolean') return v ? 'true' : 'false';
+  return JSON.stringify(v);
+}
+
+/** A result value with its unit: 1 decimal at 100 or more, else 2 ("83.3 A" from 83.3; "4.27 %"). Null → "—". */
+export function formatQuantity(x: number | null | undefined, unit: string): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+  const digits = Math.abs(x) >= 100 ? 1 : 2;
+  return `${x.toFixed(digits)} ${unit}`;
+}
+
+/** A signed change with its unit ("+71.20 A", "−3.10 V"); a true minus sign so it reads as one. */
+export function formatDelta(x: number | null | undefined, unit: string): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+  const digits = Math.abs(x) >= 100 ? 1 : 2;
+  const body = Math.abs(x).toFixed(digits);
+  if (Number(body) === 0) return `0 ${unit}`;
+  return `${x > 0 ? '+' : '−'}${body} ${unit}`;
+}
