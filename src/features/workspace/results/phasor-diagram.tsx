@@ -39,8 +39,11 @@ export function vectorStyle(v: DiagramVector, standard: WiringStandard, lnRefere
 function Axes({ frame, unit, outerOnly = false }: { frame: ReturnType<typeof layoutVectors>['frame']; unit: string; outerOnly?: boolean }) {
   const { cx, cy, k, padding, size } = frame;
   const ts = ticks(frame);
-  // Tick labels below the real axis, right of centre; a small diagram labels only its outer ring.
-  const labelled = outerOnly ? ts.slice(-1) : ts;
+  // Tick labels below the real axis, right of centre; a small diagram labels only its outer ring,
+  // and long labels (2500, 5000…) skip rings so they never run into each other (~5.5 px per digit at 9 px).
+  const widest = Math.max(...ts.map((t) => formatTick(t).length)) * 5.5 + 6;
+  const every = Math.max(1, Math.ceil(widest / (frame.step * k)));
+  const labelled = outerOnly ? ts.slice(-1) : ts.filter((_, i) => (ts.length - 1 - i) % every === 0);
   return (
     <g aria-hidden="true">
       {ts.map((t) => (

@@ -63,6 +63,9 @@ function FlagRow({ flag }: { flag: Flag }) {
   );
 }
 
+/** A residual in scientific notation, so a tiny one is still shown rather than rounded to 0. */
+const sci = (x: number) => x.toExponential(2).replace(/-/g, '−');
+
 /** Power totals and the balance check: source = load + faults + losses, residual shown. */
 export function PowerSummary({ result }: { result: CircuitResult }) {
   const t = result.totals;
@@ -103,10 +106,10 @@ export function PowerSummary({ result }: { result: CircuitResult }) {
       <p className="mt-1 text-[12px]">
         Check, source = load + faults + losses: residual{' '}
         <span className="num">
-          {formatMagnitude(t.powerBalanceResidual.re)} W, {formatMagnitude(t.powerBalanceResidual.im)} var
+          {sci(t.powerBalanceResidual.re)} W, {sci(t.powerBalanceResidual.im)} var
         </span>{' '}
         {ok ? <span className="font-semibold text-ok">✓ balanced</span> : <span className="font-semibold text-danger">✕ does not balance: check the model</span>}. Largest KCL residual{' '}
-        <span className="num">{formatValue(t.maxKclResidualAmps, 'A')}</span>.
+        <span className="num">{sci(t.maxKclResidualAmps)} A</span>.
       </p>
     </section>
   );
