@@ -52,7 +52,8 @@ describe('signed-in layout', () => {
     const meCalls = api.calls.filter((c) => c.url.pathname === '/api/auth/me').length;
     await router.navigate('/sign-in');
     await waitFor(() => expect(router.state.location.pathname).toBe('/'));
-    expect(screen.getByRole('heading', { name: 'Studies' })).toBeInTheDocument();
+    expect(await screen.findByRole('heading', { name: 'Studies' })).toBeInTheDocument();
+    expect(screen.queryByRole('heading', { name: 'Sign in to Wyeward' })).not.toBeInTheDocument();
     // Decided from the cache, without asking the server again.
     expect(api.calls.filter((c) => c.url.pathname === '/api/auth/me').length).toBe(meCalls);
   });

@@ -32,7 +32,7 @@ export function DemoAccounts({ onUse }: { onUse: (email: string, password: strin
                 <span>{ROLE_HINT[a.role]}</span>
               </p>
             </div>
-            <Button size="sm" variant="ghost" aria-label={`Use the ${a.role} account ${a.email}`} onClick={() => onUse(a.email, a.password)}>
+            <Button size="sm" variant="ghost" aria-label={`Use this account: ${a.email} (${a.role})`} onClick={() => onUse(a.email, a.password)}>
               Use this account
             </Button>
           </li>

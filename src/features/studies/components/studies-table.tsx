@@ -72,7 +72,7 @@ function buildColumns(actions: StudyRowActions) {
         return (
           <div className="flex justify-end gap-1">
             {study.isTemplate ? (
-              <Button size="sm" variant="primary" busy={busy} busyText="Starting…" aria-label={`Start a new study from template ${study.name}`} onClick={() => actions.onClone(study)}>
+              <Button size="sm" variant="primary" busy={busy} busyText="Starting…" aria-label={`Start from template ${study.name}`} onClick={() => actions.onClone(study)}>
                 Start from template
               </Button>
             ) : (

@@ -78,7 +78,7 @@ describe('sign-in page', () => {
     const user = userEvent.setup();
     renderApp('/sign-in');
 
-    await user.click(await screen.findByRole('button', { name: 'Use the engineer account engineer@wyeward.test' }));
+    await user.click(await screen.findByRole('button', { name: 'Use this account: engineer@wyeward.test (engineer)' }));
     expect(screen.getByLabelText('E-mail')).toHaveValue('engineer@wyeward.test');
     expect(screen.getByLabelText('Password')).toHaveValue('wyeward-demo');
     await user.click(screen.getByRole('button', { name: 'Sign in' }));
@@ -100,7 +100,7 @@ describe('sign-in page', () => {
     });
     const user = userEvent.setup();
     const { router } = renderApp('/sign-in?next=%2Fteam');
-    await user.click(await screen.findByRole('button', { name: 'Use the owner account owner@wyeward.test' }));
+    await user.click(await screen.findByRole('button', { name: 'Use this account: owner@wyeward.test (owner)' }));
     await user.click(screen.getByRole('button', { name: 'Sign in' }));
     expect(await screen.findByRole('heading', { name: 'Harrowgate Works' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe('/team');
@@ -112,6 +112,6 @@ describe('sign-in page', () => {
     expect(await screen.findByRole('heading', { name: 'Sign in to Wyeward' })).toBeInTheDocument();
     await waitFor(() => expect(queryClient.getQueryState(['auth', 'demo'])?.status).toBe('success'));
     expect(screen.queryByRole('heading', { name: 'Demo accounts' })).not.toBeInTheDocument();
-    expect(screen.queryByRole('button', { name: /Use the/ })).not.toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: /Use this account/ })).not.toBeInTheDocument();
   });
 });

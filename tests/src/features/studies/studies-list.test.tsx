@@ -49,7 +49,7 @@ describe('studies list', () => {
     expect(rowNames()).toEqual(['Brindle Lane open neutral', 'Apsley feeder unbalance', 'Corve substation delta–wye bank']);
     const templateRow = screen.getByRole('link', { name: 'Corve substation delta–wye bank' }).closest('tr')!;
     expect(within(templateRow).getByText('Template')).toBeInTheDocument();
-    expect(within(templateRow).getByRole('button', { name: 'Start a new study from template Corve substation delta–wye bank' })).toBeInTheDocument();
+    expect(within(templateRow).getByRole('button', { name: 'Start from template Corve substation delta–wye bank' })).toBeInTheDocument();
     const plainRow = screen.getByRole('link', { name: 'Apsley feeder unbalance' }).closest('tr')!;
     expect(within(plainRow).queryByText('Template')).not.toBeInTheDocument();
     expect(within(plainRow).getByText('Approved')).toBeInTheDocument();
@@ -140,7 +140,7 @@ describe('studies list', () => {
     expect(screen.getByText(new RegExp(`^${role}$`, 'i'))).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'New study' })).not.toBeInTheDocument();
     expect(screen.queryByRole('button', { name: /^Clone / })).not.toBeInTheDocument();
-    expect(screen.queryByRole('button', { name: /^Start a new study/ })).not.toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: /^Start from template/ })).not.toBeInTheDocument();
     expect(screen.queryByRole('button', { name: /^Delete / })).not.toBeInTheDocument();
     // The template is still recognisable to them.
     const templateRow = screen.getByRole('link', { name: 'Corve substation delta–wye bank' }).closest('tr')!;

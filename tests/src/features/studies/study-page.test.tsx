@@ -1,6 +1,6 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../../../shared/api/common.ts';
 import type { CircuitEnvelope, StudyDetail } from '../../../../shared/api/studies.ts';
 import { apiError, stubApi, type Handler } from '../../helpers/fake-api.ts';
@@ -25,8 +25,13 @@ function setup(role: Role, study: StudyDetail, patch?: Handler) {
     ...(patch ? { 'PATCH /api/studies/:id': patch } : {}),
     'GET /api/studies': () => ({ body: { items: [], total: 0, page: 1, pageSize: 20 } }),
   });
-  return { api, ...renderApp(`/studies/${study.id}`) };
+  return { api, ...renderApp(`/studies/${study.id}/details`) };
 }
+
+// The page is a lazy route: load its module once up front so each test measures behaviour, not the first import.
+beforeAll(async () => {
+  await import('../../../../src/app/routes/study.tsx');
+});
 
 describe('study page', () => {
   it('shows the record and the content summary of the circuit, with units', async () => {
@@ -116,7 +121,7 @@ describe('study page', () => {
       'GET /api/auth/me': () => ({ body: me('owner') }),
       'GET /api/studies/:id': () => apiError(404, 'not-found', 'Study not found'),
     });
-    renderApp('/studies/00000000-0000-4000-8000-000000000404');
+    renderApp('/studies/00000000-0000-4000-8000-000000000404/details');
     expect(await screen.findByText('Study not found.')).toBeInTheDocument();
   });
 });

@@ -1,6 +1,6 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../../../shared/api/common.ts';
 import type { TeamResponse } from '../../../../shared/api/team.ts';
 import { apiError, stubApi, type Handler } from '../../helpers/fake-api.ts';
@@ -29,6 +29,11 @@ function setup(role: Role, extra: Record<string, Handler> = {}) {
   });
   return { api, ...renderApp('/team') };
 }
+
+// The page is a lazy route: load its module once up front so each test measures behaviour, not the first import.
+beforeAll(async () => {
+  await import('../../../../src/app/routes/team.tsx');
+});
 
 describe('team page', () => {
   it('lets an owner change roles and shows the last-owner refusal in plain words', async () => {
