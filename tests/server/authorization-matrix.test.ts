@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Db } from '../../server/db/index.ts';
 import { invites } from '../../server/db/schema.ts';
 import { hashInviteToken } from '../../server/services/invites-token.ts';
+import { demoCircuits } from '../../shared/engine/index.ts';
 import { makeApp, makeStudy, makeTeam, makeUser, PASSWORD, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -24,6 +25,12 @@ const people = {} as Record<Exclude<Caller, 'anonymous'>, { id: string; email: s
 const agents = {} as Record<Caller, TestAgent>;
 let studyA: string;
 let mailA: string;
+/** A study of team A made through the API, with two revisions, a comment and an attachment. */
+let studyR: string;
+let attachmentR: string;
+
+const circuitA = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+const PDF = Buffer.from('%PDF-1.4\n%%EOF\n');
 
 beforeAll(async () => {
   db = await openTestDb();
@@ -35,6 +42,34 @@ beforeAll(async () => {
   for (const c of CALLERS) agents[c] = c === 'anonymous' ? request.agent(t.app) : await signedIn(t.app, people[c].email);
   studyA = (await makeStudy(db, teamA, people.engineer.id, 'Team A feeder study')).id;
   mailA = await t.mailer.send({ teamId: teamA, to: 'someone@example.test', subject: 'Team A message', text: 'hello' });
+  const r = await apiStudy();
+  studyR = r.id;
+  await agents.engineer.patch(`/api/studies/${studyR}`).send({ version: 1, content: { circuit: { ...circuitA, frequencyHz: 50 } } });
+  attachmentR = (await agents.engineer.post(`/api/studies/${studyR}/attachments`).attach('file', PDF, 'a.pdf')).body.id;
+});
+
+/** A new study of team A through the API (so it has revision 1), by the engineer. */
+async function apiStudy(): Promise<{ id: string; version: number }> {
+  const res = await agents.engineer.post('/api/studies').send({ name: `Matrix ${randomUUID().slice(0, 6)}`, content: { circuit: circuitA } });
+  if (res.status !== 201) throw new Error(JSON.stringify(res.body));
+  return res.body;
+}
+
+/** A study submitted for review by the engineer, with the reviewer chosen. */
+async function inReview(): Promise<string> {
+  const { id } = await apiStudy();
+  const res = await agents.engineer.post(`/api/studies/${id}/review`).send({ action: 'request', reviewers: [people.reviewer.id] });
+  if (res.status !== 200) throw new Error(JSON.stringify(res.body));
+  return id;
+}
+
+/** A comment by the reviewer on studyR. */
+async function reviewerComment(): Promise<string> {
+  return (await agents.reviewer.post(`/api/studies/${studyR}/comments`).send({ body: 'matrix comment' })).body.id;
+}
+
+afterAll(async () => {
+  await t.mailer.close();
 });
 
 afterAll(async () => {
@@ -142,6 +177,78 @@ const rows: Row[] = [
   { name: 'GET /api/mail', expect: m(200, 403, 403, 403, 200), send: (a) => a.get('/api/mail') },
   { name: 'GET /api/mail/:id', expect: m(200, 403, 403, 403, 404), send: (a) => a.get(`/api/mail/${mailA}`) },
   { name: 'GET /api/audit', expect: m(200, 403, 403, 403, 200), send: (a) => a.get('/api/audit') },
+  { name: 'GET /api/studies/:id/revisions', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/revisions`) },
+  {
+    name: 'POST /api/studies/:id/revisions',
+    expect: m(201, 201, 403, 403, 404),
+    send: async (a) => {
+      const s = await apiStudy();
+      return a.post(`/api/studies/${s.id}/revisions`).send({ version: s.version, content: { circuit: { ...circuitA, frequencyHz: 50 } }, message: 'm' });
+    },
+  },
+  { name: 'GET /api/studies/:id/revisions/:n', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/revisions/1`) },
+  {
+    name: 'POST /api/studies/:id/revisions/:n/restore',
+    expect: m(201, 201, 403, 403, 404),
+    send: async (a) => {
+      const s = await apiStudy();
+      await agents.engineer.patch(`/api/studies/${s.id}`).send({ version: 1, content: { circuit: { ...circuitA, frequencyHz: 50 } } });
+      return a.post(`/api/studies/${s.id}/revisions/1/restore`).send({ version: 2 });
+    },
+  },
+  { name: 'GET /api/studies/:id/diff', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/diff?from=1&to=2`) },
+  { name: 'GET /api/studies/:id/review', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/review`) },
+  {
+    name: 'POST /api/studies/:id/review (request)',
+    expect: m(200, 200, 403, 403, 404),
+    send: async (a) => a.post(`/api/studies/${(await apiStudy()).id}/review`).send({ action: 'request', reviewers: [people.reviewer.id] }),
+  },
+  {
+    name: 'POST /api/studies/:id/review (approve)',
+    expect: m(200, 403, 200, 403, 404),
+    send: async (a) => a.post(`/api/studies/${await inReview()}/review`).send({ action: 'approve' }),
+  },
+  {
+    name: 'POST /api/studies/:id/review (request-changes)',
+    expect: m(200, 403, 200, 403, 404),
+    send: async (a) => a.post(`/api/studies/${await inReview()}/review`).send({ action: 'request-changes', message: 'more data' }),
+  },
+  { name: 'GET /api/studies/:id/comments', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/comments`) },
+  { name: 'POST /api/studies/:id/comments', expect: m(201, 201, 201, 403, 404), send: (a) => a.post(`/api/studies/${studyR}/comments`).send({ body: 'Looks fine' }) },
+  {
+    name: 'PATCH /api/studies/:id/comments/:commentId (resolve)',
+    expect: m(200, 200, 200, 403, 404),
+    send: async (a) => a.patch(`/api/studies/${studyR}/comments/${await reviewerComment()}`).send({ resolved: true }),
+  },
+  {
+    name: 'DELETE /api/studies/:id/comments/:commentId (the reviewer\'s)',
+    expect: m(204, 403, 204, 403, 404),
+    send: async (a) => a.delete(`/api/studies/${studyR}/comments/${await reviewerComment()}`),
+  },
+  { name: 'GET /api/notifications', expect: m(200, 200, 200, 200, 200), send: (a) => a.get('/api/notifications') },
+  { name: 'POST /api/notifications/read', expect: m(200, 200, 200, 200, 200), send: (a) => a.post('/api/notifications/read').send({}) },
+  { name: 'GET /api/templates', expect: m(200, 200, 200, 200, 200), send: (a) => a.get('/api/templates') },
+  { name: 'GET /api/studies/:id/attachments', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/attachments`) },
+  {
+    name: 'POST /api/studies/:id/attachments',
+    expect: m(201, 201, 201, 403, 404),
+    send: (a) => a.post(`/api/studies/${studyR}/attachments`).attach('file', PDF, 'notes.pdf'),
+  },
+  { name: 'GET /api/studies/:id/attachments/:attachmentId', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/attachments/${attachmentR}`) },
+  {
+    name: "DELETE /api/studies/:id/attachments/:attachmentId (the engineer's)",
+    expect: m(204, 204, 403, 403, 404),
+    send: async (a) => {
+      const up = await agents.engineer.post(`/api/studies/${studyR}/attachments`).attach('file', PDF, 'del.pdf');
+      return a.delete(`/api/studies/${studyR}/attachments/${up.body.id}`);
+    },
+  },
+  { name: 'GET /api/studies/:id/export', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/export`) },
+  {
+    name: 'POST /api/studies/import',
+    expect: m(201, 201, 403, 403, 201),
+    send: (a) => a.post('/api/studies/import').send({ format: 'wyeward-study', version: 1, name: 'Imported', circuit: circuitA }),
+  },
   { name: 'GET /api/no-such-route', expect: all(404), send: (a) => a.get('/api/no-such-route') },
 ];
 
@@ -200,6 +307,14 @@ describe('another team', () => {
       (a: TestAgent) => a.patch('/api/studies/not-a-uuid').send({ version: 1 }),
       (a: TestAgent) => a.delete('/api/studies/not-a-uuid'),
       (a: TestAgent) => a.post('/api/studies/not-a-uuid/clone').send({}),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/revisions'),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/diff'),
+      (a: TestAgent) => a.post('/api/studies/not-a-uuid/review').send({ action: 'approve' }),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/comments'),
+      (a: TestAgent) => a.patch(`/api/studies/${studyR}/comments/not-a-uuid`).send({ resolved: true }),
+      (a: TestAgent) => a.get(`/api/studies/${studyR}/attachments/not-a-uuid`),
+      (a: TestAgent) => a.post('/api/studies/not-a-uuid/attachments').attach('file', PDF, 'x.pdf'),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/export'),
     ]) {
       const res = await send(agents.owner);
       expect(res.status).toBe(404);
