@@ -73,6 +73,16 @@ function compareCircuits(mine: CircuitInput, theirs: CircuitInput): ConflictSumm
   };
 }
 
+/** What saving would store, as a string (node positions rounded as the layout stores them). */
+const keyCache = new WeakMap<Doc, string>();
+function docKey(d: Doc): string {
+  const hit = keyCache.get(d);
+  if (hit !== undefined) return hit;
+  const key = JSON.stringify([canvasToCircuit(d.nodes, d.edges, d.settings).circuit, canvasLayout(d.nodes, d.edges, d.settings)]);
+  keyCache.set(d, key);
+  return key;
+}
+
 function inField(target: EventTarget | null): boolean {
   const el = target as HTMLElement | null;
   return !!el && (el.tagName === 'INPUT' || el.tagName === 'TEXTAREA' || el.tagName === 'SELECT' || el.isContentEditable);
@@ -98,9 +108,10 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
   const rf = useReactFlow<WorkspaceNode, WorkspaceEdge>();
   const [hist, dispatch] = useReducer(historyReducer<Doc>, study, (s) => initHistory(docOf(s)));
   const doc = hist.present;
-  const [savedDoc, setSavedDoc] = useState<Doc>(hist.present);
+  const [savedKey, setSavedKey] = useState(() => docKey(hist.present));
   const [baseVersion, setBaseVersion] = useState(study.version);
-  const dirty = doc !== savedDoc && !readOnly;
+  // Dirty means the saved content would differ: selection and measuring do not count, positions do.
+  const dirty = !readOnly && docKey(doc) !== savedKey;
   const [snap, setSnap] = useState(true);
   const [dialog, setDialog] = useState<null | 'save' | 'settings' | 'help'>(null);
   const [theirs, setTheirs] = useState<StudyDetail | null>(null);
@@ -140,32 +151,46 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
     return out;
   }, [conversion, live.status, live.error]);
 
+  const shifts = useMemo(() => {
+    const out: CanvasView['shifts'] = {};
+    if (!live.result) return out;
+    const byBus = new Map(live.result.buses.map((b) => [b.bus, b] as const));
+    for (const el of circuit.elements) {
+      if (el.type !== 'transformer') continue;
+      const hv = byBus.get(el.from)?.lineToNeutral.a;
+      const lv = byBus.get(el.to)?.lineToNeutral.a;
+      if (!hv || !lv || hv.mag === 0 || lv.mag === 0) continue;
+      const stated = live.result.elements[el.id]?.phaseShift;
+      out[el.id] = { measuredDeg: ((((lv.angleDeg - hv.angleDeg + 180) % 360) + 360) % 360) - 180, lvLagsHvDeg: stated?.lvLagsHvDeg, convention: stated?.convention, vectorGroup: stated?.vectorGroup };
+    }
+    return out;
+  }, [live.result, circuit]);
+
   const view = useMemo<CanvasView>(
     () => ({
       readOnly,
+      shifts,
       wiringStandard: doc.settings.wiringStandard,
       overlays,
       problems,
       busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
     }),
-    [readOnly, doc.settings.wiringStandard, overlays, problems, conversion.map],
+    [readOnly, shifts, doc.settings.wiringStandard, overlays, problems, conversion.map],
   );
 
   // ---- canvas changes ----
   const onNodesChange = useCallback(
     (changes: NodeChange<WorkspaceNode>[]) => {
-      const cur = docRef.current;
       const editable = changes.filter((c) => c.type !== 'remove' && (!readOnly || c.type === 'select' || c.type === 'dimensions'));
       if (editable.length === 0) return;
-      dispatch({ type: 'replace', next: { ...cur, nodes: applyNodeChanges(editable, cur.nodes) } });
+      dispatch({ type: 'update', fn: (cur) => ({ ...cur, nodes: applyNodeChanges(editable, cur.nodes) }) });
     },
     [readOnly],
   );
   const onEdgesChange = useCallback((changes: EdgeChange<WorkspaceEdge>[]) => {
-    const cur = docRef.current;
     const selects = changes.filter((c) => c.type === 'select');
     if (selects.length === 0) return;
-    dispatch({ type: 'replace', next: { ...cur, edges: applyEdgeChanges(selects, cur.edges) } });
+    dispatch({ type: 'update', fn: (cur) => ({ ...cur, edges: applyEdgeChanges(selects, cur.edges) }) });
   }, []);
 
   /** Element end, port and bus end of a proposed connection, or a reason it cannot be made. */
@@ -191,7 +216,7 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
       if (!r) return;
       const cur = docRef.current;
       const id = wireId(r.element.id, r.port);
-      const edge: WorkspaceEdge = { id, type: 'wire', source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
+      const edge: WorkspaceEdge = { id, type: 'wire', ariaLabel: `Connection ${r.element.id} to bus ${r.bus.data.name}`, source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
       commit({ ...cur, edges: [...cur.edges.filter((e) => e.id !== id), edge] });
     },
     [readOnly, resolveConnection, commit],
@@ -339,7 +364,7 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
         { version, content: content(snapshot), ...(message ? { message } : {}) },
         {
           onSuccess: (saved) => {
-            setSavedDoc(snapshot);
+            setSavedKey(docKey(snapshot));
             setBaseVersion(saved.version);
             setDialog(null);
             setTheirs(null);
@@ -366,7 +391,7 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
     if (!theirs) return;
     const next = docOf(theirs);
     dispatch({ type: 'reset', next });
-    setSavedDoc(next);
+    setSavedKey(docKey(next));
     setBaseVersion(theirs.version);
     setTheirs(null);
   }, [theirs]);

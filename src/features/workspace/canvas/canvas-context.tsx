@@ -13,6 +13,8 @@ export interface CanvasView {
   overlays: DiagramOverlays | null;
   /** Canvas node id → messages to show beside it (unwired ports, engine errors naming it). */
   problems: Record<string, string[]>;
+  /** Transformer id → the shift its convention states and the measured angle of LV V_AN minus HV V_AN, degrees. */
+  shifts: Record<string, { lvLagsHvDeg?: number; convention?: 'iec' | 'northAmerican'; vectorGroup?: string; measuredDeg: number }>;
   /** Canvas node id → bus names whose results belong to it (its own and private terminal buses). */
   busNamesOf: (nodeId: string) => string[];
 }
@@ -22,6 +24,7 @@ export const CanvasViewContext = createContext<CanvasView>({
   wiringStandard: 'north-american',
   overlays: null,
   problems: {},
+  shifts: {},
   busNamesOf: () => [],
 });
 

@@ -8,7 +8,7 @@ import { memo } from 'react';
 import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { elementPorts, type PortSide } from '../model/ports.ts';
 import type { ElementNode } from '../model/types.ts';
-import { useCanvasView } from './canvas-context.tsx';
+import { useCanvasView, type CanvasView } from './canvas-context.tsx';
 import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
 
 const POSITION: Record<PortSide, Position> = { top: Position.Top, bottom: Position.Bottom, left: Position.Left, right: Position.Right };
@@ -84,6 +84,7 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
       <div className="pointer-events-none absolute left-[68px] top-2 w-max max-w-[150px] text-[11px] leading-tight">
         <div className="num font-semibold text-ink">{id}</div>
         <div className="num text-ink-muted">{elementSummary(el)}</div>
+        {view.shifts[id] !== undefined ? <ShiftNote shift={view.shifts[id]} /> : null}
         {ov?.loadingPercent !== undefined ? <div className="num text-ink-muted">{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
         {flag ? (
           <div className={`font-semibold ${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
@@ -101,3 +102,20 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
     </div>
   );
 });
+
+function ShiftNote({ shift }: { shift: CanvasView['shifts'][string] }) {
+  const m = shift.measuredDeg;
+  return (
+    <div className="num text-ink">
+      {shift.lvLagsHvDeg !== undefined ? (
+        <div title={shift.convention === 'iec' ? `IEC clock number (${shift.vectorGroup})` : 'North American rule (IEEE C57.12.00)'}>
+          LV lags HV {shift.lvLagsHvDeg}° ({shift.convention === 'iec' ? shift.vectorGroup : 'N. Am.'})
+        </div>
+      ) : null}
+      <div title="Measured: angle of the LV phase-A line-to-neutral voltage minus that of the HV side, under load">
+        V<sub>AN</sub> LV−HV {m > 0 ? '+' : m < 0 ? '−' : ''}
+        {Math.abs(m).toFixed(1)}°
+      </div>
+    </div>
+  );
+}

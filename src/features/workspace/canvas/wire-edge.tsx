@@ -43,7 +43,7 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
         {open.length > 0 || currents.length > 0 ? (
           <div
             className="nodrag nopan num pointer-events-none absolute rounded-[2px] border border-rule bg-panel/95 px-1 text-[10px] leading-tight"
-            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${ly}px)` }}
+            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${(ly + sourceY) / 2}px)` }}
           >
             {open.length > 0 ? (
               <div className="font-semibold text-danger">{open.map((c) => phaseStyle(c, view.wiringStandard).label).join(', ')} open</div>

@@ -13,6 +13,7 @@ export interface History<T> {
 export type HistoryAction<T> =
   | { type: 'commit'; next: T }
   | { type: 'replace'; next: T }
+  | { type: 'update'; fn: (present: T) => T }
   | { type: 'undo' }
   | { type: 'redo' }
   | { type: 'reset'; next: T }
@@ -33,6 +34,11 @@ export function historyReducer<T>(h: History<T>, a: HistoryAction<T>): History<T
       return { past: [...h.past, h.present].slice(-HISTORY_LIMIT), present: a.next, future: [] };
     case 'replace':
       return a.next === h.present ? h : { ...h, present: a.next };
+    case 'update': {
+      // For changes that arrive together in one event (selection of an edge and of nodes): each sees the last.
+      const next = a.fn(h.present);
+      return next === h.present ? h : { ...h, present: next };
+    }
     case 'mark':
       if (a.before === h.present) return h;
       return { past: [...h.past, a.before].slice(-HISTORY_LIMIT), present: h.present, future: [] };

@@ -7,7 +7,7 @@
 import { elementPorts } from './ports.ts';
 import { isBusNode, isElementNode, type WorkspaceEdge, type WorkspaceNode } from './types.ts';
 
-export const TIER_PX = 330;
+export const TIER_PX = 260;
 export const SLOT_PX = 130;
 const BUS_MIN_PX = 280;
 
@@ -82,10 +82,10 @@ export function autoLayout(nodes: WorkspaceNode[], edges: WorkspaceEdge[], posit
     const hanging = below.get(busId) ?? [];
     const width = Math.max(BUS_MIN_PX, hanging.length * SLOT_PX + 40, (above.get(busId) ?? []).length * SLOT_PX + 40);
     rowCursor.set(t, x + width + 60);
-    (above.get(busId) ?? []).forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y - 150 }));
+    (above.get(busId) ?? []).forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y - 120 }));
     // Series elements last in the row, so their far buses line up under them.
     const sorted = [...hanging].sort((a, b) => Number(downstream.get(busId)?.some((d) => d.element === a) ?? false) - Number(downstream.get(busId)?.some((d) => d.element === b) ?? false));
-    sorted.forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y + 90 }));
+    sorted.forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y + 80 }));
     for (const d of downstream.get(busId) ?? []) {
       const ex = pos.get(d.element)?.x ?? x;
       if ((tier.get(d.bus) ?? 0) > t) place(d.bus, ex - 20);

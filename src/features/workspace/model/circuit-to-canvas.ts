@@ -152,7 +152,7 @@ export function circuitToCanvas(circuit: CircuitInput, layout?: WorkspaceLayout 
       if (el.type === 'line' && port.id === 'from') open = lineOpen;
       const id = wireId(el.id, port.id);
       const handle = conductor ?? stored[id]?.busHandle ?? (port.side === 'bottom' ? 'all' : 'allb');
-      edges.push({ id, type: 'wire', source: el.id, sourceHandle: port.id, target: busNodeId(realBus), targetHandle: handle, data: { open } });
+      edges.push({ id, type: 'wire', ariaLabel: `Connection ${el.id} to bus ${realBus}`, source: el.id, sourceHandle: port.id, target: busNodeId(realBus), targetHandle: handle, data: { open } });
     }
   }
 

@@ -24,6 +24,11 @@ describe('historyReducer', () => {
     expect(run(h, { type: 'undo' }).present).toBe('a');
   });
 
+  it('update applies each change to the latest present (two changes from one event both land)', () => {
+    const h = run(initHistory('a'), { type: 'update', fn: (s) => `${s}+edge` }, { type: 'update', fn: (s) => `${s}+nodes` });
+    expect(h).toEqual({ past: [], present: 'a+edge+nodes', future: [] });
+  });
+
   it('keeps at most HISTORY_LIMIT entries and resets to a fresh history', () => {
     let h = initHistory('0');
     for (let i = 1; i <= HISTORY_LIMIT + 5; i++) h = historyReducer(h, { type: 'commit', next: String(i) });
