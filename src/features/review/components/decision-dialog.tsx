@@ -34,7 +34,7 @@ export function DecisionDialog({ studyId, kind, revision, open, onClose }: { stu
           value={message}
           onChange={(e) => setMessage(e.target.value)}
           maxLength={5000}
-          required={!approve}
+          aria-required={!approve}
           error={tried && missing ? 'Say what should change' : action.isError ? action.error && 'fields' in action.error ? (action.error as { fields: Record<string, string> }).fields.message : undefined : undefined}
         />
         {action.isError ? <Notice tone="error" title={approve ? 'Could not approve.' : 'Could not request changes.'}>{action.error.message}</Notice> : null}
