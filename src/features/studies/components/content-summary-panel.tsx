@@ -1,8 +1,9 @@
+import { Link } from 'react-router';
 import { formatVolts, plural } from '../../../lib/format.ts';
 import { summarizeCircuit } from '../utils/content-summary.ts';
 
 /** What the study's circuit holds: element counts by type, buses, nominal voltages and frequency. */
-export function ContentSummaryPanel({ circuit }: { circuit: unknown }) {
+export function ContentSummaryPanel({ circuit, workspaceHref }: { circuit: unknown; workspaceHref?: string }) {
   const s = summarizeCircuit(circuit);
   return (
     <section aria-labelledby="summary-title" className="rounded-[4px] border border-rule bg-panel">
@@ -71,7 +72,15 @@ export function ContentSummaryPanel({ circuit }: { circuit: unknown }) {
         </ul>
       ) : null}
       <p className="border-t border-rule px-4 py-2 text-[12px] text-ink-muted">
-        The diagram workspace, where this circuit is drawn and solved, arrives in a later version. {plural(s.elementCount, 'element')} stored.
+        {plural(s.elementCount, 'element')} stored.{' '}
+        {workspaceHref ? (
+          <>
+            <Link to={workspaceHref} className="font-semibold text-accent underline underline-offset-2">
+              Open the diagram workspace
+            </Link>{' '}
+            to draw and solve it.{' '}
+          </>
+        ) : null}
         When solved, Wyeward states phasors as RMS magnitude∠degrees with earth as the reference node, and complex power as
         S = V·I* in load convention (Q &gt; 0 lagging).
       </p>

@@ -125,7 +125,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
         </section>
       </div>
 
-      <ContentSummaryPanel circuit={s.content.circuit} />
+      <ContentSummaryPanel circuit={s.content.circuit} workspaceHref={`/studies/${s.id}`} />
 
       <ConfirmDialog
         open={confirmDelete}

@@ -55,6 +55,7 @@ describe('study page', () => {
     expect(within(summary).getByText('Panel · Yard')).toBeInTheDocument();
     const byType = within(summary).getByRole('table');
     expect(within(byType).getAllByRole('row').slice(1).map((r) => r.textContent)).toEqual(['load2', 'source1']);
+    expect(within(summary).getByRole('link', { name: 'Open the diagram workspace' })).toHaveAttribute('href', `/studies/${s.id}`);
     // A viewer reads only.
     expect(screen.queryByRole('button', { name: 'Edit details' })).not.toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Delete' })).not.toBeInTheDocument();
