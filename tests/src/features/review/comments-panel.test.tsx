@@ -1,0 +1,85 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { describe, expect, it } from 'vitest';
+import type { Role } from '../../../../shared/api/common.ts';
+import type { Comment } from '../../../../shared/api/comments.ts';
+import { CommentsPanel } from '../../../../src/features/review/components/comments-panel.tsx';
+import { stubApi, type Handler } from '../../helpers/fake-api.ts';
+import { comment, ENGINEER, REVIEWER, SELF, STUDY_ID, team } from './review-fixtures.ts';
+import { renderReview } from './render-review.tsx';
+
+function setup(role: Role, items: Comment[], handlers: Record<string, Handler> = {}) {
+  const api = stubApi({
+    'GET /api/studies/:id/comments': () => ({ body: { items } }),
+    'GET /api/team': () => ({ body: team() }),
+    ...handlers,
+  });
+  renderReview(<CommentsPanel studyId={STUDY_ID} role={role} userId={SELF.id} elementIds={['SRC', 'DROP', 'LOAD-A']} />);
+  return api;
+}
+
+describe('comments', () => {
+  it('renders a <script> body as text, keeps line breaks, and shows the anchor', async () => {
+    const hostile = '<script>window.__pwned = 1</script>\n<img src=x onerror="alert(1)">\nsecond line';
+    setup('reviewer', [comment({ body: hostile, anchor: { elementId: 'DROP' } })]);
+    const thread = await screen.findByRole('listitem', { name: /Thread by Dilys Arkwright, Element DROP/ });
+    const body = within(thread).getByText((_, el) => el?.tagName === 'P' && el.textContent === hostile);
+    expect(body).toHaveClass('whitespace-pre-wrap');
+    expect(thread.querySelector('script')).toBeNull();
+    expect(thread.querySelector('img')).toBeNull();
+    expect((window as unknown as { __pwned?: number }).__pwned).toBeUndefined();
+    expect(within(thread).getByText('Element DROP')).toBeInTheDocument();
+  });
+
+  it('groups replies under their thread, marks resolved threads, and shows deleted comments as such', async () => {
+    setup('viewer', [
+      comment({ id: 'r1', body: 'Neutral current looks high at the house.', anchor: { resultRow: { table: 'neutral-currents', key: 'DROP@HOUSE' } } }),
+      comment({ id: 'r2', parentId: 'r1', author: ENGINEER, body: 'Fixed in revision 3.' }),
+      comment({ id: 'r3', body: '', deleted: true, resolved: true, resolvedBy: REVIEWER }),
+    ]);
+    const threads = await screen.findAllByRole('listitem');
+    expect(threads).toHaveLength(2);
+    expect(threads[0]).toHaveAccessibleName('Thread by Dilys Arkwright, Result neutral-currents: DROP@HOUSE');
+    expect(within(threads[0]).getByRole('article', { name: 'Comment by Oskar Penhale' })).toHaveTextContent('Fixed in revision 3.');
+    expect(threads[1]).toHaveTextContent('Resolved by Dilys Arkwright');
+    expect(threads[1]).toHaveTextContent('Comment deleted.');
+    // Viewers read only.
+    expect(screen.queryByRole('form', { name: 'New comment' })).not.toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: /Reply|Resolve|Edit|Delete/ })).not.toBeInTheDocument();
+  });
+
+  it('posts a comment pinned to the chosen element and names who will be notified', async () => {
+    const posted: unknown[] = [];
+    setup('reviewer', [], {
+      'POST /api/studies/:id/comments': (req) => {
+        posted.push(req.body);
+        return { status: 201, body: comment({ body: String((req.body as { body: string }).body) }) };
+      },
+    });
+    const user = userEvent.setup();
+    const form = await screen.findByRole('form', { name: 'New comment' });
+    await user.type(within(form).getByLabelText('New comment'), '@oskar the neutral is open here');
+    expect(await within(form).findByText('Will notify: Oskar Penhale')).toBeInTheDocument();
+    await user.selectOptions(within(form).getByLabelText('Pin to element'), 'DROP');
+    await user.click(within(form).getByRole('button', { name: 'Post comment' }));
+    await waitFor(() => expect(posted).toEqual([{ body: '@oskar the neutral is open here', anchor: { elementId: 'DROP' } }]));
+  });
+
+  it('offers edit on own comments only, and resolve on threads to reviewers', async () => {
+    const patched: unknown[] = [];
+    setup('reviewer', [comment({ id: 'mine', author: SELF, body: 'Mine' }), comment({ id: 'theirs', author: ENGINEER, body: 'Theirs' })], {
+      'PATCH /api/studies/:id/comments/:cid': (req) => {
+        patched.push([req.url.pathname.split('/').pop(), req.body]);
+        return { body: comment({ id: 'theirs', resolved: true }) };
+      },
+    });
+    const user = userEvent.setup();
+    const mine = await screen.findByRole('article', { name: 'Comment by Ines Marlowe' });
+    const theirs = screen.getByRole('article', { name: 'Comment by Oskar Penhale' });
+    expect(within(mine).getByRole('button', { name: /Edit your comment/ })).toBeInTheDocument();
+    expect(within(mine).getByRole('button', { name: /Delete the comment/ })).toBeInTheDocument();
+    expect(within(theirs).queryByRole('button')).toBeNull();
+    await user.click(screen.getByRole('button', { name: 'Resolve the thread by Oskar Penhale' }));
+    await waitFor(() => expect(patched).toEqual([['theirs', { resolved: true }]]));
+  });
+});
