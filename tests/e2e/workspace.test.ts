@@ -103,6 +103,10 @@ describe('study workspace in a real browser', () => {
     await page.getByRole('button', { name: 'Open neutral' }).click();
     await expect.poll(() => badge.textContent(), { timeout: 15_000 }).not.toMatch(/^N–E 0\.000 V$/);
     const shown = (await badge.textContent())!;
+    // The results panel shows the same bus in its table: "62.4 V (52.0 %)".
+    const cell = page.getByRole('region', { name: 'Results' }).getByTestId('neutral-shift-B1');
+    await expect.poll(() => cell.textContent(), { timeout: 15_000 }).toMatch(/^\d+\.\d+ V/);
+    const tableShown = (await cell.textContent())!;
     await screenshot(page, 'workspace-open-neutral-open');
 
     // Save with a message, then solve the saved circuit with the engine and compare to the figure shown.
@@ -118,6 +122,8 @@ describe('study workspace in a real browser', () => {
     // (C) same circuit through the engine; the page rounds to the digits it shows.
     expect(Math.abs(Number(`${m[1]}.${m[2]}`) - engine)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-12);
     expect(engine).toBeGreaterThan(10);
+    const t = /^(\d+)\.(\d+) V/.exec(tableShown)!;
+    expect(Math.abs(Number(`${t[1]}.${t[2]}`) - engine)).toBeLessThanOrEqual(0.5 * 10 ** -t[2].length + 1e-12);
     expect(saved.content.circuit.elements.find((e) => e.id === 'SRC1~bus~sw')).toMatchObject({ type: 'switch3', open: ['n'] });
     expect(errors).toEqual([]);
     await page.close();

@@ -45,6 +45,7 @@ import { isBusNode, isElementNode, type BusNodeData, type Conductor, type Worksp
 import { PropertyPanel, type Selection } from './properties/property-panel.tsx';
 import { SettingsDialog } from './properties/settings-dialog.tsx';
 import { diagramOverlays } from './results/overlays.ts';
+import { ResultsPanel } from './results/results-panel.tsx';
 import { conflictOf, useSaveStudy } from './save-study.ts';
 import { useLiveSolve } from './solve/use-live-solve.ts';
 
@@ -91,8 +92,8 @@ function inField(target: EventTarget | null): boolean {
 export interface WorkspacePageProps {
   study: StudyDetail;
   role: Role;
-  /** W2's results panel, rendered under the canvas (passed in so the page composes without owning it). */
-  renderResults?: (props: { circuit: CircuitInput | null; live: ReturnType<typeof useLiveSolve>; selection: string | null; wiringStandard: StudySettings['wiringStandard'] }) => React.ReactNode;
+  /** Called with the selected canvas node id (= engine element id, or the bus name for a bus), or null. */
+  onSelectionChange?: (id: string | null) => void;
 }
 
 export function WorkspacePage(props: WorkspacePageProps) {
@@ -103,7 +104,7 @@ export function WorkspacePage(props: WorkspacePageProps) {
   );
 }
 
-function Workspace({ study, role, renderResults }: WorkspacePageProps) {
+function Workspace({ study, role, onSelectionChange }: WorkspacePageProps) {
   const readOnly = !can(role, 'study:edit');
   const rf = useReactFlow<WorkspaceNode, WorkspaceEdge>();
   const [hist, dispatch] = useReducer(historyReducer<Doc>, study, (s) => initHistory(docOf(s)));
@@ -456,6 +457,24 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
   }, [doc.nodes, doc.edges]);
   const selectedName = selection?.kind === 'bus' ? selection.data.name : selection?.kind === 'element' ? selection.id : selection?.kind === 'edge' ? selection.elementId : null;
 
+  useEffect(() => onSelectionChange?.(selection?.kind === 'element' ? selection.id : selection?.kind === 'bus' ? selection.data.name : null), [selection, onSelectionChange]);
+
+  /** Selects the canvas node of a bus name or element id (from the results panel). */
+  const selectById = useCallback(
+    (id: string) => {
+      const nodeId = conversion.map.busToNode[id] ?? conversion.map.elementToNode[id] ?? id;
+      dispatch({
+        type: 'update',
+        fn: (cur) => ({
+          ...cur,
+          nodes: cur.nodes.map((n) => (n.id === nodeId ? (n.selected ? n : { ...n, selected: true }) : n.selected ? { ...n, selected: false } : n)),
+          edges: cur.edges.map((e) => (e.selected ? { ...e, selected: false } : e)),
+        }),
+      });
+    },
+    [conversion.map],
+  );
+
   const busList = useMemo(() => doc.nodes.filter(isBusNode).map((b) => ({ id: b.id, name: b.data.name, kvLL: b.data.kvLL })), [doc.nodes]);
   const applySettings = useCallback(
     (s: StudySettings, kv: Record<string, number | undefined>) => {
@@ -585,7 +604,9 @@ function Workspace({ study, role, renderResults }: WorkspacePageProps) {
           />
         </div>
 
-        {renderResults ? renderResults({ circuit: circuit.elements.length > 0 ? circuit : null, live, selection: selectedName, wiringStandard: doc.settings.wiringStandard }) : null}
+        <div className="overflow-auto">
+          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={selectedName} onSelect={selectById} standard={doc.settings.wiringStandard} />
+        </div>
       </div>
 
       <SaveDialog open={dialog === 'save'} busy={save.isPending} error={save.isError && !conflictOf(save.error) ? save.error.message : undefined} onCancel={() => setDialog(null)} onSave={(m) => { setPendingMessage(m || undefined); doSave(m || undefined, baseVersion); }} />

@@ -49,7 +49,7 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
       })}
       <div className="h-5" />
       {ov ? (
-        <div className="num mt-0.5 flex flex-wrap gap-x-2 text-[10.5px] leading-tight text-ink-muted">
+        <div className="num relative mt-0.5 flex w-max max-w-[320px] flex-wrap gap-x-2 rounded-[2px] bg-panel/90 px-1 text-[10.5px] leading-tight text-ink-muted">
           {Object.entries(ov.vln).map(([ph, v]) => (
             <span key={ph}>
               {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V
