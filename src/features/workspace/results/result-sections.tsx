@@ -1,4 +1,5 @@
 /** The smaller sections of the results panel: limits and flags, power balance, transformers, faults, floating parts, caution. */
+import { useState } from 'react';
 import type { CircuitResult, Flag } from '../../../../shared/engine/index.ts';
 import { SEVERITY } from './flag-mark.tsx';
 import { formatMagnitude, formatPhasor, formatValue, kvar, kW } from './format.ts';
@@ -8,6 +9,7 @@ const METRIC_NAME = { iec: 'IEC negative-sequence factor |V2|/|V1|', nema: 'NEMA
 
 /** The limit set in force and every flag, most severe first. */
 export function FlagsSection({ result }: { result: CircuitResult }) {
+  const [showAll, setShowAll] = useState(false);
   const l = result.limits;
   const rank = { violation: 0, warning: 1, info: 2 } as const;
   const flags = result.flags.slice().sort((a, b) => rank[a.severity] - rank[b.severity]);
@@ -22,31 +24,56 @@ export function FlagsSection({ result }: { result: CircuitResult }) {
         Limit set in force: <strong>{l.name}</strong>. Voltage warning outside {l.voltageWarningPu.map((x) => x.toFixed(3)).join('–')} pu, violation outside{' '}
         {l.voltageViolationPu.map((x) => x.toFixed(3)).join('–')} pu; unbalance: {METRIC_NAME[metric]} ≤ {l.unbalancePercent} %; neutral shift ≤ {l.neutralShiftPercent} % of nominal V_LN; transformer loading ≤ {l.loadingPercent} %.
       </p>
-      <ul className="mt-1 text-[12px]" aria-label="Unbalance against the limit">
-        {result.buses
-          .filter((b) => metricValue(b) !== undefined)
-          .map((b) => {
-            const v = metricValue(b)!;
-            const over = v > l.unbalancePercent;
-            return (
-              <li key={b.bus} className="num">
-                {b.bus}: {v.toFixed(2)} % {over ? <span className="font-semibold text-caution">over {l.unbalancePercent} %</span> : <span className="text-ok">within {l.unbalancePercent} %</span>}
-              </li>
-            );
-          })}
-      </ul>
+      <UnbalanceList result={result} metricValue={metricValue} />
       {flags.length === 0 ? (
         <p className="mt-1 text-[12px] text-ok">
           <span aria-hidden="true">✓ </span>No flags: every bus and element is within the limit set.
         </p>
       ) : (
-        <ul className="mt-1 space-y-0.5 text-[12px]" aria-label="Flags">
-          {flags.map((f, i) => (
-            <FlagRow key={i} flag={f} />
-          ))}
-        </ul>
+        <>
+          <ul className="mt-1 space-y-0.5 text-[12px]" aria-label="Flags">
+            {(showAll ? flags : flags.slice(0, FLAGS_SHOWN)).map((f, i) => (
+              <FlagRow key={i} flag={f} />
+            ))}
+          </ul>
+          {flags.length > FLAGS_SHOWN ? (
+            <button type="button" onClick={() => setShowAll((x) => !x)} aria-expanded={showAll} className="mt-1 text-[12px] font-semibold text-accent hover:underline">
+              {showAll ? 'Show the first flags only' : `Show all ${flags.length} flags`}
+            </button>
+          ) : null}
+        </>
       )}
     </section>
+  );
+}
+
+/** How many flags show before "Show all" (a 300-element study can raise a hundred). */
+const FLAGS_SHOWN = 12;
+
+/** Unbalance per bus against the active limit: every bus on a small study, on a large one the buses over the limit and the worst within. */
+function UnbalanceList({ result, metricValue }: { result: CircuitResult; metricValue: (b: CircuitResult['buses'][number]) => number | undefined }) {
+  const limit = result.limits.unbalancePercent;
+  const rows = result.buses.filter((b) => metricValue(b) !== undefined).map((b) => ({ bus: b.bus, v: metricValue(b)! }));
+  const over = rows.filter((r) => r.v > limit);
+  const within = rows.filter((r) => r.v <= limit);
+  const small = rows.length <= 8;
+  const shown = small ? rows : over;
+  const worstWithin = within.reduce<(typeof rows)[number] | undefined>((w, r) => (!w || r.v > w.v ? r : w), undefined);
+  return (
+    <div className="mt-1 text-[12px]">
+      <ul aria-label="Unbalance against the limit">
+        {shown.map((r) => (
+          <li key={r.bus} className="num">
+            {r.bus}: {r.v.toFixed(2)} % {r.v > limit ? <span className="font-semibold text-caution">over {limit} %</span> : <span className="text-ok">within {limit} %</span>}
+          </li>
+        ))}
+      </ul>
+      {!small && within.length > 0 ? (
+        <p className="text-ok">
+          {within.length} of {rows.length} buses within {limit} %{worstWithin ? ` (highest ${worstWithin.v.toFixed(2)} % at ${worstWithin.bus})` : ''}.
+        </p>
+      ) : null}
+    </div>
   );
 }
 

@@ -130,3 +130,19 @@ describe('ResultsPanel on other results', () => {
     expect(screen.getByRole('list', { name: 'Unbalance against the limit' })).toHaveTextContent(/END: 29\.85 % over 3 %/);
   });
 });
+
+describe('ResultsPanel on a large study', () => {
+  it('keeps the flag and unbalance lists short, with every flag one click away', async () => {
+    const { study300 } = await import('../../../../bench/workspace/study-300.ts');
+    const r = solveCircuit(study300());
+    expect(r.flags.length).toBeGreaterThan(12);
+    const user = userEvent.setup();
+    render(<ResultsPanel status="ok" result={r} />);
+    const list = () => within(screen.getByRole('list', { name: 'Flags' })).getAllByRole('listitem');
+    expect(list()).toHaveLength(12);
+    await user.click(screen.getByRole('button', { name: `Show all ${r.flags.length} flags` }));
+    expect(list()).toHaveLength(r.flags.length);
+    const withinLimit = r.buses.filter((b) => b.nemaUnbalancePercent !== undefined && b.nemaUnbalancePercent <= 3).length;
+    expect(screen.getByText(new RegExp(`^${withinLimit} of \\d+ buses within 3 %`))).toBeInTheDocument();
+  }, 60_000);
+});
