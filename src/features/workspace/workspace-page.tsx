@@ -552,7 +552,7 @@ function Workspace({ study, role, onSelectionChange }: WorkspacePageProps) {
         </div>
         {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
 
-        <div className="flex h-[62vh] min-h-[440px] overflow-hidden rounded-[3px] border border-rule bg-paper">
+        <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
           {readOnly ? null : <Palette onAdd={addItem} />}
           <div className="relative min-w-0 flex-1" aria-label="Diagram">
             <ReactFlow<WorkspaceNode, WorkspaceEdge>

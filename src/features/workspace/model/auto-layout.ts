@@ -7,7 +7,7 @@
 import { elementPorts } from './ports.ts';
 import { isBusNode, isElementNode, type WorkspaceEdge, type WorkspaceNode } from './types.ts';
 
-export const TIER_PX = 260;
+export const TIER_PX = 220;
 export const SLOT_PX = 130;
 const BUS_MIN_PX = 280;
 
