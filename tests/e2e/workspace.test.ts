@@ -109,6 +109,15 @@ describe('study workspace in a real browser', () => {
     const tableShown = (await cell.textContent())!;
     await screenshot(page, 'workspace-open-neutral-open');
 
+    // Undo closes the neutral again, redo opens it; leaving with unsaved edits asks first.
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect.poll(() => badge.textContent(), { timeout: 15_000 }).toMatch(/^N–E 0\.000 V$/);
+    await page.keyboard.press('Control+Shift+Z');
+    await expect.poll(() => badge.textContent(), { timeout: 15_000 }).toBe(shown);
+    await page.getByRole('navigation', { name: 'Breadcrumb' }).getByRole('link', { name: 'Studies' }).click();
+    await page.getByRole('dialog', { name: 'Leave without saving?' }).getByRole('button', { name: 'Stay' }).click();
+    expect(page.url()).toContain(studyId);
+
     // Save with a message, then solve the saved circuit with the engine and compare to the figure shown.
     await page.getByRole('button', { name: 'Save study' }).click();
     await page.getByLabel('Message (optional)').fill('service neutral opened');
