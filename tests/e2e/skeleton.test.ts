@@ -24,7 +24,7 @@ describe('walking skeleton in a real browser', () => {
     });
     await page.goto(`${product.baseUrl}/sign-in`);
     // Demo mode lists the demo accounts on the sign-in page.
-    await expect(page.getByText('engineer@wyeward.test').first().isVisible()).resolves.toBe(true);
+    await page.getByText('engineer@wyeward.test').first().waitFor({ state: 'visible' });
     await screenshot(page, 'skeleton-sign-in');
 
     await signIn(page, product.baseUrl, 'engineer@wyeward.test');
