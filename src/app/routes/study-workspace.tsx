@@ -5,6 +5,7 @@ import { isApiError } from '../../lib/api-client.ts';
 import { useMe } from '../../lib/auth.ts';
 import { useStudy } from '../../features/studies/api/get-study.ts';
 import { WorkspacePage } from '../../features/workspace/workspace-page.tsx';
+import { ReviewStrip } from '../../features/review/components/review-strip.tsx';
 import { StudyReview } from '../../features/review/components/study-review.tsx';
 
 /** The study's workspace (canvas, properties, live results); loaded on demand so the studies list stays light. */
@@ -31,6 +32,7 @@ export function Component() {
   }
   return (
     <div className="flex flex-col gap-4">
+      <ReviewStrip studyId={id} />
       <WorkspacePage key={id} study={study.data} role={me.data.role} />
       {/* Review and reuse (issue 5): status and actions, comments pinned to elements, files. */}
       <StudyReview key={`review-${id}`} studyId={id} role={me.data.role} userId={me.data.user.id} />

@@ -1,5 +1,5 @@
 import type { RevisionDiff } from '../../../../shared/api/revisions.ts';
-import { formatDelta, formatQuantity, formatValue } from '../utils/format-values.ts';
+import { formatDelta, formatValue } from '../utils/format-values.ts';
 import { ResultsCaution } from './results-caution.tsx';
 
 const KIND_LABEL: Record<RevisionDiff['results'][number]['kind'], string> = {
@@ -46,45 +46,28 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
         {diff.results.length === 0 ? (
           <Empty>No key result changed by more than 0.05 of its unit.</Empty>
         ) : (
-          <>
-            <ul aria-label="Result changes in words" className="flex flex-col gap-0.5 text-sm">
-              {diff.results.map((r) => (
-                <li key={`${r.kind}:${r.key}`} className="num">
-                  {r.text}
-                </li>
-              ))}
-            </ul>
-            <div className="overflow-x-auto">
-              <table aria-label="Result changes" className={TABLE}>
-                <thead>
-                  <tr>
-                    <th scope="col">Quantity</th>
-                    <th scope="col">Where</th>
-                    <th scope="col" className="text-right">
-                      Revision {diff.from}
-                    </th>
-                    <th scope="col" className="text-right">
-                      Revision {diff.to}
-                    </th>
-                    <th scope="col" className="text-right">
-                      Change
-                    </th>
+          <div className="overflow-x-auto">
+            <table aria-label="Result changes" className={TABLE}>
+              <thead>
+                <tr>
+                  <th scope="col">What changed</th>
+                  <th scope="col">Quantity</th>
+                  <th scope="col" className="text-right">
+                    Change
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {diff.results.map((r) => (
+                  <tr key={`${r.kind}:${r.key}`}>
+                    <td className="num">{r.text}</td>
+                    <td className="text-ink-muted">{KIND_LABEL[r.kind]}</td>
+                    <td className="num text-right font-semibold">{r.delta === null ? (r.to === null ? 'gone' : 'new') : formatDelta(r.delta, r.unit)}</td>
                   </tr>
-                </thead>
-                <tbody>
-                  {diff.results.map((r) => (
-                    <tr key={`${r.kind}:${r.key}`}>
-                      <td>{KIND_LABEL[r.kind]}</td>
-                      <td>{r.label}</td>
-                      <td className="num text-right">{r.from === null ? 'absent' : formatQuantity(r.from, r.unit)}</td>
-                      <td className="num text-right">{r.to === null ? 'absent' : formatQuantity(r.to, r.unit)}</td>
-                      <td className="num text-right font-semibold">{formatDelta(r.delta, r.unit)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
-          </>
+                ))}
+              </tbody>
+            </table>
+          </div>
         )}
         <ResultsCaution />
       </section>

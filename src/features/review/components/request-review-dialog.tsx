@@ -14,7 +14,7 @@ import { reviewerCandidates } from '../utils/permissions.ts';
 export function RequestReviewDialog({ studyId, selfId, open, onClose, again }: { studyId: string; selfId: string; open: boolean; onClose: () => void; again?: string[] }) {
   const members = useMembers();
   const action = useReviewAction(studyId);
-  const [chosen, setChosen] = useState<string[]>(again ?? []);
+  const [chosen, setChosen] = useState<string[]>((again ?? []).filter((id) => id !== selfId));
   const [message, setMessage] = useState('');
   const candidates = members.data ? reviewerCandidates(members.data.members, selfId) : [];
   const fieldError = action.error && 'fields' in action.error ? (action.error as { fields: Record<string, string> }).fields.reviewers : undefined;

@@ -127,7 +127,7 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
       </div>
 
       {dialog === 'request' ? (
-        <RequestReviewDialog studyId={studyId} selfId={userId} open onClose={() => setDialog(null)} again={state.status === 'changes-requested' ? state.review?.reviewers.map((r) => r.id) : undefined} />
+        <RequestReviewDialog studyId={studyId} selfId={userId} open onClose={() => setDialog(null)} again={state.review?.reviewers.map((r) => r.id)} />
       ) : null}
       {(dialog === 'approve' || dialog === 'request-changes') && underReview !== null ? (
         <DecisionDialog studyId={studyId} kind={dialog} revision={underReview} open onClose={() => setDialog(null)} />

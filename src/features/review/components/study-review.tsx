@@ -4,12 +4,15 @@ import { AttachmentsPanel } from './attachments-panel.tsx';
 import { circuitElementIds, CommentsPanel } from './comments-panel.tsx';
 import { ReviewPanel } from './review-panel.tsx';
 
+/** Anchor of the review section, for the strip above the workspace. */
+export const REVIEW_SECTION_ID = 'review-and-comments';
+
 /** The review side of the study page: status and actions, comments, files. Composed beside the workspace by the route. */
 export function StudyReview({ studyId, role, userId, selectedElementId }: { studyId: string; role: Role; userId: string; selectedElementId?: string | null }) {
   const study = useStudyRecord(studyId);
   if (!study.data) return null; // the study page shows the loading and error states
   return (
-    <div className="mx-auto grid w-full max-w-6xl gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
+    <div id={REVIEW_SECTION_ID} className="mx-auto grid w-full max-w-6xl scroll-mt-4 gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
       <div className="flex min-w-0 flex-col gap-4">
         <CommentsPanel studyId={studyId} role={role} userId={userId} elementIds={circuitElementIds(study.data.content.circuit)} selectedElementId={selectedElementId} />
       </div>

@@ -27,9 +27,9 @@ export function canRequestReview(role: Role, status: ReviewState['status']): boo
 export function decisionBlocker(state: ReviewState, role: Role, userId: string, revisionAuthorId: string | null): string | null {
   if (state.status !== 'in-review' || !state.review) return 'not-in-review';
   if (!roleAtLeast(role, 'reviewer')) return 'role';
+  if (state.review.requestedBy.id === userId || revisionAuthorId === userId) return 'author';
   const chosen = state.review.reviewers.some((r) => r.id === userId);
   if (!chosen && role !== 'owner') return 'not-chosen';
-  if (state.review.requestedBy.id === userId || revisionAuthorId === userId) return 'author';
   return null;
 }
 

@@ -46,14 +46,11 @@ describe('diff view', () => {
     expect(diffCall.url.searchParams.get('from')).toBe('2');
     expect(diffCall.url.searchParams.get('to')).toBe('3');
 
-    const words = within(region).getByRole('list', { name: 'Result changes in words' });
-    expect(within(words).getByText('neutral current at HOUSE (DROP): 12.1 A → 83.3 A')).toBeInTheDocument();
     const rows = within(within(region).getByRole('table', { name: 'Result changes' })).getAllByRole('row');
-    expect(rows[1]).toHaveTextContent('Neutral current');
-    expect(rows[1]).toHaveTextContent('12.10 A');
-    expect(rows[1]).toHaveTextContent('83.30 A');
-    expect(rows[1]).toHaveTextContent('+71.20 A');
-    expect(rows[2]).toHaveTextContent('+10.80 V');
+    expect(rows.slice(1).map((r) => r.textContent)).toEqual([
+      'neutral current at HOUSE (DROP): 12.1 A → 83.3 ANeutral current+71.20 A',
+      'voltage at HOUSE phase b: 120.4 V → 131.2 VBus voltage+10.80 V',
+    ]);
     expect(within(region).getByRole('list', { name: 'Flag changes' })).toHaveTextContent('flag added: phase b 131 V above Range B');
 
     const drop = within(region).getByRole('table', { name: 'Changes to DROP' });

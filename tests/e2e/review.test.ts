@@ -1,0 +1,187 @@
+/**
+ * Stories 3 and 4 of issue 5 in a real browser against the real product (demo mode, fake SMTP server):
+ * (3) the engineer requests review from the demo reviewer; the reviewer reads the diff, pins a comment on
+ * an element and requests changes; the engineer changes the study and asks again; the reviewer approves;
+ * every step's e-mail reaches the fake SMTP server. (4) the owner marks the approved study as a template
+ * and the engineer starts a new study from it in the gallery.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { StudyDetail, ListStudiesResponse } from '../../shared/api/studies.ts';
+import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+
+const VIEWPORT = { width: 1360, height: 900 };
+/** The seeded draft study (shared/engine/examples/index.ts, "feeder-earth-fault"), authored by the demo engineer. */
+const STUDY_NAME = 'Four-wire feeder with a line-to-earth fault';
+
+interface MailItem {
+  id: string;
+  to: string;
+  subject: string;
+  sentAt: string;
+}
+
+describe('review and reuse in a real browser', () => {
+  let product: RunningProduct;
+  let browser: Browser;
+  const contexts: BrowserContext[] = [];
+  let engineer: Page;
+  let reviewer: Page;
+  let owner: Page;
+  let studyId = '';
+
+  async function pageFor(email: string): Promise<Page> {
+    const context = await browser.newContext({ viewport: VIEWPORT });
+    contexts.push(context);
+    const page = await context.newPage();
+    page.on('pageerror', (e) => console.error(`[${email}] page error:`, e.message));
+    await signIn(page, product.baseUrl, email);
+    await page.waitForURL(`${product.baseUrl}/`);
+    return page;
+  }
+
+  /** The study as the API returns it to this page's session. */
+  async function getStudy(page: Page): Promise<StudyDetail> {
+    const res = await page.request.get(`${product.baseUrl}/api/studies/${studyId}`);
+    expect(res.status()).toBe(200);
+    return (await res.json()) as StudyDetail;
+  }
+
+  /** Saves a changed MILL-LOAD phase-a demand through the API with this page's session (a new revision). */
+  async function saveMillLoad(page: Page, kw: number, message: string): Promise<void> {
+    const study = await getStudy(page);
+    const circuit = structuredClone(study.content.circuit) as { elements: { id: string; phases?: { a: { kw: number } } }[] };
+    const mill = circuit.elements.find((e) => e.id === 'MILL-LOAD');
+    expect(mill?.phases?.a).toBeDefined();
+    mill!.phases!.a.kw = kw;
+    const res = await page.request.patch(`${product.baseUrl}/api/studies/${studyId}`, {
+      data: { version: study.version, content: { ...study.content, circuit }, message },
+      headers: { Origin: product.baseUrl },
+    });
+    expect(res.status(), await res.text()).toBe(200);
+  }
+
+  async function mail(): Promise<MailItem[]> {
+    const res = await owner.request.get(`${product.baseUrl}/api/mail`);
+    expect(res.status()).toBe(200);
+    return ((await res.json()) as { items: MailItem[] }).items;
+  }
+
+  async function expectMail(to: string, subject: string): Promise<void> {
+    await expect.poll(async () => (await mail()).filter((m) => m.to.includes(to) && m.subject === subject).length, { timeout: 20_000 }).toBeGreaterThan(0);
+  }
+
+  function reviewRegion(page: Page) {
+    return page.getByRole('region', { name: /^Review/ });
+  }
+
+  beforeAll(async () => {
+    product = await startProduct();
+    browser = await launchBrowser();
+    engineer = await pageFor('engineer@wyeward.test');
+    reviewer = await pageFor('reviewer@wyeward.test');
+    owner = await pageFor('owner@wyeward.test');
+    const res = await engineer.request.get(`${product.baseUrl}/api/studies`, { params: { q: STUDY_NAME } });
+    const list = (await res.json()) as ListStudiesResponse;
+    const study = list.items.find((s) => s.name === STUDY_NAME);
+    expect(study?.status).toBe('draft');
+    studyId = study!.id;
+  });
+
+  afterAll(async () => {
+    for (const c of contexts) await c.close().catch(() => undefined);
+    await browser?.close();
+    await product?.stop();
+  });
+
+  it('story 3: request review, diff, pinned comment, changes requested, fix, approval — with e-mail at each step', async () => {
+    // The engineer doubles the mill's phase-a demand (revision 2), then asks the demo reviewer to check it.
+    await saveMillLoad(engineer, 800, 'Mill phase a at 800 kW');
+    await engineer.goto(`${product.baseUrl}/studies/${studyId}`);
+    const panel = reviewRegion(engineer);
+    await panel.getByRole('button', { name: 'Request review' }).click();
+    const dialog = engineer.getByRole('dialog', { name: 'Request review' });
+    await dialog.getByRole('checkbox', { name: /Idunn Castellane/ }).check();
+    await dialog.getByLabel('Message to the reviewers (optional)').fill('Please check the neutral current after the mill upgrade.');
+    await dialog.getByRole('button', { name: 'Send request' }).click();
+    await panel.getByText('asked Idunn Castellane to review revision 2', { exact: false }).waitFor();
+    await screenshot(engineer, 'review-1-requested');
+    await expectMail('reviewer@wyeward.test', `Review requested: ${STUDY_NAME}`);
+
+    // The reviewer opens the study, reads the diff first.
+    await reviewer.goto(`${product.baseUrl}/studies/${studyId}`);
+    await reviewRegion(reviewer).getByRole('link', { name: 'Read the changes in revision 2' }).click();
+    await reviewer.waitForURL(/\/diff\?to=2$/);
+    const changes = reviewer.getByRole('region', { name: 'Changes from revision 1 to revision 2' });
+    await changes.waitFor();
+    const params = changes.getByRole('table', { name: 'Changes to MILL-LOAD' });
+    await expect.poll(() => params.textContent()).toContain('phases.a.kw');
+    const results = await changes.getByRole('table', { name: 'Result changes' }).textContent();
+    expect(results).toMatch(/neutral current at [^:]+: [\d.]+ A → [\d.]+ A/); // a neutral current changed, with units
+    expect(results).toMatch(/[+−][\d.]+ A/); // and its signed delta
+    await screenshot(reviewer, 'review-2-diff');
+
+    // Back on the study: a comment pinned to the mill load, then "Request changes".
+    await reviewer.goBack();
+    const form = reviewer.getByRole('form', { name: 'New comment' });
+    await form.getByLabel('New comment').fill('The mill load on phase a looks doubled — @engineer is 800 kW right?\nPlease confirm with the mill.');
+    await form.getByLabel('Pin to element').selectOption('MILL-LOAD');
+    await form.getByRole('button', { name: 'Post comment' }).click();
+    await reviewer.getByRole('listitem', { name: 'Thread by Idunn Castellane, Element MILL-LOAD' }).waitFor();
+    await expectMail('engineer@wyeward.test', `Idunn Castellane mentioned you: ${STUDY_NAME}`);
+    await reviewRegion(reviewer).getByRole('button', { name: 'Request changes' }).click();
+    const changesDialog = reviewer.getByRole('dialog', { name: 'Request changes to revision 2' });
+    await changesDialog.getByLabel('What should change').fill('Use the metered 520 kW for phase a.');
+    await changesDialog.getByRole('button', { name: 'Request changes' }).click();
+    await reviewRegion(reviewer).getByText(/requested changes to revision 2/).waitFor();
+    await screenshot(reviewer, 'review-3-changes-requested');
+    await expectMail('engineer@wyeward.test', `Changes requested: ${STUDY_NAME}`);
+
+    // The engineer fixes it (revision 3) and asks again; the reviewer is pre-selected.
+    await saveMillLoad(engineer, 520, 'Mill phase a at the metered 520 kW');
+    await engineer.goto(`${product.baseUrl}/studies/${studyId}`);
+    await reviewRegion(engineer).getByRole('button', { name: 'Request review' }).click();
+    const again = engineer.getByRole('dialog', { name: 'Request review' });
+    expect(await again.getByRole('checkbox', { name: /Idunn Castellane/ }).isChecked()).toBe(true);
+    await again.getByRole('button', { name: 'Send request' }).click();
+    await reviewRegion(engineer).getByText('asked Idunn Castellane to review revision 3', { exact: false }).waitFor();
+    await expect.poll(async () => (await mail()).filter((m) => m.subject === `Review requested: ${STUDY_NAME}`).length, { timeout: 20_000 }).toBe(2);
+
+    // The reviewer approves revision 3.
+    await reviewer.goto(`${product.baseUrl}/studies/${studyId}`);
+    await reviewRegion(reviewer).getByRole('button', { name: 'Approve' }).click();
+    const approveDialog = reviewer.getByRole('dialog', { name: 'Approve revision 3?' });
+    await approveDialog.getByRole('button', { name: 'Approve' }).click();
+    await reviewRegion(reviewer).getByText(/Approved revision 3 by Idunn Castellane/).waitFor();
+    await screenshot(reviewer, 'review-4-approved');
+    await expectMail('engineer@wyeward.test', `Approved: ${STUDY_NAME}`);
+    expect((await getStudy(reviewer)).approvedRevision).toBe(3);
+
+    // The owner reads the same messages on the outgoing-mail page.
+    await owner.goto(`${product.baseUrl}/team/mail`);
+    await owner.getByText(`Approved: ${STUDY_NAME}`).first().waitFor();
+    await screenshot(owner, 'review-5-outgoing-mail');
+  });
+
+  it('story 4: the owner marks the approved study as a template; the engineer starts a new study from it', async () => {
+    await owner.goto(`${product.baseUrl}/studies/${studyId}`);
+    await reviewRegion(owner).getByRole('button', { name: 'Mark as template' }).click();
+    await reviewRegion(owner).getByRole('button', { name: 'Unmark template' }).waitFor();
+    expect((await getStudy(owner)).isTemplate).toBe(true);
+
+    await engineer.goto(`${product.baseUrl}/templates`);
+    const card = engineer.getByRole('listitem').filter({ has: engineer.getByRole('heading', { name: STUDY_NAME }) });
+    await card.getByText('Idunn Castellane').waitFor(); // who approved it
+    await screenshot(engineer, 'review-6-templates');
+    await card.getByRole('button', { name: `New study from template ${STUDY_NAME}` }).click();
+    await engineer.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname) && !url.pathname.endsWith(studyId));
+    const newId = new URL(engineer.url()).pathname.split('/').pop()!;
+    const res = await engineer.request.get(`${product.baseUrl}/api/studies/${newId}`);
+    const copy = (await res.json()) as StudyDetail;
+    expect(copy.clonedFrom?.id).toBe(studyId);
+    expect(copy.clonedFromRevision).toBe(3);
+    expect(copy.status).toBe('draft');
+    await reviewRegion(engineer).waitFor();
+    await screenshot(engineer, 'review-7-new-from-template');
+  });
+});
