@@ -5,7 +5,7 @@
  * relays anything onward. Production sets SMTP_URL instead.
  */
 import type { AddressInfo } from 'node:net';
-import { simpleParser, type AddressObject } from 'mailparser';
+import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { ID_HEADER, MAIL_ID_RE, newMailId, storeMail, TEAM_HEADER } from './store.ts';
 
@@ -18,9 +18,22 @@ export interface MailSink {
 /** Largest message the sink accepts (bytes); the app's messages are a few kB. */
 const MAX_MESSAGE = 5 * 1024 * 1024;
 
-function addressText(a: AddressObject | AddressObject[] | undefined): string {
-  if (!a) return '';
-  return (Array.isArray(a) ? a : [a]).map((x) => x.text).join(', ');
+/** CRLF → LF, byte by byte (the message may hold 8-bit text in any charset). */
+function unixNewlines(b: Buffer): Buffer {
+  const out = Buffer.allocUnsafe(b.length);
+  let n = 0;
+  for (let i = 0; i < b.length; i++) {
+    if (b[i] === 0x0d && b[i + 1] === 0x0a) continue;
+    out[n++] = b[i];
+  }
+  return out.subarray(0, n);
+}
+
+/** A header as it was written (`Wyeward <no-reply@…>`), unfolded; the parsed address list as a fallback. */
+function headerText(parsed: ParsedMail, key: string, fallback: AddressObject | AddressObject[] | undefined): string {
+  const line = parsed.headerLines.find((h) => h.key === key)?.line;
+  if (line) return line.slice(line.indexOf(':') + 1).replace(/\r?\n[ \t]+/g, ' ').trim();
+  return fallback ? (Array.isArray(fallback) ? fallback : [fallback]).map((x) => x.text).join(', ') : '';
 }
 
 /** Starts the sink on `port` (0 = a free port) and resolves once it listens. */
@@ -37,7 +50,8 @@ export async function startMailSink({ dir, port = 0 }: { dir: string; port?: num
       const chunks: Buffer[] = [];
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', () => {
-        const raw = Buffer.concat(chunks);
+        // SMTP carries CRLF; the mail folder keeps Unix line endings like the rest of DATA_DIR.
+        const raw = unixNewlines(Buffer.concat(chunks));
         void (async () => {
           const parsed = await simpleParser(raw);
           const headerId = String(parsed.headers.get(ID_HEADER.toLowerCase()) ?? '');
@@ -45,8 +59,8 @@ export async function startMailSink({ dir, port = 0 }: { dir: string; port?: num
           await storeMail(dir, raw, {
             id,
             teamId: String(parsed.headers.get(TEAM_HEADER.toLowerCase()) ?? ''),
-            to: addressText(parsed.to),
-            from: addressText(parsed.from),
+            to: headerText(parsed, 'to', parsed.to),
+            from: headerText(parsed, 'from', parsed.from),
             subject: parsed.subject ?? '',
             sentAt: (parsed.date ?? new Date()).toISOString(),
             text: parsed.text ?? '',
