@@ -94,6 +94,8 @@ export interface WorkspacePageProps {
   role: Role;
   /** Called with the selected canvas node id (= engine element id, or the bus name for a bus), or null. */
   onSelectionChange?: (id: string | null) => void;
+  /** Comment counts to pin on element nodes (review side; anchors are element ids). */
+  pins?: { elementId: string; count: number }[];
 }
 
 export function WorkspacePage(props: WorkspacePageProps) {
@@ -104,7 +106,7 @@ export function WorkspacePage(props: WorkspacePageProps) {
   );
 }
 
-function Workspace({ study, role, onSelectionChange }: WorkspacePageProps) {
+function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps) {
   const readOnly = !can(role, 'study:edit');
   const rf = useReactFlow<WorkspaceNode, WorkspaceEdge>();
   const [hist, dispatch] = useReducer(historyReducer<Doc>, study, (s) => initHistory(docOf(s)));
@@ -171,12 +173,13 @@ function Workspace({ study, role, onSelectionChange }: WorkspacePageProps) {
     () => ({
       readOnly,
       shifts,
+      pins: Object.fromEntries((pins ?? []).map((p) => [p.elementId, p.count])),
       wiringStandard: doc.settings.wiringStandard,
       overlays,
       problems,
       busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
     }),
-    [readOnly, shifts, doc.settings.wiringStandard, overlays, problems, conversion.map],
+    [readOnly, shifts, pins, doc.settings.wiringStandard, overlays, problems, conversion.map],
   );
 
   // ---- canvas changes ----
@@ -585,7 +588,7 @@ function Workspace({ study, role, onSelectionChange }: WorkspacePageProps) {
               ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select; arrow keys move a selected node.' }}
             >
               <Background gap={20} size={1} color="#d3d0c6" />
-              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" nodeColor={(n) => (n.type === 'bus' ? '#1c2226' : '#7d858c')} />
+              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={{ width: 150, height: 96 }} nodeColor={(n) => (n.type === 'bus' ? '#1c2226' : '#7d858c')} />
             </ReactFlow>
             {doc.nodes.length === 0 ? (
               <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">

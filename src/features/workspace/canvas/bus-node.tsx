@@ -23,9 +23,24 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
   const flag = ov?.worstFlag;
   return (
     <div className="relative" style={{ width: BUS_WIDTH }} aria-label={`Bus ${data.name}`}>
-      <div className="mb-1 flex items-baseline gap-2 text-[12px]">
+      <div className="mb-1 flex w-max items-baseline gap-2 text-[12px]">
         <span className="num font-semibold text-ink">{data.name}</span>
         <span className="num text-ink-muted">{data.kvLL !== undefined ? `${data.kvLL} kV` : data.splitPhase ? '120/240 V' : ''}</span>
+        {ov ? (
+          <div className="num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted">
+            {Object.entries(ov.vln).map(([ph, v]) => (
+              <span key={ph}>
+                {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V
+              </span>
+            ))}
+            {ov.neutralShiftV !== undefined ? (
+              <span className={`rounded-[2px] px-1 font-semibold ${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10 ? 'bg-danger-soft text-danger' : 'bg-sunken text-ink'}`} title="Neutral-to-earth voltage (neutral shift)">
+                N–E {fmt(ov.neutralShiftV)} V
+              </span>
+            ) : null}
+            {ov.floating ? <span className="font-semibold text-caution">floating</span> : null}
+          </div>
+        ) : null}
         {flag ? (
           <span className={`ml-auto rounded-[2px] px-1 text-[11px] font-semibold ${flag.severity === 'violation' ? 'bg-danger-soft text-danger' : flag.severity === 'warning' ? 'bg-caution-soft text-caution' : 'bg-sunken text-ink-muted'}`} title={flag.message}>
             {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
@@ -48,21 +63,6 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
         );
       })}
       <div className="h-5" />
-      {ov ? (
-        <div className="num relative mt-0.5 flex w-max max-w-[320px] flex-wrap gap-x-2 rounded-[2px] bg-panel/90 px-1 text-[10.5px] leading-tight text-ink-muted">
-          {Object.entries(ov.vln).map(([ph, v]) => (
-            <span key={ph}>
-              {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V
-            </span>
-          ))}
-          {ov.neutralShiftV !== undefined ? (
-            <span className={`rounded-[2px] px-1 font-semibold ${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10 ? 'bg-danger-soft text-danger' : 'bg-sunken text-ink'}`} title="Neutral-to-earth voltage (neutral shift)">
-              N–E {fmt(ov.neutralShiftV)} V
-            </span>
-          ) : null}
-          {ov.floating ? <span className="font-semibold text-caution">floating</span> : null}
-        </div>
-      ) : null}
     </div>
   );
 });

@@ -15,6 +15,8 @@ export interface CanvasView {
   problems: Record<string, string[]>;
   /** Transformer id → the shift its convention states and the measured angle of LV V_AN minus HV V_AN, degrees. */
   shifts: Record<string, { lvLagsHvDeg?: number; convention?: 'iec' | 'northAmerican'; vectorGroup?: string; measuredDeg: number }>;
+  /** Element id → number of comments pinned to it. */
+  pins: Record<string, number>;
   /** Canvas node id → bus names whose results belong to it (its own and private terminal buses). */
   busNamesOf: (nodeId: string) => string[];
 }
@@ -25,6 +27,7 @@ export const CanvasViewContext = createContext<CanvasView>({
   overlays: null,
   problems: {},
   shifts: {},
+  pins: {},
   busNamesOf: () => [],
 });
 

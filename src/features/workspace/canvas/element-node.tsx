@@ -92,6 +92,11 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
           </div>
         ) : null}
       </div>
+      {view.pins[id] ? (
+        <span className="num absolute -left-2 -top-2 rounded-full border border-review bg-review-soft px-1 text-[10px] font-semibold text-review" title={`${view.pins[id]} comment(s) on ${id}`}>
+          <span aria-hidden="true">✎</span> {view.pins[id]}
+        </span>
+      ) : null}
       {problems.length > 0 ? (
         <div role="note" className="absolute left-0 top-[68px] w-[210px] rounded-[2px] border border-danger bg-danger-soft px-1.5 py-1 text-[11px] leading-snug text-danger">
           {problems.map((m) => (

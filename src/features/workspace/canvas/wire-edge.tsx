@@ -33,7 +33,8 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
     const fields = [...new Set(ports.map((p) => p.field))];
     const port = ports.find((p) => p.id === sourceHandleId);
     const idx = port ? fields.indexOf(port.field) : -1;
-    currents = ov.currents.filter((c) => c.port === idx && (!single || c.conductor === targetHandleId));
+    // A two-terminal element carries the same current in and out: label its first terminal only.
+    currents = port?.terminal === 1 ? [] : ov.currents.filter((c) => c.port === idx && (!single || c.conductor === targetHandleId));
   }
 
   return (

@@ -7,7 +7,7 @@
 import { elementPorts } from './ports.ts';
 import { isBusNode, isElementNode, type WorkspaceEdge, type WorkspaceNode } from './types.ts';
 
-export const TIER_PX = 220;
+export const TIER_PX = 250;
 export const SLOT_PX = 130;
 const BUS_MIN_PX = 280;
 
@@ -85,7 +85,7 @@ export function autoLayout(nodes: WorkspaceNode[], edges: WorkspaceEdge[], posit
     (above.get(busId) ?? []).forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y - 120 }));
     // Series elements last in the row, so their far buses line up under them.
     const sorted = [...hanging].sort((a, b) => Number(downstream.get(busId)?.some((d) => d.element === a) ?? false) - Number(downstream.get(busId)?.some((d) => d.element === b) ?? false));
-    sorted.forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y + 80 }));
+    sorted.forEach((id, i) => pos.set(id, { x: x + 20 + i * SLOT_PX, y: y + 105 }));
     for (const d of downstream.get(busId) ?? []) {
       const ex = pos.get(d.element)?.x ?? x;
       if ((tier.get(d.bus) ?? 0) > t) place(d.bus, ex - 20);
