@@ -32,6 +32,7 @@ const STATUS_CODES: Partial<Record<number, ErrorCode>> = {
   404: 'not-found',
   409: 'conflict',
   413: 'payload-too-large',
+  415: 'unsupported-media-type',
   429: 'rate-limited',
 };
 

@@ -103,8 +103,16 @@ describe('demo seed', () => {
     for (const s of list.items) {
       const demoCircuit = demoCircuits.find((c) => c.name === s.name)!;
       expect(s.elementCount).toBe(demoCircuit.circuit.elements.length);
-      // A seeded study saves back unchanged: its content passes the same validation as any edit.
+      // Each seeded study has revision 1 (solved by the engine) and a review history that matches its status.
       const detail = (await engineer.get(`/api/studies/${s.id}`)).body;
+      expect(detail.revision).toBe(1);
+      const revisions = (await engineer.get(`/api/studies/${s.id}/revisions`)).body.items;
+      expect(revisions).toMatchObject([{ number: 1, results: { ok: true } }]);
+      const state = (await engineer.get(`/api/studies/${s.id}/review`)).body;
+      expect(state.status).toBe(s.status);
+      expect(state.events.length).toBe({ draft: 0, 'in-review': 1, 'changes-requested': 2, approved: 2 }[s.status as string]);
+      if (s.status === 'approved') expect(state.approvedRevision).toBe(1);
+      // A seeded study saves back unchanged: its content passes the same validation as any edit.
       const saved = await engineer.patch(`/api/studies/${s.id}`).send({ version: detail.version, content: detail.content });
       expect(saved.status, JSON.stringify(saved.body)).toBe(200);
     }
