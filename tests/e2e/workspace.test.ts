@@ -134,7 +134,24 @@ describe('study workspace in a real browser', () => {
     const t = /^(\d+)\.(\d+) V/.exec(tableShown)!;
     expect(Math.abs(Number(`${t[1]}.${t[2]}`) - engine)).toBeLessThanOrEqual(0.5 * 10 ** -t[2].length + 1e-12);
     expect(saved.content.circuit.elements.find((e) => e.id === 'SRC1~bus~sw')).toMatchObject({ type: 'switch3', open: ['n'] });
-    expect(errors).toEqual([]);
+
+    // Someone else saves meanwhile: the next save offers a choice instead of overwriting.
+    const before = (await (await page.request.get(`${product.baseUrl}/api/studies/${studyId}`)).json()) as { version: number };
+    const other = await page.request.patch(`${product.baseUrl}/api/studies/${studyId}`, { data: { version: before.version, description: 'edited elsewhere' } });
+    expect(other.status()).toBe(200);
+    await clickWire(page, 'Connection SRC1 to bus B1');
+    await page.getByRole('button', { name: 'Close neutral' }).click();
+    await page.getByRole('button', { name: 'Save study' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Save' }).click();
+    const conflict = page.getByRole('dialog', { name: 'Someone saved this study while you were editing' });
+    await conflict.waitFor();
+    await screenshot(page, 'workspace-save-conflict');
+    await conflict.getByRole('button', { name: `Save mine over v${before.version + 1}` }).click();
+    await expect.poll(() => page.getByText('Unsaved changes').count()).toBe(0);
+    const after = (await (await page.request.get(`${product.baseUrl}/api/studies/${studyId}`)).json()) as { version: number; content: { circuit: CircuitInput } };
+    expect(after.version).toBe(before.version + 2);
+    expect(after.content.circuit.elements.some((e) => e.type === 'switch3')).toBe(false);
+    expect(errors.filter((e) => !/409/.test(e))).toEqual([]);
     await page.close();
   });
 

@@ -24,7 +24,7 @@ import { useCallback, useEffect, useMemo, useReducer, useRef, useState } from 'r
 import { Link, useBlocker } from 'react-router';
 import type { StudyDetail } from '../../../shared/api/studies.ts';
 import type { Role } from '../../../shared/api/common.ts';
-import type { CircuitElementInput, CircuitInput } from '../../../shared/engine/index.ts';
+import { circuitSchema, type CircuitElementInput, type CircuitInput } from '../../../shared/engine/index.ts';
 import { StatusBadge } from '../../components/badges.tsx';
 import { Button } from '../../components/button.tsx';
 import { can } from '../../lib/authorization.ts';
@@ -36,7 +36,7 @@ import { WireEdgeView } from './canvas/wire-edge.tsx';
 import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog, type ConflictSummary } from './editing/dialogs.tsx';
 import { historyReducer, initHistory } from './editing/history.ts';
 import { shortcutOf } from './editing/shortcuts.ts';
-import { canvasToCircuit } from './model/canvas-to-circuit.ts';
+import { PRIVATE_SEP, canvasToCircuit } from './model/canvas-to-circuit.ts';
 import { busNodeId, canvasLayout, circuitToCanvas, wireId } from './model/circuit-to-canvas.ts';
 import { freshId, newElement, type PaletteItem } from './model/defaults.ts';
 import { readLayout, type StudySettings } from './model/layout.ts';
@@ -63,10 +63,21 @@ function docOf(study: StudyDetail): Doc {
   return { nodes, edges, settings };
 }
 
-/** Differences of element sets between two circuits (for the conflict dialog). */
+/** Differences of element sets between two circuits (for the conflict dialog), compared with the engine's defaults applied. */
 function compareCircuits(mine: CircuitInput, theirs: CircuitInput): ConflictSummary {
-  const a = new Map(mine.elements.map((e) => [e.id, JSON.stringify(e)] as const));
-  const b = new Map(theirs.elements.map((e) => [e.id, JSON.stringify(e)] as const));
+  const canon = (c: CircuitInput) => {
+    const parsed = circuitSchema.safeParse(c);
+    const elements = (parsed.success ? parsed.data.elements : c.elements) as { id: string }[];
+    const out = new Map<string, string>();
+    for (const e of elements) {
+      // An opened connection is a generated switch: name it after its element.
+      const owner = e.id.includes(PRIVATE_SEP) ? `${e.id.split(PRIVATE_SEP)[0]} (opened conductors)` : e.id;
+      out.set(owner, (out.get(owner) ?? '') + JSON.stringify(e));
+    }
+    return out;
+  };
+  const a = canon(mine);
+  const b = canon(theirs);
   return {
     added: [...b.keys()].filter((k) => !a.has(k)),
     removed: [...a.keys()].filter((k) => !b.has(k)),
