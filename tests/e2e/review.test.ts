@@ -5,7 +5,7 @@
  * every step's e-mail reaches the fake SMTP server. (4) the owner marks the approved study as a template
  * and the engineer starts a new study from it in the gallery.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import type { StudyDetail, ListStudiesResponse } from '../../shared/api/studies.ts';
 import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
@@ -86,6 +86,14 @@ describe('review and reuse in a real browser', () => {
     const study = list.items.find((s) => s.name === STUDY_NAME);
     expect(study?.status).toBe('draft');
     studyId = study!.id;
+  });
+
+  // A failed step leaves each person's screen in test-artifacts/ for a person to look at.
+  afterEach(async (ctx) => {
+    if (ctx.task.result?.state !== 'fail') return;
+    for (const [who, page] of [['engineer', engineer], ['reviewer', reviewer], ['owner', owner]] as const) {
+      await screenshot(page, `review-failed-${who}`).catch(() => undefined);
+    }
   });
 
   afterAll(async () => {
