@@ -100,8 +100,8 @@ export function ElementForm({ element, readOnly, onApply }: { element: CircuitEl
       for (const issue of checked.error.issues) {
         const path = issue.path.map(String).join('.');
         const f = fields.find((x) => path === x.path || path.startsWith(`${x.path}.`) || x.path.startsWith(`${path}.`));
-        if (f) form.setError(fieldKey(f.path), { message: readable(issue.message) });
-        else form.setError('root', { message: `${formatPath(issue.path as (string | number)[])}: ${readable(issue.message)}` });
+        if (f) form.setError(fieldKey(f.path), { message: plainIssue(issue) });
+        else form.setError('root', { message: `${formatPath(issue.path as (string | number)[])}: ${plainIssue(issue)}` });
       }
       return;
     }
@@ -171,6 +171,13 @@ export function ElementForm({ element, readOnly, onApply }: { element: CircuitEl
       </fieldset>
     </form>
   );
+}
+
+/** A schema issue in plain words (zod's own wording for number bounds reads like code). */
+function plainIssue(issue: { code: string; message: string; minimum?: unknown; maximum?: unknown; inclusive?: boolean }): string {
+  if (issue.code === 'too_small' && typeof issue.minimum === 'number') return issue.minimum === 0 ? (issue.inclusive ? 'This cannot be negative.' : 'This must be above zero.') : `This must be at least ${issue.minimum}.`;
+  if (issue.code === 'too_big' && typeof issue.maximum === 'number') return `This must be at most ${issue.maximum}.`;
+  return readable(issue.message);
 }
 
 /** Engine messages speak of fields in quotes; keep them, but start with a capital. */

@@ -29,17 +29,30 @@ export function getPath(obj: unknown, path: string): unknown {
   return cur;
 }
 
-/** Writes a dotted path in place (creating objects on the way); `undefined` deletes the key. */
+/** Writes a dotted path in place (creating objects on the way); `undefined` deletes the key and any object it leaves empty. */
 export function setPath(obj: Record<string, unknown>, path: string, value: unknown): void {
   const keys = path.split('.');
+  const last = keys[keys.length - 1];
+  if (value === undefined) {
+    const chain: Record<string, unknown>[] = [obj];
+    for (const k of keys.slice(0, -1)) {
+      const next = chain[chain.length - 1][k];
+      if (next === null || typeof next !== 'object') return;
+      chain.push(next as Record<string, unknown>);
+    }
+    delete chain[chain.length - 1][last];
+    for (let i = chain.length - 1; i > 0; i--) {
+      if (Object.keys(chain[i]).length > 0) break;
+      delete chain[i - 1][keys[i - 1]];
+    }
+    return;
+  }
   let cur = obj;
   for (const k of keys.slice(0, -1)) {
     if (cur[k] === null || typeof cur[k] !== 'object') cur[k] = {};
     cur = cur[k] as Record<string, unknown>;
   }
-  const last = keys[keys.length - 1];
-  if (value === undefined) delete cur[last];
-  else cur[last] = value;
+  cur[last] = value;
 }
 
 const THREE = ['a', 'b', 'c'] as const;

@@ -81,3 +81,17 @@ describe('parseQuantity', () => {
     expect(formatQuantity(5, '%')).toBe('5 %');
   });
 });
+
+describe('setPath', () => {
+  it('clears an optional nested value without leaving an empty object behind', async () => {
+    const { setPath } = await import('../../../../../src/features/workspace/properties/fields.ts');
+    const a: Record<string, unknown> = { kvLL: 1 };
+    setPath(a, 'impedance.ohms', undefined);
+    expect(a).toEqual({ kvLL: 1 });
+    const b: Record<string, unknown> = { impedance: { ohms: 2 } };
+    setPath(b, 'impedance.ohms', undefined);
+    expect(b).toEqual({});
+    setPath(b, 'phases.a.kw', 3);
+    expect(b).toEqual({ phases: { a: { kw: 3 } } });
+  });
+});

@@ -1,0 +1,53 @@
+import { fireEvent, render, screen, waitFor } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { describe, expect, it, vi } from 'vitest';
+import { ElementForm } from '../../../../../src/features/workspace/properties/element-form.tsx';
+
+describe('ElementForm', () => {
+  it('applies a voltage typed in volts as kV and keeps the other fields', async () => {
+    const onApply = vi.fn();
+    render(<ElementForm element={{ type: 'source', id: 'SRC1', bus: 'B1', kvLL: 0.208 }} readOnly={false} onApply={onApply} />);
+    const kv = screen.getByLabelText(/Nominal voltage/);
+    expect(kv).toHaveValue('0.208 kV');
+    await userEvent.clear(kv);
+    await userEvent.type(kv, '13800 V{Enter}');
+    await waitFor(() => expect(onApply).toHaveBeenCalledTimes(1));
+    expect(onApply.mock.calls[0][0]).toEqual({ type: 'source', id: 'SRC1', bus: 'B1', kvLL: 13.8 });
+  });
+
+  it('says in plain words what is wrong with a complex value and applies nothing', async () => {
+    const onApply = vi.fn();
+    render(<ElementForm element={{ type: 'earthing', id: 'ROD1', node: 'B1.n', ohms: 25 }} readOnly={false} onApply={onApply} />);
+    const z = screen.getByLabelText(/Electrode resistance/);
+    await userEvent.clear(z);
+    await userEvent.type(z, 'twenty{Enter}');
+    expect(await screen.findByText(/“twenty” is not a complex value/)).toBeInTheDocument();
+    expect(z).toHaveAttribute('aria-invalid', 'true');
+    expect(onApply).not.toHaveBeenCalled();
+    await userEvent.clear(z);
+    await userEvent.type(z, '20+j3{Enter}');
+    await waitFor(() => expect(onApply).toHaveBeenCalledWith({ type: 'earthing', id: 'ROD1', node: 'B1.n', ohms: { re: 20, im: 3 } }));
+  });
+
+  it('reports the engine schema’s objection at the field (a negative rating)', async () => {
+    const onApply = vi.fn();
+    render(<ElementForm element={{ type: 'capacitorBank', id: 'CAP1', bus: 'B1', kvar: 30, connection: 'wye' }} readOnly={false} onApply={onApply} />);
+    const kvar = screen.getByLabelText(/^Rating/);
+    await userEvent.clear(kvar);
+    await userEvent.type(kvar, '-5 kvar{Enter}');
+    expect(await screen.findByText('This must be above zero.')).toBeInTheDocument();
+    expect(onApply).not.toHaveBeenCalled();
+  });
+
+  it('switches a load to single-phase at once and disables every input when read-only', () => {
+    const onApply = vi.fn();
+    const load = { type: 'load' as const, id: 'L1', bus: 'B1', connection: 'wye' as const, each: { kw: 3, kvar: 0 } };
+    const { unmount } = render(<ElementForm element={load} readOnly={false} onApply={onApply} />);
+    fireEvent.change(screen.getByLabelText('Connection'), { target: { value: 'single' } });
+    expect(onApply).toHaveBeenCalledWith({ type: 'load', id: 'L1', bus: 'B1', connection: 'single', between: ['a', 'n'], each: { kw: 3, kvar: 0 } });
+    unmount();
+    render(<ElementForm element={load} readOnly onApply={onApply} />);
+    for (const el of screen.getAllByRole('textbox')) expect(el).toBeDisabled();
+    expect(screen.getByLabelText('Connection')).toBeDisabled();
+  });
+});
