@@ -10,7 +10,7 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { elementSchemas, formatPath, type CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { formatComplex, parseComplex } from './complex-input.ts';
-import { elementFields, fieldKey, getPath, selectValue, setPath, type FieldSpec } from './fields.ts';
+import { elementFields, fieldKey, getPath, normaliseLoad, selectValue, setPath, type FieldSpec } from './fields.ts';
 import { formatQuantity, parseLength, parseQuantity } from './unit-input.ts';
 
 type Values = Record<string, string>;
@@ -61,7 +61,9 @@ function display(f: FieldSpec, el: CircuitElementInput): string {
 const INPUT = 'nodrag num h-7 w-full rounded-[3px] border border-rule-strong bg-panel px-1.5 text-[13px] disabled:border-rule disabled:bg-sunken disabled:text-ink-muted aria-[invalid=true]:border-danger';
 
 /** Edits `element`; `onApply` receives the checked element. */
-export function ElementForm({ element, readOnly, onApply }: { element: CircuitElementInput; readOnly: boolean; onApply: (next: CircuitElementInput) => void }) {
+export function ElementForm({ element: given, readOnly, onApply }: { element: CircuitElementInput; readOnly: boolean; onApply: (next: CircuitElementInput) => void }) {
+  // A load given as `total` or `each` is edited per branch (the fields name branches).
+  const element = useMemo(() => (given.type === 'load' ? normaliseLoad(given) : given), [given]);
   const fields = useMemo(() => elementFields(element), [element]);
   const formId = useId();
   const schema = useMemo(
@@ -105,7 +107,7 @@ export function ElementForm({ element, readOnly, onApply }: { element: CircuitEl
       }
       return;
     }
-    if (JSON.stringify(next) !== JSON.stringify(element)) onApply(next as CircuitElementInput);
+    if (JSON.stringify(next) !== JSON.stringify(given)) onApply(next as CircuitElementInput);
   };
   const submit = form.handleSubmit(apply);
 

@@ -50,4 +50,18 @@ describe('ElementForm', () => {
     for (const el of screen.getAllByRole('textbox')) expect(el).toBeDisabled();
     expect(screen.getByLabelText('Connection')).toBeDisabled();
   });
+
+  it('edits a load given as a three-phase total per branch', async () => {
+    const onApply = vi.fn();
+    render(<ElementForm element={{ type: 'load', id: 'W', bus: 'B1', connection: 'delta', total: { kw: 45, kvar: 24 } }} readOnly={false} onApply={onApply} />);
+    const pab = screen.getByLabelText(/^P A–B/);
+    expect(pab).toHaveValue('15 kW');
+    await userEvent.clear(pab);
+    await userEvent.type(pab, '20{Enter}');
+    await waitFor(() => expect(onApply).toHaveBeenCalledTimes(1));
+    expect(onApply.mock.calls[0][0]).toEqual({
+      type: 'load', id: 'W', bus: 'B1', connection: 'delta',
+      phases: { ab: { kw: 20, kvar: 8 }, bc: { kw: 15, kvar: 8 }, ca: { kw: 15, kvar: 8 } },
+    });
+  });
 });
