@@ -35,4 +35,13 @@ export { ANSI_C84_1, IEC_EN, resolveLimits, type LimitSet } from './limits/limit
 export { carsonPrimitiveMatrix, kronReduce, type CarsonConductor } from './blocks/carson.ts';
 export { busNode } from './blocks/expansion.ts';
 export { demoCircuits, type DemoCircuit } from './examples/index.ts';
-export { solvePrimitives, createNetwork, type Network, type SolverOptions, type SolveTimings } from './solver/index.ts';
+export {
+  solvePrimitives,
+  createNetwork,
+  DEFAULT_TOLERANCE,
+  DEFAULT_MAX_ITERATIONS,
+  DEFAULT_LOW_VOLTAGE_PU,
+  type Network,
+  type SolverOptions,
+  type SolveTimings,
+} from './solver/index.ts';

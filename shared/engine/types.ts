@@ -132,6 +132,19 @@ export interface SolveOptions {
   maxIterations?: number;
 }
 
+/**
+ * A voltage-dependent load whose terminal voltage ended below the low-voltage threshold, where its
+ * constant-current and constant-power parts were converted to constant impedance (common practice).
+ */
+export interface LowVoltageLoad {
+  /** Id of the zipLoad primitive. */
+  id: string;
+  /** Its terminal voltage, per unit of its ratedVolts. */
+  voltsPu: number;
+  /** The threshold in force, per unit. */
+  lowVoltagePu: number;
+}
+
 /** The solution of a network of primitives. */
 export interface PrimitiveSolution {
   /** Voltage to earth of every node (earth included, at 0 V). */
@@ -144,4 +157,6 @@ export interface PrimitiveSolution {
   iterations: number;
   /** Largest KCL residual over all nodes, in amperes (a self-check of the solution). */
   maxKclResidualAmps: number;
+  /** Zip loads (with constant-current or constant-power parts) solved below the low-voltage threshold; absent or empty when none. */
+  lowVoltageLoads?: LowVoltageLoad[];
 }

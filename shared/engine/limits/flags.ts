@@ -44,9 +44,38 @@ function voltageFlags(bus: BusResult, limits: LimitSet): Flag[] {
   return flags;
 }
 
+/** A voltage-dependent load branch solved below the low-voltage threshold (from the solver's lowVoltageLoads). */
+export interface LowVoltageLoadBranch {
+  /** The load element (block) id. */
+  elementId: string;
+  /** Its branch label ('a', 'ab', '1', …), when the block has several. */
+  branch?: string;
+  /** Terminal voltage, V, and per unit of the branch's rated voltage. */
+  volts: number;
+  voltsPu: number;
+  /** The threshold in force, per unit. */
+  lowVoltagePu: number;
+}
+
 /** All flags for the buses and elements of a result. */
-export function computeFlags(buses: BusResult[], elements: ElementResult[], floating: FloatingIsland[], limits: LimitSet): Flag[] {
+export function computeFlags(buses: BusResult[], elements: ElementResult[], floating: FloatingIsland[], limits: LimitSet, lowVoltageLoads: readonly LowVoltageLoadBranch[] = []): Flag[] {
   const flags: Flag[] = [];
+  // A ZIP load below the threshold no longer draws its stated constant-current / constant-power
+  // share: the solver turned those parts into constant impedance there (common practice (P),
+  // default 0.7 pu), so its power is less than asked for. Say so next to the load.
+  for (const l of lowVoltageLoads) {
+    const what = l.branch ? `load ${l.elementId} (${l.branch})` : `load ${l.elementId}`;
+    flags.push({
+      severity: 'warning',
+      code: 'load-low-voltage',
+      elementId: l.elementId,
+      ...(l.branch ? { conductor: l.branch } : {}),
+      value: l.voltsPu,
+      limit: l.lowVoltagePu,
+      unit: 'pu',
+      message: `${what} sees ${f1(l.volts)} V = ${f3(l.voltsPu)} pu of its rated voltage, below ${l.lowVoltagePu} pu: its constant-current and constant-power parts were converted to constant impedance (it draws less than its rated kW/kvar)`,
+    });
+  }
   for (const bus of buses) {
     flags.push(...voltageFlags(bus, limits));
     const u = limits.unbalanceMetric === 'iec' ? bus.iecUnbalancePercent : limits.unbalanceMetric === 'nema' ? bus.nemaUnbalancePercent : bus.ieeeUnbalancePercent;

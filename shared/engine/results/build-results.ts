@@ -11,7 +11,7 @@ import type { ExpandContext, Expansion } from '../blocks/expansion.ts';
 import { sequenceComponents, type SequenceComponents } from '../metrics/sequence.ts';
 import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/unbalance.ts';
 import type { LimitSet } from '../limits/limit-sets.ts';
-import { computeFlags } from '../limits/flags.ts';
+import { computeFlags, type LowVoltageLoadBranch } from '../limits/flags.ts';
 import { terminalCurrents } from './terminal-currents.ts';
 import type { BusResult, CircuitResult, ElementResult, FaultResult, SequenceResult } from './types.ts';
 
@@ -286,6 +286,18 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
     });
   }
   const elementList = works.map((w) => w.result);
+  const lowLoads: LowVoltageLoadBranch[] = [];
+  if (sol.lowVoltageLoads && sol.lowVoltageLoads.length > 0) {
+    const owner = new Map<string, { e: Expansion; phase?: string }>();
+    for (const e of expansions) for (const t of e.primitives) if (t.prim.type === 'zipLoad') owner.set(t.prim.id, { e, phase: t.phase });
+    for (const l of sol.lowVoltageLoads) {
+      const o = owner.get(l.id);
+      const prim = o?.e.primitives.find((t) => t.prim.id === l.id)?.prim;
+      const volts = prim && prim.type === 'zipLoad' ? l.voltsPu * prim.ratedVolts : NaN;
+      const multi = o ? o.e.primitives.length > 1 : false;
+      lowLoads.push({ elementId: o?.e.id ?? l.id, ...(multi && o?.phase ? { branch: o.phase } : {}), volts, voltsPu: l.voltsPu, lowVoltagePu: l.lowVoltagePu });
+    }
+  }
   return {
     ...(circuit.name !== undefined ? { name: circuit.name } : {}),
     frequencyHz: circuit.frequencyHz,
@@ -312,7 +324,7 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
       maxKclResidualAmps: sol.maxKclResidualAmps,
     },
     floating: sol.floating,
-    flags: computeFlags(buses, elementList, sol.floating, limits),
+    flags: computeFlags(buses, elementList, sol.floating, limits, lowLoads),
     limits,
     iterations: sol.iterations,
   };

@@ -103,7 +103,7 @@ export interface FaultResult {
 /** A result outside a limit. */
 export interface Flag {
   severity: 'info' | 'warning' | 'violation';
-  code: 'voltage-low' | 'voltage-high' | 'unbalance' | 'neutral-shift' | 'overload' | 'floating';
+  code: 'voltage-low' | 'voltage-high' | 'unbalance' | 'neutral-shift' | 'overload' | 'floating' | 'load-low-voltage';
   bus?: string;
   elementId?: string;
   conductor?: string;

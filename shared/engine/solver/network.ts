@@ -43,10 +43,11 @@
  * then touch typed arrays only.
  */
 import { IllPosedNetworkError, InvalidCircuitError, NonConvergenceError, SingularNetworkError } from '../errors.ts';
-import type { Cx, FloatingIsland, Primitive, PrimitiveSolution, SolveOptions } from '../types.ts';
+import type { Cx, FloatingIsland, LowVoltageLoad, Primitive, PrimitiveSolution, SolveOptions } from '../types.ts';
 import { EARTH } from '../types.ts';
 import { denseInverseInto } from './dense.ts';
 import { analyzePattern, createLuWorkspace, factorNumeric, type LuWorkspace, type NumericLu, type SymbolicLu } from './sparse-lu.ts';
+import { LazyMap } from './lazy-map.ts';
 import { validatePrimitives } from './validate.ts';
 
 /** Solver options: SolveOptions plus the low-voltage rule of voltage-dependent loads. */
@@ -185,6 +186,8 @@ interface Topology {
   cz: { re: Float64Array; im: Float64Array };
   cy: { re: Float64Array; im: Float64Array };
   coupledValid: Uint8Array;
+  /** Per element: offset of its first current in the flat current arrays (length elements + 1). */
+  currentOffset: Int32Array;
   /** Value assembler and LU workspace, created on the first solve and reused. */
   valueAssembler?: Assembler;
   workspace?: LuWorkspace;
@@ -472,6 +475,7 @@ function buildTopology(prims: Primitive[]): Topology {
     kind: Uint8Array.from(prims, kindCode),
     switchClosed: Uint8Array.from(prims, (e) => (e.type === 'switch' && e.closed ? 1 : 0)),
     values: allocValues(prims),
+    currentOffset: currentOffsets(elNodes, prims),
   };
   loadValues(topo, prims);
 
@@ -483,6 +487,16 @@ function buildTopology(prims: Primitive[]): Topology {
   topo.symbolic = symbolic;
   topo.positions = positions;
   return topo;
+}
+
+/** Offsets of each element's currents in the flat arrays: coupled branches one per conductor, stamps one per node, others one. */
+function currentOffsets(elNodes: Int32Array[], prims: Primitive[]): Int32Array {
+  const off = new Int32Array(prims.length + 1);
+  for (let k = 0; k < prims.length; k++) {
+    const t = prims[k].type;
+    off[k + 1] = off[k] + (t === 'coupledBranch' ? elNodes[k].length >> 1 : t === 'admittanceMatrix' ? elNodes[k].length : 1);
+  }
+  return off;
 }
 
 function coupledStorage(prims: Primitive[]) {
@@ -1022,10 +1036,10 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
   }
   const tSol = now();
 
-  const { currents, maxKcl } = elementCurrents(t, vRe, vIm, lowPu);
+  const { cRe, cIm, maxKcl, lowVoltage } = elementCurrents(t, vRe, vIm, lowPu);
   // A numerically floating part (found by the LU border) cannot take a net current: if KCL fails,
   // something drives current into it with no way back.
-  if (lu.nullVectors.length > 0 && maxKcl > 1e-9 * Math.max(largestCurrent(currents), admittanceScale(t) * largestVoltage(vRe, vIm), 1e-12)) {
+  if (lu.nullVectors.length > 0 && maxKcl > 1e-9 * Math.max(largestCurrent(cRe, cIm), admittanceScale(t) * largestVoltage(vRe, vIm), 1e-12)) {
     const isl = numericIslands(t, lu);
     const nodes = isl.flatMap((i) => i.nodes);
     throw new IllPosedNetworkError(
@@ -1036,13 +1050,26 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
       { nodes },
     );
   }
-  const nodeVolts = new Map<string, Cx>();
-  for (let i = 0; i < nn; i++) nodeVolts.set(t.nodeNames[i], { re: vRe[i], im: vIm[i] });
+  // The Maps of the solution are built on first use from these arrays (building ~10⁵ small
+  // objects per solve was most of a warm 20 000-bus solve; live re-solving often reads few of them).
+  const nodeNames = t.nodeNames;
+  const nodeVolts = new LazyMap<string, Cx>((set) => {
+    for (let i = 0; i < nn; i++) set(nodeNames[i], { re: vRe[i], im: vIm[i] });
+  });
+  const ids = t.ids;
+  const off = t.currentOffset;
+  const currents = new LazyMap<string, Cx[]>((set) => {
+    for (let k = 0; k < ids.length; k++) {
+      const list: Cx[] = new Array(off[k + 1] - off[k]);
+      for (let j = off[k]; j < off[k + 1]; j++) list[j - off[k]] = { re: cRe[j], im: cIm[j] };
+      set(ids[k], list);
+    }
+  });
   const floating: FloatingIsland[] = t.islands.map((i) => ({ nodes: i.island.nodes.slice(), referenceNode: i.island.referenceNode }));
   floating.push(...numericIslands(t, lu));
   const tEnd = now();
   return {
-    solution: { nodeVolts, elementCurrents: currents, floating, iterations, maxKclResidualAmps: maxKcl },
+    solution: { nodeVolts, elementCurrents: currents, floating, iterations, maxKclResidualAmps: maxKcl, lowVoltageLoads: lowVoltage },
     timings: {
       analyzeMs,
       assembleMs: tAsm - tStart,
@@ -1171,36 +1198,39 @@ function largestVoltage(vRe: Float64Array, vIm: Float64Array): number {
   return m;
 }
 
-function largestCurrent(currents: Map<string, Cx[]>): number {
+function largestCurrent(cRe: Float64Array, cIm: Float64Array): number {
   let m = 0;
-  for (const list of currents.values()) for (const c of list) m = Math.max(m, Math.abs(c.re) + Math.abs(c.im));
+  for (let i = 0; i < cRe.length; i++) m = Math.max(m, Math.abs(cRe[i]) + Math.abs(cIm[i]));
   return m;
 }
 
-/** Element currents in the conventions of types.ts, and the largest KCL residual (A). */
-function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowPu: number): { currents: Map<string, Cx[]>; maxKcl: number } {
+/** Element currents (flat, at `t.currentOffset`) in the conventions of types.ts, the largest KCL residual (A), and the zip loads below the low-voltage threshold. */
+function elementCurrents(
+  t: Topology,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  lowPu: number,
+): { cRe: Float64Array; cIm: Float64Array; maxKcl: number; lowVoltage: LowVoltageLoad[] } {
   const nn = t.nodeNames.length;
   const v = t.values;
   const kind = t.kind;
-  const ids = t.ids;
+  const off = t.currentOffset;
+  const cRe = new Float64Array(off[kind.length]);
+  const cIm = new Float64Array(off[kind.length]);
+  const lowVoltage: LowVoltageLoad[] = [];
   // outflow[i]: current leaving node i into the (non-tree) elements
   const oRe = new Float64Array(nn);
   const oIm = new Float64Array(nn);
-  const currents = new Map<string, Cx[]>();
-  const treeEls: number[] = [];
   for (let k = 0; k < kind.length; k++) {
     const nodes = t.elNodes[k];
     const kk = kind[k];
-    if (kk === K_SOURCE_IDEAL || (kk === K_SWITCH && t.switchClosed[k])) {
-      treeEls.push(k);
-      continue;
-    }
+    const at = off[k];
+    if (kk === K_SOURCE_IDEAL || (kk === K_SWITCH && t.switchClosed[k])) continue; // from the trees below
     if (kk === K_COUPLED) {
       const m = nodes.length >> 1;
       const o = t.coupledOffset[k];
       const yRe = t.cy.re;
       const yIm = t.cy.im;
-      const list: Cx[] = new Array(m);
       for (let i = 0; i < m; i++) {
         let ir = 0;
         let ii = 0;
@@ -1212,19 +1242,18 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
           ir += yr * dr - yi * di;
           ii += yr * di + yi * dr;
         }
-        list[i] = { re: ir, im: ii };
+        cRe[at + i] = ir;
+        cIm[at + i] = ii;
         oRe[nodes[i]] += ir;
         oIm[nodes[i]] += ii;
         oRe[nodes[m + i]] -= ir;
         oIm[nodes[m + i]] -= ii;
       }
-      currents.set(ids[k], list);
       continue;
     }
     if (kk === K_ADMITTANCE) {
       const m = nodes.length;
       const o = v.stampOffset[k];
-      const list: Cx[] = new Array(m);
       for (let i = 0; i < m; i++) {
         let ir = 0;
         let ii = 0;
@@ -1234,11 +1263,11 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
           ir += yr * vRe[nodes[j]] - yi * vIm[nodes[j]];
           ii += yr * vIm[nodes[j]] + yi * vRe[nodes[j]];
         }
-        list[i] = { re: ir, im: ii };
+        cRe[at + i] = ir;
+        cIm[at + i] = ii;
         oRe[nodes[i]] += ir;
         oIm[nodes[i]] += ii;
       }
-      currents.set(ids[k], list);
       continue;
     }
     // two-terminal elements: ir + j·ii flows from nodes[0] to nodes[1] through the element
@@ -1274,9 +1303,12 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
       ii = ZC[1];
       cr = ir;
       ci = ii;
+      const pu = Math.hypot(dr, di) / v.zipVolts[k];
+      if (pu < lowPu && v.zipZ[k] !== 1) lowVoltage.push({ id: t.ids[k], voltsPu: pu, lowVoltagePu: lowPu });
     }
     // (open switch: zero)
-    currents.set(ids[k], [{ re: cr, im: ci }]);
+    cRe[at] = cr;
+    cIm[at] = ci;
     oRe[a] += ir;
     oIm[a] += ii;
     oRe[b] -= ir;
@@ -1286,8 +1318,6 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
   // subtree into the other elements; the edge to the parent brings exactly F into the subtree.
   const fRe = oRe;
   const fIm = oIm;
-  const edgeRe = new Float64Array(kind.length);
-  const edgeIm = new Float64Array(kind.length);
   const order = t.treeOrder;
   let maxKcl = 0;
   for (let q = order.length - 1; q >= 0; q--) {
@@ -1306,10 +1336,9 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
     // switch: current from → to, i.e. from parent to child when the child is `to`; source: the
     // current leaving plus into the circuit is the current arriving at plus from the parent side
     const sign = kind[el] === K_SWITCH ? (t.elNodes[el][1] === c ? 1 : -1) : t.elNodes[el][0] === c ? 1 : -1;
-    edgeRe[el] = sign * Fr;
-    edgeIm[el] = sign * Fi;
+    cRe[off[el]] = sign * Fr;
+    cIm[off[el]] = sign * Fi;
   }
-  for (const k of treeEls) currents.set(ids[k], [{ re: edgeRe[k], im: edgeIm[k] }]);
   // KCL residual: nodes off the trees and the roots of trees other than earth's (the tree edges
   // balance every other node exactly by construction)
   for (let i = 1; i < nn; i++) {
@@ -1317,5 +1346,5 @@ function elementCurrents(t: Topology, vRe: Float64Array, vIm: Float64Array, lowP
     if (t.unknownOf[i] < 0) continue;
     maxKcl = Math.max(maxKcl, Math.hypot(fRe[i], fIm[i]));
   }
-  return { currents, maxKcl };
+  return { cRe, cIm, maxKcl, lowVoltage };
 }

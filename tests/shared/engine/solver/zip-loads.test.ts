@@ -82,6 +82,23 @@ describe('zip loads', () => {
     const { v } = drawn(sol, 'L', 's', 'earth');
     expect(v).toBeCloseTo((230 * zEq) / (zEq + 1), 6);
     expect(v / 230).toBeLessThan(0.7);
+    // and the solution says which load was converted, at what voltage
+    expect(sol.lowVoltageLoads).toHaveLength(1);
+    expect(sol.lowVoltageLoads![0].id).toBe('L');
+    expect(sol.lowVoltageLoads![0].voltsPu).toBeCloseTo(v / 230, 12);
+    expect(sol.lowVoltageLoads![0].lowVoltagePu).toBe(0.7);
+  });
+
+  it('loads above the threshold, and constant-impedance ones below it, are not reported as converted', () => {
+    const fine = solvePrimitives([source(1, 0), load('L', 's', 'earth', { re: 5000, im: 0 }, { z: 0, i: 0, p: 1 })]);
+    expect(fine.lowVoltageLoads).toEqual([]);
+    // 0.5 pu on a pure constant-impedance zip load: nothing was converted
+    const zOnly = solvePrimitives([source(230 * 230 / 10000, 0), load('Z', 's', 'earth', { re: 10000, im: 0 }, { z: 1, i: 0, p: 0 })]);
+    expect(drawn(zOnly, 'Z', 's', 'earth').v / 230).toBeCloseTo(0.5, 9);
+    expect(zOnly.lowVoltageLoads).toEqual([]);
+    // a lower threshold set by the caller is the one reported against
+    const low = solvePrimitives([source(1, 0), load('L', 's', 'earth', { re: 8000, im: 0 }, { z: 0, i: 0, p: 1 })], { lowVoltagePu: 0.9 });
+    expect(low.lowVoltageLoads!.map((l) => [l.id, l.lowVoltagePu])).toEqual([['L', 0.9]]);
   });
 
   it('non-convergence names the load with the worst mismatch', () => {
