@@ -192,4 +192,45 @@ describe('review and reuse in a real browser', () => {
     await reviewRegion(engineer).waitFor();
     await screenshot(engineer, 'review-7-new-from-template');
   });
+
+  it('history, a read-only revision, notifications, the audit trail, and export then import', async () => {
+    await engineer.goto(`${product.baseUrl}/studies/${studyId}/history`);
+    const history = engineer.getByRole('table', { name: 'Revisions' });
+    await history.getByText('Mill phase a at the metered 520 kW').waitFor();
+    await screenshot(engineer, 'review-8-history');
+    await engineer.getByRole('link', { name: 'Open revision 2' }).click();
+    await engineer.getByRole('heading', { name: 'Revision 2', level: 1 }).waitFor();
+    await engineer.getByRole('table', { name: 'Bus voltages at this revision' }).waitFor();
+    expect(await engineer.textContent('body')).toMatch(/licensed practice/);
+    await screenshot(engineer, 'review-9-revision');
+
+    await reviewer.goto(`${product.baseUrl}/notifications`);
+    await reviewer.getByRole('list', { name: 'Notifications' }).getByText(/review/i).first().waitFor();
+    expect(await reviewer.getByRole('link', { name: /^Notifications, \d+ unread$/ }).count()).toBe(1);
+    await screenshot(reviewer, 'review-10-notifications');
+    await reviewer.getByRole('button', { name: 'Mark all read' }).click();
+    await reviewer.getByRole('link', { name: 'Notifications, none unread' }).waitFor();
+
+    await owner.goto(`${product.baseUrl}/audit`);
+    await owner.getByLabel('Action').selectOption('review.');
+    await owner.getByRole('table', { name: 'Audit events' }).getByText('review.approve').first().waitFor();
+    const actions = await owner.getByRole('table', { name: 'Audit events' }).locator('tbody tr td:nth-child(3)').allTextContents();
+    expect(actions.length).toBeGreaterThan(0);
+    expect(actions.every((a) => a.startsWith('review.'))).toBe(true);
+    await screenshot(owner, 'review-11-audit');
+
+    // Export through the download endpoint, import the same file on the studies list page.
+    const exported = await engineer.request.get(`${product.baseUrl}/api/studies/${studyId}/export`);
+    expect(exported.status()).toBe(200);
+    await engineer.goto(`${product.baseUrl}/`);
+    await engineer.getByRole('button', { name: 'Import study' }).click();
+    const dialog = engineer.getByRole('dialog', { name: 'Import a study' });
+    await dialog.getByLabel('Study file').setInputFiles({ name: 'feeder.wyeward.json', mimeType: 'application/json', buffer: Buffer.from(await exported.body()) });
+    await dialog.getByLabel('Name (optional)').fill('Imported feeder copy');
+    await dialog.getByRole('button', { name: 'Import' }).click();
+    await engineer.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname) && !url.pathname.endsWith(studyId));
+    const imported = (await (await engineer.request.get(`${product.baseUrl}/api/studies/${new URL(engineer.url()).pathname.split('/').pop()}`)).json()) as StudyDetail;
+    expect(imported.name).toBe('Imported feeder copy');
+    expect(imported.elementCount).toBe(7);
+  });
 });
