@@ -10,10 +10,21 @@ import { useAudit, useAuditChoices, type AuditFilters } from '../api/get-audit.t
 /** Action families offered as prefixes ("review." = every review action). */
 const PREFIXES = [...new Set(AUDIT_ACTIONS.map((a) => `${a.split('.')[0]}.`))];
 
-function detailText(detail: unknown): string {
-  if (detail === null || detail === undefined) return '';
-  if (typeof detail === 'string') return detail;
-  return JSON.stringify(detail);
+/** An event's detail as "key: value · …", with member ids shown as names. */
+export function detailText(detail: unknown, names: ReadonlyMap<string, string>): string {
+  const value = (v: unknown): string => {
+    if (v === null || v === undefined) return '—';
+    if (typeof v === 'string') return names.get(v) ?? v;
+    if (Array.isArray(v)) return v.map(value).join(', ');
+    if (typeof v === 'object') return JSON.stringify(v);
+    return String(v);
+  };
+  if (detail && typeof detail === 'object' && !Array.isArray(detail)) {
+    return Object.entries(detail as Record<string, unknown>)
+      .map(([k, v]) => `${k}: ${value(v)}`)
+      .join(' · ');
+  }
+  return detail === null || detail === undefined ? '' : value(detail);
 }
 
 /** The team's audit trail for owners: filter by study, action and actor; 50 events a page, newest first. */
@@ -28,6 +39,7 @@ export function AuditPage() {
   const audit = useAudit(filters);
   const { studies, team } = useAuditChoices();
   const studyName = new Map((studies.data?.items ?? []).map((s) => [s.id, s.name] as const));
+  const memberName = new Map((team.data?.members ?? []).map((m) => [m.userId, m.name] as const));
   const pages = audit.data ? Math.max(1, Math.ceil(audit.data.total / AUDIT_PAGE_SIZE)) : 1;
 
   const set = (key: string, value: string) =>
@@ -121,7 +133,7 @@ export function AuditPage() {
                       '—'
                     )}
                   </td>
-                  <td className="num max-w-md break-all text-[12px] text-ink-muted">{detailText(e.detail)}</td>
+                  <td className="max-w-md break-words text-[12px] text-ink-muted">{detailText(e.detail, memberName)}</td>
                 </tr>
               ))}
             </tbody>
