@@ -85,14 +85,31 @@ function compareCircuits(mine: CircuitInput, theirs: CircuitInput): ConflictSumm
   };
 }
 
+/**
+ * canvasToCircuit depends on node data and edges, not on positions: while a node is dragged its data
+ * object is kept, so the last conversion is reused (a drag then costs no conversion per frame).
+ */
+type Conversion = ReturnType<typeof canvasToCircuit> & { ids: string[] };
+const conversionCache = new WeakMap<WorkspaceEdge[], { data: unknown[]; settings: StudySettings; result: Conversion }>();
+const jsonCache = new WeakMap<object, string>();
+/** JSON of an object that is never mutated, computed once. */
+function json(o: object): string {
+  let j = jsonCache.get(o);
+  if (j === undefined) jsonCache.set(o, (j = JSON.stringify(o)));
+  return j;
+}
+function convert(d: Doc): Conversion {
+  const data = d.nodes.map((n) => n.data);
+  const hit = conversionCache.get(d.edges);
+  if (hit && hit.settings === d.settings && hit.data.length === data.length && hit.data.every((x, i) => x === data[i]) && d.nodes.every((n, i) => n.id === hit.result.ids[i])) return hit.result;
+  const result: Conversion = { ...canvasToCircuit(d.nodes, d.edges, d.settings), ids: d.nodes.map((n) => n.id) };
+  conversionCache.set(d.edges, { data, settings: d.settings, result });
+  return result;
+}
+
 /** What saving would store, as a string (node positions rounded as the layout stores them). */
-const keyCache = new WeakMap<Doc, string>();
 function docKey(d: Doc): string {
-  const hit = keyCache.get(d);
-  if (hit !== undefined) return hit;
-  const key = JSON.stringify([canvasToCircuit(d.nodes, d.edges, d.settings).circuit, canvasLayout(d.nodes, d.edges, d.settings)]);
-  keyCache.set(d, key);
-  return key;
+  return json(convert(d).circuit) + JSON.stringify(canvasLayout(d.nodes, d.edges, d.settings));
 }
 
 function inField(target: EventTarget | null): boolean {
@@ -139,8 +156,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const commit = useCallback((next: Doc) => dispatch({ type: 'commit', next }), []);
 
   // ---- circuit and live solve ----
-  const conversion = useMemo(() => canvasToCircuit(doc.nodes, doc.edges, doc.settings), [doc.nodes, doc.edges, doc.settings]);
-  const circuitKey = JSON.stringify(conversion.circuit);
+  const conversion = convert(doc);
+  const circuitKey = json(conversion.circuit);
   // eslint-disable-next-line react-hooks/exhaustive-deps -- the key stands for the circuit's content
   const circuit = useMemo(() => conversion.circuit, [circuitKey]);
   const live = useLiveSolve(circuit.elements.length > 0 ? circuit : null);
