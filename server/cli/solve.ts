@@ -1,5 +1,5 @@
 /**
- * `npm run -s solve -- <file.json> [--json [--full]]`: solve a Wyeward circuit file.
+ * `npm run -s solve -- <file.json> [--json [--full]] [--timings]`: solve a Wyeward circuit file.
  *
  * Without --json: a readable report (buses, element currents, faults, totals, flags) with the
  * safety caution. With --json: the results as JSON on stdout: `nodes` (voltage to earth per node)
@@ -7,12 +7,13 @@
  * floating parts and flags; `--full` adds the per-bus results and all per-element fields.
  * Exit codes: 0 solved; 2 invalid input (unreadable file, malformed JSON, schema errors);
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
- * never a stack trace. Kept light on purpose (it is benchmarked against ngspice): file → parse →
+ * never a stack trace. `--timings` adds one stderr line splitting the run (start-up and imports,
+ * read, JSON parse, validate + expand, solve, results, output). Kept light on purpose (it is benchmarked against ngspice): file → parse →
  * solve → write, importing only the engine.
  */
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { EngineError, solveCircuit, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
+import { EngineError, circuitResults, prepareCircuit, solvePrimitives, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
 
 const CAUTION =
   'CAUTION: Wyeward is an engineering aid. Results are only as good as the model; designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.';
@@ -108,35 +109,64 @@ export function jsonResult(r: CircuitResult, full = false) {
   };
 }
 
-function main(argv: string[]): void {
-  const args = argv.filter((a) => a !== '--json' && a !== '--full');
+/** Run the CLI on its arguments (exits the process on errors). Called directly or by solve-launcher.mjs. */
+export function main(argv: string[]): void {
+  const t0 = performance.now();
+  const args = argv.filter((a) => a !== '--json' && a !== '--full' && a !== '--timings');
   const asJson = argv.includes('--json');
   const full = argv.includes('--full');
+  const timings = argv.includes('--timings');
   const unknownFlag = args.find((a) => a.startsWith('--'));
-  if (unknownFlag) fail(2, `unknown option ${unknownFlag} (usage: solve <file.json> [--json [--full]])`);
-  if (args.length !== 1) fail(2, 'usage: solve <file.json> [--json [--full]]');
+  if (unknownFlag) fail(2, `unknown option ${unknownFlag} (${USAGE})`);
+  if (args.length !== 1) fail(2, USAGE);
   const file = args[0];
+  const marks: [string, number][] = [];
+  const mark = (label: string) => marks.push([label, performance.now()]);
   let text: string;
   try {
     text = readFileSync(file, 'utf8');
   } catch (e) {
     fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
   }
+  mark('read');
   let input: unknown;
   try {
     input = JSON.parse(text);
   } catch (e) {
     fail(2, `${file} is not valid JSON: ${(e as Error).message}`);
   }
+  mark('JSON parse');
   let result: CircuitResult;
   try {
-    result = solveCircuit(input);
+    // solveCircuit's steps, one by one so that --timings can split them
+    const prepared = prepareCircuit(input);
+    mark('validate + expand');
+    const solution = solvePrimitives(prepared.primitives);
+    mark('solve');
+    result = circuitResults(prepared, solution);
+    mark('results');
   } catch (e) {
     if (e instanceof EngineError) fail(e.code === 'invalid-circuit' ? 2 : 3, e.message);
     fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
   }
-  process.stdout.write(asJson ? JSON.stringify(jsonResult(result, full)) + '\n' : formatReport(result));
+  const out = asJson ? JSON.stringify(jsonResult(result, full)) + '\n' : formatReport(result);
+  mark(asJson ? 'JSON write' : 'report');
+  process.stdout.write(out);
+  mark('stdout');
+  if (timings) {
+    // time since process start (node + loader + imports) first, then each step, on stderr
+    const startup = t0; // performance.now() counts from the process's time origin
+    const parts = [`start-up + imports ${startup.toFixed(0)} ms`];
+    let prev = t0;
+    for (const [label, t] of marks) {
+      parts.push(`${label} ${(t - prev).toFixed(0)} ms`);
+      prev = t;
+    }
+    process.stderr.write(`solve timings: ${parts.join(', ')}; total ${prev.toFixed(0)} ms since process start\n`);
+  }
 }
+
+const USAGE = 'usage: solve <file.json> [--json [--full]]';
 
 // Run only as a program (tests and tools may import the formatters).
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main(process.argv.slice(2));
