@@ -81,9 +81,11 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
         .returning({ id: studies.id });
       // Revision 1 with the engine's summary, and the review history that led to the study's status.
       await appendRevision(tx, { studyId: study.id, teamId: team.id, authorId: createdBy, content: { circuit: demo.circuit }, message: 'Initial revision', at: createdAt, audit: false });
+      await tx.insert(auditEvents).values({ teamId: team.id, actorId: createdBy, action: 'revision.create', studyId: study.id, detail: { revision: 1, seeded: true }, at: createdAt });
       if (look.status !== 'draft') {
         const requestedAt = new Date(createdAt.getTime() + 3600 * 1000);
         await tx.insert(reviewEvents).values({ studyId: study.id, teamId: team.id, actorId: createdBy, action: 'request', fromStatus: 'draft', toStatus: 'in-review', revision: 1, reviewers: [reviewerId], message: 'Ready for a check.', at: requestedAt });
+        await tx.insert(auditEvents).values({ teamId: team.id, actorId: createdBy, action: 'review.request', studyId: study.id, detail: { revision: 1, reviewers: [reviewerId], seeded: true }, at: requestedAt });
         if (look.status !== 'in-review') {
           const approved = look.status === 'approved';
           await tx.insert(reviewEvents).values({
@@ -96,6 +98,14 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
             revision: 1,
             reviewers: [reviewerId],
             message: approved ? 'Checked against the field readings; fine to reuse.' : 'Please add the service earthing resistance measured on site.',
+            at: new Date(requestedAt.getTime() + 3600 * 1000),
+          });
+          await tx.insert(auditEvents).values({
+            teamId: team.id,
+            actorId: reviewerId,
+            action: approved ? 'review.approve' : 'review.request-changes',
+            studyId: study.id,
+            detail: { revision: 1, seeded: true },
             at: new Date(requestedAt.getTime() + 3600 * 1000),
           });
         }

@@ -94,6 +94,7 @@ describe('demo seed', () => {
       expect(me).toMatchObject({ role: a.role, team: { name: DEMO_TEAM_NAME } });
     }
     const engineer = await signedIn(t.app, 'engineer@wyeward.test', 'wyeward-demo');
+    const owner = await signedIn(t.app, 'owner@wyeward.test', 'wyeward-demo');
     const list = (await engineer.get('/api/studies')).body;
     expect(list.total).toBe(demoCircuits.length);
     expect(list.items.map((s: { name: string }) => s.name).sort()).toEqual(demoCircuits.map((c) => c.name).sort());
@@ -112,6 +113,9 @@ describe('demo seed', () => {
       expect(state.status).toBe(s.status);
       expect(state.events.length).toBe({ draft: 0, 'in-review': 1, 'changes-requested': 2, approved: 2 }[s.status as string]);
       if (s.status === 'approved') expect(state.approvedRevision).toBe(1);
+      const audit = (await owner.get(`/api/audit?studyId=${s.id}`)).body.items.map((e: { action: string }) => e.action);
+      expect(audit).toContain('revision.create');
+      expect(audit.filter((a: string) => a.startsWith('review.'))).toHaveLength(state.events.length);
       // A seeded study saves back unchanged: its content passes the same validation as any edit.
       const saved = await engineer.patch(`/api/studies/${s.id}`).send({ version: detail.version, content: detail.content });
       expect(saved.status, JSON.stringify(saved.body)).toBe(200);
