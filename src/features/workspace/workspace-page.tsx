@@ -248,8 +248,12 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       if (!r) return;
       const cur = docRef.current;
       const id = wireId(r.element.id, r.port);
+      // A split-phase source or a centre-tapped secondary makes its bus a 120/240 V bus (legs 1, 2, N).
+      const el = r.element.data.element;
+      const makesSplit = el.type === 'splitPhaseSource' || (el.type === 'splitPhaseTransformer' && r.port === 'to');
+      const nodes = makesSplit && !r.bus.data.splitPhase ? cur.nodes.map((n) => (n.id === r.bus.id && isBusNode(n) ? { ...n, data: { ...n.data, splitPhase: true } } : n)) : cur.nodes;
       const edge: WorkspaceEdge = { id, type: 'wire', ariaLabel: `Connection ${r.element.id} to bus ${r.bus.data.name}`, source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
-      commit({ ...cur, edges: [...cur.edges.filter((e) => e.id !== id), edge] });
+      commit({ ...cur, nodes, edges: [...cur.edges.filter((e) => e.id !== id), edge] });
     },
     [readOnly, resolveConnection, commit],
   );
