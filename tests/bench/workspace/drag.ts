@@ -35,7 +35,9 @@ async function freePort(): Promise<number> {
 
 const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-drag-dist-'));
 const data = mkdtempSync(path.join(tmpdir(), 'wyeward-drag-data-'));
-const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
+// DRAG_PROFILE=1: an unminified build and a CPU profile of the drag, to see where frame time goes.
+const profile = process.env.DRAG_PROFILE === '1';
+const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn', ...(profile ? ['--minify', 'false'] : [])], { cwd: root, encoding: 'utf8' });
 if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
 const port = await freePort();
 const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
@@ -74,15 +76,30 @@ try {
   const nodes = await page.locator('.react-flow__node').count();
   console.log(`workspace open with ${nodes} canvas nodes after ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   await page.waitForTimeout(1500);
+  // Zoom in a little so nodes are big enough to grab (fit view shows all 300 elements tiny).
+  await page.locator('.react-flow__pane').hover();
+  await page.mouse.wheel(0, -400);
+  await page.waitForTimeout(500);
   mkdirSync(shots, { recursive: true });
   await page.screenshot({ path: path.join(shots, 'workspace-300.png') });
 
   // Drag a bus node well inside the view along a loop while recording frame intervals.
-  const node = page.locator('.react-flow__node').nth(Math.min(nodes - 1, 40));
-  await node.scrollIntoViewIfNeeded();
+  // Pick a bus node whose bar is really under the pointer (inside the pane, not under the minimap).
+  const pick = (await page.evaluate(`(() => {
+    for (const el of document.querySelectorAll('.react-flow__node-bus')) {
+      const r = el.getBoundingClientRect();
+      const x = r.left + r.width * 0.6, y = r.top + r.height * 0.45;
+      const hit = document.elementFromPoint(x, y);
+      if (hit && el.contains(hit) && !hit.closest('.react-flow__handle')) return { id: el.getAttribute('data-id'), x, y, w: r.width, h: r.height };
+    }
+    return null;
+  })()`)) as { id: string; x: number; y: number; w: number; h: number } | null;
+  if (!pick) throw new Error('no bus node is reachable on screen');
+  const node = page.locator(`.react-flow__node[data-id="${pick.id}"]`);
   const box = (await node.boundingBox())!;
-  const cx = box.x + box.width / 2;
-  const cy = box.y + box.height / 2;
+  const cx = pick.x;
+  const cy = pick.y;
+  console.log(`dragging ${pick.id} (${pick.w.toFixed(0)}×${pick.h.toFixed(0)} px on screen)`);
   // A string, not a function: tsx's transform adds helpers (__name) that do not exist in the page.
   await page.evaluate(`(() => {
     window.__frames = [];
@@ -91,6 +108,12 @@ try {
     const tick = (t) => { window.__frames.push(t - last); last = t; if (!window.__stop) requestAnimationFrame(tick); };
     requestAnimationFrame(tick);
   })()`);
+  const cdp = profile ? await page.context().newCDPSession(page) : null;
+  if (cdp) {
+    await cdp.send('Profiler.enable');
+    await cdp.send('Profiler.setSamplingInterval', { interval: 500 });
+    await cdp.send('Profiler.start');
+  }
   await page.mouse.move(cx, cy);
   await page.mouse.down();
   const steps = 120;
@@ -101,6 +124,19 @@ try {
   }
   await page.mouse.up();
   const frames = (await page.evaluate('(() => { window.__stop = true; return window.__frames.slice(1); })()')) as number[];
+  if (cdp) {
+    const { profile: prof } = (await cdp.send('Profiler.stop')) as { profile: { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples: number[]; timeDeltas: number[] } };
+    const self = new Map<number, number>();
+    prof.samples.forEach((id, i) => self.set(id, (self.get(id) ?? 0) + (prof.timeDeltas[i] ?? 0)));
+    const byFn = new Map<string, number>();
+    for (const n of prof.nodes) {
+      const key = `${n.callFrame.functionName || '(anonymous)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber}`;
+      byFn.set(key, (byFn.get(key) ?? 0) + (self.get(n.id) ?? 0));
+    }
+    const total = [...byFn.values()].reduce((a, b) => a + b, 0);
+    console.log('CPU profile of the drag, top self time:');
+    for (const [k, us] of [...byFn].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${((100 * us) / total).toFixed(1)} %  ${(us / 1000).toFixed(0)} ms  ${k}`);
+  }
   const after = (await node.boundingBox())!;
   console.log(`dragged node moved by ${Math.hypot(after.x - box.x, after.y - box.y).toFixed(0)} px (the pointer ends 100 px right of where it started; snap to grid may round)`);
   const long = frames.filter((f) => f > 50).length;

@@ -4,7 +4,7 @@
  * the selected bus/element, transformers, faults, the power balance and the safety caution.
  * `selection` is the canvas's selected bus name or element id, so the panel follows the canvas.
  */
-import { useId, useMemo, useState, type ReactNode } from 'react';
+import { memo, useCallback, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
 import type { LiveSolveError } from '../solve/solve-protocol.ts';
 import type { LiveSolveStatus } from '../solve/use-live-solve.ts';
@@ -105,7 +105,7 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-export function ResultsPanel({ status, result, error, stale, ms, selection, onSelect, standard = 'iec-60445' }: ResultsPanelProps) {
+function ResultsPanelView({ status, result, error, stale, ms, selection, onSelect, standard = 'iec-60445' }: ResultsPanelProps) {
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);
   const selectId = useId();
@@ -202,4 +202,20 @@ export function ResultsPanel({ status, result, error, stale, ms, selection, onSe
       <ResultsCaution />
     </section>
   );
+}
+
+const MemoResultsPanel = memo(ResultsPanelView);
+
+/**
+ * The panel re-renders only when its data changes: the workspace page re-renders on every frame of
+ * a node drag, and a 300-element study's tables are too heavy to rebuild that often. `onSelect` is
+ * held in a ref so a new callback identity alone does not count as a change.
+ */
+export function ResultsPanel(props: ResultsPanelProps) {
+  const onSelectRef = useRef(props.onSelect);
+  useEffect(() => {
+    onSelectRef.current = props.onSelect;
+  });
+  const stableOnSelect = useCallback((id: string) => onSelectRef.current?.(id), []);
+  return <MemoResultsPanel {...props} onSelect={props.onSelect ? stableOnSelect : undefined} />;
 }
