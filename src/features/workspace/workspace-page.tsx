@@ -262,11 +262,22 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const taken = useCallback((d: Doc) => new Set(d.nodes.flatMap((n) => (isBusNode(n) ? [n.data.name, n.id] : [n.id]))), []);
 
   const freeSpot = useCallback(
-    (d: Doc, w: number, h: number) => {
+    (d: Doc, w: number, h: number, near?: 'above' | 'below') => {
       const el = document.querySelector('.react-flow');
       const rect = el?.getBoundingClientRect();
       const centre = rect ? rf.screenToFlowPosition({ x: rect.left + rect.width * 0.35, y: rect.top + rect.height * 0.3 }) : { x: 0, y: 0 };
       const boxes = d.nodes.map((n) => ({ x: n.position.x, y: n.position.y, w: isBusNode(n) ? 270 : 170, h: isBusNode(n) ? 70 : 100 }));
+      const free = (x: number, y: number) => !boxes.some((b) => x < b.x + b.w && x + w > b.x && y < b.y + b.h && y + h > b.y);
+      // Single-line habit: sources above the bus in use (the selected one, else the newest), loads and feeders below it.
+      const buses = d.nodes.filter(isBusNode);
+      const anchor = buses.find((b) => b.selected) ?? buses[buses.length - 1];
+      if (near && anchor) {
+        const y = anchor.position.y + (near === 'above' ? -120 : 105);
+        for (let k = 0; k < 12; k++) {
+          const x = anchor.position.x + 20 + k * 130;
+          if (free(x, y)) return { x, y };
+        }
+      }
       for (let ring = 0; ring < 40; ring++) {
         for (let col = 0; col <= ring; col++) {
           const x = Math.round((centre.x + col * 180) / 10) * 10;
@@ -292,7 +303,9 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       }
       const id = freshId(item.prefix, ids);
       const element = newElement(item, id, cur.settings.shiftConvention);
-      const node: WorkspaceNode = { id, type: 'element', position: freeSpot(cur, 170, 100), selected: true, data: { kind: 'element', element } };
+      const ports = elementPorts(element);
+      const near = ports.length === 0 ? undefined : ports.every((p) => p.side === 'bottom') ? 'above' : 'below';
+      const node: WorkspaceNode = { id, type: 'element', position: freeSpot(cur, 120, 100, near), selected: true, data: { kind: 'element', element } };
       commit({ ...cur, nodes: [...deselected, node], edges: cur.edges.map((e) => (e.selected ? { ...e, selected: false } : e)) });
     },
     [commit, freeSpot, taken],
