@@ -155,6 +155,42 @@ describe('study workspace in a real browser', () => {
     await page.close();
   });
 
+  it('editing comforts: copy, paste, delete, shortcuts help, study settings', async () => {
+    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
+    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
+    await page.waitForURL(`${product.baseUrl}/`);
+    await page.getByRole('button', { name: /new study/i }).click();
+    await page.getByRole('dialog').getByLabel('Name', { exact: true }).fill('Editing comforts');
+    await page.getByRole('button', { name: 'Create study' }).click();
+    await page.waitForURL(/\/studies\/[0-9a-f-]{36}$/);
+    await page.getByRole('button', { name: 'Add bus' }).click();
+    await page.getByRole('button', { name: 'Add capacitor bank' }).click();
+    const nodes = page.locator('.react-flow__node');
+    expect(await nodes.count()).toBe(2);
+    await selectNode(page, 'Capacitor bank CAP1');
+    await page.keyboard.press('Control+c');
+    await page.keyboard.press('Control+v');
+    await page.getByLabel('Capacitor bank CAP2', { exact: true }).waitFor();
+    expect(await nodes.count()).toBe(3);
+    await page.keyboard.press('Delete');
+    await expect.poll(() => nodes.count()).toBe(2);
+    // Unwired elements are named beside themselves, and saving waits until they are wired.
+    await expect.poll(() => page.getByText('CAP1 is not connected: wire its port to a bus.').count()).toBe(1);
+    expect(await page.getByRole('button', { name: 'Save study' }).isDisabled()).toBe(true);
+    await page.keyboard.press('?');
+    await page.getByRole('dialog', { name: 'Keyboard shortcuts' }).getByText('Ctrl+Z').waitFor();
+    await page.keyboard.press('Escape');
+    await page.getByRole('button', { name: 'Study settings' }).click();
+    const settings = page.getByRole('dialog', { name: 'Study settings' });
+    await settings.getByLabel('Frequency (Hz)').fill('50 Hz');
+    await settings.getByLabel('Wiring colours').selectOption('iec-60445');
+    await settings.getByRole('button', { name: 'Apply settings' }).click();
+    await expect.poll(() => page.getByRole('toolbar', { name: 'Workspace tools' }).textContent()).toContain('50 Hz');
+    // IEC 60445 labels the bus conductors L1, L2, L3, N.
+    await page.getByLabel('B1: conductor L1', { exact: true }).waitFor();
+    await page.close();
+  });
+
   it('the delta–wye demo opens with its diagram and shows the 30° shift', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
     await signIn(page, product.baseUrl, 'engineer@wyeward.test');
