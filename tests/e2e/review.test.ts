@@ -133,7 +133,7 @@ describe('review and reuse in a real browser', () => {
     await reviewer.goBack();
     const form = reviewer.getByRole('form', { name: 'New comment' });
     await form.getByLabel('New comment').fill('The mill load on phase a looks doubled — @engineer is 800 kW right?\nPlease confirm with the mill.');
-    await form.getByLabel('Pin to element').selectOption('MILL-LOAD');
+    await form.getByLabel('Pin to an element or result').selectOption('MILL-LOAD');
     await form.getByRole('button', { name: 'Post comment' }).click();
     await reviewer.getByRole('listitem', { name: 'Thread by Idunn Castellane, Element MILL-LOAD' }).waitFor();
     await expectMail('engineer@wyeward.test', `Idunn Castellane mentioned you: ${STUDY_NAME}`);

@@ -3,11 +3,13 @@ import type { Role } from '../../../../shared/api/common.ts';
 import type { Comment, CommentAnchor } from '../../../../shared/api/comments.ts';
 import { COMMENT_MAX } from '../../../../shared/api/comments.ts';
 import { findMentions } from '../../../../shared/review/mentions.ts';
+import type { ResultsSummary } from '../../../../shared/review/summary.ts';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmDialog } from '../../../components/dialog.tsx';
 import { controlClass } from '../../../components/field.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
+import { isApiError } from '../../../lib/api-client.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useCreateComment, useDeleteComment, useUpdateComment } from '../api/comment-mutations.ts';
 import { useComments } from '../api/get-comments.ts';
@@ -204,7 +206,30 @@ function Thread({ root, replies, viewer }: { root: Comment; replies: Comment[]; 
  * Comment threads on a study, optionally anchored to an element (by id, so the pin survives moves)
  * or a result row. Reviewers and above write; viewers read.
  */
-export function CommentsPanel({ studyId, role, userId, elementIds, selectedElementId }: Viewer & { elementIds: string[]; selectedElementId?: string | null }) {
+/** A result row a thread may point at (table and key as the results summary names them). */
+export interface ResultRowChoice {
+  table: string;
+  key: string;
+  label: string;
+}
+
+/** Result rows of a revision's summary: bus voltages by bus, neutral currents by element and bus. */
+export function resultRowChoices(summary: ResultsSummary | undefined): ResultRowChoice[] {
+  if (!summary || !summary.ok) return [];
+  return [
+    ...summary.buses.map((b) => ({ table: 'bus-voltages', key: b.bus, label: `Bus voltages: ${b.bus}` })),
+    ...summary.neutralCurrents.map((n) => ({ table: 'neutral-currents', key: n.key, label: `Neutral current: ${n.elementId} at ${n.bus}` })),
+  ];
+}
+
+export function CommentsPanel({
+  studyId,
+  role,
+  userId,
+  elementIds,
+  resultRows = [],
+  selectedElementId,
+}: Viewer & { elementIds: string[]; resultRows?: ResultRowChoice[]; selectedElementId?: string | null }) {
   const comments = useComments(studyId);
   const create = useCreateComment(studyId);
   const [body, setBody] = useState('');
@@ -217,7 +242,7 @@ export function CommentsPanel({ studyId, role, userId, elementIds, selectedEleme
     return roots.map((root) => ({ root, replies: items.filter((c) => c.parentId === root.id) }));
   }, [comments.data]);
   const open = threads.filter((t) => !t.root.resolved).length;
-  const fieldError = create.error && 'fields' in create.error ? Object.values((create.error as { fields: Record<string, string> }).fields)[0] : undefined;
+  const fieldError = isApiError(create.error) ? Object.values(create.error.fields)[0] : undefined;
 
   return (
     <section aria-labelledby="comments-title" className="flex flex-col gap-3 rounded-[4px] border border-rule bg-panel px-4 py-3">
@@ -231,25 +256,37 @@ export function CommentsPanel({ studyId, role, userId, elementIds, selectedEleme
           onSubmit={(e) => {
             e.preventDefault();
             if (!body.trim()) return;
-            const anchor: CommentAnchor | undefined = anchorId ? { elementId: anchorId } : undefined;
+            const row = anchorId.startsWith('row:') ? resultRows[Number(anchorId.slice(4))] : undefined;
+            const anchor: CommentAnchor | undefined = row ? { resultRow: { table: row.table, key: row.key } } : anchorId.startsWith('el:') ? { elementId: anchorId.slice(3) } : undefined;
             create.mutate({ body, anchor }, { onSuccess: () => { setBody(''); setAnchorId(''); } });
           }}
         >
           <CommentBox label="New comment" value={body} onChange={setBody} />
           <div className="flex flex-wrap items-end gap-2">
             <label className="flex flex-col gap-1 text-[13px] font-semibold">
-              Pin to element
+              Pin to an element or result
               <select className={controlClass} value={anchorId} onChange={(e) => setAnchorId(e.target.value)}>
                 <option value="">The whole study</option>
-                {elementIds.map((id) => (
-                  <option key={id} value={id}>
-                    {id}
-                  </option>
-                ))}
+                <optgroup label="Elements">
+                  {elementIds.map((id) => (
+                    <option key={id} value={`el:${id}`}>
+                      {id}
+                    </option>
+                  ))}
+                </optgroup>
+                {resultRows.length > 0 ? (
+                  <optgroup label="Result rows (latest revision)">
+                    {resultRows.map((r, i) => (
+                      <option key={`${r.table}:${r.key}`} value={`row:${i}`}>
+                        {r.label}
+                      </option>
+                    ))}
+                  </optgroup>
+                ) : null}
               </select>
             </label>
             {selectedElementId && elementIds.includes(selectedElementId) ? (
-              <Button size="md" onClick={() => setAnchorId(selectedElementId)}>
+              <Button size="md" onClick={() => setAnchorId(`el:${selectedElementId}`)}>
                 Comment on the selected element ({selectedElementId})
               </Button>
             ) : null}

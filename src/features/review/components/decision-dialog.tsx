@@ -3,6 +3,7 @@ import { Button } from '../../../components/button.tsx';
 import { Dialog } from '../../../components/dialog.tsx';
 import { TextAreaField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
+import { isApiError } from '../../../lib/api-client.ts';
 import { useReviewAction } from '../api/review-action.ts';
 
 /** Approve or request changes on the revision under review; a request for changes must say what should change. */
@@ -35,7 +36,7 @@ export function DecisionDialog({ studyId, kind, revision, open, onClose }: { stu
           onChange={(e) => setMessage(e.target.value)}
           maxLength={5000}
           aria-required={!approve}
-          error={tried && missing ? 'Say what should change' : action.isError ? action.error && 'fields' in action.error ? (action.error as { fields: Record<string, string> }).fields.message : undefined : undefined}
+          error={tried && missing ? 'Say what should change' : isApiError(action.error) ? action.error.fields.message : undefined}
         />
         {action.isError ? <Notice tone="error" title={approve ? 'Could not approve.' : 'Could not request changes.'}>{action.error.message}</Notice> : null}
         <div className="flex justify-end gap-2">

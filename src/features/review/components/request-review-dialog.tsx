@@ -5,6 +5,7 @@ import { Dialog } from '../../../components/dialog.tsx';
 import { TextAreaField } from '../../../components/field.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
+import { isApiError } from '../../../lib/api-client.ts';
 import { ROLE_LABEL } from '../../../lib/authorization.ts';
 import { useMembers } from '../api/get-members.ts';
 import { useReviewAction } from '../api/review-action.ts';
@@ -17,7 +18,7 @@ export function RequestReviewDialog({ studyId, selfId, open, onClose, again }: {
   const [chosen, setChosen] = useState<string[]>((again ?? []).filter((id) => id !== selfId));
   const [message, setMessage] = useState('');
   const candidates = members.data ? reviewerCandidates(members.data.members, selfId) : [];
-  const fieldError = action.error && 'fields' in action.error ? (action.error as { fields: Record<string, string> }).fields.reviewers : undefined;
+  const fieldError = isApiError(action.error) ? action.error.fields.reviewers : undefined;
   const localError = chosen.length === 0 ? 'Choose at least one reviewer' : chosen.length > MAX_REVIEWERS ? `At most ${MAX_REVIEWERS} reviewers` : null;
   const [tried, setTried] = useState(false);
 

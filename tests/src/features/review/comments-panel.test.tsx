@@ -3,18 +3,18 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import type { Role } from '../../../../shared/api/common.ts';
 import type { Comment } from '../../../../shared/api/comments.ts';
-import { CommentsPanel } from '../../../../src/features/review/components/comments-panel.tsx';
+import { CommentsPanel, type ResultRowChoice } from '../../../../src/features/review/components/comments-panel.tsx';
 import { stubApi, type Handler } from '../../helpers/fake-api.ts';
 import { comment, ENGINEER, REVIEWER, SELF, STUDY_ID, team } from './review-fixtures.ts';
 import { renderReview } from './render-review.tsx';
 
-function setup(role: Role, items: Comment[], handlers: Record<string, Handler> = {}) {
+function setup(role: Role, items: Comment[], handlers: Record<string, Handler> = {}, resultRows: ResultRowChoice[] = []) {
   const api = stubApi({
     'GET /api/studies/:id/comments': () => ({ body: { items } }),
     'GET /api/team': () => ({ body: team() }),
     ...handlers,
   });
-  renderReview(<CommentsPanel studyId={STUDY_ID} role={role} userId={SELF.id} elementIds={['SRC', 'DROP', 'LOAD-A']} />);
+  renderReview(<CommentsPanel studyId={STUDY_ID} role={role} userId={SELF.id} elementIds={['SRC', 'DROP', 'LOAD-A']} resultRows={resultRows} />);
   return api;
 }
 
@@ -60,7 +60,7 @@ describe('comments', () => {
     const form = await screen.findByRole('form', { name: 'New comment' });
     await user.type(within(form).getByLabelText('New comment'), '@oskar the neutral is open here');
     expect(await within(form).findByText('Will notify: Oskar Penhale')).toBeInTheDocument();
-    await user.selectOptions(within(form).getByLabelText('Pin to element'), 'DROP');
+    await user.selectOptions(within(form).getByLabelText('Pin to an element or result'), 'DROP');
     await user.click(within(form).getByRole('button', { name: 'Post comment' }));
     await waitFor(() => expect(posted).toEqual([{ body: '@oskar the neutral is open here', anchor: { elementId: 'DROP' } }]));
   });
@@ -81,5 +81,26 @@ describe('comments', () => {
     expect(within(theirs).queryByRole('button')).toBeNull();
     await user.click(screen.getByRole('button', { name: 'Resolve the thread by Oskar Penhale' }));
     await waitFor(() => expect(patched).toEqual([['theirs', { resolved: true }]]));
+  });
+
+  it('pins a comment to a result row of the latest revision', async () => {
+    const posted: unknown[] = [];
+    setup(
+      'engineer',
+      [],
+      {
+        'POST /api/studies/:id/comments': (req) => {
+          posted.push(req.body);
+          return { status: 201, body: comment() };
+        },
+      },
+      [{ table: 'neutral-currents', key: 'DROP@HOUSE', label: 'Neutral current: DROP at HOUSE' }],
+    );
+    const user = userEvent.setup();
+    const form = await screen.findByRole('form', { name: 'New comment' });
+    await user.type(within(form).getByLabelText('New comment'), 'Is this current credible?');
+    await user.selectOptions(within(form).getByLabelText('Pin to an element or result'), 'Neutral current: DROP at HOUSE');
+    await user.click(within(form).getByRole('button', { name: 'Post comment' }));
+    await waitFor(() => expect(posted).toEqual([{ body: 'Is this current credible?', anchor: { resultRow: { table: 'neutral-currents', key: 'DROP@HOUSE' } } }]));
   });
 });
