@@ -223,6 +223,8 @@ describe('review and reuse in a real browser', () => {
     const exported = await engineer.request.get(`${product.baseUrl}/api/studies/${studyId}/export`);
     expect(exported.status()).toBe(200);
     await engineer.goto(`${product.baseUrl}/`);
+    await engineer.getByRole('button', { name: 'Import study' }).waitFor();
+    await screenshot(engineer, 'review-12-studies-import');
     await engineer.getByRole('button', { name: 'Import study' }).click();
     const dialog = engineer.getByRole('dialog', { name: 'Import a study' });
     await dialog.getByLabel('Study file').setInputFiles({ name: 'feeder.wyeward.json', mimeType: 'application/json', buffer: Buffer.from(await exported.body()) });
