@@ -3,7 +3,7 @@
  * drops answers to requests that a newer edit has overtaken, and keeps the last good result on
  * screen while the next one is computed or when the edit failed (`stale` then says so).
  */
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { CircuitInput, CircuitResult, LimitsInput } from '../../../../shared/engine/index.ts';
 import { createDefaultPort, type PortFailure, type PortListener, type SolvePort } from './solve-port.ts';
 import type { LiveSolveError, SolveResponse } from './solve-protocol.ts';
@@ -38,6 +38,9 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   const portRef = useRef<SolvePort | null>(null);
   const latestId = useRef(0);
   const createPortRef = useRef(createPort);
+  // Limits compared by value, so an inline object literal does not re-solve on every render.
+  const limitsKey = JSON.stringify(limits ?? null);
+  const stableLimits = useMemo(() => limits, [limitsKey]);
 
   useEffect(() => {
     const onResponse = (res: SolveResponse) => {
@@ -64,9 +67,9 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     // The id is taken at edit time, so an answer to an older edit that lands during the debounce is dropped too.
     const id = ++latestId.current;
     setState((s) => ({ ...s, status: 'solving', stale: s.result !== undefined }));
-    const timer = setTimeout(() => portRef.current?.post({ id, circuit, limits }), debounceMs);
+    const timer = setTimeout(() => portRef.current?.post({ id, circuit, limits: stableLimits }), debounceMs);
     return () => clearTimeout(timer);
-  }, [circuit, limits, debounceMs]);
+  }, [circuit, stableLimits, debounceMs]);
 
   return state;
 }

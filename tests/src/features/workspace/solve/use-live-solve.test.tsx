@@ -72,6 +72,17 @@ describe('useLiveSolve', () => {
     expect(result.current.stale).toBe(true);
   });
 
+  it('compares limits by value: a new but equal limits object does not solve again', async () => {
+    const posted: SolveRequest[] = [];
+    const { result, rerender } = renderHook(({ set }) => useLiveSolve(openNeutral, { createPort: countingPort(posted), debounceMs: 1, limits: { set } }), { initialProps: { set: 'iec-en' as const } });
+    await waitFor(() => expect(result.current.status).toBe('ok'));
+    rerender({ set: 'iec-en' });
+    rerender({ set: 'iec-en' });
+    await new Promise((r) => setTimeout(r, 20));
+    expect(posted).toHaveLength(1);
+    expect(result.current.result!.limits.id).toBe('iec-en');
+  });
+
   it('is idle with nothing to solve', () => {
     const { result } = renderHook(() => useLiveSolve(null, { createPort: createInThreadPort }));
     expect(result.current.status).toBe('idle');
