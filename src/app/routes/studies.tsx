@@ -10,7 +10,8 @@ export function StudiesRoute() {
     <div className="flex flex-col gap-2">
       <StudiesList role={me.data.role} />
       {can(me.data.role, 'study:create') ? (
-        <div className="mx-auto flex w-full max-w-6xl justify-end">
+        <div className="mx-auto flex w-full max-w-7xl items-center justify-end gap-2 text-[13px] text-ink-muted">
+          <span>Have a .wyeward.json file?</span>
           <ImportStudyButton />
         </div>
       ) : null}
