@@ -131,6 +131,17 @@ describe('ResultsPanel on other results', () => {
   });
 });
 
+describe('ResultsPanel on a floating part', () => {
+  it('says which part has no path to earth and marks its bus (D-Y bank with an unearthed star)', () => {
+    const c = demoCircuits.find((d) => d.key === 'delta-wye-bank')!.circuit;
+    const r = solveCircuit({ ...c, elements: c.elements.map((e) => (e.id === 'PM-BANK' ? { ...e, connection: 'D-Y' } : e)) });
+    expect(r.floating).toHaveLength(1);
+    render(<ResultsPanel status="ok" result={r} />);
+    expect(screen.getByRole('note', { name: 'Floating parts' })).toHaveTextContent(`5 nodes (PM-BANK#lvStar, PM208.a, PM208.b, PM208.c, PM208.n) have no path to earth. Their voltages to earth are shown with ${r.floating[0].referenceNode} held at 0 V`);
+    expect(within(screen.getByRole('table', { name: 'Bus voltages' })).getByRole('row', { name: /PM208/ })).toHaveTextContent('PM208(floating)');
+  });
+});
+
 describe('ResultsPanel on a large study', () => {
   it('keeps the flag and unbalance lists short, with every flag one click away', async () => {
     const { study300 } = await import('../../../../bench/workspace/study-300.ts');
