@@ -8,7 +8,8 @@
  * Exit codes: 0 solved; 2 invalid input (unreadable file, malformed JSON, schema errors);
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
  * never a stack trace. `--timings` adds one stderr line splitting the run (start-up and imports,
- * read, JSON parse, validate + expand, solve, results, output). Kept light on purpose (it is benchmarked against ngspice): file → parse →
+ * read, JSON parse, validate + expand, solve, results, output). Big JSON results are written in
+ * chunks (see writeJson). Kept light on purpose (it is benchmarked against ngspice): file → parse →
  * solve → write, importing only the engine.
  */
 import { readFileSync } from 'node:fs';
@@ -109,6 +110,45 @@ export function jsonResult(r: CircuitResult, full = false) {
   };
 }
 
+/**
+ * Write `value` as JSON plus a newline through `write`, in chunks of about `chunkChars`: the same
+ * text as `JSON.stringify(value) + '\n'`, but the large records (nodes, elements) are serialized
+ * entry by entry, so a 20 000-bus result (~32 MB) never exists as one string and one buffer.
+ */
+export function writeJson(value: Record<string, unknown>, write: (chunk: string) => void, chunkChars = 1 << 20): void {
+  let buf = '';
+  const push = (s: string) => {
+    buf += s;
+    if (buf.length >= chunkChars) {
+      write(buf);
+      buf = '';
+    }
+  };
+  push('{');
+  let first = true;
+  for (const [key, v] of Object.entries(value)) {
+    if (v === undefined || typeof v === 'function' || typeof v === 'symbol') continue; // as JSON.stringify
+    push(`${first ? '' : ','}${JSON.stringify(key)}:`);
+    first = false;
+    const isRecord = v !== null && typeof v === 'object' && !Array.isArray(v) && typeof (v as { toJSON?: unknown }).toJSON !== 'function';
+    if (!isRecord || Object.keys(v as object).length < 1000) {
+      push(JSON.stringify(v));
+      continue;
+    }
+    push('{');
+    let firstEntry = true;
+    for (const [k, x] of Object.entries(v as Record<string, unknown>)) {
+      const text = JSON.stringify(x);
+      if (text === undefined) continue;
+      push(`${firstEntry ? '' : ','}${JSON.stringify(k)}:${text}`);
+      firstEntry = false;
+    }
+    push('}');
+  }
+  push('}\n');
+  if (buf) write(buf);
+}
+
 /** Run the CLI on its arguments (exits the process on errors). Called directly or by solve-launcher.mjs. */
 export function main(argv: string[]): void {
   const t0 = performance.now();
@@ -149,10 +189,13 @@ export function main(argv: string[]): void {
     if (e instanceof EngineError) fail(e.code === 'invalid-circuit' ? 2 : 3, e.message);
     fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
   }
-  const out = asJson ? JSON.stringify(jsonResult(result, full)) + '\n' : formatReport(result);
-  mark(asJson ? 'JSON write' : 'report');
-  process.stdout.write(out);
-  mark('stdout');
+  if (asJson) {
+    writeJson(jsonResult(result, full), (chunk) => process.stdout.write(chunk));
+    mark('JSON write');
+  } else {
+    process.stdout.write(formatReport(result));
+    mark('report');
+  }
   if (timings) {
     // time since process start (node + loader + imports) first, then each step, on stderr
     const startup = t0; // performance.now() counts from the process's time origin

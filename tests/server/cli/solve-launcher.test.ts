@@ -85,7 +85,7 @@ describe('solve CLI launcher', () => {
   it('--timings adds one stderr line splitting the run', () => {
     const r = launch([circuitFile, '--json', '--timings']);
     expect(r.code).toBe(0);
-    expect(r.stderr).toMatch(/^solve timings: start-up \+ imports \d+ ms, read \d+ ms, JSON parse \d+ ms, validate \+ expand \d+ ms, solve \d+ ms, results \d+ ms, JSON write \d+ ms, stdout \d+ ms; total \d+ ms since process start\n$/);
+    expect(r.stderr).toMatch(/^solve timings: start-up \+ imports \d+ ms, read \d+ ms, JSON parse \d+ ms, validate \+ expand \d+ ms, solve \d+ ms, results \d+ ms, JSON write \d+ ms; total \d+ ms since process start\n$/);
     expect(JSON.parse(r.stdout).format).toBe('wyeward-result');
   });
 
