@@ -13,6 +13,7 @@ import { ElementTable } from './element-table.tsx';
 import { formatMagnitude } from './format.ts';
 import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
 import { PhasorDiagram } from './phasor-diagram.tsx';
+import { hidePrivate, publicBus } from './private-names.ts';
 import { FaultSection, FlagsSection, FloatingNotices, PowerSummary, ResultsCaution, TransformerSection } from './result-sections.tsx';
 import { WaveformChart, type WaveSignal } from './waveform-chart.tsx';
 
@@ -28,6 +29,12 @@ export interface ResultsPanelProps {
   /** Called when a table row is chosen, so the canvas can follow. */
   onSelect?: (id: string) => void;
   standard?: WiringStandard;
+  /**
+   * Marker of generated names (the canvas's private terminal buses and connection switches, e.g.
+   * "~"): those buses and elements stay out of the lists, and a selection on one follows it to the
+   * bus the user drew. A string, so the memoised panel compares it by value.
+   */
+  privateMarker?: string;
 }
 
 const CODE_WORDS: Record<string, string> = {
@@ -38,14 +45,20 @@ const CODE_WORDS: Record<string, string> = {
   internal: 'The solve failed',
 };
 
-/** The bus the panel shows: the selected bus, the first bus of a selected element, else the bus with the largest neutral shift. */
-export function pickBus(result: CircuitResult, selection: string | null | undefined): string | undefined {
+/**
+ * The bus the panel shows: the selected bus, the first (drawn) bus of a selected element, else the
+ * bus with the largest neutral shift. `result` is the full result; `shown` the one the lists use.
+ */
+export function pickBus(result: CircuitResult, selection: string | null | undefined, privateMarker?: string, shown: CircuitResult = result): string | undefined {
   if (selection) {
-    if (result.buses.some((b) => b.bus === selection)) return selection;
+    if (shown.buses.some((b) => b.bus === selection)) return selection;
     const el = result.elements[selection];
-    const bus = el?.ports?.find((p) => p.bus)?.bus;
-    if (bus) return bus;
+    for (const p of el?.ports ?? []) {
+      const bus = p.bus ? publicBus(result, p.bus, privateMarker) : undefined;
+      if (bus && shown.buses.some((b) => b.bus === bus)) return bus;
+    }
   }
+  result = shown;
   let best = result.buses[0];
   for (const b of result.buses) if ((b.neutralToEarth?.mag ?? 0) > (best?.neutralToEarth?.mag ?? 0)) best = b;
   return best?.bus;
@@ -105,7 +118,8 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-function ResultsPanelView({ status, result, error, stale, ms, selection, onSelect, standard = 'iec-60445' }: ResultsPanelProps) {
+function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker }: ResultsPanelProps) {
+  const result = useMemo(() => (fullResult ? hidePrivate(fullResult, privateMarker) : undefined), [fullResult, privateMarker]);
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);
   const selectId = useId();
@@ -116,7 +130,7 @@ function ResultsPanelView({ status, result, error, stale, ms, selection, onSelec
     setBusChoice(null);
     setElementChoice(null);
   }
-  const busName = result ? (busChoice && result.buses.some((b) => b.bus === busChoice) ? busChoice : pickBus(result, selection)) : undefined;
+  const busName = result && fullResult ? (busChoice && result.buses.some((b) => b.bus === busChoice) ? busChoice : pickBus(fullResult, selection, privateMarker, result)) : undefined;
   const bus = result?.buses.find((b) => b.bus === busName);
   const elementId = result ? (elementChoice && result.elements[elementChoice] ? elementChoice : selection && result.elements[selection] ? selection : undefined) : undefined;
   const element = elementId ? result?.elements[elementId] : undefined;

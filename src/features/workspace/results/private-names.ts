@@ -1,0 +1,41 @@
+/**
+ * The canvas turns a connection with an opened conductor into a switch and a private terminal bus
+ * (names with a marker the user never types, e.g. "LOAD1~bus"). The results panel hides those
+ * buses and elements from its lists and, when a selection lands on one, follows it to the bus
+ * the user drew.
+ */
+import type { CircuitResult } from '../../../../shared/engine/index.ts';
+
+/** The result without buses and elements whose names contain `marker` (flags and totals unchanged). */
+export function hidePrivate(result: CircuitResult, marker: string | undefined): CircuitResult {
+  if (!marker) return result;
+  const buses = result.buses.filter((b) => !b.bus.includes(marker));
+  const elements = Object.fromEntries(Object.entries(result.elements).filter(([id]) => !id.includes(marker)));
+  // Never hide everything: a study made only of generated names still shows its results.
+  return { ...result, buses: buses.length > 0 ? buses : result.buses, elements: Object.keys(elements).length > 0 ? elements : result.elements };
+}
+
+/**
+ * The bus the user drew for a bus name: itself when public, else the public bus joined to it by
+ * an element (the generated switch), searched breadth-first; undefined when none is found.
+ */
+export function publicBus(result: CircuitResult, bus: string, marker: string | undefined): string | undefined {
+  if (!marker || !bus.includes(marker)) return bus;
+  const seen = new Set([bus]);
+  let frontier = [bus];
+  while (frontier.length > 0) {
+    const next: string[] = [];
+    for (const e of Object.values(result.elements)) {
+      const names = (e.ports ?? []).map((p) => p.bus).filter((b): b is string => !!b);
+      if (!names.some((n) => frontier.includes(n))) continue;
+      for (const n of names) {
+        if (seen.has(n)) continue;
+        if (!n.includes(marker)) return n;
+        seen.add(n);
+        next.push(n);
+      }
+    }
+    frontier = next;
+  }
+  return undefined;
+}

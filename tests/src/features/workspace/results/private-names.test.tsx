@@ -1,0 +1,42 @@
+import { render, screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { demoCircuits, solveCircuit, type CircuitInput } from '../../../../../shared/engine/index.ts';
+import { hidePrivate, publicBus } from '../../../../../src/features/workspace/results/private-names.ts';
+import { ResultsPanel } from '../../../../../src/features/workspace/results/results-panel.tsx';
+
+// The open-neutral demo wired as the canvas writes an opened connection: KITCHEN sits on a private
+// terminal bus behind a generated switch with its neutral open.
+const base = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+const wired: CircuitInput = {
+  ...base,
+  elements: [
+    ...base.elements.map((e) => (e.id === 'KITCHEN' ? { ...e, bus: 'KITCHEN~bus' } : e)),
+    { type: 'switch3', id: 'KITCHEN~bus-sw', from: 'HOUSE', to: 'KITCHEN~bus', open: ['n'] },
+  ] as CircuitInput['elements'],
+};
+const result = solveCircuit(wired);
+
+describe('private names of generated buses and switches', () => {
+  it('follows a private bus through the generated switch to the bus the user drew', () => {
+    expect(publicBus(result, 'KITCHEN~bus', '~')).toBe('HOUSE');
+    expect(publicBus(result, 'HOUSE', '~')).toBe('HOUSE');
+    expect(publicBus(result, 'KITCHEN~bus', undefined)).toBe('KITCHEN~bus');
+  });
+
+  it('hides private buses and elements from the lists, keeping flags and totals', () => {
+    const shown = hidePrivate(result, '~');
+    expect(shown.buses.map((b) => b.bus).sort()).toEqual(['HOUSE', 'PAD']);
+    expect(Object.keys(shown.elements)).not.toContain('KITCHEN~bus-sw');
+    expect(shown.flags).toBe(result.flags);
+    expect(hidePrivate(result, undefined)).toBe(result);
+  });
+
+  it('the panel shows the drawn bus when the element on a private bus is selected', () => {
+    const { rerender } = render(<ResultsPanel status="ok" result={result} selection="KITCHEN" privateMarker="~" />);
+    expect(screen.getByRole('img', { name: 'Phasor diagram, bus HOUSE' })).toBeInTheDocument();
+    expect(within(screen.getByRole('table', { name: 'Bus voltages' })).queryByRole('row', { name: /KITCHEN~bus/ })).toBeNull();
+    expect(within(screen.getByRole('table', { name: 'Element currents' })).queryByRole('row', { name: /KITCHEN~bus-sw/ })).toBeNull();
+    rerender(<ResultsPanel status="ok" result={result} selection="KITCHEN" />);
+    expect(screen.getByRole('img', { name: 'Phasor diagram, bus KITCHEN~bus' })).toBeInTheDocument();
+  });
+});
