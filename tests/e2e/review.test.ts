@@ -113,6 +113,7 @@ describe('review and reuse in a real browser', () => {
     await dialog.getByLabel('Message to the reviewers (optional)').fill('Please check the neutral current after the mill upgrade.');
     await dialog.getByRole('button', { name: 'Send request' }).click();
     await panel.getByText('asked Idunn Castellane to review revision 2', { exact: false }).waitFor();
+    await dialog.waitFor({ state: 'hidden' });
     await screenshot(engineer, 'review-1-requested');
     await expectMail('reviewer@wyeward.test', `Review requested: ${STUDY_NAME}`);
 
@@ -142,6 +143,7 @@ describe('review and reuse in a real browser', () => {
     await changesDialog.getByLabel('What should change').fill('Use the metered 520 kW for phase a.');
     await changesDialog.getByRole('button', { name: 'Request changes' }).click();
     await reviewRegion(reviewer).getByText(/requested changes to revision 2/).waitFor();
+    await changesDialog.waitFor({ state: 'hidden' });
     await screenshot(reviewer, 'review-3-changes-requested');
     await expectMail('engineer@wyeward.test', `Changes requested: ${STUDY_NAME}`);
 
@@ -161,6 +163,7 @@ describe('review and reuse in a real browser', () => {
     const approveDialog = reviewer.getByRole('dialog', { name: 'Approve revision 3?' });
     await approveDialog.getByRole('button', { name: 'Approve' }).click();
     await reviewRegion(reviewer).getByText(/Approved revision 3 by Idunn Castellane/).waitFor();
+    await approveDialog.waitFor({ state: 'hidden' });
     await screenshot(reviewer, 'review-4-approved');
     await expectMail('engineer@wyeward.test', `Approved: ${STUDY_NAME}`);
     expect((await getStudy(reviewer)).approvedRevision).toBe(3);

@@ -12,9 +12,10 @@ export function useReviewAction(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: ReviewActionRequest) => postReviewAction(id, body),
-    onSuccess: async (state) => {
+    // The answer is the new state: show it and close the dialog at once; the rest refreshes behind.
+    onSuccess: (state) => {
       queryClient.setQueryData(reviewKeys.review(id), state);
-      await Promise.all([
+      void Promise.all([
         queryClient.invalidateQueries({ queryKey: reviewKeys.study(id) }),
         queryClient.invalidateQueries({ queryKey: ['studies', 'list'] }),
         queryClient.invalidateQueries({ queryKey: reviewKeys.templates() }),
