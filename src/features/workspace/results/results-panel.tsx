@@ -32,7 +32,8 @@ export interface ResultsPanelProps {
   /**
    * Marker of generated names (the canvas's private terminal buses and connection switches, e.g.
    * "~"): those buses and elements stay out of the lists, and a selection on one follows it to the
-   * bus the user drew. A string, so the memoised panel compares it by value.
+   * bus the user drew. A string, so the memoised panel compares it by value. Default "~", the
+   * canvas's PRIVATE_SEP (model/canvas-to-circuit.ts); "" shows every name.
    */
   privateMarker?: string;
 }
@@ -118,7 +119,7 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker }: ResultsPanelProps) {
+function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker = '~' }: ResultsPanelProps) {
   const result = useMemo(() => (fullResult ? hidePrivate(fullResult, privateMarker) : undefined), [fullResult, privateMarker]);
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);

@@ -32,11 +32,11 @@ describe('private names of generated buses and switches', () => {
   });
 
   it('the panel shows the drawn bus when the element on a private bus is selected', () => {
-    const { rerender } = render(<ResultsPanel status="ok" result={result} selection="KITCHEN" privateMarker="~" />);
+    const { rerender } = render(<ResultsPanel status="ok" result={result} selection="KITCHEN" />); // the default marker is "~"
     expect(screen.getByRole('img', { name: 'Phasor diagram, bus HOUSE' })).toBeInTheDocument();
     expect(within(screen.getByRole('table', { name: 'Bus voltages' })).queryByRole('row', { name: /KITCHEN~bus/ })).toBeNull();
     expect(within(screen.getByRole('table', { name: 'Element currents' })).queryByRole('row', { name: /KITCHEN~bus-sw/ })).toBeNull();
-    rerender(<ResultsPanel status="ok" result={result} selection="KITCHEN" />);
+    rerender(<ResultsPanel status="ok" result={result} selection="KITCHEN" privateMarker="" />);
     expect(screen.getByRole('img', { name: 'Phasor diagram, bus KITCHEN~bus' })).toBeInTheDocument();
   });
 });
