@@ -10,7 +10,7 @@ import { useReview } from '../api/get-review.ts';
 import { useRevisions } from '../api/get-revisions.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
 import { exportUrl } from '../api/transfer.ts';
-import { canRequestReview, canWrite, decisionBlocker } from '../utils/permissions.ts';
+import { canRequestReview, canWrite, decisionBlocker, reviewDiffHref } from '../utils/permissions.ts';
 import { DecisionDialog } from './decision-dialog.tsx';
 import { RequestReviewDialog } from './request-review-dialog.tsx';
 import { ReviewEvents } from './review-events.tsx';
@@ -54,7 +54,7 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
             <span className="font-semibold">{state.review.requestedBy.name}</span> asked{' '}
             {state.review.reviewers.map((r) => r.name).join(', ')} to review revision <span className="num">{state.review.revision}</span>.
           </p>
-          <Link to={`/studies/${studyId}/diff?to=${state.review.revision}`} className={`${buttonClass('primary')} mt-2`}>
+          <Link to={reviewDiffHref(studyId, state) ?? `/studies/${studyId}/diff`} className={`${buttonClass('primary')} mt-2`}>
             Read the changes in revision {state.review.revision}
           </Link>
         </div>

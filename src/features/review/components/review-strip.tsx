@@ -3,6 +3,7 @@ import { StatusBadge } from '../../../components/badges.tsx';
 import { buttonClass } from '../../../components/button.tsx';
 import { useComments } from '../api/get-comments.ts';
 import { useReview } from '../api/get-review.ts';
+import { reviewDiffHref } from '../utils/permissions.ts';
 import { REVIEW_SECTION_ID } from './study-review.tsx';
 
 /**
@@ -23,7 +24,7 @@ export function ReviewStrip({ studyId }: { studyId: string }) {
           <span>
             {state.review.requestedBy.name} asked {state.review.reviewers.map((r) => r.name).join(', ')} to review revision <span className="num">{state.review.revision}</span>.
           </span>
-          <Link to={`/studies/${studyId}/diff?to=${state.review.revision}`} className={buttonClass('primary', 'sm')}>
+          <Link to={reviewDiffHref(studyId, state) ?? `/studies/${studyId}/diff`} className={buttonClass('primary', 'sm')}>
             Read the changes
           </Link>
         </>

@@ -42,3 +42,14 @@ export function canDecide(state: ReviewState, role: Role, userId: string, revisi
 export function reviewerCandidates<T extends { userId: string; role: Role }>(members: readonly T[], selfId: string): T[] {
   return members.filter((m) => m.userId !== selfId && roleAtLeast(m.role, 'reviewer'));
 }
+
+/**
+ * Where a reviewer should start: the diff of the revision under review against the revision the
+ * last decision was made on (what they saw before), or against the one before it on a first review.
+ */
+export function reviewDiffHref(studyId: string, state: ReviewState): string | null {
+  if (!state.review) return null;
+  const to = state.review.revision;
+  const seen = [...state.events].reverse().find((e) => (e.action === 'request-changes' || e.action === 'approve') && e.revision !== null && e.revision < to);
+  return seen ? `/studies/${studyId}/diff?from=${seen.revision}&to=${to}` : `/studies/${studyId}/diff?to=${to}`;
+}
