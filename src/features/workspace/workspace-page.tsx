@@ -653,7 +653,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
         </div>
 
         <div className="overflow-auto">
-          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={selectedName} onSelect={selectById} standard={doc.settings.wiringStandard} />
+          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={selectedName} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} />
         </div>
       </div>
 

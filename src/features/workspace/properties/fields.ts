@@ -167,6 +167,35 @@ function leakage(el: { percentZ?: number; xOverR?: number; percentR?: number; pe
   ];
 }
 
+/** A star point earthed through an impedance (`{ ohms }`), not "solid" or "unearthed". */
+function isEarthingImpedance(v: unknown): v is { ohms: ComplexInput } {
+  return v !== null && typeof v === 'object' && 'ohms' in v;
+}
+
+/**
+ * Star-point earthing select: solid, unearthed or through an impedance. Choosing the impedance
+ * starts from 5 Ω resistive (P: a low-resistance earthing value to be edited) and keeps an impedance
+ * already given.
+ */
+function earthingSelect(path: string, label: string): Extract<FieldSpec, { kind: 'select' }> {
+  return {
+    kind: 'select',
+    path,
+    label,
+    options: [
+      { value: 'solid', label: 'Solid' },
+      { value: 'unearthed', label: 'Unearthed' },
+      { value: 'impedance', label: 'Through an impedance' },
+    ],
+    choose: (cur, value) => {
+      const next = structuredClone(cur) as Record<string, unknown>;
+      const was = getPath(cur, path);
+      setPath(next, path, value === 'impedance' ? (isEarthingImpedance(was) ? was : { ohms: 5 }) : value);
+      return next as CircuitElementInput;
+    },
+  };
+}
+
 const NA_CONNECTIONS = ['Yg-Yg', 'Y-Y', 'D-Yg', 'Yg-D', 'Y-D', 'D-D', 'D-Y', 'Yg-Y', 'Y-Yg'];
 
 /** The fields of an element. */
@@ -179,12 +208,8 @@ export function elementFields(el: CircuitElementInput): FieldSpec[] {
         { kind: 'quantity', path: 'angleDeg', label: 'Angle of phase A EMF (°)', dimension: 'ratio', unit: '', optional: true },
       ];
       if ((el.connection ?? 'wye') === 'wye') {
-        f.push({
-          kind: 'select',
-          path: 'earthing',
-          label: 'Star-point earthing',
-          options: [{ value: 'solid', label: 'Solid' }, { value: 'unearthed', label: 'Unearthed' }],
-        });
+        f.push(earthingSelect('earthing', 'Star-point earthing'));
+        if (isEarthingImpedance(el.earthing)) f.push({ kind: 'complex', path: 'earthing.ohms', label: 'Star-point earthing impedance', unit: 'Ω' });
       }
       const imp = el.impedance;
       if (imp && 'z1' in imp) f.push({ kind: 'complex', path: 'impedance.z1', label: 'Z1 (positive sequence)', unit: 'Ω' }, { kind: 'complex', path: 'impedance.z0', label: 'Z0 (zero sequence)', unit: 'Ω', optional: true });
@@ -290,6 +315,7 @@ export function selectValue(el: CircuitElementInput, f: Extract<FieldSpec, { kin
     return loadMode(l) === 'impedance' ? 'impedance' : 'power';
   }
   const v = getPath(el, f.path);
+  if (isEarthingImpedance(v) && f.options.some((o) => o.value === 'impedance')) return 'impedance';
   if (f.path === 'closed') return v === false ? 'false' : 'true';
   if (v === undefined) return f.options[0]?.value ?? '';
   return typeof v === 'string' ? v : f.options[0]?.value ?? '';

@@ -64,4 +64,26 @@ describe('ElementForm', () => {
       phases: { ab: { kw: 20, kvar: 8 }, bc: { kw: 15, kvar: 8 }, ca: { kw: 15, kvar: 8 } },
     });
   });
+
+  it('shows a source earthed through an impedance as such, edits the impedance and switches earthing kinds', async () => {
+    const onApply = vi.fn();
+    const src = { type: 'source' as const, id: 'SRC1', bus: 'B1', kvLL: 13.8, earthing: { ohms: { re: 10, im: 2 } } };
+    const { unmount } = render(<ElementForm element={src} readOnly={false} onApply={onApply} />);
+    const sel = screen.getByLabelText('Star-point earthing');
+    expect(sel).toHaveValue('impedance');
+    const z = screen.getByLabelText(/Star-point earthing impedance/);
+    expect(z).toHaveValue('10+j2 Ω');
+    await userEvent.clear(z);
+    await userEvent.type(z, '20{Enter}');
+    await waitFor(() => expect(onApply).toHaveBeenCalledWith({ ...src, earthing: { ohms: 20 } }));
+    fireEvent.change(sel, { target: { value: 'solid' } });
+    expect(onApply).toHaveBeenLastCalledWith({ ...src, earthing: 'solid' });
+    unmount();
+    onApply.mockClear();
+    render(<ElementForm element={{ ...src, earthing: 'unearthed' }} readOnly={false} onApply={onApply} />);
+    expect(screen.getByLabelText('Star-point earthing')).toHaveValue('unearthed');
+    expect(screen.queryByLabelText(/Star-point earthing impedance/)).toBeNull();
+    fireEvent.change(screen.getByLabelText('Star-point earthing'), { target: { value: 'impedance' } });
+    expect(onApply).toHaveBeenCalledWith({ ...src, earthing: { ohms: 5 } });
+  });
 });
