@@ -134,9 +134,14 @@ describe('review and reuse in a real browser', () => {
     await reviewer.goBack();
     const form = reviewer.getByRole('form', { name: 'New comment' });
     await form.getByLabel('New comment').fill('The mill load on phase a looks doubled — @engineer is 800 kW right?\nPlease confirm with the mill.');
-    await form.getByLabel('Pin to an element or result').selectOption('MILL-LOAD');
+    // Pick the element on the canvas, then pin the comment to the selection.
+    await reviewer.locator('.react-flow__node[data-id="MILL-LOAD"]').click();
+    await form.getByRole('button', { name: 'Comment on the selected element (MILL-LOAD)' }).click();
+    expect(await form.getByLabel('Pin to an element or result').inputValue()).toBe('el:MILL-LOAD');
     await form.getByRole('button', { name: 'Post comment' }).click();
     await reviewer.getByRole('listitem', { name: 'Thread by Idunn Castellane, Element MILL-LOAD' }).waitFor();
+    // The open thread shows as a pin on the element in the canvas.
+    await reviewer.getByTitle('1 comment(s) on MILL-LOAD').waitFor();
     await expectMail('engineer@wyeward.test', `Idunn Castellane mentioned you: ${STUDY_NAME}`);
     await reviewRegion(reviewer).getByRole('button', { name: 'Request changes' }).click();
     const changesDialog = reviewer.getByRole('dialog', { name: 'Request changes to revision 2' });

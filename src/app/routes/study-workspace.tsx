@@ -5,6 +5,8 @@ import { isApiError } from '../../lib/api-client.ts';
 import { useMe } from '../../lib/auth.ts';
 import { useStudy } from '../../features/studies/api/get-study.ts';
 import { WorkspacePage } from '../../features/workspace/workspace-page.tsx';
+import { useState } from 'react';
+import { useCommentPins } from '../../features/review/api/use-comment-pins.ts';
 import { ReviewStrip } from '../../features/review/components/review-strip.tsx';
 import { StudyReview } from '../../features/review/components/study-review.tsx';
 
@@ -13,6 +15,9 @@ export function Component() {
   const { id = '' } = useParams();
   const me = useMe();
   const study = useStudy(id);
+  // The canvas selection feeds "Comment on the selected element"; open threads show as pins on the canvas.
+  const [selected, setSelected] = useState<string | null>(null);
+  const pins = useCommentPins(id);
   if (!me.data) return null;
   if (study.isPending) return <Loading label="Loading the study…" />;
   if (study.isError) {
@@ -33,9 +38,9 @@ export function Component() {
   return (
     <div className="flex flex-col gap-4">
       <ReviewStrip studyId={id} />
-      <WorkspacePage key={id} study={study.data} role={me.data.role} />
+      <WorkspacePage key={id} study={study.data} role={me.data.role} onSelectionChange={setSelected} pins={pins} />
       {/* Review and reuse (issue 5): status and actions, comments pinned to elements, files. */}
-      <StudyReview key={`review-${id}`} studyId={id} role={me.data.role} userId={me.data.user.id} />
+      <StudyReview key={`review-${id}`} studyId={id} role={me.data.role} userId={me.data.user.id} selectedElementId={selected} />
     </div>
   );
 }
