@@ -188,6 +188,12 @@ interface Topology {
   coupledValid: Uint8Array;
   /** Per element: offset of its first current in the flat current arrays (length elements + 1). */
   currentOffset: Int32Array;
+  /**
+   * Per element: 1 when every node it touches is its own unknown (not tied to earth, not inside a
+   * zero-impedance tree), so each of its matrix entries is recorded and none touches the right-hand
+   * side: value assembly then writes straight to the recorded positions (fast path, same order).
+   */
+  plainNodes: Uint8Array;
   /** Value assembler and LU workspace, created on the first solve and reused. */
   valueAssembler?: Assembler;
   workspace?: LuWorkspace;
@@ -476,6 +482,7 @@ function buildTopology(prims: Primitive[]): Topology {
     switchClosed: Uint8Array.from(prims, (e) => (e.type === 'switch' && e.closed ? 1 : 0)),
     values: allocValues(prims),
     currentOffset: currentOffsets(elNodes, prims),
+    plainNodes: plainNodeFlags(elNodes, unknownOf, treeParent),
   };
   loadValues(topo, prims);
 
@@ -487,6 +494,17 @@ function buildTopology(prims: Primitive[]): Topology {
   topo.symbolic = symbolic;
   topo.positions = positions;
   return topo;
+}
+
+/** Elements whose nodes are all free unknowns (see Topology.plainNodes). */
+function plainNodeFlags(elNodes: Int32Array[], unknownOf: Int32Array, treeParent: Int32Array): Uint8Array {
+  const flags = new Uint8Array(elNodes.length);
+  for (let k = 0; k < elNodes.length; k++) {
+    let plain = 1;
+    for (const i of elNodes[k]) if (unknownOf[i] < 0 || treeParent[i] !== -1) plain = 0;
+    flags[k] = plain;
+  }
+  return flags;
 }
 
 /** Offsets of each element's currents in the flat arrays: coupled branches one per conductor, stamps one per node, others one. */
@@ -830,6 +848,8 @@ function makeAssembler(t: Topology, n: number, rec: Recorder | null, values: { n
   const stampAll = (): void => {
     const v = t.values;
     const kind = t.kind;
+    const plain = t.plainNodes;
+    const positions = t.positions;
     cursor = 0;
     rhsRe.fill(0);
     rhsIm.fill(0);
@@ -858,6 +878,24 @@ function makeAssembler(t: Topology, n: number, rec: Recorder | null, values: { n
       switch (kind[k]) {
         case K_IMPEDANCE:
         case K_ZIP: // the whole rated power as an admittance in the matrix; the rest is a correcting injection
+          if (!rec && plain[k]) {
+            // fast path: branch()'s four entries (aa, bb, ab, ba) straight to their positions
+            const yr = v.yRe[k];
+            const yi = v.yIm[k];
+            let p = positions[cursor++];
+            aRe[p] += yr;
+            aIm[p] += yi;
+            p = positions[cursor++];
+            aRe[p] += yr;
+            aIm[p] += yi;
+            p = positions[cursor++];
+            aRe[p] -= yr;
+            aIm[p] -= yi;
+            p = positions[cursor++];
+            aRe[p] -= yr;
+            aIm[p] -= yi;
+            break;
+          }
           branch(nodes[0], nodes[1], v.yRe[k], v.yIm[k]);
           break;
         case K_SOURCE_Z: {
@@ -880,6 +918,27 @@ function makeAssembler(t: Topology, n: number, rec: Recorder | null, values: { n
           const o = t.coupledOffset[k];
           const yRe = t.cy.re;
           const yIm = t.cy.im;
+          if (!rec && plain[k]) {
+            // fast path: the same entries in the same order as the loop below, straight to their positions
+            for (let i = 0; i < m; i++)
+              for (let j = 0; j < m; j++) {
+                const yr = yRe[o + i * m + j];
+                const yi = yIm[o + i * m + j];
+                let p = positions[cursor++];
+                aRe[p] += yr;
+                aIm[p] += yi;
+                p = positions[cursor++];
+                aRe[p] += yr;
+                aIm[p] += yi;
+                p = positions[cursor++];
+                aRe[p] -= yr;
+                aIm[p] -= yi;
+                p = positions[cursor++];
+                aRe[p] -= yr;
+                aIm[p] -= yi;
+              }
+            break;
+          }
           for (let i = 0; i < m; i++)
             for (let j = 0; j < m; j++) {
               const yr = yRe[o + i * m + j];
