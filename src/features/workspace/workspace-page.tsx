@@ -51,6 +51,21 @@ import { useLiveSolve } from './solve/use-live-solve.ts';
 
 const nodeTypes: NodeTypes = { bus: BusNodeView, element: ElementNodeView };
 const edgeTypes: EdgeTypes = { wire: WireEdgeView };
+// Props of <ReactFlow> and <MiniMap> kept at module level: a new object or function on every render
+// would be copied into xyflow's store (or break MiniMap's memo and redraw all ~450 minimap nodes) on
+// every frame of a drag.
+const SNAP_GRID: [number, number] = [10, 10];
+const FIT_VIEW_OPTIONS = { padding: 0.15 };
+const PRO_OPTIONS = { hideAttribution: true };
+const ARIA_LABEL_CONFIG = { 'node.a11yDescription.default': 'Press Enter or Space to select; arrow keys move a selected node.' };
+const MINIMAP_STYLE = { width: 150, height: 96 };
+/**
+ * From this many canvas nodes, nodes and wires outside the view are not rendered (layout and paint of
+ * ~450 nodes made dragging stutter on the 300-element study). Smaller diagrams keep every node in the
+ * page, so keyboard and screen-reader users can reach nodes scrolled out of view.
+ */
+const CULL_FROM_NODES = 150;
+const minimapColor = (n: { type?: string }) => (n.type === 'bus' ? '#1c2226' : '#7d858c');
 
 interface Doc {
   nodes: WorkspaceNode[];
@@ -89,7 +104,11 @@ function compareCircuits(mine: CircuitInput, theirs: CircuitInput): ConflictSumm
  * canvasToCircuit depends on node data and edges, not on positions: while a node is dragged its data
  * object is kept, so the last conversion is reused (a drag then costs no conversion per frame).
  */
-type Conversion = ReturnType<typeof canvasToCircuit> & { ids: string[] };
+type Conversion = ReturnType<typeof canvasToCircuit> & {
+  ids: string[];
+  /** Canvas element node id → its element (for wires that label port currents without a store subscription per edge). */
+  elementOf: Record<string, CircuitElementInput>;
+};
 const conversionCache = new WeakMap<WorkspaceEdge[], { data: unknown[]; settings: StudySettings; result: Conversion }>();
 const jsonCache = new WeakMap<object, string>();
 /** JSON of an object that is never mutated, computed once. */
@@ -102,7 +121,9 @@ function convert(d: Doc): Conversion {
   const data = d.nodes.map((n) => n.data);
   const hit = conversionCache.get(d.edges);
   if (hit && hit.settings === d.settings && hit.data.length === data.length && hit.data.every((x, i) => x === data[i]) && d.nodes.every((n, i) => n.id === hit.result.ids[i])) return hit.result;
-  const result: Conversion = { ...canvasToCircuit(d.nodes, d.edges, d.settings), ids: d.nodes.map((n) => n.id) };
+  const elementOf: Record<string, CircuitElementInput> = {};
+  for (const n of d.nodes) if (isElementNode(n)) elementOf[n.id] = n.data.element;
+  const result: Conversion = { ...canvasToCircuit(d.nodes, d.edges, d.settings), ids: d.nodes.map((n) => n.id), elementOf };
   conversionCache.set(d.edges, { data, settings: d.settings, result });
   return result;
 }
@@ -141,8 +162,15 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const doc = hist.present;
   const [savedKey, setSavedKey] = useState(() => docKey(hist.present));
   const [baseVersion, setBaseVersion] = useState(study.version);
+  // True while a node is dragged: the dirty key (JSON of the circuit and of every position) is then
+  // not recomputed per frame but once on drag stop.
+  const [dragging, setDragging] = useState(false);
+  const lastDirty = useRef(false);
   // Dirty means the saved content would differ: selection and measuring do not count, positions do.
-  const dirty = !readOnly && docKey(doc) !== savedKey;
+  const dirty = useMemo(() => {
+    if (dragging) return lastDirty.current;
+    return (lastDirty.current = !readOnly && docKey(doc) !== savedKey);
+  }, [dragging, readOnly, doc, savedKey]);
   const [snap, setSnap] = useState(true);
   const [dialog, setDialog] = useState<null | 'save' | 'settings' | 'help'>(null);
   const [theirs, setTheirs] = useState<StudyDetail | null>(null);
@@ -206,8 +234,9 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       overlays,
       problems,
       busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
+      elementOf: conversion.elementOf,
     }),
-    [readOnly, shifts, pins, doc.settings.wiringStandard, overlays, problems, conversion.map],
+    [readOnly, shifts, pins, doc.settings.wiringStandard, overlays, problems, conversion.map, conversion.elementOf],
   );
 
   // ---- canvas changes ----
@@ -493,16 +522,17 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   }, [dirty]);
 
   // ---- selection ----
+  // Keyed on the selected node's id and data (not the node object, which a drag replaces every frame),
+  // so the property panel does not re-render while a node moves.
+  const selNode = doc.nodes.find((x) => x.selected);
+  const selEdge = selNode ? undefined : doc.edges.find((x) => x.selected);
+  const selEdgeBus = selEdge ? doc.nodes.find((x) => x.id === selEdge.target) : undefined;
   const selection = useMemo<Selection>(() => {
-    const n = doc.nodes.find((x) => x.selected);
-    if (n) return isBusNode(n) ? { kind: 'bus', id: n.id, data: n.data } : { kind: 'element', id: n.id, element: n.data.element };
-    const e = doc.edges.find((x) => x.selected);
-    if (e) {
-      const bus = doc.nodes.find((x) => x.id === e.target);
-      if (bus && isBusNode(bus)) return { kind: 'edge', edge: e, elementId: e.source, busName: bus.data.name, splitPhase: bus.data.splitPhase };
-    }
+    if (selNode) return isBusNode(selNode) ? { kind: 'bus', id: selNode.id, data: selNode.data } : { kind: 'element', id: selNode.id, element: selNode.data.element };
+    if (selEdge && selEdgeBus && isBusNode(selEdgeBus)) return { kind: 'edge', edge: selEdge, elementId: selEdge.source, busName: selEdgeBus.data.name, splitPhase: selEdgeBus.data.splitPhase };
     return null;
-  }, [doc.nodes, doc.edges]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- id and data stand for the selected node
+  }, [selNode?.id, selNode?.data, selEdge, selEdgeBus?.data]);
   const selectedName = selection?.kind === 'bus' ? selection.data.name : selection?.kind === 'element' ? selection.id : selection?.kind === 'edge' ? selection.elementId : null;
 
   useEffect(() => onSelectionChange?.(selection?.kind === 'element' ? selection.id : selection?.kind === 'bus' ? selection.data.name : null), [selection, onSelectionChange]);
@@ -523,7 +553,20 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     [conversion.map],
   );
 
-  const busList = useMemo(() => doc.nodes.filter(isBusNode).map((b) => ({ id: b.id, name: b.data.name, kvLL: b.data.kvLL })), [doc.nodes]);
+  // The conversion is reused while node data and ids stay the same (a drag), so it keys the bus list.
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- conversion stands for the nodes' ids and data
+  const busList = useMemo(() => doc.nodes.filter(isBusNode).map((b) => ({ id: b.id, name: b.data.name, kvLL: b.data.kvLL })), [conversion]);
+  const busNames = useMemo(() => busList.map((b) => b.name), [busList]);
+  const isValidConnection = useCallback((c: Connection | WorkspaceEdge) => resolveConnection(c) !== null, [resolveConnection]);
+  const onNodeDragStart = useCallback(() => {
+    dragStart.current = docRef.current;
+    setDragging(true);
+  }, []);
+  const onNodeDragStop = useCallback(() => {
+    if (dragStart.current) dispatch({ type: 'mark', before: dragStart.current });
+    dragStart.current = null;
+    setDragging(false);
+  }, []);
   const applySettings = useCallback(
     (s: StudySettings, kv: Record<string, number | undefined>) => {
       const cur = docRef.current;
@@ -543,7 +586,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     [commit],
   );
 
-  const layout = readLayout(study.content.layout);
+  const layout = useMemo(() => readLayout(study.content.layout), [study.content.layout]);
   const statusText =
     live.status === 'solving' ? 'Solving…' : live.status === 'ok' ? `Solved in ${live.ms?.toFixed(1) ?? '–'} ms` : live.status === 'error' ? 'The circuit cannot be solved (see the note by the element)' : circuit.elements.length === 0 ? 'Add a source, a bus and loads to begin' : '';
 
@@ -611,29 +654,27 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
               onNodesChange={onNodesChange}
               onEdgesChange={onEdgesChange}
               onConnect={onConnect}
-              isValidConnection={(c) => resolveConnection(c as Connection) !== null}
+              isValidConnection={isValidConnection}
               connectionMode={ConnectionMode.Loose}
-              onNodeDragStart={() => (dragStart.current = docRef.current)}
-              onNodeDragStop={() => {
-                if (dragStart.current) dispatch({ type: 'mark', before: dragStart.current });
-                dragStart.current = null;
-              }}
+              onNodeDragStart={onNodeDragStart}
+              onNodeDragStop={onNodeDragStop}
+              onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
               nodesDraggable={!readOnly}
               nodesConnectable={!readOnly}
               elementsSelectable
               deleteKeyCode={null}
               snapToGrid={snap}
-              snapGrid={[10, 10]}
+              snapGrid={SNAP_GRID}
               defaultViewport={layout?.viewport}
               fitView={!layout?.viewport}
-              fitViewOptions={{ padding: 0.15 }}
+              fitViewOptions={FIT_VIEW_OPTIONS}
               minZoom={0.2}
               maxZoom={3}
-              proOptions={{ hideAttribution: true }}
-              ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select; arrow keys move a selected node.' }}
+              proOptions={PRO_OPTIONS}
+              ariaLabelConfig={ARIA_LABEL_CONFIG}
             >
               <Background gap={20} size={1} color="#d3d0c6" />
-              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={{ width: 150, height: 96 }} nodeColor={(n) => (n.type === 'bus' ? '#1c2226' : '#7d858c')} />
+              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
             </ReactFlow>
             {doc.nodes.length === 0 ? (
               <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
@@ -645,7 +686,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
             selection={selection}
             readOnly={readOnly}
             wiringStandard={doc.settings.wiringStandard}
-            busNames={busList.map((b) => b.name)}
+            busNames={busNames}
             onElement={updateElement}
             onBus={updateBus}
             onToggleOpen={toggleOpen}

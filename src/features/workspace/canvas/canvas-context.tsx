@@ -4,6 +4,7 @@
  * so node data stays plain parameters and custom nodes stay memoised.
  */
 import { createContext, useContext } from 'react';
+import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import type { DiagramOverlays } from '../results/overlays.ts';
 import type { WiringStandard } from '../model/layout.ts';
 
@@ -19,6 +20,8 @@ export interface CanvasView {
   pins: Record<string, number>;
   /** Canvas node id → bus names whose results belong to it (its own and private terminal buses). */
   busNamesOf: (nodeId: string) => string[];
+  /** Element node id → its element (wires read their element's ports here rather than subscribing to the flow store per edge). */
+  elementOf: Record<string, CircuitElementInput>;
 }
 
 export const CanvasViewContext = createContext<CanvasView>({
@@ -29,6 +32,7 @@ export const CanvasViewContext = createContext<CanvasView>({
   shifts: {},
   pins: {},
   busNamesOf: () => [],
+  elementOf: {},
 });
 
 export function useCanvasView(): CanvasView {

@@ -4,11 +4,11 @@
  * on the wire ("N open") and the wire is drawn broken; after a solve the currents of that port sit
  * beside it.
  */
-import { BaseEdge, EdgeLabelRenderer, getSmoothStepPath, useInternalNode, type EdgeProps } from '@xyflow/react';
+import { BaseEdge, EdgeLabelRenderer, getSmoothStepPath, type EdgeProps } from '@xyflow/react';
 import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { elementPorts, isBundleHandle } from '../model/ports.ts';
-import type { WorkspaceEdge, WorkspaceNode } from '../model/types.ts';
+import type { WorkspaceEdge } from '../model/types.ts';
 import { useCanvasView } from './canvas-context.tsx';
 
 function amps(a: number): string {
@@ -18,7 +18,6 @@ function amps(a: number): string {
 export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<WorkspaceEdge>) {
   const { id, source, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, targetHandleId, sourceHandleId, data, selected } = props;
   const view = useCanvasView();
-  const el = useInternalNode<WorkspaceNode>(source);
   const [path, lx, ly] = getSmoothStepPath({ sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, borderRadius: 6 });
   const open = data?.open ?? [];
   const single = !isBundleHandle(targetHandleId);
@@ -28,8 +27,9 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
   // Currents of this port (engine port index = order of distinct element fields).
   let currents: { conductor: string; mag: number }[] = [];
   const ov = view.overlays?.elements[source];
-  if (ov && el && el.data.kind === 'element') {
-    const ports = elementPorts(el.data.element);
+  const element = view.elementOf[source];
+  if (ov && element) {
+    const ports = elementPorts(element);
     const fields = [...new Set(ports.map((p) => p.field))];
     const port = ports.find((p) => p.id === sourceHandleId);
     const idx = port ? fields.indexOf(port.field) : -1;
