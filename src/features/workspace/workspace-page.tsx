@@ -645,7 +645,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
         <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
           {readOnly ? null : <Palette onAdd={addItem} />}
-          <div className="relative min-w-0 flex-1" aria-label="Diagram">
+          <div className="relative min-w-0 flex-1 [&_.react-flow__node.dragging]:will-change-transform" aria-label="Diagram">
             <ReactFlow<WorkspaceNode, WorkspaceEdge>
               nodes={doc.nodes}
               edges={doc.edges}

@@ -3,7 +3,7 @@
  * connection's conductors with one button per conductor to open or close it ("Open neutral").
  */
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useId, useMemo } from 'react';
+import { memo, useId, useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
@@ -38,7 +38,8 @@ export function conductorWords(c: Conductor): string {
   return c === 'n' ? 'neutral' : c === '1' || c === '2' ? `leg ${c}` : `phase ${c.toUpperCase()}`;
 }
 
-export function PropertyPanel({ selection, readOnly, wiringStandard, busNames, onElement, onBus, onToggleOpen }: Props) {
+/** Memoised: the workspace re-renders on every frame of a drag, the panel only when its props change. */
+export const PropertyPanel = memo(function PropertyPanel({ selection, readOnly, wiringStandard, busNames, onElement, onBus, onToggleOpen }: Props) {
   return (
     <section aria-label="Properties" className="flex w-[250px] shrink-0 flex-col gap-2 overflow-y-auto border-l border-rule bg-panel p-2.5">
       {selection === null ? (
@@ -57,7 +58,7 @@ export function PropertyPanel({ selection, readOnly, wiringStandard, busNames, o
       )}
     </section>
   );
-}
+});
 
 function ConnectionPanel({ selection, readOnly, wiringStandard, onToggleOpen }: { selection: Extract<Selection, { kind: 'edge' }>; readOnly: boolean; wiringStandard: WiringStandard; onToggleOpen: Props['onToggleOpen'] }) {
   const { edge } = selection;
