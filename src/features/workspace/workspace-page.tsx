@@ -645,7 +645,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
         <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
           {readOnly ? null : <Palette onAdd={addItem} />}
-          <div className="relative min-w-0 flex-1 [&_.react-flow__node.dragging]:will-change-transform" aria-label="Diagram">
+          {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
+          <div className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
             <ReactFlow<WorkspaceNode, WorkspaceEdge>
               nodes={doc.nodes}
               edges={doc.edges}
