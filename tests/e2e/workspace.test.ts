@@ -213,6 +213,19 @@ describe('study workspace in a real browser', () => {
     expect(Math.abs(shown + 30)).toBeLessThan(3);
     expect(await page.locator('.react-flow__node').count()).toBe(8); // 3 buses + 5 elements
     await screenshot(page, 'workspace-delta-wye');
+    // Moving a node changes what saving would store (positions): the dirty mark, checked on drag stop,
+    // appears after the drag; undo puts the node back and the mark goes.
+    expect(await page.getByText('Unsaved changes').count()).toBe(0);
+    const box = (await bank.locator('svg').first().boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.down();
+    for (let i = 1; i <= 6; i++) await page.mouse.move(box.x + box.width / 2 + 10 * i, box.y + box.height / 2);
+    await page.mouse.up();
+    await expect.poll(() => page.getByText('Unsaved changes').count()).toBe(1);
+    const moved = (await bank.locator('svg').first().boundingBox())!;
+    expect(moved.x - box.x).toBeGreaterThan(20);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect.poll(() => page.getByText('Unsaved changes').count()).toBe(0);
     await page.close();
   });
 
