@@ -10,7 +10,16 @@ import type { CircuitResult } from '../../../../shared/engine/index.ts';
 export function hidePrivate(result: CircuitResult, marker: string | undefined): CircuitResult {
   if (!marker) return result;
   const buses = result.buses.filter((b) => !b.bus.includes(marker));
-  const elements = Object.fromEntries(Object.entries(result.elements).filter(([id]) => !id.includes(marker)));
+  // Kept elements that sit behind a generated switch name the bus the user drew instead of the private one.
+  const elements = Object.fromEntries(
+    Object.entries(result.elements)
+      .filter(([id]) => !id.includes(marker))
+      .map(([id, e]) => {
+        if (!e.ports?.some((p) => p.bus?.includes(marker))) return [id, e];
+        const ports = e.ports.map((p) => (p.bus?.includes(marker) ? { ...p, bus: publicBus(result, p.bus, marker) ?? p.bus } : p));
+        return [id, { ...e, ports }];
+      }),
+  );
   // Never hide everything: a study made only of generated names still shows its results.
   return { ...result, buses: buses.length > 0 ? buses : result.buses, elements: Object.keys(elements).length > 0 ? elements : result.elements };
 }

@@ -31,6 +31,13 @@ describe('private names of generated buses and switches', () => {
     expect(hidePrivate(result, undefined)).toBe(result);
   });
 
+  it('an element behind a generated switch names the bus the user drew', () => {
+    const shown = hidePrivate(result, '~');
+    // the full result keeps the private name (the canvas overlays use it)
+    expect(result.elements.KITCHEN.ports?.map((p) => p.bus)).toContain('KITCHEN~bus');
+    expect(shown.elements.KITCHEN.ports?.map((p) => p.bus)).toEqual(['HOUSE']);
+  });
+
   it('the panel shows the drawn bus when the element on a private bus is selected', () => {
     const { rerender } = render(<ResultsPanel status="ok" result={result} selection="KITCHEN" />); // the default marker is "~"
     expect(screen.getByRole('img', { name: 'Phasor diagram, bus HOUSE' })).toBeInTheDocument();
