@@ -110,10 +110,13 @@ export function jsonResult(r: CircuitResult, full = false) {
   };
 }
 
+/** Entries of a big record serialized per JSON.stringify call in writeJson. */
+const BATCH = 256;
+
 /**
  * Write `value` as JSON plus a newline through `write`, in chunks of about `chunkChars`: the same
  * text as `JSON.stringify(value) + '\n'`, but the large records (nodes, elements) are serialized
- * entry by entry, so a 20 000-bus result (~32 MB) never exists as one string and one buffer.
+ * a batch of entries at a time, so a 20 000-bus result (~32 MB) never exists as one string and one buffer.
  */
 export function writeJson(value: Record<string, unknown>, write: (chunk: string) => void, chunkChars = 1 << 20): void {
   let buf = '';
@@ -135,14 +138,28 @@ export function writeJson(value: Record<string, unknown>, write: (chunk: string)
       push(JSON.stringify(v));
       continue;
     }
+    // entries in batches of BATCH: one native JSON.stringify per batch instead of per entry
+    // (measured: ~40 000 small calls cost more than the text itself). A batch is a null-prototype
+    // object (so a key "__proto__" stays a key) filled in the record's own key order; integer-like
+    // keys come first in both, so each batch's text is the matching slice of the record's text.
     push('{');
     let firstEntry = true;
-    for (const [k, x] of Object.entries(v as Record<string, unknown>)) {
-      const text = JSON.stringify(x);
-      if (text === undefined) continue;
-      push(`${firstEntry ? '' : ','}${JSON.stringify(k)}:${text}`);
-      firstEntry = false;
+    let batch: Record<string, unknown> = Object.create(null);
+    let inBatch = 0;
+    const flush = () => {
+      const text = JSON.stringify(batch);
+      if (text.length > 2) {
+        push(`${firstEntry ? '' : ','}${text.slice(1, -1)}`);
+        firstEntry = false;
+      }
+      batch = Object.create(null);
+      inBatch = 0;
+    };
+    for (const k of Object.keys(v as object)) {
+      batch[k] = (v as Record<string, unknown>)[k];
+      if (++inBatch === BATCH) flush();
     }
+    if (inBatch) flush();
     push('}');
   }
   push('}\n');
