@@ -2,10 +2,12 @@
  * Validate an untrusted circuit (parsed JSON or an object) into a `Circuit`.
  * Every problem becomes an issue `{ path, message }` in plain words, gathered into one
  * `InvalidCircuitError`: non-finite numbers, unknown element types (named, with the known ones),
- * schema errors per element, duplicate ids.
+ * schema errors per element, duplicate ids. Primitives take a hand-checked fast path first
+ * (fast-primitives.ts); anything it does not accept goes through the zod schema.
  */
 import type { z } from 'zod';
 import { InvalidCircuitError } from '../errors.ts';
+import { fastParsePrimitive } from './fast-primitives.ts';
 import { circuitSchema, ELEMENT_TYPES, elementSchemas, type Circuit, type ElementType } from './circuit.ts';
 
 export interface CircuitIssue {
@@ -83,6 +85,12 @@ export function parseCircuit(input: unknown): Circuit {
       if (!(ELEMENT_TYPES as string[]).includes(type)) {
         issues.push({ path: `elements[${i}].type`, message: `unknown element type "${type}"${label}; known types: ${ELEMENT_TYPES.join(', ')}` });
         if (typeof id === 'string') elementIds.push(id);
+        return;
+      }
+      const fast = fastParsePrimitive(el as Record<string, unknown>);
+      if (fast) {
+        elements.push(fast as Circuit['elements'][number]);
+        elementIds.push(fast.id as string);
         return;
       }
       const parsed = elementSchemas[type as ElementType].safeParse(el);
