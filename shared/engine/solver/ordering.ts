@@ -61,21 +61,30 @@ export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32A
   return perm;
 }
 
-/** Binary min-heap of (degree, vertex) with lazy deletion of stale entries. */
+/**
+ * Binary min-heap of (degree, vertex) with lazy deletion of stale entries. Typed arrays grown by
+ * doubling (plain arrays grown by push cost ~25 ms at 20 000 unknowns); the same order as before.
+ */
 class MinHeap {
-  private deg: number[] = [];
-  private vtx: number[] = [];
+  private deg: Int32Array;
+  private vtx: Int32Array;
+  private size = 0;
   constructor(capacity: number) {
-    this.deg = new Array(0);
-    this.vtx = new Array(0);
-    void capacity;
+    this.deg = new Int32Array(Math.max(16, capacity * 2));
+    this.vtx = new Int32Array(this.deg.length);
   }
   push(d: number, v: number): void {
+    if (this.size === this.deg.length) {
+      const deg = new Int32Array(this.size * 2);
+      deg.set(this.deg);
+      const vtx = new Int32Array(this.size * 2);
+      vtx.set(this.vtx);
+      this.deg = deg;
+      this.vtx = vtx;
+    }
     const deg = this.deg;
     const vtx = this.vtx;
-    let i = deg.length;
-    deg.push(d);
-    vtx.push(v);
+    let i = this.size++;
     while (i > 0) {
       const p = (i - 1) >> 1;
       if (deg[p] < d || (deg[p] === d && vtx[p] < v)) break;
@@ -89,6 +98,7 @@ class MinHeap {
   /** Pop the live vertex of least degree (entries whose degree no longer matches are stale). */
   pop(adj: number[][], eliminated: Uint8Array): number {
     for (;;) {
+      if (this.size === 0) throw new Error('minimum degree ordering: heap empty');
       const d = this.deg[0];
       const v = this.vtx[0];
       this.removeTop();
@@ -98,9 +108,9 @@ class MinHeap {
   private removeTop(): void {
     const deg = this.deg;
     const vtx = this.vtx;
-    const lastD = deg.pop()!;
-    const lastV = vtx.pop()!;
-    const n = deg.length;
+    const n = --this.size;
+    const lastD = deg[n];
+    const lastV = vtx[n];
     if (n === 0) return;
     let i = 0;
     for (;;) {

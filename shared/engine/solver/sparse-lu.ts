@@ -55,12 +55,12 @@ export function analyzePattern(
   perm?: Int32Array,
 ): { symbolic: SymbolicLu; positions: Int32Array } {
   // 1. symmetric pattern in original indexing (for the ordering)
-  const { colPtr: oPtr, rowIdx: oIdx } = buildSymmetricPattern(n, rows, cols, count, null);
+  const { colPtr: oPtr, rowIdx: oIdx } = buildSymmetricPattern(n, rows, cols, count);
   const p = perm ?? minimumDegreeOrder(n, oPtr, oIdx);
   const pinv = new Int32Array(n);
   for (let k = 0; k < n; k++) pinv[p[k]] = k;
-  // 2. permuted pattern
-  const { colPtr, rowIdx } = buildSymmetricPattern(n, rows, cols, count, pinv);
+  // 2. permuted pattern: the original one relabelled (already free of duplicates), each column re-sorted
+  const { colPtr, rowIdx } = permutePattern(n, oPtr, oIdx, pinv);
   const nnz = rowIdx.length;
   // 3. transpose positions (binary search in sorted columns)
   const tpos = new Int32Array(nnz);
@@ -104,12 +104,37 @@ function findPos(colPtr: Int32Array, rowIdx: Int32Array, i: number, j: number): 
   throw new Error(`sparse pattern: entry (${i}, ${j}) missing`);
 }
 
+/** Column pattern of P·A·Pᵀ from A's (sorted, duplicate-free) pattern: row and column k become pinv[k]. */
+function permutePattern(n: number, oPtr: Int32Array, oIdx: Int32Array, pinv: Int32Array): { colPtr: Int32Array; rowIdx: Int32Array } {
+  const colPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) colPtr[pinv[j] + 1] = oPtr[j + 1] - oPtr[j];
+  for (let j = 0; j < n; j++) colPtr[j + 1] += colPtr[j];
+  const rowIdx = new Int32Array(oIdx.length);
+  for (let j = 0; j < n; j++) {
+    const lo = colPtr[pinv[j]];
+    const len = oPtr[j + 1] - oPtr[j];
+    for (let q = 0; q < len; q++) rowIdx[lo + q] = pinv[oIdx[oPtr[j] + q]];
+    if (len > 64) rowIdx.subarray(lo, lo + len).sort();
+    else {
+      for (let q = lo + 1; q < lo + len; q++) {
+        const x = rowIdx[q];
+        let r = q - 1;
+        while (r >= lo && rowIdx[r] > x) {
+          rowIdx[r + 1] = rowIdx[r];
+          r--;
+        }
+        rowIdx[r + 1] = x;
+      }
+    }
+  }
+  return { colPtr, rowIdx };
+}
+
 function buildSymmetricPattern(
   n: number,
   rows: Int32Array,
   cols: Int32Array,
   count: number,
-  pinv: Int32Array | null,
 ): { colPtr: Int32Array; rowIdx: Int32Array } {
   const cnt = new Int32Array(n + 1);
   for (let e = 0; e < count; e++) {
@@ -121,17 +146,16 @@ function buildSymmetricPattern(
   for (let j = 0; j < n; j++) start[j + 1] = start[j] + cnt[j];
   const tmp = new Int32Array(start[n]);
   const fill = start.slice(0, n);
-  const map = (i: number) => (pinv ? pinv[i] : i);
-  for (let j = 0; j < n; j++) tmp[fill[j]++] = map(j);
+  for (let j = 0; j < n; j++) tmp[fill[j]++] = j;
   for (let e = 0; e < count; e++) {
     const r = rows[e];
     const c = cols[e];
-    tmp[fill[c]++] = map(r);
-    tmp[fill[r]++] = map(c);
+    tmp[fill[c]++] = r;
+    tmp[fill[r]++] = c;
   }
   // per column: drop duplicates with a marker array (stamps repeat entries a lot: a coupled
   // 4×4 branch touches each pair of its nodes several times), then insertion-sort what is left
-  // (columns of nodal matrices are short); then lay the columns out in mapped order
+  // (columns of nodal matrices are short); then lay the columns out
   const len = new Int32Array(n);
   const mark = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
@@ -156,14 +180,13 @@ function buildSymmetricPattern(
         tmp[r + 1] = x;
       }
     }
-    len[map(j)] = m - lo;
+    len[j] = m - lo;
   }
   const colPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) colPtr[j + 1] = colPtr[j] + len[j];
   const rowIdx = new Int32Array(colPtr[n]);
   for (let j = 0; j < n; j++) {
-    const mj = map(j);
-    rowIdx.set(tmp.subarray(start[j], start[j] + len[mj]), colPtr[mj]);
+    rowIdx.set(tmp.subarray(start[j], start[j] + len[j]), colPtr[j]);
   }
   return { colPtr, rowIdx };
 }
