@@ -62,10 +62,12 @@ export function analyzePattern(
   // 2. permuted pattern: the original one relabelled (already free of duplicates), each column re-sorted
   const { colPtr, rowIdx } = permutePattern(n, oPtr, oIdx, pinv);
   const nnz = rowIdx.length;
-  // 3. transpose positions (binary search in sorted columns)
+  // 3. transpose positions: the pattern is symmetric and its columns sorted, so sweeping the
+  // columns j in increasing order meets the entries (j, i) of each column i in its stored order
   const tpos = new Int32Array(nnz);
+  const next = colPtr.slice(0, n);
   for (let j = 0; j < n; j++) {
-    for (let q = colPtr[j]; q < colPtr[j + 1]; q++) tpos[q] = findPos(colPtr, rowIdx, j, rowIdx[q]);
+    for (let q = colPtr[j]; q < colPtr[j + 1]; q++) tpos[q] = next[rowIdx[q]]++;
   }
   // 4. elimination tree and column counts of L (Davis, LDL symbolic)
   const parent = new Int32Array(n).fill(-1);
