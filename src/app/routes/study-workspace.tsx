@@ -1,7 +1,6 @@
-import { Link, useParams } from 'react-router';
+import { useParams } from 'react-router';
 import { Loading } from '../../components/loading.tsx';
-import { Notice } from '../../components/notice.tsx';
-import { isApiError } from '../../lib/api-client.ts';
+import { StudyLoadError } from '../../features/studies/components/study-load-error.tsx';
 import { useMe } from '../../lib/auth.ts';
 import { useStudy } from '../../features/studies/api/get-study.ts';
 import { WorkspacePage } from '../../features/workspace/workspace-page.tsx';
@@ -20,21 +19,7 @@ export function Component() {
   const pins = useCommentPins(id);
   if (!me.data) return null;
   if (study.isPending) return <Loading label="Loading the study…" />;
-  if (study.isError) {
-    return (
-      <div className="mx-auto max-w-3xl">
-        {isApiError(study.error, 404) ? (
-          <Notice tone="error" title="Study not found.">
-            It may have been deleted, or it belongs to another team. <Link to="/" className="font-semibold text-accent underline">Back to studies</Link>
-          </Notice>
-        ) : (
-          <Notice tone="error" title="The study could not be loaded.">
-            {study.error.message}
-          </Notice>
-        )}
-      </div>
-    );
-  }
+  if (study.isError) return <StudyLoadError error={study.error} />;
   return (
     <div className="flex flex-col gap-4">
       <ReviewStrip studyId={id} />

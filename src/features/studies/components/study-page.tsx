@@ -6,13 +6,13 @@ import { Button } from '../../../components/button.tsx';
 import { ConfirmDialog } from '../../../components/dialog.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import { isApiError } from '../../../lib/api-client.ts';
 import { can } from '../../../lib/authorization.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useCloneStudy } from '../api/clone-study.ts';
 import { useDeleteStudy } from '../api/delete-study.ts';
 import { useStudy } from '../api/get-study.ts';
 import { ContentSummaryPanel } from './content-summary-panel.tsx';
+import { StudyLoadError } from './study-load-error.tsx';
 import { StudyDetailsForm } from './study-details-form.tsx';
 
 /** One study: its record (who, when, version, origin), content summary, and the edits the role allows. */
@@ -26,21 +26,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
   const canEdit = can(role, 'study:edit');
 
   if (study.isPending) return <Loading label="Loading the study…" />;
-  if (study.isError) {
-    return (
-      <div className="mx-auto max-w-3xl">
-        {isApiError(study.error, 404) ? (
-          <Notice tone="error" title="Study not found.">
-            It may have been deleted, or it belongs to another team. <Link to="/" className="font-semibold text-accent underline">Back to studies</Link>
-          </Notice>
-        ) : (
-          <Notice tone="error" title="The study could not be loaded.">
-            {study.error.message}
-          </Notice>
-        )}
-      </div>
-    );
-  }
+  if (study.isError) return <StudyLoadError error={study.error} />;
   const s = study.data;
 
   return (
