@@ -49,3 +49,19 @@ export class NonConvergenceError extends EngineError {
     super('non-convergence', message, opts);
   }
 }
+
+/**
+ * Voltage collapse: the voltage-dependent loads ask for more than the network can deliver and no
+ * solution was found. `noseLoadFactor` is the largest fraction of the rated load for which
+ * continuation found a solution (the nose of the load-level/voltage curve); `noseVoltagesPu` the
+ * loads' terminal voltages there, lowest first.
+ */
+export class VoltageCollapseError extends NonConvergenceError {
+  readonly noseLoadFactor: number;
+  readonly noseVoltagesPu: { id: string; pu: number }[];
+  constructor(message: string, noseLoadFactor: number, noseVoltagesPu: { id: string; pu: number }[], opts: { elementIds?: string[]; nodes?: string[] } = {}) {
+    super(message, opts);
+    this.noseLoadFactor = noseLoadFactor;
+    this.noseVoltagesPu = noseVoltagesPu;
+  }
+}

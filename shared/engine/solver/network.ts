@@ -25,30 +25,34 @@
  * transformer admittance stamp) are found by the LU's rank-revealing border; their reference is
  * the node (supernode root) whose pivot vanished, chosen deterministically by the elimination order.
  *
- * Voltage-dependent (zip) loads: chord, i.e. fixed-slope current-injection, iteration. The matrix
- * carries each load's admittance at rated voltage y0 = conj(S)/Vr² (one factorization per solve);
- * each iteration injects the difference between the load's law I(V) and y0·V at the last voltages.
- * Converged when the largest change of a zip load's terminal voltage between two iterations is
- * below `tolerance` per unit of its ratedVolts (default 1e-9), within `maxIterations` linear solves
- * (default 100); otherwise a NonConvergenceError names the load with the largest power mismatch.
+ * Voltage-dependent (zip) loads: the matrix carries each load's admittance at rated voltage
+ * y0 = conj(S)/Vr² (one factorization per solve). Up to NEWTON_MAX_LOADS such loads, Newton on
+ * the loads' terminal voltages (./zip-newton.ts: the network reduced to an m × m complex matrix
+ * G = Eᵀ·M⁻¹·E by one substitution per load, and a real 2m × 2m Jacobian, since a constant-power
+ * load's current depends on conj(V)); if Newton stalls, continuation from the rated impedances to
+ * the laws, then a start on the low-voltage branch; only if all fail, a VoltageCollapseError with
+ * the nose of the load level found by continuation. Beyond NEWTON_MAX_LOADS: the chord
+ * (fixed-slope current-injection) iteration, each step injecting the difference between the
+ * load's law I(V) and y0·V at the last voltages (linear convergence, one substitution per step).
+ * Converged when the largest change of a zip load's terminal voltage is below `tolerance` per
+ * unit of its ratedVolts (default 1e-9) within `maxIterations` (default 100); otherwise a
+ * NonConvergenceError names the load with the largest power mismatch.
  * Below `lowVoltagePu` (default 0.7) the constant-current and constant-power parts become the
- * constant impedances they have at that voltage (continuous there): common practice that keeps the
- * iteration from diverging as the voltage collapses. Why not Newton: a constant-power load's
- * current depends on conj(V), so its Jacobian is not complex-linear and would need a real 2n×2n
- * system; the chord method reuses the complex factor and converges linearly (typically 5–25
- * iterations on a loaded feeder, each one forward/back substitution).
+ * constant impedances they have at that voltage (continuous there): common practice, and it
+ * makes a solution exist however heavy the load (the low-voltage branch).
  *
  * Element values are compiled into typed arrays once per `update` (inputs arrive as objects of
  * many shapes, whose property reads are slow in V8); assembly, factorization and current recovery
  * then touch typed arrays only.
  */
-import { IllPosedNetworkError, InvalidCircuitError, NonConvergenceError, SingularNetworkError } from '../errors.ts';
+import { IllPosedNetworkError, InvalidCircuitError, NonConvergenceError, SingularNetworkError, VoltageCollapseError } from '../errors.ts';
 import type { Cx, FloatingIsland, LowVoltageLoad, Primitive, PrimitiveSolution, SolveOptions } from '../types.ts';
 import { EARTH } from '../types.ts';
 import { denseInverseInto } from './dense.ts';
 import { analyzePattern, createLuWorkspace, factorNumeric, type LuWorkspace, type NumericLu, type SymbolicLu } from './sparse-lu.ts';
 import { LazyMap } from './lazy-map.ts';
 import { validatePrimitives } from './validate.ts';
+import { zipContinuation, zipNewton, type ZipReduced } from './zip-newton.ts';
 
 /** Solver options: SolveOptions plus the low-voltage rule of voltage-dependent loads. */
 export interface SolverOptions extends SolveOptions {
@@ -989,6 +993,44 @@ function zipCurrent(v: Values, k: number, vr: number, vi: number, lowPu: number)
   ZC[1] = gr * vi + gi * vr;
 }
 
+/**
+ * Law of zip load k for Newton (./zip-newton.ts): into out [I, ∂I (real 2×2), y0].
+ * I = conj(S)·f(|u|)·u with f as in zipCurrent; ∂I = conj(S)·[f·∂u + u·f'(|u|)·∂|u|],
+ * ∂|u| = (u_re·∂u_re + u_im·∂u_im)/|u|. `forceLow` applies the low-voltage impedance at any voltage.
+ */
+function zipLaw(v: Values, k: number, ur: number, ui: number, lowPu: number, forceLow: boolean, out: Float64Array): void {
+  const vrated = v.zipVolts[k];
+  const m2 = ur * ur + ui * ui;
+  const m = Math.sqrt(m2);
+  let f = v.zipZ[k] / (vrated * vrated);
+  let fp = 0;
+  if (!forceLow && m / vrated >= lowPu && m > 0) {
+    f += v.zipI[k] / (vrated * m) + v.zipP[k] / m2;
+    fp = -v.zipI[k] / (vrated * m2) - (2 * v.zipP[k]) / (m2 * m);
+  } else {
+    f += v.zipI[k] / (lowPu * vrated * vrated) + v.zipP[k] / (lowPu * lowPu * vrated * vrated);
+  }
+  const hr = v.sRe[k];
+  const hi = -v.sIm[k];
+  const gr = hr * f;
+  const gi = hi * f;
+  out[0] = gr * ur - gi * ui;
+  out[1] = gr * ui + gi * ur;
+  // q = conj(S)·u·f'/|u|
+  const s = m > 0 ? fp / m : 0;
+  const qr = (hr * ur - hi * ui) * s;
+  const qi = (hr * ui + hi * ur) * s;
+  out[2] = gr + qr * ur;
+  out[3] = -gi + qr * ui;
+  out[4] = gi + qi * ur;
+  out[5] = gr + qi * ui;
+  out[6] = v.yRe[k];
+  out[7] = v.yIm[k];
+}
+
+/** Loads up to this count are solved by Newton (dense m × m reduction); beyond it by the chord iteration. */
+export const NEWTON_MAX_LOADS = 400;
+
 function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): { solution: PrimitiveSolution; timings: SolveTimings } {
   const tStart = now();
   const tol = options.tolerance ?? DEFAULT_TOLERANCE;
@@ -1029,7 +1071,9 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
   let x = lu.solve(asm.rhsRe, asm.rhsIm);
   checkFinite(x, t);
   setVoltages(x);
-  if (zipIdx.length > 0) {
+  if (zipIdx.length > 0 && zipIdx.length <= NEWTON_MAX_LOADS) {
+    iterations = solveZipByNewton(t, lu, asm, zipIdx, setVoltages, vRe, vIm, tol, maxIter, lowPu);
+  } else if (zipIdx.length > 0) {
     const nz = zipIdx.length;
     const prevRe = new Float64Array(nz);
     const prevIm = new Float64Array(nz);
@@ -1199,6 +1243,141 @@ function numericIslands(t: Topology, lu: NumericLu): FloatingIsland[] {
     out.push({ nodes, referenceNode: t.nodeNames[t.unknownNode[nv.unknown]] });
   }
   return out;
+}
+
+/**
+ * Voltage-dependent loads by Newton on their terminal voltages (./zip-newton.ts): directly from
+ * the plain solve; if Newton stalls, by continuation in the load level and, past a nose, from the
+ * low-voltage branch (every constant-current and constant-power part at its low-voltage impedance:
+ * the documented rule makes a solution exist there). Leaves the node voltages in vRe/vIm and
+ * returns the iteration count (linear solves of the reduced system, plus the plain solve).
+ */
+function solveZipByNewton(
+  t: Topology,
+  lu: NumericLu,
+  asm: Assembler,
+  zipIdx: number[],
+  setVoltages: (x: { re: Float64Array; im: Float64Array }) => void,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  tol: number,
+  maxIter: number,
+  lowPu: number,
+): number {
+  const v = t.values;
+  const n = t.nUnknowns;
+  const m = zipIdx.length;
+  const uf = new Int32Array(m);
+  const ut = new Int32Array(m);
+  const u0Re = new Float64Array(m);
+  const u0Im = new Float64Array(m);
+  const vRated = new Float64Array(m);
+  for (let a = 0; a < m; a++) {
+    const nodes = t.elNodes[zipIdx[a]];
+    uf[a] = t.unknownOf[nodes[0]];
+    ut[a] = t.unknownOf[nodes[1]];
+    u0Re[a] = vRe[nodes[0]] - vRe[nodes[1]];
+    u0Im[a] = vIm[nodes[0]] - vIm[nodes[1]];
+    vRated[a] = v.zipVolts[zipIdx[a]];
+  }
+  // G = Eᵀ·M⁻¹·E: one solve per load
+  const gRe = new Float64Array(m * m);
+  const gIm = new Float64Array(m * m);
+  const eRe = new Float64Array(n);
+  const eIm = new Float64Array(n);
+  for (let b = 0; b < m; b++) {
+    eRe.fill(0);
+    if (uf[b] >= 0) eRe[uf[b]] += 1;
+    if (ut[b] >= 0) eRe[ut[b]] -= 1;
+    const w = lu.solve(eRe, eIm);
+    for (let a = 0; a < m; a++) {
+      gRe[a * m + b] = (uf[a] >= 0 ? w.re[uf[a]] : 0) - (ut[a] >= 0 ? w.re[ut[a]] : 0);
+      gIm[a * m + b] = (uf[a] >= 0 ? w.im[uf[a]] : 0) - (ut[a] >= 0 ? w.im[ut[a]] : 0);
+    }
+  }
+  const reduced = (forceLow: boolean): ZipReduced => ({
+    m,
+    u0Re,
+    u0Im,
+    gRe,
+    gIm,
+    vRated,
+    law: (a, ur, ui, out) => zipLaw(v, zipIdx[a], ur, ui, lowPu, forceLow, out),
+  });
+  const p = reduced(false);
+  const law = new Float64Array(8);
+  const corrRe = new Float64Array(m);
+  const corrIm = new Float64Array(m);
+  /** Node voltages from terminal voltages u: x = M⁻¹(b − E·c(u)). */
+  const finish = (uRe: Float64Array, uIm: Float64Array) => {
+    const bRe = Float64Array.from(asm.rhsRe);
+    const bIm = Float64Array.from(asm.rhsIm);
+    for (let a = 0; a < m; a++) {
+      zipLaw(v, zipIdx[a], uRe[a], uIm[a], lowPu, false, law);
+      // correction c = I(u) − y0·u (the matrix already holds y0)
+      const cr = law[0] - (law[6] * uRe[a] - law[7] * uIm[a]);
+      const ci = law[1] - (law[6] * uIm[a] + law[7] * uRe[a]);
+      corrRe[a] = cr;
+      corrIm[a] = ci;
+      if (uf[a] >= 0) {
+        bRe[uf[a]] -= cr;
+        bIm[uf[a]] -= ci;
+      }
+      if (ut[a] >= 0) {
+        bRe[ut[a]] += cr;
+        bIm[ut[a]] += ci;
+      }
+    }
+    const x = lu.solve(bRe, bIm);
+    checkFinite(x, t);
+    setVoltages(x);
+  };
+  const uRe = Float64Array.from(u0Re);
+  const uIm = Float64Array.from(u0Im);
+  const lastStep = new Float64Array(m);
+  const direct = zipNewton(p, uRe, uIm, 1, 'blend', tol, maxIter - 1, lastStep);
+  let iterations = 1 + direct.iterations;
+  if (direct.status === 'converged') {
+    finish(uRe, uIm);
+    return iterations;
+  }
+  if (direct.status === 'iteration-limit') {
+    finish(uRe, uIm);
+    throw nonConvergence(t, zipIdx, vRe, vIm, corrRe, corrIm, lastStep, iterations, lowPu);
+  }
+  // Newton stalled (a singular Jacobian, or no descent): morph the loads from their rated
+  // impedance to their law, then, if that meets a fold, start from the low-voltage branch
+  // (linear there: one step) and apply the true law.
+  const blend = zipContinuation(p, 'blend', tol);
+  iterations += blend.iterations;
+  if (blend.lambda >= 1) {
+    finish(blend.uRe, blend.uIm);
+    return iterations;
+  }
+  const lowRe = Float64Array.from(u0Re);
+  const lowIm = Float64Array.from(u0Im);
+  iterations += zipNewton(reduced(true), lowRe, lowIm, 1, 'blend', tol, 5).iterations;
+  const low = zipNewton(p, lowRe, lowIm, 1, 'blend', tol, Math.max(maxIter, 25));
+  iterations += low.iterations;
+  if (low.status === 'converged') {
+    finish(lowRe, lowIm);
+    return iterations;
+  }
+  // No solution found: the nose of the load level (loadability limit) for the report.
+  const cont = zipContinuation(p, 'level', tol);
+  const atNose = zipIdx
+    .map((k, a) => ({ id: t.ids[k], pu: Math.hypot(cont.uRe[a], cont.uIm[a]) / vRated[a] }))
+    .sort((x, y) => x.pu - y.pu);
+  const named = atNose.slice(0, 3);
+  finish(cont.uRe, cont.uIm);
+  throw new VoltageCollapseError(
+    `Voltage collapse: the voltage-dependent loads ask for more power than the network can deliver. Raising the loads from zero, a solution exists up to ${(cont.lambda * 100).toPrecision(4)} % of their rating (the nose point), where ${named
+      .map((l) => `load '${l.id}' is at ${l.pu.toFixed(3)} pu`)
+      .join(', ')}${atNose.length > 3 ? `, and ${atNose.length - 3} more` : ''}. Reduce these loads or strengthen the supply to them.`,
+    cont.lambda,
+    atNose,
+    { elementIds: named.map((l) => l.id) },
+  );
 }
 
 function nonConvergence(

@@ -101,12 +101,25 @@ describe('zip loads', () => {
     expect(low.lowVoltageLoads!.map((l) => [l.id, l.lowVoltagePu])).toEqual([['L', 0.9]]);
   });
 
-  it('non-convergence names the load with the worst mismatch', () => {
-    // with the threshold lowered to 0.05 pu, 20 kW behind 1 Ω has no solution (max transfer 13.2 kW)
+  it('past the nose of the constant-power curve, the documented low-voltage rule gives the solution on the low branch (C)', () => {
+    // With the threshold lowered to 0.05 pu, 20 kW behind 1 Ω is beyond the constant-power nose
+    // (max transfer 230²/4 = 13.2 kW), so both loads end below 0.05 pu as the impedances they have
+    // there: Lbig (0.05·230)²/20 kW; Lsmall (z 0.5, p 0.5 of 100 W) 230²/50 W in parallel with
+    // (0.05·230)²/50 W. Closed form V = 230/(1 + R·Y).
     const prims = [source(1, 0), load('Lsmall', 's', 'earth', { re: 100, im: 0 }, { z: 0.5, i: 0, p: 0.5 }), load('Lbig', 's', 'earth', { re: 20000, im: 0 }, { z: 0, i: 0, p: 1 })];
+    const sol = solvePrimitives(prims, { lowVoltagePu: 0.05, tolerance: 1e-12 });
+    expectInvariants(prims, sol);
+    const vl = 0.05 * 230;
+    const y = 20000 / vl ** 2 + 50 / 230 ** 2 + 50 / vl ** 2;
+    expect(drawn(sol, 'Lbig', 's', 'earth').v).toBeCloseTo(230 / (1 + y), 9);
+    expect(sol.lowVoltageLoads!.map((l) => l.id).sort()).toEqual(['Lbig', 'Lsmall']);
+  });
+
+  it('an iteration limit reached names the load with the worst mismatch', () => {
+    const prims = [source(1, 0), load('Lsmall', 's', 'earth', { re: 100, im: 0 }, { z: 0.5, i: 0, p: 0.5 }), load('Lbig', 's', 'earth', { re: 12000, im: 0 }, { z: 0, i: 0, p: 1 })];
     let err: unknown;
     try {
-      solvePrimitives(prims, { lowVoltagePu: 0.05, maxIterations: 50 });
+      solvePrimitives(prims, { maxIterations: 2 });
     } catch (e) {
       err = e;
     }
@@ -114,7 +127,15 @@ describe('zip loads', () => {
     const e = err as NonConvergenceError;
     expect(e.code).toBe('non-convergence');
     expect(e.elementIds).toEqual(['Lbig']);
-    expect(e.message).toMatch(/^Voltage-dependent loads did not converge in \d+ iterations \(possible voltage collapse: the loads ask for more power than the network can deliver\)\. Worst mismatch at load 'Lbig': [\d.e+-]+ VA at terminal voltage /);
+    expect(e.message).toMatch(/^Voltage-dependent loads did not converge in 2 iterations \(possible voltage collapse: the loads ask for more power than the network can deliver\)\. Worst mismatch at load 'Lbig': [\d.e+-]+ VA at terminal voltage /);
+  });
+
+  it('Newton solves a heavily loaded constant-power load near its nose in a few iterations (C)', () => {
+    // 13 kW behind 1 Ω from 230 V (nose at 13.225 kW): upper root of V² − 230·V + 13 000 = 0
+    const prims = [source(1, 0), load('L', 's', 'earth', { re: 13000, im: 0 }, { z: 0, i: 0, p: 1 })];
+    const sol = solvePrimitives(prims, { tolerance: 1e-12, lowVoltagePu: 0.05 });
+    expect(drawn(sol, 'L', 's', 'earth').v).toBeCloseTo((230 + Math.sqrt(230 * 230 - 4 * 13000)) / 2, 8);
+    expect(sol.iterations).toBeLessThanOrEqual(20);
   });
 
   it('an iteration limit too small for the tolerance is reported, not ignored', () => {
