@@ -1,7 +1,8 @@
 /**
  * Fast start for the solve CLI: `node server/cli/solve-launcher.mjs <file.json> [--json [--full]]`
- * runs server/cli/solve.ts from a prebuilt single-file bundle, rebuilt on demand with esbuild (vite's
- * own dependency) when any of its sources changed — like server/client-build.ts does for the client.
+ * runs server/cli/solve.ts from a prebuilt single-file CommonJS bundle, rebuilt on demand with
+ * esbuild (vite's own dependency) when any of its sources changed — like server/client-build.ts does
+ * for the client — and loaded with V8's code cache (see loadBundle).
  *
  * Why: measured on this machine, `node --import tsx server/cli/solve.ts` spent ~1.7 s before reading
  * the file (tsx's loader transforming and resolving ~60 modules), against ~0.3 s for the bundle;
@@ -15,17 +16,20 @@
  * reports the real problem. WYEWARD_CLI_CACHE overrides the cache folder (default
  * node_modules/.cache/wyeward-cli); WYEWARD_CLI_NO_BUNDLE=1 forces the tsx path.
  */
-import { mkdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import vm from 'node:vm';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const entry = path.join(root, 'server/cli/solve.ts');
 const cacheDir = process.env.WYEWARD_CLI_CACHE ? path.resolve(process.env.WYEWARD_CLI_CACHE) : path.join(root, 'node_modules/.cache/wyeward-cli');
-const bundlePath = path.join(cacheDir, 'solve.mjs');
+const bundlePath = path.join(cacheDir, 'solve.cjs');
+const codeCachePath = path.join(cacheDir, 'solve.cjs.v8cache');
 const metaPath = path.join(cacheDir, 'solve.meta.json');
 /** Changing the build options below must change this key (it invalidates older bundles). */
-const OPTIONS_KEY = 'esm-node20-bundle-v1';
+const OPTIONS_KEY = 'cjs-node20-bundle-codecache-v2';
 /** Files outside the import graph that still change what the bundle contains. */
 const EXTRA_INPUTS = ['package-lock.json'];
 
@@ -60,7 +64,7 @@ async function build() {
     return false;
   }
   const started = Date.now(); // taken before the build: a file saved during it triggers the next one
-  const tmp = path.join(cacheDir, `solve.${process.pid}.${started}.tmp.mjs`);
+  const tmp = path.join(cacheDir, `solve.${process.pid}.${started}.tmp.cjs`);
   try {
     mkdirSync(cacheDir, { recursive: true });
     const result = await esbuild.build({
@@ -68,7 +72,7 @@ async function build() {
       entryPoints: [entry],
       bundle: true,
       platform: 'node',
-      format: 'esm',
+      format: 'cjs',
       target: 'node20',
       outfile: tmp,
       metafile: true,
@@ -77,6 +81,7 @@ async function build() {
     });
     const inputs = Object.keys(result.metafile.inputs).filter((p) => !p.startsWith('node_modules/') && !p.includes('/node_modules/'));
     renameSync(tmp, bundlePath);
+    rmSync(codeCachePath, { force: true });
     const metaTmp = `${metaPath}.${process.pid}.tmp`;
     writeFileSync(metaTmp, JSON.stringify({ key: OPTIONS_KEY, builtFrom: started - 1, inputs }));
     renameSync(metaTmp, metaPath);
@@ -86,12 +91,43 @@ async function build() {
   }
 }
 
-async function loadCli() {
-  if (process.env.WYEWARD_CLI_NO_BUNDLE !== '1' && (isFresh() || (await build()))) return import(pathToFileURL(bundlePath).href);
-  const { register } = await import('tsx/esm/api');
-  register();
-  return import(pathToFileURL(entry).href);
+/**
+ * Run the CommonJS bundle through vm.Script with V8's code cache: the first run after a build
+ * compiles it and, once the CLI has run, stores the compiled code (functions compiled during the
+ * run included); later runs skip parsing and compiling ~1 MB of JavaScript. V8 rejects a cache
+ * that does not match the source or the V8 version, and a new one is written.
+ */
+function loadBundle() {
+  const code = readFileSync(bundlePath, 'utf8');
+  let cachedData;
+  try {
+    cachedData = readFileSync(codeCachePath);
+  } catch {
+    cachedData = undefined;
+  }
+  const script = new vm.Script(`(function (exports, require, module, __filename, __dirname) {${code}\n})`, { filename: bundlePath, cachedData });
+  const mod = { exports: {} };
+  script.runInThisContext().call(mod.exports, mod.exports, createRequire(bundlePath), mod, bundlePath, path.dirname(bundlePath));
+  const storeCache = () => {
+    if (cachedData !== undefined && !script.cachedDataRejected) return;
+    try {
+      const tmp = `${codeCachePath}.${process.pid}.tmp`;
+      writeFileSync(tmp, script.createCachedData());
+      renameSync(tmp, codeCachePath);
+    } catch {
+      // a cache that cannot be written only costs speed
+    }
+  };
+  return { cli: mod.exports, storeCache };
 }
 
-const cli = await loadCli();
+async function loadCli() {
+  if (process.env.WYEWARD_CLI_NO_BUNDLE !== '1' && (isFresh() || (await build()))) return loadBundle();
+  const { register } = await import('tsx/esm/api');
+  register();
+  return { cli: await import(pathToFileURL(entry).href), storeCache: () => {} };
+}
+
+const { cli, storeCache } = await loadCli();
 cli.main(process.argv.slice(2));
+storeCache();

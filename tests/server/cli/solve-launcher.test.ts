@@ -26,7 +26,7 @@ function viaTsx(args: string[]) {
 const demo = demoCircuits.find((d) => d.key === 'delta-wye-bank')!;
 const circuitFile = path.join(dir, 'bank.json');
 writeFileSync(circuitFile, JSON.stringify(demo.circuit));
-const bundle = path.join(cache, 'solve.mjs');
+const bundle = path.join(cache, 'solve.cjs');
 const meta = path.join(cache, 'solve.meta.json');
 
 describe('solve CLI launcher', () => {
