@@ -166,60 +166,6 @@ export function writeJson(value: Record<string, unknown>, write: (chunk: string)
   if (buf) write(buf);
 }
 
-/** A JSON number as JSON.stringify writes it (non-finite → null). */
-const jnum = (x: number) => (Number.isFinite(x) ? String(x) : 'null');
-/** A JSON string; plain names skip JSON.stringify's escaping scan. */
-const PLAIN = /^[A-Za-z0-9_.\-#/~:@+ ]*$/;
-const jstr = (s: string) => (PLAIN.test(s) ? `"${s}"` : JSON.stringify(s));
-
-/** A phasor's JSON text: the four own keys toPhasor creates, in its order; anything else through JSON.stringify. */
-function phasorJson(p: Phasor): string {
-  const keys = Object.keys(p);
-  if (keys.length !== 4 || keys[0] !== 're' || keys[1] !== 'im' || keys[2] !== 'mag' || keys[3] !== 'angleDeg') return JSON.stringify(p);
-  return `{"re":${jnum(p.re)},"im":${jnum(p.im)},"mag":${jnum(p.mag)},"angleDeg":${jnum(p.angleDeg)}}`;
-}
-
-function phasorListJson(list: Phasor[]): string {
-  let s = '[';
-  for (let i = 0; i < list.length; i++) s += (i ? ',' : '') + phasorJson(list[i]);
-  return s + ']';
-}
-
-/**
- * `--json` without `--full`, written straight from the result: the same bytes as
- * `JSON.stringify(jsonResult(r)) + '\n'` (tests compare them), without building the intermediate
- * per-element objects, and in chunks of about `chunkChars` characters.
- */
-export function writeResultJson(r: CircuitResult, write: (chunk: string) => void, chunkChars = 1 << 20): void {
-  let buf = '';
-  const push = (s: string) => {
-    buf += s;
-    if (buf.length >= chunkChars) {
-      write(buf);
-      buf = '';
-    }
-  };
-  push(`{"format":"wyeward-result","version":1,"conventions":${JSON.stringify(r.conventions)},"nodes":{`);
-  let first = true;
-  for (const k of Object.keys(r.nodes)) {
-    const p = r.nodes[k];
-    if (p === undefined) continue;
-    push(`${first ? '' : ','}${jstr(k)}:${phasorJson(p)}`);
-    first = false;
-  }
-  push('},"elements":{');
-  first = true;
-  for (const e of Object.values(r.elements)) {
-    let text: string;
-    if (e.ports) text = `{"type":${jstr(e.type)},"currentDirection":${jstr(e.currentDirection)},"ports":${JSON.stringify(e.ports.map((p) => ({ bus: p.bus, conductors: p.conductors })))},"currents":${phasorListJson(e.currents)}}`;
-    else text = `{"type":${jstr(e.type)},"currents":${phasorListJson(e.currents)}}`;
-    push(`${first ? '' : ','}${jstr(e.id)}:${text}`);
-    first = false;
-  }
-  push(`},"faults":${JSON.stringify(r.faults)},"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${jnum(r.iterations)}}\n`);
-  if (buf) write(buf);
-}
-
 /** Run the CLI on its arguments (exits the process on errors). Called directly or by solve-launcher.mjs. */
 export function main(argv: string[]): void {
   const t0 = performance.now();
@@ -261,9 +207,7 @@ export function main(argv: string[]): void {
     fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
   }
   if (asJson) {
-    const out = (chunk: string) => process.stdout.write(chunk);
-    if (full) writeJson(jsonResult(result, true), out);
-    else writeResultJson(result, out);
+    writeJson(jsonResult(result, full), (chunk) => process.stdout.write(chunk));
     mark('JSON write');
   } else {
     process.stdout.write(formatReport(result));

@@ -2,7 +2,7 @@
  * The primitive-only benchmark feeder: a random radial four-wire feeder written entirely in
  * `impedance` elements and three ideal `voltageSource`s (no coupled branches, no blocks), as
  * issue 14 describes it: per bus, one impedance per conductor (a, b, c, n) from a random earlier
- * nearby bus, unbalanced wye loads on the neutral or delta loads (one impedance per branch), a single-phase
+ * bus, unbalanced wye loads on the neutral or delta loads (one impedance per branch), a single-phase
  * service load, and
  * the neutral earthed through an electrode every few buses. About 8.4 elements per bus: ~42 000
  * impedances and ~20 000 nodes at 5 000 buses. Seeded (same network every run); invented data.
@@ -23,7 +23,8 @@ export function primitiveFeeder(buses: number, seed = 7): PrimitiveCircuitFile {
   (['a', 'b', 'c'] as const).forEach((p, k) => el.push({ type: 'voltageSource', id: `src.${p}`, plus: `b0.${p}`, minus: 'earth', volts: pol(vln, -120 * k) }));
   el.push({ type: 'impedance', id: 'src.n', from: 'b0.n', to: 'earth', ohms: { re: 0.5, im: 0 } });
   for (let b = 1; b <= buses; b++) {
-    const parent = Math.max(0, b - 1 - Math.floor(rnd() * 4));
+    // a random recursive tree: the parent is any earlier bus (depth ~ e·ln n, a few miles of line)
+    const parent = Math.floor(rnd() * b);
     const len = between(0.05, 0.3);
     for (const c of ['a', 'b', 'c', 'n']) {
       const r = c === 'n' ? 0.6 : 0.35;

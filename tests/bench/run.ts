@@ -10,6 +10,9 @@
  * - the CLI end to end, `npm run -s solve -- file.json --json` (start, read, solve, write), and the
  *   same program started directly, through tsx and through the bundled launcher (server/cli/solve-launcher.mjs);
  * - the ratio ngspice / CLI (issue targets: ≥ 5× at 5 000 buses, ≥ 20× at 20 000).
+ * Then (./shapes.ts) the CLI whole process by file shape — the 10-element file, the primitive-only
+ * and the block-heavy feeders at 5 000 and 20 000 buses — beside ngspice, with the stage split of
+ * `--timings` and the machine load before and after (BENCH_SHAPE_SIZES, BENCH_NO_SHAPES=1).
  * Environment: BENCH_SIZES=25,1000 picks the sizes (25 buses ≈ 100 elements); BENCH_NO_SPICE=1 skips
  * ngspice; BENCH_SPICE_TIMEOUT_S (default 900) stops a long ngspice run (the ratio is then a lower bound).
  * Each row is printed as soon as it is measured.
@@ -22,6 +25,7 @@ import { createNetwork, solvePrimitives } from '../../shared/engine/solver/index
 import type { Primitive } from '../../shared/engine/types.ts';
 import { NGSPICE, NgspiceTimeout, runNgspice, toNetlist } from '../shared/engine/spice/netlist.ts';
 import { radialFeeder } from './feeder.ts';
+import { benchShapes } from './shapes.ts';
 
 const root = path.resolve(import.meta.dirname, '../..');
 const median = (xs: number[]) => {
@@ -168,6 +172,7 @@ for (const r of rows) {
 console.log(`\nLoad average at the end ${loadavg()[0].toFixed(2)} on ${cpus().length} cores (figures scale with it on a shared machine).`);
 console.log('Targets (issue 3): warm 100-element solve < 2 ms; warm 20 000-bus solve < 100 ms; CLI ≥ 5× faster than ngspice at 5 000 buses, ≥ 20× at 20 000.');
 if (!spiceOn) console.log('ngspice not run (missing or BENCH_NO_SPICE=1).');
+if (process.env.BENCH_NO_SHAPES !== '1') benchShapes();
 
 function formatRow(r: Row): string {
   const stop = r.spiceStopped ? '> ' : '';

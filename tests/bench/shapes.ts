@@ -1,0 +1,106 @@
+/**
+ * CLI whole-process speed by file shape (part of `npm run bench`; prints figures, asserts nothing):
+ * - the 10-element file (./tiny-circuit.ts);
+ * - the primitive-only feeder (./primitive-feeder.ts: ~8.4 impedances per bus, 42 000 at 5 000 buses);
+ * - the block-heavy benchmark feeder (./feeder.ts: coupled 4×4 line sections);
+ * at 5 000 and 20 000 buses (BENCH_SHAPE_SIZES). Per file: `ngspice -b` on the same network (AC
+ * netlist of the expanded primitives, binary raw output), then the CLI started as a new process,
+ * `node server/cli/solve-launcher.mjs f.json --json` and `npm run -s solve -- f.json --json`, best
+ * of 3, side by side in this one run; the ratio; and the CLI's own `--timings` split of its stages.
+ * The machine load (`uptime`) is printed before and after: on a shared machine every figure moves
+ * with it. Targets (issue 14): ≥ 5× faster than ngspice at 5 000 buses on both shapes, ≥ 20× at
+ * 20 000 buses, the 10-element file in ≤ 150 ms.
+ */
+import { execSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { prepareCircuit } from '../../shared/engine/index.ts';
+import { NGSPICE, NgspiceTimeout, runNgspice, toNetlist } from '../shared/engine/spice/netlist.ts';
+import { radialFeeder } from './feeder.ts';
+import { primitiveFeeder } from './primitive-feeder.ts';
+import { tinyCircuit } from './tiny-circuit.ts';
+
+const root = path.resolve(import.meta.dirname, '../..');
+const ms = (x: number | undefined) => (x === undefined ? '—' : x >= 1000 ? `${(x / 1000).toFixed(2)} s` : `${x.toFixed(0)} ms`);
+const uptime = () => {
+  try {
+    return execSync('uptime', { encoding: 'utf8' }).trim();
+  } catch {
+    return '(uptime unavailable)';
+  }
+};
+
+function best(cmd: string, args: string[], runs: number): { ms: number; stderr: string; ok: boolean } {
+  let b = Infinity;
+  let stderr = '';
+  let ok = true;
+  for (let r = 0; r < runs; r++) {
+    const t0 = performance.now();
+    const res = spawnSync(cmd, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26 });
+    const t = performance.now() - t0;
+    if (res.status !== 0) ok = false;
+    if (t < b) {
+      b = t;
+      stderr = res.stderr ?? '';
+    }
+  }
+  return { ms: b, stderr, ok };
+}
+
+/** Measure every shape; prints a table and the stage splits. */
+export function benchShapes(): void {
+  const sizes = (process.env.BENCH_SHAPE_SIZES ?? '5000,20000').split(',').map(Number);
+  const spiceOn = process.env.BENCH_NO_SPICE !== '1' && existsSync(NGSPICE);
+  const limit = Number(process.env.BENCH_SPICE_TIMEOUT_S ?? 900) * 1000;
+  const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-shapes-'));
+  const launcher = path.join(root, 'server/cli/solve-launcher.mjs');
+  const files: { label: string; file: object; target: string }[] = [{ label: '10-element file', file: tinyCircuit, target: '≤ 150 ms' }];
+  for (const n of sizes) {
+    const target = n >= 20000 ? '≥ 20×' : '≥ 5×';
+    files.push({ label: `primitive-only ${n.toLocaleString('en-US')} buses`, file: primitiveFeeder(n), target });
+    files.push({ label: `block-heavy ${n.toLocaleString('en-US')} buses`, file: radialFeeder(n), target });
+  }
+  console.log(`\nCLI whole process by file shape — ${uptime()}`);
+  // warm the launcher's bundle and code cache once (a build is not part of any figure)
+  spawnSync(process.execPath, [launcher, '--timings'], { cwd: root, stdio: 'ignore' });
+  const rows: string[] = [];
+  const splits: string[] = [];
+  try {
+    for (const { label, file, target } of files) {
+      const json = path.join(dir, 'f.json');
+      writeFileSync(json, JSON.stringify(file));
+      const prims = prepareCircuit(file).primitives;
+      let spice: number | undefined;
+      let stopped = false;
+      if (spiceOn) {
+        const text = toNetlist(prims, 60).text;
+        const t = performance.now();
+        try {
+          spice = runNgspice(text, limit).ms;
+        } catch (e) {
+          if (e instanceof NgspiceTimeout) {
+            spice = performance.now() - t;
+            stopped = true;
+          } else console.log(`  ${label}: ngspice failed: ${(e as Error).message.split('\n')[0]}`);
+        }
+      }
+      const runs = prims.length > 100000 ? 2 : 3;
+      const direct = best(process.execPath, [launcher, json, '--json', '--timings'], runs);
+      const npm = best('npm', ['run', '-s', 'solve', '--', json, '--json'], runs);
+      const ratio = (cli: number) => (spice === undefined ? '—' : `${stopped ? '> ' : ''}${(spice / cli).toFixed(spice / cli < 1 ? 2 : 1)}×`);
+      const row = `| ${label} | ${prims.length} | ${stopped ? '> ' : ''}${ms(spice)} | ${ms(direct.ms)} | ${ms(npm.ms)} | ${ratio(direct.ms)} | ${ratio(npm.ms)} | ${target} |${direct.ok && npm.ok ? '' : ' (CLI failed)'}`;
+      rows.push(row);
+      splits.push(`  ${label}: ${direct.stderr.trim().replace(/^solve timings: /, '')}`);
+      console.log(row);
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+  console.log('\n| file | primitives | ngspice -b | CLI (node solve-launcher.mjs --json) | CLI (npm run -s solve --json) | ngspice / CLI (launcher) | ngspice / CLI (npm) | target |');
+  console.log('|---|---:|---:|---:|---:|---:|---:|---|');
+  for (const r of rows) console.log(r);
+  console.log('\nStages of the fastest launcher run (--timings):');
+  for (const s of splits) console.log(s);
+  console.log(`\nAfter: ${uptime()}`);
+}
