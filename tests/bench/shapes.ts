@@ -6,7 +6,9 @@
  * at 5 000 and 20 000 buses (BENCH_SHAPE_SIZES). Per file: `ngspice -b` on the same network (AC
  * netlist of the expanded primitives, binary raw output), then the CLI started as a new process,
  * `node server/cli/solve-launcher.mjs f.json --json` and `npm run -s solve -- f.json --json`, best
- * of 3, side by side in this one run; the ratio; and the CLI's own `--timings` split of its stages.
+ * of 3, side by side in this one run; the ratios; and the CLI's own `--timings` split of its stages.
+ * Wall time and CPU time (user + system, from /usr/bin/time): on a loaded machine the wall time
+ * mostly measures the wait for a core, the CPU time much less so.
  * The machine load (`uptime`) is printed before and after: on a shared machine every figure moves
  * with it. Targets (issue 14): ≥ 5× faster than ngspice at 5 000 buses on both shapes, ≥ 20× at
  * 20 000 buses, the 10-element file in ≤ 150 ms.
@@ -16,7 +18,7 @@ import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { prepareCircuit } from '../../shared/engine/index.ts';
-import { NGSPICE, NgspiceTimeout, runNgspice, toNetlist } from '../shared/engine/spice/netlist.ts';
+import { NGSPICE, toNetlist } from '../shared/engine/spice/netlist.ts';
 import { radialFeeder } from './feeder.ts';
 import { primitiveFeeder } from './primitive-feeder.ts';
 import { tinyCircuit } from './tiny-circuit.ts';
@@ -31,21 +33,34 @@ const uptime = () => {
   }
 };
 
-function best(cmd: string, args: string[], runs: number): { ms: number; stderr: string; ok: boolean } {
-  let b = Infinity;
-  let stderr = '';
-  let ok = true;
-  for (let r = 0; r < runs; r++) {
-    const t0 = performance.now();
-    const res = spawnSync(cmd, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26 });
-    const t = performance.now() - t0;
-    if (res.status !== 0) ok = false;
-    if (t < b) {
-      b = t;
-      stderr = res.stderr ?? '';
-    }
+const TIME = '/usr/bin/time';
+const hasTime = existsSync(TIME);
+
+/** One run of a command: wall time, and CPU time (user + system, via /usr/bin/time when present). */
+function once(cmd: string, args: string[], timeoutMs?: number): { wall: number; cpu?: number; stderr: string; ok: boolean; stopped: boolean } {
+  const t0 = performance.now();
+  const res = hasTime
+    ? spawnSync(TIME, ['-f', 'cpu-seconds %U %S', cmd, ...args], { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: timeoutMs, killSignal: 'SIGKILL' })
+    : spawnSync(cmd, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: timeoutMs, killSignal: 'SIGKILL' });
+  const wall = performance.now() - t0;
+  let stderr = res.stderr ?? '';
+  let cpu: number | undefined;
+  const m = /cpu-seconds ([\d.]+) ([\d.]+)\s*$/.exec(stderr);
+  if (m) {
+    cpu = (Number(m[1]) + Number(m[2])) * 1000;
+    stderr = stderr.slice(0, m.index);
   }
-  return { ms: b, stderr, ok };
+  return { wall, cpu, stderr, ok: res.status === 0 && !/singular|aborted/i.test(stderr), stopped: res.signal === 'SIGKILL' };
+}
+
+/** Best (least disturbed) of `runs` runs, by wall time; CPU time of that run. */
+function best(cmd: string, args: string[], runs: number) {
+  let b: ReturnType<typeof once> | undefined;
+  for (let r = 0; r < runs; r++) {
+    const x = once(cmd, args);
+    if (!b || x.wall < b.wall) b = { ...x, ok: x.ok && (b?.ok ?? true) };
+  }
+  return b!;
 }
 
 /** Measure every shape; prints a table and the stage splits. */
@@ -71,25 +86,19 @@ export function benchShapes(): void {
       const json = path.join(dir, 'f.json');
       writeFileSync(json, JSON.stringify(file));
       const prims = prepareCircuit(file).primitives;
-      let spice: number | undefined;
-      let stopped = false;
+      let spice: ReturnType<typeof once> | undefined;
       if (spiceOn) {
-        const text = toNetlist(prims, 60).text;
-        const t = performance.now();
-        try {
-          spice = runNgspice(text, limit).ms;
-        } catch (e) {
-          if (e instanceof NgspiceTimeout) {
-            spice = performance.now() - t;
-            stopped = true;
-          } else console.log(`  ${label}: ngspice failed: ${(e as Error).message.split('\n')[0]}`);
-        }
+        const cir = path.join(dir, 'f.cir');
+        writeFileSync(cir, toNetlist(prims, 60).text);
+        spice = once(NGSPICE, ['-b', '-r', path.join(dir, 'f.raw'), cir], limit);
+        if (!spice.ok && !spice.stopped) console.log(`  ${label}: ngspice failed: ${spice.stderr.split('\n').slice(-3).join(' ')}`);
       }
       const runs = prims.length > 100000 ? 2 : 3;
       const direct = best(process.execPath, [launcher, json, '--json', '--timings'], runs);
       const npm = best('npm', ['run', '-s', 'solve', '--', json, '--json'], runs);
-      const ratio = (cli: number) => (spice === undefined ? '—' : `${stopped ? '> ' : ''}${(spice / cli).toFixed(spice / cli < 1 ? 2 : 1)}×`);
-      const row = `| ${label} | ${prims.length} | ${stopped ? '> ' : ''}${ms(spice)} | ${ms(direct.ms)} | ${ms(npm.ms)} | ${ratio(direct.ms)} | ${ratio(npm.ms)} | ${target} |${direct.ok && npm.ok ? '' : ' (CLI failed)'}`;
+      const stop = spice?.stopped ? '> ' : '';
+      const ratio = (a: number | undefined, b: number | undefined) => (a === undefined || b === undefined ? '—' : `${stop}${(a / b).toFixed(a / b < 1 ? 2 : 1)}×`);
+      const row = `| ${label} | ${prims.length} | ${stop}${ms(spice?.wall)} (cpu ${ms(spice?.cpu)}) | ${ms(direct.wall)} (cpu ${ms(direct.cpu)}) | ${ms(npm.wall)} (cpu ${ms(npm.cpu)}) | ${ratio(spice?.wall, direct.wall)} | ${ratio(spice?.cpu, direct.cpu)} | ${ratio(spice?.wall, npm.wall)} | ${target} |${direct.ok && npm.ok ? '' : ' (CLI failed)'}`;
       rows.push(row);
       splits.push(`  ${label}: ${direct.stderr.trim().replace(/^solve timings: /, '')}`);
       console.log(row);
@@ -97,8 +106,8 @@ export function benchShapes(): void {
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-  console.log('\n| file | primitives | ngspice -b | CLI (node solve-launcher.mjs --json) | CLI (npm run -s solve --json) | ngspice / CLI (launcher) | ngspice / CLI (npm) | target |');
-  console.log('|---|---:|---:|---:|---:|---:|---:|---|');
+  console.log('\n| file | primitives | ngspice -b, wall (cpu) | CLI `node solve-launcher.mjs --json`, wall (cpu) | CLI `npm run -s solve --json`, wall (cpu) | ngspice / CLI, wall (launcher) | ngspice / CLI, cpu (launcher) | ngspice / CLI, wall (npm) | target |');
+  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---|');
   for (const r of rows) console.log(r);
   console.log('\nStages of the fastest launcher run (--timings):');
   for (const s of splits) console.log(s);
