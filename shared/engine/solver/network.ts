@@ -26,15 +26,16 @@
  * the node (supernode root) whose pivot vanished, chosen deterministically by the elimination order.
  *
  * Voltage-dependent (zip) loads: the matrix carries each load's admittance at rated voltage
- * y0 = conj(S)/Vr² (one factorization per solve). Up to NEWTON_MAX_LOADS such loads, Newton on
+ * y0 = conj(S)/Vr² (one factorization per solve). First the chord (fixed-slope current-injection)
+ * iteration, each step injecting the difference between the load's law I(V) and y0·V at the last
+ * voltages (linear convergence, one substitution per step: enough for most networks). If it has
+ * not converged within 40 steps, and there are at most NEWTON_MAX_LOADS such loads, Newton on
  * the loads' terminal voltages (./zip-newton.ts: the network reduced to an m × m complex matrix
  * G = Eᵀ·M⁻¹·E by one substitution per load, and a real 2m × 2m Jacobian, since a constant-power
  * load's current depends on conj(V)); if Newton stalls, continuation from the rated impedances to
  * the laws, then a start on the low-voltage branch; only if all fail, a VoltageCollapseError with
  * the nose of the load level found by continuation. Beyond NEWTON_MAX_LOADS: the chord
- * (fixed-slope current-injection) iteration, each step injecting the difference between the
- * load's law I(V) and y0·V at the last voltages (linear convergence, one substitution per step).
- * Converged when the largest change of a zip load's terminal voltage is below `tolerance` per
+ * iteration alone. Converged when the largest change of a zip load's terminal voltage is below `tolerance` per
  * unit of its ratedVolts (default 1e-9) within `maxIterations` (default 100); otherwise a
  * NonConvergenceError names the load with the largest power mismatch.
  * Below `lowVoltagePu` (default 0.7) the constant-current and constant-power parts become the
@@ -1028,8 +1029,10 @@ function zipLaw(v: Values, k: number, ur: number, ui: number, lowPu: number, for
   out[7] = v.yIm[k];
 }
 
-/** Loads up to this count are solved by Newton (dense m × m reduction); beyond it by the chord iteration. */
+/** Loads up to this count go on to Newton (dense m × m reduction) when the chord iteration has not converged. */
 export const NEWTON_MAX_LOADS = 400;
+/** Chord iterations tried before Newton. */
+const CHORD_FIRST = 40;
 
 function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): { solution: PrimitiveSolution; timings: SolveTimings } {
   const tStart = now();
@@ -1071,10 +1074,14 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
   let x = lu.solve(asm.rhsRe, asm.rhsIm);
   checkFinite(x, t);
   setVoltages(x);
-  if (zipIdx.length > 0 && zipIdx.length <= NEWTON_MAX_LOADS) {
-    iterations = solveZipByNewton(t, lu, asm, zipIdx, setVoltages, vRe, vIm, tol, maxIter, lowPu);
-  } else if (zipIdx.length > 0) {
+  if (zipIdx.length > 0) {
     const nz = zipIdx.length;
+    // the chord iteration first (cheap, and enough for most networks); Newton when it has not
+    // converged within CHORD_FIRST iterations and the loads are few enough for it
+    const useNewton = nz <= NEWTON_MAX_LOADS;
+    const chordLimit = useNewton ? Math.min(maxIter, CHORD_FIRST) : maxIter;
+    const u0Re = new Float64Array(nz);
+    const u0Im = new Float64Array(nz);
     const prevRe = new Float64Array(nz);
     const prevIm = new Float64Array(nz);
     const corrRe = new Float64Array(nz);
@@ -1083,12 +1090,12 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
     const bIm = new Float64Array(n);
     for (let a = 0; a < nz; a++) {
       const nodes = t.elNodes[zipIdx[a]];
-      prevRe[a] = vRe[nodes[0]] - vRe[nodes[1]];
-      prevIm[a] = vIm[nodes[0]] - vIm[nodes[1]];
+      prevRe[a] = u0Re[a] = vRe[nodes[0]] - vRe[nodes[1]];
+      prevIm[a] = u0Im[a] = vIm[nodes[0]] - vIm[nodes[1]];
     }
     let converged = false;
     const lastChange = new Float64Array(nz);
-    while (iterations < maxIter) {
+    while (iterations < chordLimit) {
       // Chord iteration (current injection): the matrix holds y0 = conj(S)/Vr² for each load, and
       // the correction c = I(V) − y0·V at the last voltages is injected as −c at `from`, +c at `to`.
       bRe.set(asm.rhsRe);
@@ -1134,6 +1141,10 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
         break;
       }
       if (!(worst < 1e3)) break; // diverging
+    }
+    if (!converged && useNewton && iterations < maxIter) {
+      iterations += solveZipByNewton(t, lu, asm, zipIdx, u0Re, u0Im, setVoltages, vRe, vIm, tol, maxIter - iterations, lowPu);
+      converged = true;
     }
     if (!converged) throw nonConvergence(t, zipIdx, vRe, vIm, corrRe, corrIm, lastChange, iterations, lowPu);
   }
@@ -1246,17 +1257,19 @@ function numericIslands(t: Topology, lu: NumericLu): FloatingIsland[] {
 }
 
 /**
- * Voltage-dependent loads by Newton on their terminal voltages (./zip-newton.ts): directly from
- * the plain solve; if Newton stalls, by continuation in the load level and, past a nose, from the
+ * Voltage-dependent loads by Newton on their terminal voltages (./zip-newton.ts), when the chord
+ * iteration has not converged: directly from the plain solve (terminal voltages u0); if Newton stalls, by continuation in the load level and, past a nose, from the
  * low-voltage branch (every constant-current and constant-power part at its low-voltage impedance:
  * the documented rule makes a solution exist there). Leaves the node voltages in vRe/vIm and
- * returns the iteration count (linear solves of the reduced system, plus the plain solve).
+ * returns the iteration count (linear solves of the reduced system).
  */
 function solveZipByNewton(
   t: Topology,
   lu: NumericLu,
   asm: Assembler,
   zipIdx: number[],
+  u0Re: Float64Array,
+  u0Im: Float64Array,
   setVoltages: (x: { re: Float64Array; im: Float64Array }) => void,
   vRe: Float64Array,
   vIm: Float64Array,
@@ -1269,15 +1282,11 @@ function solveZipByNewton(
   const m = zipIdx.length;
   const uf = new Int32Array(m);
   const ut = new Int32Array(m);
-  const u0Re = new Float64Array(m);
-  const u0Im = new Float64Array(m);
   const vRated = new Float64Array(m);
   for (let a = 0; a < m; a++) {
     const nodes = t.elNodes[zipIdx[a]];
     uf[a] = t.unknownOf[nodes[0]];
     ut[a] = t.unknownOf[nodes[1]];
-    u0Re[a] = vRe[nodes[0]] - vRe[nodes[1]];
-    u0Im[a] = vIm[nodes[0]] - vIm[nodes[1]];
     vRated[a] = v.zipVolts[zipIdx[a]];
   }
   // G = Eᵀ·M⁻¹·E: one solve per load
@@ -1335,8 +1344,8 @@ function solveZipByNewton(
   const uRe = Float64Array.from(u0Re);
   const uIm = Float64Array.from(u0Im);
   const lastStep = new Float64Array(m);
-  const direct = zipNewton(p, uRe, uIm, 1, 'blend', tol, maxIter - 1, lastStep);
-  let iterations = 1 + direct.iterations;
+  const direct = zipNewton(p, uRe, uIm, 1, 'blend', tol, maxIter, lastStep);
+  let iterations = direct.iterations;
   if (direct.status === 'converged') {
     finish(uRe, uIm);
     return iterations;

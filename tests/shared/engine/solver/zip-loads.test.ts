@@ -130,12 +130,12 @@ describe('zip loads', () => {
     expect(e.message).toMatch(/^Voltage-dependent loads did not converge in 2 iterations \(possible voltage collapse: the loads ask for more power than the network can deliver\)\. Worst mismatch at load 'Lbig': [\d.e+-]+ VA at terminal voltage /);
   });
 
-  it('Newton solves a heavily loaded constant-power load near its nose in a few iterations (C)', () => {
+  it('a constant-power load near its nose converges to the upper root (chord, then Newton) (C)', () => {
     // 13 kW behind 1 Ω from 230 V (nose at 13.225 kW): upper root of V² − 230·V + 13 000 = 0
     const prims = [source(1, 0), load('L', 's', 'earth', { re: 13000, im: 0 }, { z: 0, i: 0, p: 1 })];
     const sol = solvePrimitives(prims, { tolerance: 1e-12, lowVoltagePu: 0.05 });
     expect(drawn(sol, 'L', 's', 'earth').v).toBeCloseTo((230 + Math.sqrt(230 * 230 - 4 * 13000)) / 2, 8);
-    expect(sol.iterations).toBeLessThanOrEqual(20);
+    expect(sol.lowVoltageLoads).toEqual([]);
   });
 
   it('an iteration limit too small for the tolerance is reported, not ignored', () => {
