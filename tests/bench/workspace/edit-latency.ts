@@ -1,0 +1,204 @@
+/**
+ * Benchmark (prints figures, asserts nothing): edit → results painted, in chromium, on every demo
+ * study and on the 300-element study, in a production build. Measurement only: the page is
+ * instrumented from outside (an init script), the product code is not touched.
+ *
+ * Per edit of a load's kW (type a value in the properties panel, press Enter), performance marks:
+ * - input: the Enter keydown that applies the edit (capture listener on the document);
+ * - post: the page hands the solve request to the Web Worker (Worker.prototype.postMessage wrapped);
+ * - answer: the worker's answer arrives on the page (a message listener registered before the app's);
+ *   the worker's own time for the request (`ms` of the answer: validate, expand, solve, results);
+ * - commit: the first DOM mutation after the answer (React's commit of the new results);
+ * - paint: a task queued from the next animation frame after that commit (the frame has been painted).
+ * Prints medians per study of input→post (debounce and React), post→answer (worker round trip:
+ * clone in, solve, clone out), of which in the worker, answer→commit, commit→paint and input→paint.
+ * Issue 14 targets: input→paint ≤ 50 ms median on every demo study, ≤ 100 ms on a 300-element study.
+ * Builds the client into a temporary directory and starts the product on it (bench-server.ts, fresh
+ * data, demo accounts), like drag.ts. Run: `node --import tsx tests/bench/workspace/edit-latency.ts`
+ * (EDIT_RUNS=n edits per study, default 15).
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import path from 'node:path';
+import { chromium, type Page } from 'playwright-core';
+import { study300 } from './study-300.ts';
+
+const root = path.resolve(import.meta.dirname, '../../..');
+const RUNS = Number(process.env.EDIT_RUNS ?? 15);
+const median = (xs: number[]) => {
+  const s = xs.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
+  if (s.length === 0) return NaN;
+  return s.length % 2 ? s[(s.length - 1) >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const a = srv.address();
+      const port = typeof a === 'object' && a ? a.port : 0;
+      srv.close(() => resolve(port));
+    });
+  });
+}
+
+/** The page-side instrumentation (a string: tsx's helpers do not exist in the page). */
+const INSTRUMENT = `(() => {
+  const lat = (window.__lat = { marks: {}, workerMs: NaN, armed: false });
+  const mark = (k) => { if (lat.armed && lat.marks[k] === undefined) lat.marks[k] = performance.now(); };
+  document.addEventListener('keydown', (e) => { if (e.key === 'Enter' && lat.armed) mark('input'); }, true);
+  const post = Worker.prototype.postMessage;
+  Worker.prototype.postMessage = function (...args) { if (lat.marks.input !== undefined) mark('post'); return post.apply(this, args); };
+  const W = window.Worker;
+  window.Worker = class extends W {
+    constructor(...args) {
+      super(...args);
+      this.addEventListener('message', (e) => {
+        if (lat.marks.post === undefined || lat.marks.answer !== undefined) return;
+        mark('answer');
+        lat.workerMs = e.data && typeof e.data.ms === 'number' ? e.data.ms : NaN;
+      });
+    }
+  };
+  new MutationObserver(() => {
+    if (lat.marks.answer === undefined || lat.marks.commit !== undefined) return;
+    mark('commit');
+    requestAnimationFrame(() => setTimeout(() => mark('paint'), 0));
+  }).observe(document, { subtree: true, childList: true, characterData: true, attributes: true });
+})()`;
+
+interface EditFigures {
+  study: string;
+  elements: number;
+  load: string;
+  inputToPost: number[];
+  roundTrip: number[];
+  inWorker: number[];
+  answerToCommit: number[];
+  commitToPaint: number[];
+  total: number[];
+}
+
+/** Open a study, pick a load with a kW field, apply RUNS edits and collect the marks. */
+async function measureStudy(page: Page, base: string, id: string, name: string): Promise<EditFigures | string> {
+  const detail = await page.evaluate(async (sid) => (await fetch(`/api/studies/${sid}`)).json(), id);
+  const elements: { type: string; id: string; each?: object; phases?: Record<string, object>; total?: object }[] = detail?.content?.circuit?.elements ?? detail?.study?.content?.circuit?.elements ?? [];
+  const hasKw = (e: (typeof elements)[number]) => e.type === 'load' && JSON.stringify(e.each ?? e.phases ?? e.total ?? {}).includes('"kw"');
+  const loads = elements.filter(hasKw);
+  if (loads.length === 0) return `${name}: no load given in kW`;
+  await page.goto(`${base}/studies/${id}`);
+  await page.locator('.react-flow__node').first().waitFor({ timeout: 120_000 });
+  await page.waitForTimeout(1500);
+  let form = null;
+  let chosen = '';
+  for (const l of loads) {
+    const node = page.locator(`.react-flow__node[data-id="${l.id}"]`);
+    if ((await node.count()) === 0) continue;
+    await node.first().click({ force: true });
+    const f = page.locator(`form[aria-label="Properties of ${l.id}"]`);
+    try {
+      await f.waitFor({ timeout: 5000 });
+    } catch {
+      continue;
+    }
+    form = f;
+    chosen = l.id;
+    break;
+  }
+  if (!form) return `${name}: no load could be selected on the canvas`;
+  const label = form.locator('label', { hasText: '(kW)' }).first();
+  const inputId = await label.getAttribute('for');
+  if (!inputId) return `${name}: no kW field`;
+  const input = page.locator(`[id="${inputId}"]`);
+  const start = Number((await input.inputValue()).replace(/[^\d.eE+-]/g, '')) || 1;
+  const out: EditFigures = { study: name, elements: elements.length, load: chosen, inputToPost: [], roundTrip: [], inWorker: [], answerToCommit: [], commitToPaint: [], total: [] };
+  for (let r = 0; r < RUNS; r++) {
+    await page.evaluate(`(() => { window.__lat.marks = {}; window.__lat.workerMs = NaN; window.__lat.armed = false; })()`);
+    await input.fill(String(+(start * (r % 2 ? 1 : 1.1 + 0.01 * r)).toPrecision(6)));
+    await page.evaluate(`(() => { window.__lat.armed = true; })()`);
+    await input.press('Enter');
+    try {
+      await page.waitForFunction(`window.__lat.marks.paint !== undefined`, undefined, { timeout: 20_000 });
+    } catch {
+      const m = await page.evaluate(`window.__lat.marks`);
+      console.log(`  ${name}: edit ${r + 1} did not reach a paint (marks ${JSON.stringify(m)})`);
+      continue;
+    }
+    const { marks: m, workerMs } = (await page.evaluate(`({ marks: window.__lat.marks, workerMs: window.__lat.workerMs })`)) as { marks: Record<string, number>; workerMs: number };
+    out.inputToPost.push(m.post - m.input);
+    out.roundTrip.push(m.answer - m.post);
+    out.inWorker.push(workerMs);
+    out.answerToCommit.push(m.commit - m.answer);
+    out.commitToPaint.push(m.paint - m.commit);
+    out.total.push(m.paint - m.input);
+    await page.waitForTimeout(100);
+  }
+  return out;
+}
+
+const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-dist-'));
+const data = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-data-'));
+const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
+if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
+const port = await freePort();
+const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
+  cwd: root,
+  env: { ...process.env, PORT: String(port), DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist },
+  stdio: ['ignore', 'pipe', 'pipe'],
+});
+let log = '';
+server.stdout.on('data', (d) => (log += d));
+server.stderr.on('data', (d) => (log += d));
+const base = `http://127.0.0.1:${port}`;
+const browser = await chromium.launch({
+  executablePath: '/usr/bin/chromium',
+  headless: true,
+  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+});
+try {
+  for (let i = 0; ; i++) {
+    if (server.exitCode !== null) throw new Error(`server exited:\n${log}`);
+    const ok = await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false);
+    if (ok) break;
+    if (i > 800) throw new Error(`server did not start:\n${log}`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+  page.on('pageerror', (e) => console.log(`page error: ${e.message}`));
+  await page.addInitScript(INSTRUMENT);
+  await page.goto(`${base}/sign-in`);
+  await page.getByLabel(/e-?mail/i).fill('engineer@wyeward.test');
+  await page.getByLabel(/password/i).fill('wyeward-demo');
+  await page.getByRole('button', { name: /sign in/i }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  const created = await page.evaluate(async (circuit) => {
+    const res = await fetch('/api/studies', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: 'Bench: 300-element feeder', content: { circuit } }) });
+    return { status: res.status, body: await res.json() };
+  }, study300());
+  if (created.status !== 201) throw new Error(`study not created: ${JSON.stringify(created)}`);
+  const list = await page.evaluate(async () => (await fetch('/api/studies?pageSize=50')).json());
+  const items: { id: string; name: string }[] = list.items ?? list.studies ?? list;
+  const results: EditFigures[] = [];
+  for (const s of items) {
+    const r = await measureStudy(page, base, s.id, s.name);
+    if (typeof r === 'string') console.log(`skipped ${r}`);
+    else {
+      results.push(r);
+      console.log(`measured ${r.study} (${r.elements} elements, load ${r.load}): input→paint median ${median(r.total).toFixed(1)} ms over ${r.total.length} edits`);
+    }
+  }
+  const f = (xs: number[]) => median(xs).toFixed(1);
+  console.log('\n| study | elements | edits | input→post | post→answer | of which in the worker | answer→commit | commit→paint | input→paint (median) | target |');
+  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---|');
+  for (const r of results) console.log(`| ${r.study} | ${r.elements} | ${r.total.length} | ${f(r.inputToPost)} ms | ${f(r.roundTrip)} ms | ${f(r.inWorker)} ms | ${f(r.answerToCommit)} ms | ${f(r.commitToPaint)} ms | ${f(r.total)} ms | ${r.elements >= 250 ? '≤ 100 ms' : '≤ 50 ms'} |`);
+  console.log(`\nmachine: ${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (headless chromium, software rendering)`);
+} finally {
+  await browser.close();
+  server.kill('SIGTERM');
+  await new Promise((r) => setTimeout(r, 1500));
+  rmSync(dist, { recursive: true, force: true });
+  rmSync(data, { recursive: true, force: true });
+}
