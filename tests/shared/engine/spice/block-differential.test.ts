@@ -132,4 +132,37 @@ describe('block-level differential tests against ngspice', () => {
       compareBlocks(circuit, nominalVLL, splitPhaseBuses, `seed ${seed}`);
     });
   });
+
+  it('the random block circuits cover every feature the tests claim', () => {
+    const all = ALL_GROUPS.flatMap((g, k) => randomBlockCircuit(4000 + 7919 * k, g).features).join(' | ');
+    for (const f of [
+      /source delta ohms/,
+      /source delta (seq|mva)/,
+      /source delta none/,
+      /source wye solid/,
+      /source wye unearthed/,
+      /source wye impedance-earthed/,
+      /HV line carson \(/,
+      /HV line carson-kron/,
+      /HV line matrix/,
+      /HV line sequence/,
+      /HV line perConductor/,
+      /HV line open n/,
+      /LV line open [nb]/,
+      /line shunt/,
+      /centre-tapped transformer on b-n/,
+      /centre-tapped transformer on a-c/,
+      /capacitor bank/,
+      /HV "unearthed"/,
+      /LV "unearthed"/,
+      /LV \{"ohms"/,
+      /loads wyeFloating/,
+      /switch3/,
+      /fault lineEarth/,
+      /fault threePhase/,
+      /ACB/,
+      /ABC/,
+    ])
+      expect(all, String(f)).toMatch(f);
+  });
 });
