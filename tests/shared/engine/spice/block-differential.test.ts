@@ -13,7 +13,9 @@ import { existsSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { solveCircuit, type CircuitInput, type CircuitResult, type Cx } from '../../../../shared/engine/index.ts';
 import { NGSPICE, runNgspice } from './netlist.ts';
-import { parseGroup, probeKey, SpiceBuilder, writeBlocks } from './block-netlist.ts';
+import { parseGroup } from './bank-wiring.ts';
+import { writeBlocks } from './block-netlist.ts';
+import { probeKey, SpiceBuilder } from './spice-builder.ts';
 import { ALL_GROUPS, randomBlockCircuit } from './random-block-circuit.ts';
 
 const REL = 1e-6;

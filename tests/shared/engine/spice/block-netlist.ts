@@ -18,23 +18,19 @@
  *   k an E source V_k = N_k·e (e = volts per turn on a core node) and an F source putting N_k·i_k
  *   into the core node (ampere-turn balance Σ N_k·i_k = 0) — with the leakage resistance on the
  *   HV winding and the leakage reactance on the LV winding (total R + jX referred to LV as rated);
- *   windings wired to the terminals by the vector group as worked out in `lvWindingsFor`;
+ *   windings wired to the terminals by the vector group as worked out in ./bank-wiring.ts;
  * - loads and capacitor banks: R, L and C elements; kW/kvar (impedance model) as Z = V²/S*;
  * - earthing: solid → 0 V source, {ohms} → R + jX, unearthed → nothing; faults: R + jX or 0 V.
  * Every block terminal gets a 0 V sense source from the bus node, so each block's current per
  * conductor is read from ngspice.
  */
 import type { CircuitInput, Cx } from '../../../../shared/engine/index.ts';
+import { lvWindingsFor, parseGroup } from './bank-wiring.ts';
 import { carsonMatrixOhmsPerMile, MILES, type CarsonWire } from './carson-reference.ts';
+import { cxOf, num, pol, SpiceBuilder } from './spice-builder.ts';
 
 type El = CircuitInput['elements'][number];
-type CxIn = number | Cx | { mag: number; angleDeg: number };
-type Earthing = 'solid' | 'unearthed' | { ohms: CxIn };
 
-const num = (x: number) => x.toExponential(15);
-const DEG = Math.PI / 180;
-export const pol = (m: number, deg: number): Cx => ({ re: m * Math.cos(deg * DEG), im: m * Math.sin(deg * DEG) });
-const cxOf = (v: CxIn): Cx => (typeof v === 'number' ? { re: v, im: 0 } : 're' in v ? v : pol(v.mag, v.angleDeg));
 const cdiv = (a: Cx, b: Cx): Cx => {
   const d = b.re * b.re + b.im * b.im;
   return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
@@ -44,206 +40,6 @@ const cscale = (a: Cx, k: number): Cx => ({ re: a.re * k, im: a.im * k });
 
 /** Phasor angles of phases a, b, c for a sequence (P): ABC → b lags a by 120°. */
 export const seqOffsets = (sequence: 'ABC' | 'ACB') => (sequence === 'ABC' ? [0, -120, 120] : [0, 120, -120]);
-
-/** Terminal reading: block id, bus (or "node" for an electrode), conductor. */
-export const probeKey = (id: string, bus: string, conductor: string) => `${id}|${bus}|${conductor}`;
-
-/** A netlist under construction. */
-export class SpiceBuilder {
-  lines: string[] = ['* wyeward block differential netlist'];
-  /** Our node name → SPICE node ("0" for earth). */
-  nodeName = new Map<string, string>([['earth', '0']]);
-  /** Probe key → SPICE 0 V source measuring current from the bus into the block. */
-  probes = new Map<string, string>();
-  private count = 0;
-  private solidlyBonded = new Set<string>();
-  private terminals = new Map<string, string>();
-  constructor(readonly freq: number) {}
-  get w() {
-    return 2 * Math.PI * this.freq;
-  }
-  name(prefix: string) {
-    return `${prefix}${++this.count}`;
-  }
-  fresh() {
-    return `x${++this.count}`;
-  }
-  node(n: string) {
-    let s = this.nodeName.get(n);
-    if (s === undefined) {
-      s = `n${this.nodeName.size}`;
-      this.nodeName.set(n, s);
-    }
-    return s;
-  }
-  /** The block-side node of a terminal, joined to the bus node by a 0 V sense source. */
-  terminal(id: string, bus: string, conductor: string, busNodeName = `${bus}.${conductor}`): string {
-    const key = probeKey(id, bus, conductor);
-    let t = this.terminals.get(key);
-    if (t) return t;
-    t = this.fresh();
-    const v = this.name('V');
-    this.lines.push(`${v} ${this.node(busNodeName)} ${t} 0`);
-    this.probes.set(key, v);
-    this.terminals.set(key, t);
-    return t;
-  }
-  /** Series R + jX from a to b (SPICE nodes). */
-  z(a: string, b: string, z: Cx) {
-    if (z.re === 0 && z.im === 0) {
-      this.lines.push(`${this.name('V')} ${a} ${b} 0`);
-      return;
-    }
-    let from = a;
-    if (z.re !== 0) {
-      const mid = z.im !== 0 ? this.fresh() : b;
-      this.lines.push(`${this.name('R')} ${from} ${mid} ${num(z.re)}`);
-      from = mid;
-    }
-    if (z.im > 0) this.lines.push(`${this.name('L')} ${from} ${b} ${num(z.im / this.w)}`);
-    else if (z.im < 0) this.lines.push(`${this.name('C')} ${from} ${b} ${num(-1 / (this.w * z.im))}`);
-  }
-  /** AC voltage source: V(p) − V(m) = v. */
-  emf(p: string, m: string, v: Cx) {
-    const mag = Math.hypot(v.re, v.im);
-    this.lines.push(`${this.name('V')} ${p} ${m} AC ${num(mag)} ${num(Math.atan2(v.im, v.re) / DEG)}`);
-  }
-  /** Coupled conductors from[i] → to[i] with the series matrix z (Ω): R, L, K and H elements. */
-  coupled(from: string[], to: string[], z: Cx[][]) {
-    const m = from.length;
-    const sense: string[] = [];
-    const inductors: string[] = [];
-    const ends: string[] = [];
-    for (let i = 0; i < m; i++) {
-      let at = from[i];
-      if (z[i][i].re !== 0) {
-        const nx = this.fresh();
-        this.lines.push(`${this.name('R')} ${at} ${nx} ${num(z[i][i].re)}`);
-        at = nx;
-      }
-      if (!(z[i][i].im > 0)) throw new Error('coupled(): self reactances must be inductive');
-      const nl = this.fresh();
-      const l = this.name('L');
-      this.lines.push(`${l} ${at} ${nl} ${num(z[i][i].im / this.w)}`);
-      inductors.push(l);
-      const ns = this.fresh();
-      const sv = this.name('V');
-      this.lines.push(`${sv} ${nl} ${ns} 0`);
-      sense.push(sv);
-      ends.push(ns);
-    }
-    for (let i = 0; i < m; i++) {
-      let at = ends[i];
-      for (let j = 0; j < m; j++) {
-        if (j === i || z[i][j].re === 0) continue;
-        const nx = this.fresh();
-        this.lines.push(`${this.name('H')} ${at} ${nx} ${sense[j]} ${num(z[i][j].re)}`);
-        at = nx;
-      }
-      this.lines.push(`${this.name('V')} ${at} ${to[i]} 0`);
-    }
-    for (let i = 0; i < m; i++)
-      for (let j = i + 1; j < m; j++) {
-        const x = z[i][j].im;
-        if (x === 0) continue;
-        const k = x / Math.sqrt(z[i][i].im * z[j][j].im);
-        if (!(Math.abs(k) < 1)) throw new Error(`coupled(): coupling ${k} not physical`);
-        this.lines.push(`${this.name('K')} ${inductors[i]} ${inductors[j]} ${num(k)}`);
-      }
-  }
-  /**
-   * An ideal core with windings (pos, neg SPICE nodes, turns N, series leakage on that winding):
-   * V(pos) − V(neg) − z·i = N·e and Σ N·i = 0 (i into pos).
-   */
-  core(windings: { pos: string; neg: string; turns: number; z: Cx }[]) {
-    const e = this.fresh();
-    for (const wd of windings) {
-      const a = this.fresh();
-      const sv = this.name('V');
-      this.lines.push(`${sv} ${wd.pos} ${a} 0`);
-      const b = wd.z.re === 0 && wd.z.im === 0 ? a : this.fresh();
-      if (b !== a) this.z(a, b, wd.z);
-      this.lines.push(`${this.name('E')} ${b} ${wd.neg} ${e} 0 ${num(wd.turns)}`);
-      this.lines.push(`${this.name('F')} ${e} 0 ${sv} ${num(wd.turns)}`);
-    }
-  }
-  /**
-   * Star-point earthing. A second solid bond on a bus node already bonded solidly would close a
-   * loop of ideal connections; as documented for the file format, the first bond in file order
-   * carries the earth current and later ones are left out.
-   */
-  earth(node: string, earthing: Earthing | undefined, dflt: 'solid' | 'unearthed', busNodeName?: string) {
-    const e = earthing ?? dflt;
-    if (e === 'unearthed') return;
-    if (e === 'solid') {
-      if (busNodeName !== undefined) {
-        if (this.solidlyBonded.has(busNodeName)) return;
-        this.solidlyBonded.add(busNodeName);
-      }
-      this.lines.push(`${this.name('V')} ${node} 0 0`);
-    }
-    else this.z(node, '0', cxOf(e.ohms));
-  }
-  text(references: string[]): string {
-    const out = [...this.lines];
-    for (const r of references) out.push(`${this.name('V')} ${this.node(r)} 0 0`);
-    out.push('.options noopac', `.ac lin 1 ${num(this.freq)} ${num(this.freq)}`, '.end');
-    return out.join('\n') + '\n';
-  }
-}
-
-/** Parsed vector group or North American connection: winding kinds, neutrals brought out, clock. */
-export interface Group {
-  hv: 'Y' | 'D';
-  lv: 'Y' | 'D';
-  hvN: boolean;
-  lvN: boolean;
-  clock: number;
-}
-
-/**
- * (V) IEC 60076-1 clock notation: the LV phasors lag the HV ones by clock × 30°.
- * (M) IEEE C57.12.00 for North American connections: the low side lags the high side by 30° for
- * Δ–Y and Y–Δ, 0° for Y–Y and Δ–Δ ("Yg" = earthed wye, neutral brought out).
- */
-export function parseGroup(t: { vectorGroup?: string; connection?: string }): Group {
-  if (t.vectorGroup) {
-    const m = /^(YN|Y|D)(yn|y|d)(\d+)$/.exec(t.vectorGroup)!;
-    return { hv: m[1] === 'D' ? 'D' : 'Y', lv: m[2] === 'd' ? 'D' : 'Y', hvN: m[1] === 'YN', lvN: m[2] === 'yn', clock: Number(m[3]) };
-  }
-  const [h, l] = t.connection!.split('-');
-  const hv = h === 'D' ? 'D' : 'Y';
-  const lv = l === 'D' ? 'D' : 'Y';
-  return { hv, lv, hvN: h === 'Yg', lvN: l === 'Yg', clock: hv !== lv ? 1 : 0 };
-}
-
-/**
- * Windings of the bank for an ABC system: unit k has its HV winding fixed — wye: phase k to the
- * star (index 3), delta: phase k to phase k+1 — and its LV winding on the pair of LV terminals whose
- * voltage is in phase with that HV winding once the LV terminals lag by clock × 30°. Worked out here
- * in closed form (angles in multiples of 30°), from the HV side, unlike the engine which searches
- * from the LV side. The shift this wiring produces is checked on its own against ngspice.
- */
-export function lvWindingsFor(g: Group): { hv: [number, number]; lv: [number, number] }[] {
-  const mod = (x: number, m: number) => ((x % m) + m) % m;
-  return [0, 1, 2].map((k) => {
-    // HV winding angle in units of 30°: wye Vk at −4k; delta Vk − Vk+1 at 1 − 4k.
-    const hv: [number, number] = g.hv === 'Y' ? [k, 3] : [k, (k + 1) % 3];
-    const theta = g.hv === 'Y' ? -4 * k : 1 - 4 * k;
-    // LV terminal p sits at −clock − 4p; wye winding p→star at that angle, star→p at +6;
-    // delta winding p→p+1 at −clock − 4p + 1, its reverse p+1→p at +6.
-    for (let p = 0; p < 3; p++) {
-      if (g.lv === 'Y') {
-        if (mod(-g.clock - 4 * p - theta, 12) === 0) return { hv, lv: [p, 3] as [number, number] };
-        if (mod(-g.clock - 4 * p + 6 - theta, 12) === 0) return { hv, lv: [3, p] as [number, number] };
-      } else {
-        if (mod(-g.clock - 4 * p + 1 - theta, 12) === 0) return { hv, lv: [p, (p + 1) % 3] as [number, number] };
-        if (mod(-g.clock - 4 * p + 7 - theta, 12) === 0) return { hv, lv: [(p + 1) % 3, p] as [number, number] };
-      }
-    }
-    throw new Error(`no LV winding for ${JSON.stringify(g)}`);
-  });
-}
 
 /** Leakage R + jX in per unit from the nameplate fields. */
 function leakagePu(t: { percentR?: number; percentX?: number; percentZ?: number; xOverR?: number }): Cx {
@@ -288,7 +84,7 @@ function writeBlock(b: SpiceBuilder, el: El, seq: 'ABC' | 'ACB', off: number[], 
           z0 = imp.z0 === undefined ? z1 : cxOf(imp.z0);
         } else {
           const mag = el.kvLL ** 2 / imp.shortCircuitMva;
-          z1 = pol(mag, Math.atan(imp.xOverR) / DEG);
+          z1 = pol(mag, (Math.atan(imp.xOverR) * 180) / Math.PI);
           z0 = cscale(z1, imp.z0OverZ1 ?? 1);
         }
         if ((el.connection ?? 'wye') === 'wye') {
