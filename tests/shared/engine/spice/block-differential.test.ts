@@ -126,7 +126,8 @@ describe('block-level differential tests against ngspice', () => {
     }
   });
 
-  ALL_GROUPS.forEach((g, k) => {
+  // two circuits per group (126): the other blocks, earthings and sequence vary between them
+  [...ALL_GROUPS, ...ALL_GROUPS].forEach((g, k) => {
     const seed = 4000 + 7919 * k;
     const { features } = randomBlockCircuit(seed, g);
     it(`seed ${seed}: ${features.join(', ')}`, () => {
@@ -136,7 +137,7 @@ describe('block-level differential tests against ngspice', () => {
   });
 
   it('the random block circuits cover every feature the tests claim', () => {
-    const all = ALL_GROUPS.flatMap((g, k) => randomBlockCircuit(4000 + 7919 * k, g).features).join(' | ');
+    const all = [...ALL_GROUPS, ...ALL_GROUPS].flatMap((g, k) => randomBlockCircuit(4000 + 7919 * k, g).features).join(' | ');
     for (const f of [
       /source delta ohms/,
       /source delta (seq|mva)/,
