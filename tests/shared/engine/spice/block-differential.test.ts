@@ -4,8 +4,8 @@
  * lines as coupled inductors, physical delta sources, R/L/C loads), never from the engine's
  * expansion, and every bus-conductor voltage and every block terminal current must agree with
  * the engine to 1e-6 relative per quantity, with a floor of 1e-9 of the largest value of its kind
- * in that circuit. Seeded random combinations cover every realisable IEC vector group and every
- * North American connection, both phase sequences, earthed and unearthed neutrals, open
+ * in that circuit. Seeded random combinations (two per group, 126) cover every realisable IEC
+ * vector group and every North American connection, both phase sequences, earthed and unearthed neutrals, open
  * conductors. The test side's own transformer wiring is first checked against the definition of
  * the clock number (its phase shift measured by ngspice), so that a wrong wiring cannot hide.
  */
