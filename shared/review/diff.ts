@@ -4,7 +4,9 @@
  * ("neutral current at HOUSE (DROP): 12.1 A → 83.3 A"), flags added and removed.
  * Pure TypeScript (no Node or DOM APIs): used by the server and the browser alike.
  */
+import { complexText, parameterWords, valueWords } from './parameter-words.ts';
 import type { FlagSummary, ResultsSummary } from './summary.ts';
+import { circuitNames, conductorWords, drawnElements, typeWord, type CircuitNames } from './user-names.ts';
 
 /** What a revision holds, as far as the diff is concerned. */
 export interface DiffSide {
@@ -13,16 +15,25 @@ export interface DiffSide {
   summary: ResultsSummary;
 }
 
-/** One changed value at a dotted path (`each.kw`, `impedance.ohms.re`, `open.0`). Absent values are `undefined` → null in JSON. */
+/**
+ * One changed value at a dotted path (`each.kw`, `impedance.ohms`, `open`). Absent values are
+ * `undefined` → null in JSON. `label`, `fromText` and `toText` are what people read: the parameter
+ * and its values in words, with the names the user drew.
+ */
 export interface ValueChange {
   path: string;
   from: unknown;
   to: unknown;
+  label: string;
+  fromText: string;
+  toText: string;
 }
 
+/** An element as drawn: its name (id) and its kind in words (`typeLabel`, e.g. "transformer bank"). */
 export interface ElementRef {
   id: string;
   type: string;
+  typeLabel: string;
 }
 
 export interface ElementChange extends ElementRef {
@@ -69,11 +80,19 @@ function isPlainObject(v: Json): v is Record<string, Json> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
-/** Flattens a JSON value to `path → leaf` (empty objects and arrays are leaves). */
+/** An array of plain values (a conductor list, a pair of numbers): compared and shown as one value. */
+function isScalarArray(v: Json): boolean {
+  return Array.isArray(v) && v.every((x) => x === null || typeof x !== 'object');
+}
+
+/**
+ * Flattens a JSON value to `path → leaf`. Leaves: empty objects and arrays, arrays of plain values
+ * (`open: ["n"]`), and complex values (`{ re, im }`, `{ mag, angleDeg }`), each read as one value.
+ */
 export function flatten(value: Json, prefix = '', out: Map<string, Json> = new Map()): Map<string, Json> {
-  if (Array.isArray(value) && value.length > 0) {
+  if (Array.isArray(value) && value.length > 0 && !isScalarArray(value)) {
     value.forEach((v, i) => flatten(v, prefix ? `${prefix}.${i}` : String(i), out));
-  } else if (isPlainObject(value) && Object.keys(value).length > 0) {
+  } else if (isPlainObject(value) && Object.keys(value).length > 0 && complexText(value) === null) {
     for (const [k, v] of Object.entries(value)) flatten(v, prefix ? `${prefix}.${k}` : k, out);
   } else {
     out.set(prefix, value);
@@ -96,8 +115,11 @@ export function jsonEqual(a: Json, b: Json): boolean {
   return false;
 }
 
-/** Parameter-by-parameter changes between two JSON values, sorted by path. */
-export function valueChanges(a: Json, b: Json): ValueChange[] {
+/**
+ * Parameter-by-parameter changes between two JSON values, sorted by path, each in words; bus names
+ * and messages are read with the names of each side's circuit.
+ */
+export function valueChanges(a: Json, b: Json, names?: { from: CircuitNames; to: CircuitNames }): ValueChange[] {
   const fa = flatten(a);
   const fb = flatten(b);
   const paths = [...new Set([...fa.keys(), ...fb.keys()])].sort();
@@ -105,23 +127,46 @@ export function valueChanges(a: Json, b: Json): ValueChange[] {
   for (const p of paths) {
     const x = fa.get(p);
     const y = fb.get(p);
-    if (!jsonEqual(x, y)) out.push({ path: p, from: x ?? null, to: y ?? null });
+    if (jsonEqual(x, y)) continue;
+    const opened = p.startsWith('opened.');
+    out.push({
+      path: p,
+      from: x ?? null,
+      to: y ?? null,
+      label: parameterWords(p),
+      fromText: opened && x === undefined ? 'none' : valueWords(p, x, names?.from),
+      toText: opened && y === undefined ? 'none' : valueWords(p, y, names?.to),
+    });
   }
   return out;
 }
 
-function elementsOf(circuit: Json): Map<string, Record<string, Json>> {
-  const m = new Map<string, Record<string, Json>>();
-  const els = isPlainObject(circuit) && Array.isArray(circuit.elements) ? circuit.elements : [];
-  els.forEach((e, i) => {
-    if (!isPlainObject(e)) return;
-    const id = typeof e.id === 'string' ? e.id : `#${i}`;
-    m.set(id, e);
-  });
-  return m;
+/** The connection an `opened.<field>` change is about, in words ("opened conductors of the connection KITCHEN–HOUSE"). */
+function openedLabel(id: string, field: string, a: Record<string, Json> | undefined, b: Record<string, Json>): string {
+  const raw = b[field] ?? a?.[field];
+  const value = typeof raw === 'string' ? raw : '';
+  const bus = field === 'node' && value.lastIndexOf('.') > 0 ? value.slice(0, value.lastIndexOf('.')) : value;
+  return `opened conductors of the connection ${id}–${bus || 'its bus'}`;
 }
 
 const typeOf = (e: Record<string, Json>) => (typeof e.type === 'string' ? e.type : 'unknown');
+const refOf = (id: string, e: Record<string, Json>): ElementRef => ({ id, type: typeOf(e), typeLabel: typeWord(e.type) });
+
+/** The circuit without its elements, its bus list keyed by bus name (so a bus reads "bus HOUSE", not "item 2"). */
+function circuitLevel(c: Json): Record<string, Json> {
+  if (!isPlainObject(c)) return {};
+  const rest = Object.fromEntries(Object.entries(c).filter(([k]) => k !== 'elements'));
+  if (Array.isArray(rest.buses)) {
+    rest.buses = Object.fromEntries(
+      rest.buses.map((b, i) => {
+        if (!isPlainObject(b)) return [String(i), b];
+        const { name, ...info } = b;
+        return [typeof name === 'string' ? name : String(i), info];
+      }),
+    );
+  }
+  return rest;
+}
 
 /** Formats a value with its unit: volts and amperes to 0.1, percentages to 0.01. */
 export function formatValue(v: number | null, unit: ResultDelta['unit']): string {
@@ -129,33 +174,46 @@ export function formatValue(v: number | null, unit: ResultDelta['unit']): string
   return unit === '%' ? `${v.toFixed(2)} %` : `${v.toFixed(1)} ${unit}`;
 }
 
-/** The comparable result rows of a summary: key → row without the other side. */
-function resultRows(s: ResultsSummary): Map<string, { kind: ResultKind; label: string; unit: ResultDelta['unit']; value: number }> {
+/**
+ * The comparable result rows of a summary: key → row without the other side, labelled with the
+ * names the user drew. A hidden switch's neutral current is the same current as its element's, so
+ * only the element's row is kept, keyed by the bus it was drawn on (the key then matches the same
+ * element in a revision without the opening).
+ */
+function resultRows(s: ResultsSummary, names: CircuitNames = circuitNames(null)): Map<string, { kind: ResultKind; label: string; unit: ResultDelta['unit']; value: number }> {
   const rows = new Map<string, { kind: ResultKind; label: string; unit: ResultDelta['unit']; value: number }>();
   if (!s.ok) return rows;
   for (const b of s.buses) {
+    const at = names.bus(b.bus);
     for (const [c, v] of Object.entries(b.phaseVolts)) {
-      rows.set(`bus-voltage:${b.bus}:${c}`, { kind: 'bus-voltage', label: `voltage ${c}-n at ${b.bus}`, unit: 'V', value: v });
+      rows.set(`bus-voltage:${b.bus}:${c}`, { kind: 'bus-voltage', label: `voltage ${conductorLabel(c)}-N at ${at}`, unit: 'V', value: v });
     }
     if (b.neutralShiftVolts !== undefined) {
-      rows.set(`neutral-shift:${b.bus}`, { kind: 'neutral-shift', label: `neutral shift at ${b.bus}`, unit: 'V', value: b.neutralShiftVolts });
+      rows.set(`neutral-shift:${b.bus}`, { kind: 'neutral-shift', label: `neutral shift at ${at}`, unit: 'V', value: b.neutralShiftVolts });
     }
     if (b.iecUnbalancePercent !== undefined) {
-      rows.set(`unbalance:${b.bus}`, { kind: 'unbalance', label: `voltage unbalance (IEC) at ${b.bus}`, unit: '%', value: b.iecUnbalancePercent });
+      rows.set(`unbalance:${b.bus}`, { kind: 'unbalance', label: `voltage unbalance (IEC) at ${at}`, unit: '%', value: b.iecUnbalancePercent });
     }
   }
   for (const n of s.neutralCurrents) {
-    rows.set(`neutral-current:${n.key}`, { kind: 'neutral-current', label: `neutral current at ${n.bus} (${n.elementId})`, unit: 'A', value: n.amps });
+    if (names.isHidden(n.elementId)) continue;
+    const bus = names.drawnBus(n.bus);
+    rows.set(`neutral-current:${n.elementId}@${bus}`, { kind: 'neutral-current', label: `neutral current at ${bus} (${n.elementId})`, unit: 'A', value: n.amps });
   }
   return rows;
+}
+
+/** A conductor key of a summary in capitals (a → A, 1 → 1). */
+function conductorLabel(c: string): string {
+  return c.toUpperCase();
 }
 
 const KIND_ORDER: ResultKind[] = ['neutral-current', 'neutral-shift', 'bus-voltage', 'unbalance'];
 
 /** Result deltas between two summaries, neutral currents first (what a lost-neutral review looks at). */
-export function resultDeltas(from: ResultsSummary, to: ResultsSummary): ResultDelta[] {
-  const a = resultRows(from);
-  const b = resultRows(to);
+export function resultDeltas(from: ResultsSummary, to: ResultsSummary, names?: { from: CircuitNames; to: CircuitNames }): ResultDelta[] {
+  const a = resultRows(from, names?.from);
+  const b = resultRows(to, names?.to);
   const out: ResultDelta[] = [];
   for (const key of new Set([...a.keys(), ...b.keys()])) {
     const x = a.get(key);
@@ -183,33 +241,39 @@ function flagsOf(s: ResultsSummary): FlagSummary[] {
   return s.ok ? s.flags : [];
 }
 
-/** Compares two revisions. */
+/**
+ * Compares two revisions as the user drew them: the hidden switch behind an opened connection is
+ * never an element of its own; its opening reads as a change of the element it belongs to
+ * ("opened conductors of the connection KITCHEN–HOUSE: none → neutral").
+ */
 export function diffRevisions(from: DiffSide, to: DiffSide): RevisionDiff {
-  const ea = elementsOf(from.content.circuit);
-  const eb = elementsOf(to.content.circuit);
+  const names = { from: circuitNames(from.content.circuit), to: circuitNames(to.content.circuit) };
+  const ea = drawnElements(from.content.circuit);
+  const eb = drawnElements(to.content.circuit);
   const added: ElementRef[] = [];
   const removed: ElementRef[] = [];
   const changed: ElementChange[] = [];
-  for (const [id, e] of eb) if (!ea.has(id)) added.push({ id, type: typeOf(e) });
+  for (const [id, e] of eb) if (!ea.has(id)) added.push(refOf(id, e));
   for (const [id, e] of ea) {
     const other = eb.get(id);
     if (!other) {
-      removed.push({ id, type: typeOf(e) });
+      removed.push(refOf(id, e));
       continue;
     }
-    const changes = valueChanges(e, other);
-    if (changes.length > 0) changed.push({ id, type: typeOf(other), changes });
+    const changes = valueChanges(e, other, names).map((c) =>
+      c.path.startsWith('opened.') ? { ...c, label: openedLabel(id, c.path.slice('opened.'.length), e, other) } : c,
+    );
+    if (changes.length > 0) changed.push({ ...refOf(id, other), changes });
   }
 
-  const withoutElements = (c: Json) => (isPlainObject(c) ? Object.fromEntries(Object.entries(c).filter(([k]) => k !== 'elements')) : {});
-  const circuit = valueChanges(withoutElements(from.content.circuit), withoutElements(to.content.circuit));
+  const circuit = valueChanges(circuitLevel(from.content.circuit), circuitLevel(to.content.circuit), names);
 
   const fa = flagsOf(from.summary);
   const fb = flagsOf(to.summary);
   const keysA = new Set(fa.map((f) => f.key));
   const keysB = new Set(fb.map((f) => f.key));
-  const flagsAdded = fb.filter((f) => !keysA.has(f.key)).map((f) => ({ ...f, text: `flag added: ${f.message}` }));
-  const flagsRemoved = fa.filter((f) => !keysB.has(f.key)).map((f) => ({ ...f, text: `flag removed: ${f.message}` }));
+  const flagsAdded = fb.filter((f) => !keysA.has(f.key)).map((f) => ({ ...f, message: names.to.text(f.message), text: `flag added: ${names.to.text(f.message)}` }));
+  const flagsRemoved = fa.filter((f) => !keysB.has(f.key)).map((f) => ({ ...f, message: names.from.text(f.message), text: `flag removed: ${names.from.text(f.message)}` }));
 
   return {
     from: from.number,
@@ -218,13 +282,13 @@ export function diffRevisions(from: DiffSide, to: DiffSide): RevisionDiff {
     circuit,
     layoutChanged: !jsonEqual(from.content.layout ?? null, to.content.layout ?? null),
     settingsChanged: !jsonEqual(from.content.settings ?? null, to.content.settings ?? null),
-    results: resultDeltas(from.summary, to.summary),
+    results: resultDeltas(from.summary, to.summary, names),
     flags: { added: flagsAdded, removed: flagsRemoved },
     solve: {
       from: from.summary.ok ? 'ok' : 'error',
       to: to.summary.ok ? 'ok' : 'error',
-      ...(!from.summary.ok ? { fromError: from.summary.error.message } : {}),
-      ...(!to.summary.ok ? { toError: to.summary.error.message } : {}),
+      ...(!from.summary.ok ? { fromError: names.from.text(from.summary.error.message) } : {}),
+      ...(!to.summary.ok ? { toError: names.to.text(to.summary.error.message) } : {}),
     },
   };
 }

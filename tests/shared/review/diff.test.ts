@@ -40,8 +40,8 @@ describe('value changes', () => {
     expect(jsonEqual({ a: 1 }, { a: 1, b: undefined })).toBe(true);
     expect(jsonEqual([1, 2], [2, 1])).toBe(false);
     expect(valueChanges({ each: { kw: 1.5, kvar: 0.2 }, open: ['n'] }, { each: { kw: 4, kvar: 0.2 } })).toEqual([
-      { path: 'each.kw', from: 1.5, to: 4 },
-      { path: 'open.0', from: 'n', to: null },
+      { path: 'each.kw', from: 1.5, to: 4, label: 'every phase › P (kW)', fromText: '1.5', toText: '4' },
+      { path: 'open', from: ['n'], to: null, label: 'open conductors', fromText: 'neutral', toText: '—' },
     ]);
   });
 });
@@ -81,10 +81,10 @@ describe('diffRevisions', () => {
     );
     expect(d.from).toBe(1);
     expect(d.to).toBe(2);
-    expect(d.elements.added).toEqual([{ id: 'C', type: 'earthing' }]);
-    expect(d.elements.removed).toEqual([{ id: 'B', type: 'line' }]);
-    expect(d.elements.changed).toEqual([{ id: 'A', type: 'load', changes: [{ path: 'each.kw', from: 1, to: 2 }] }]);
-    expect(d.circuit).toEqual([{ path: 'frequencyHz', from: 60, to: 50 }]);
+    expect(d.elements.added).toEqual([{ id: 'C', type: 'earthing', typeLabel: 'earth electrode' }]);
+    expect(d.elements.removed).toEqual([{ id: 'B', type: 'line', typeLabel: 'line' }]);
+    expect(d.elements.changed).toEqual([{ id: 'A', type: 'load', typeLabel: 'load', changes: [{ path: 'each.kw', from: 1, to: 2, label: 'every phase › P (kW)', fromText: '1', toText: '2' }] }]);
+    expect(d.circuit).toEqual([{ path: 'frequencyHz', from: 60, to: 50, label: 'frequency (Hz)', fromText: '60', toText: '50' }]);
     expect(d.layoutChanged).toBe(true);
     expect(d.settingsChanged).toBe(true);
     expect(d.results).toEqual([]);
@@ -110,7 +110,7 @@ describe('diffRevisions', () => {
       { number: 2, content: { circuit: repairedCircuit }, summary: summarizeCircuit(repairedCircuit) },
     );
     expect(d.solve).toEqual({ from: 'ok', to: 'ok' });
-    expect(d.elements.changed).toEqual([{ id: 'DROP', type: 'line', changes: [{ path: 'open', from: null, to: [] }, { path: 'open.0', from: 'n', to: null }] }]);
+    expect(d.elements.changed).toEqual([{ id: 'DROP', type: 'line', typeLabel: 'line', changes: [{ path: 'open', from: ['n'], to: [], label: 'open conductors', fromText: 'neutral', toText: 'none' }] }]);
     const drop = d.results.find((r) => r.key === 'neutral-current:DROP@HOUSE')!;
     // (P) With the neutral open the drop carries no neutral current; repaired, it carries the
     // unbalance of 12.5 A, 33 A and 5 A phase currents (C: 1.5 kW, 4 kW, 0.6 kW at ~120 V), well over 10 A.

@@ -1,5 +1,5 @@
 import type { RevisionDiff } from '../../../../shared/api/revisions.ts';
-import { formatDelta, formatValue } from '../utils/format-values.ts';
+import { formatDelta } from '../utils/format-values.ts';
 import { ResultsCaution } from './results-caution.tsx';
 
 const KIND_LABEL: Record<RevisionDiff['results'][number]['kind'], string> = {
@@ -107,7 +107,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
             {elements.added.map((e, i) => (
               <span key={e.id}>
                 {i > 0 ? ', ' : ''}
-                <span className="num">{e.id}</span> ({e.type})
+                <span className="num">{e.id}</span> ({e.typeLabel})
               </span>
             ))}
           </p>
@@ -118,7 +118,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
             {elements.removed.map((e, i) => (
               <span key={e.id}>
                 {i > 0 ? ', ' : ''}
-                <span className="num">{e.id}</span> ({e.type})
+                <span className="num">{e.id}</span> ({e.typeLabel})
               </span>
             ))}
           </p>
@@ -127,7 +127,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
           <div key={e.id} className="overflow-x-auto">
             <table aria-label={`Changes to ${e.id}`} className={TABLE}>
               <caption className="text-left text-sm font-semibold">
-                <span className="num">{e.id}</span> <span className="font-normal text-ink-muted">({e.type})</span>
+                <span className="num">{e.id}</span> <span className="font-normal text-ink-muted">({e.typeLabel})</span>
               </caption>
               <thead>
                 <tr>
@@ -139,9 +139,9 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
               <tbody>
                 {e.changes.map((c) => (
                   <tr key={c.path}>
-                    <td className="num">{c.path}</td>
-                    <td className="num">{formatValue(c.from)}</td>
-                    <td className="num">{formatValue(c.to)}</td>
+                    <td>{c.label}</td>
+                    <td className="num">{c.fromText}</td>
+                    <td className="num">{c.toText}</td>
                   </tr>
                 ))}
               </tbody>
@@ -167,9 +167,9 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
               <tbody>
                 {diff.circuit.map((c) => (
                   <tr key={c.path}>
-                    <td className="num">{c.path}</td>
-                    <td className="num">{formatValue(c.from)}</td>
-                    <td className="num">{formatValue(c.to)}</td>
+                    <td>{c.label}</td>
+                    <td className="num">{c.fromText}</td>
+                    <td className="num">{c.toText}</td>
                   </tr>
                 ))}
               </tbody>

@@ -1,13 +1,4 @@
-/** Formatting of diff values and result quantities for the review pages. */
-
-/** A changed parameter's value as text: numbers as written, absent as "—", objects as compact JSON. */
-export function formatValue(v: unknown): string {
-  if (v === null || v === undefined) return '—';
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : String(v);
-  if (typeof v === 'string') return v === '' ? '""' : v;
-  if (typeof v === 'boolean') return v ? 'true' : 'false';
-  return JSON.stringify(v);
-}
+/** Formatting of result quantities for the review pages (diff values arrive in words from shared/review). */
 
 /** A result value with its unit: 1 decimal at 100 or more, else 2 ("83.3 A" from 83.3; "4.27 %"). Null → "—". */
 export function formatQuantity(x: number | null | undefined, unit: string): string {

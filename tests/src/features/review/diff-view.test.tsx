@@ -13,11 +13,21 @@ function diff(from: number, to: number): RevisionDiff {
     from,
     to,
     elements: {
-      added: [{ id: 'LOAD-7', type: 'load' }],
+      added: [{ id: 'LOAD-7', type: 'load', typeLabel: 'load' }, { id: 'SW-2', type: 'switch3', typeLabel: 'switch' }],
       removed: [],
-      changed: [{ id: 'DROP', type: 'line', changes: [{ path: 'open.0', from: null, to: 'n' }, { path: 'lengthMeters', from: 30, to: 45 }] }],
+      changed: [
+        {
+          id: 'DROP',
+          type: 'line',
+          typeLabel: 'line',
+          changes: [
+            { path: 'open', from: null, to: ['n'], label: 'open conductors', fromText: '—', toText: 'neutral' },
+            { path: 'length', from: 30, to: 45, label: 'length', fromText: '30', toText: '45' },
+          ],
+        },
+      ],
     },
-    circuit: [{ path: 'frequencyHz', from: 60, to: 50 }],
+    circuit: [{ path: 'frequencyHz', from: 60, to: 50, label: 'frequency (Hz)', fromText: '60', toText: '50' }],
     layoutChanged: true,
     settingsChanged: false,
     results: [
@@ -55,9 +65,11 @@ describe('diff view', () => {
 
     const drop = within(region).getByRole('table', { name: 'Changes to DROP' });
     const dropRows = within(drop).getAllByRole('row').slice(1).map((r) => r.textContent);
-    expect(dropRows).toEqual(['open.0—n', 'lengthMeters3045']);
-    expect(region).toHaveTextContent('Added: LOAD-7 (load)');
-    expect(within(region).getByRole('table', { name: 'Circuit changes' })).toHaveTextContent('frequencyHz6050');
+    expect(dropRows).toEqual(['open conductors—neutral', 'length3045']);
+    // Element kinds in words, never the engine's type names.
+    expect(region).toHaveTextContent('Added: LOAD-7 (load), SW-2 (switch)');
+    expect(region).not.toHaveTextContent('switch3');
+    expect(within(region).getByRole('table', { name: 'Circuit changes' })).toHaveTextContent('frequency (Hz)6050');
     expect(region).toHaveTextContent('The diagram layout changed.');
     // Results are shown, so the caution is beside them.
     expect(region).toHaveTextContent('licensed practice');
