@@ -4,6 +4,7 @@
  * reopen; edit and delete one's own; @mentions notify team members. Text is stored and returned
  * verbatim and never rendered as HTML by the server; e-mails escape it.
  */
+import { circuitNames } from '../../shared/review/user-names.ts';
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import type { Comment, CommentAnchor, CreateCommentRequest, UpdateCommentRequest } from '../../shared/api/comments.ts';
 import { findMentions } from '../../shared/review/mentions.ts';
@@ -108,10 +109,13 @@ export async function createComment(db: Db, mailer: Mailer, appUrl: string, acto
     if (input.anchor) throw fieldError('anchor', 'A reply has no anchor of its own; the thread is anchored.');
   }
   const latest = await latestRevision(db, studyId);
-  if (input.anchor && 'elementId' in input.anchor) {
+  let anchor = input.anchor;
+  if (anchor && 'elementId' in anchor) {
     const circuit = (latest?.content as { circuit?: { elements?: { id?: unknown }[] } } | undefined)?.circuit ?? study.content.circuit;
+    // A thread on the hidden switch of an opened connection belongs to the element the user drew.
+    anchor = { elementId: circuitNames(circuit).drawnElement(anchor.elementId) };
     const ids = new Set((circuit.elements ?? []).map((e) => (e as { id?: unknown }).id));
-    if (!ids.has(input.anchor.elementId)) throw fieldError('anchor.elementId', `There is no element "${input.anchor.elementId}" in this study.`);
+    if (!ids.has(anchor.elementId)) throw fieldError('anchor.elementId', `There is no element "${anchor.elementId}" in this study.`);
   }
   const mentioned = findMentions(input.body, await teamMembers(db, actor.teamId)).filter((m) => m.id !== actor.userId);
   const [row] = await db
@@ -122,12 +126,12 @@ export async function createComment(db: Db, mailer: Mailer, appUrl: string, acto
       parentId,
       authorId: actor.userId,
       body: input.body,
-      anchor: input.anchor ?? null,
+      anchor: anchor ?? null,
       revision: latest?.number ?? null,
       mentions: mentioned.map((m) => m.id),
     })
     .returning();
-  await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'comment.create', studyId, detail: { commentId: row.id, parentId, anchor: input.anchor ?? null } });
+  await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'comment.create', studyId, detail: { commentId: row.id, parentId, anchor: anchor ?? null } });
   await notifyMentions(db, mailer, appUrl, actor, studyId, study.name, input.body, mentioned);
   return (await toComments(db, [row]))[0];
 }

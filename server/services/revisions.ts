@@ -10,6 +10,7 @@ import type { RevisionSummary, Revision } from '../../shared/api/revisions.ts';
 import type { StudyContent } from '../../shared/api/studies.ts';
 import { diffRevisions, jsonEqual, type RevisionDiff } from '../../shared/review/diff.ts';
 import { summarizeCircuit, type ResultsSummary } from '../../shared/review/summary.ts';
+import { circuitNames } from '../../shared/review/user-names.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
 import { studyRevisions, users } from '../db/schema.ts';
@@ -38,7 +39,7 @@ function toRevisionSummary(r: RevisionRow, authorName: string): RevisionSummary 
     restoredFrom: r.restoredFrom,
     results: s.ok
       ? { ok: true, flagCount: s.flags.length, violationCount: s.flags.filter((f) => f.severity === 'violation').length }
-      : { ok: false, error: { code: s.error.code, message: s.error.message } },
+      : { ok: false, error: { code: s.error.code, message: circuitNames((r.content as StudyContent).circuit).text(s.error.message) } },
   };
 }
 

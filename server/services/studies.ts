@@ -15,6 +15,7 @@ import {
   type UpdateStudyRequest,
 } from '../../shared/api/studies.ts';
 import type { RevisionSummary } from '../../shared/api/revisions.ts';
+import { PRIVATE_MARK } from '../../shared/review/user-names.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
 import { reviewEvents, studies, users } from '../db/schema.ts';
@@ -27,8 +28,13 @@ const createdByUser = alias(users, 'created_by_user');
 const updatedByUser = alias(users, 'updated_by_user');
 const source = alias(studies, 'source_study');
 
+/**
+ * Elements the user drew: the hidden switch behind an opened connection (an id with the private
+ * marker "~", shared/review/user-names.ts) is not one of them.
+ */
 const elementCount = sql<number>`case when jsonb_typeof(${studies.content}->'circuit'->'elements') = 'array'
-  then jsonb_array_length(${studies.content}->'circuit'->'elements') else 0 end`.mapWith(Number);
+  then (select count(*) from jsonb_array_elements(${studies.content}->'circuit'->'elements') as e(el)
+        where strpos(coalesce(e.el->>'id', ''), ${PRIVATE_MARK}) = 0) else 0 end`.mapWith(Number);
 
 const summaryColumns = {
   id: studies.id,

@@ -162,8 +162,8 @@ export function circuitNames(circuit: unknown): CircuitNames {
 
   /** A generated name without a table entry (damaged or foreign circuit): read its parts. */
   const guess = (name: string): { element: string; bus: string } => {
-    const [element, field] = name.split(PRIVATE_MARK);
-    return { element: element || 'an element', bus: field && field !== 'sw' ? field : 'its bus' };
+    const [element] = name.split(PRIVATE_MARK);
+    return { element: element || 'an element', bus: 'its bus' };
   };
 
   const drawnBus = (bus: string) => byBus.get(bus)?.bus ?? (isPrivateName(bus) ? guess(bus).bus : bus);
@@ -256,4 +256,21 @@ export function drawnCounts(circuit: unknown): { total: number; byType: { type: 
     total++;
   }
   return { total, byType: [...counts].map(([type, count]) => ({ type, count })).sort((a, b) => b.count - a.count || a.type.localeCompare(b.type)) };
+}
+
+/** Where a comment points (an element, or a result row of the results summary), in words. */
+export function anchorWords(anchor: { elementId: string } | { resultRow: { table: string; key: string } }, names: CircuitNames = circuitNames(null)): string {
+  if ('elementId' in anchor) {
+    const id = anchor.elementId;
+    return names.isHidden(id) ? names.element(id) : `element ${id}`;
+  }
+  const { table, key } = anchor.resultRow;
+  if (table === 'bus-voltages') return `bus voltages at ${names.bus(key)}`;
+  if (table === 'neutral-currents') {
+    const at = key.lastIndexOf('@');
+    const el = at > 0 ? key.slice(0, at) : key;
+    const bus = at > 0 ? key.slice(at + 1) : '';
+    return `neutral current of ${names.drawnElement(el)}${bus ? ` at ${names.drawnBus(bus)}` : ''}`;
+  }
+  return `result ${names.text(key)}`;
 }

@@ -4,6 +4,7 @@ import type { Comment, CommentAnchor } from '../../../../shared/api/comments.ts'
 import { COMMENT_MAX } from '../../../../shared/api/comments.ts';
 import { findMentions } from '../../../../shared/review/mentions.ts';
 import type { ResultsSummary } from '../../../../shared/review/summary.ts';
+import { anchorWords, circuitNames, isPrivateName, type CircuitNames } from '../../../../shared/review/user-names.ts';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmDialog } from '../../../components/dialog.tsx';
 import { controlClass } from '../../../components/field.tsx';
@@ -20,20 +21,22 @@ interface Viewer {
   studyId: string;
   role: Role;
   userId: string;
+  /** Names of the study's circuit as drawn, so anchors read in the user's words. */
+  names: CircuitNames;
 }
 
-/** Where a thread points, in words. */
-export function anchorText(anchor: CommentAnchor | null): string | null {
+/** Where a thread points, in words ("Element KITCHEN", "Bus voltages at HOUSE"), with the names the user drew. */
+export function anchorText(anchor: CommentAnchor | null, names: CircuitNames = circuitNames(null)): string | null {
   if (!anchor) return null;
-  if ('elementId' in anchor) return `Element ${anchor.elementId}`;
-  return `Result ${anchor.resultRow.table}: ${anchor.resultRow.key}`;
+  const words = anchorWords(anchor, names);
+  return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
-/** The element ids of a stored circuit (JSON read defensively). */
+/** The ids of the elements drawn in a stored circuit (JSON read defensively; hidden switches of opened connections left out). */
 export function circuitElementIds(circuit: { elements: unknown[] } | undefined): string[] {
   if (!circuit) return [];
   const ids = circuit.elements.map((e) => (e && typeof e === 'object' && typeof (e as { id?: unknown }).id === 'string' ? (e as { id: string }).id : null));
-  return ids.filter((x): x is string => x !== null);
+  return ids.filter((x): x is string => x !== null && !isPrivateName(x));
 }
 
 /** Text box with a live list of who will be notified (mentions resolved by the same rule as the server). */
@@ -69,7 +72,7 @@ function CommentItem({ c, viewer, isRoot }: { c: Comment; viewer: Viewer; isRoot
   const [draft, setDraft] = useState(c.body);
   const [confirm, setConfirm] = useState(false);
   const own = c.author.id === viewer.userId;
-  const anchor = isRoot ? anchorText(c.anchor) : null;
+  const anchor = isRoot ? anchorText(c.anchor, viewer.names) : null;
 
   return (
     <article aria-label={`Comment by ${c.author.name}`} className={isRoot ? '' : 'ml-5 border-l-2 border-rule pl-3'}>
@@ -143,7 +146,7 @@ function Thread({ root, replies, viewer }: { root: Comment; replies: Comment[]; 
   const [replying, setReplying] = useState(false);
   const [reply, setReply] = useState('');
   const may = canComment(viewer.role);
-  const anchor = anchorText(root.anchor);
+  const anchor = anchorText(root.anchor, viewer.names);
   return (
     <li
       aria-label={`Thread by ${root.author.name}${anchor ? `, ${anchor}` : ''}${root.resolved ? ', resolved' : ''}`}
@@ -213,12 +216,17 @@ export interface ResultRowChoice {
   label: string;
 }
 
-/** Result rows of a revision's summary: bus voltages by bus, neutral currents by element and bus. */
-export function resultRowChoices(summary: ResultsSummary | undefined): ResultRowChoice[] {
+/**
+ * Result rows of a revision's summary: bus voltages by bus, neutral currents by element and bus,
+ * labelled with the names the user drew (a hidden switch's row is its element's, so it is left out).
+ */
+export function resultRowChoices(summary: ResultsSummary | undefined, names: CircuitNames = circuitNames(null)): ResultRowChoice[] {
   if (!summary || !summary.ok) return [];
   return [
-    ...summary.buses.map((b) => ({ table: 'bus-voltages', key: b.bus, label: `Bus voltages: ${b.bus}` })),
-    ...summary.neutralCurrents.map((n) => ({ table: 'neutral-currents', key: n.key, label: `Neutral current: ${n.elementId} at ${n.bus}` })),
+    ...summary.buses.map((b) => ({ table: 'bus-voltages', key: b.bus, label: `Bus voltages: ${names.bus(b.bus)}` })),
+    ...summary.neutralCurrents
+      .filter((n) => !names.isHidden(n.elementId))
+      .map((n) => ({ table: 'neutral-currents', key: n.key, label: `Neutral current: ${n.elementId} at ${names.drawnBus(n.bus)}` })),
   ];
 }
 
@@ -229,12 +237,14 @@ export function CommentsPanel({
   elementIds,
   resultRows = [],
   selectedElementId,
-}: Viewer & { elementIds: string[]; resultRows?: ResultRowChoice[]; selectedElementId?: string | null }) {
+  circuit,
+}: Omit<Viewer, 'names'> & { elementIds: string[]; resultRows?: ResultRowChoice[]; selectedElementId?: string | null; circuit?: unknown }) {
   const comments = useComments(studyId);
   const create = useCreateComment(studyId);
   const [body, setBody] = useState('');
   const [anchorId, setAnchorId] = useState('');
-  const viewer: Viewer = { studyId, role, userId };
+  const names = useMemo(() => circuitNames(circuit), [circuit]);
+  const viewer: Viewer = { studyId, role, userId, names };
 
   const threads = useMemo(() => {
     const items = comments.data?.items ?? [];

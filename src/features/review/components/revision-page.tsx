@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link, useNavigate } from 'react-router';
 import type { Role } from '../../../../shared/api/common.ts';
 import type { ResultsSummary } from '../../../../shared/review/summary.ts';
+import { circuitNames, drawnCounts, drawnElements, type CircuitNames } from '../../../../shared/review/user-names.ts';
 import { Button, buttonClass } from '../../../components/button.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
@@ -17,35 +18,32 @@ import { StudyCrumbs } from './study-crumbs.tsx';
 
 const TABLE = 'w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted';
 
-interface ElementLike {
-  id?: unknown;
-  type?: unknown;
-  bus?: unknown;
-}
-
-/** Counts by element type and the bus names of a stored circuit (read defensively: it is JSON). */
-function contentFacts(circuit: { elements: unknown[]; frequencyHz: number }) {
-  const byType = new Map<string, number>();
+/** Counts by element type (in words) and the bus names of a stored circuit, as drawn: hidden switches and private terminal buses left out. */
+function contentFacts(circuit: unknown) {
   const buses = new Set<string>();
-  for (const raw of circuit.elements) {
-    const e = (raw ?? {}) as ElementLike & Record<string, unknown>;
-    const type = typeof e.type === 'string' ? e.type : 'unknown';
-    byType.set(type, (byType.get(type) ?? 0) + 1);
-    for (const k of ['bus', 'from', 'to', 'fromBus', 'toBus']) if (typeof e[k] === 'string') buses.add(e[k] as string);
+  for (const e of drawnElements(circuit).values()) {
+    for (const k of ['bus', 'from', 'to']) if (typeof e[k] === 'string') buses.add(e[k] as string);
+    if (typeof e.node === 'string' && e.node.lastIndexOf('.') > 0) buses.add(e.node.slice(0, e.node.lastIndexOf('.')));
   }
-  return { byType: [...byType.entries()].sort(([a], [b]) => a.localeCompare(b)), buses: [...buses].sort() };
+  return { byType: drawnCounts(circuit).byType, buses: [...buses].sort() };
 }
 
-/** A revision's key results: bus voltages, neutral currents and flags, with units. */
-export function ResultsSummaryTables({ summary }: { summary: ResultsSummary }) {
+/**
+ * A revision's key results: bus voltages, neutral currents and flags, with units, named as the
+ * revision's circuit was drawn (a private terminal bus reads "KITCHEN terminals at HOUSE"; a hidden
+ * switch's neutral current is its element's, so it is not listed twice).
+ */
+export function ResultsSummaryTables({ summary, names = circuitNames(null) }: { summary: ResultsSummary; names?: CircuitNames }) {
   if (!summary.ok) {
+    const elements = [...new Set(summary.error.elementIds.map((id) => names.drawnElement(id)))];
     return (
       <Notice tone="error" title="This revision does not solve.">
-        {summary.error.message}
-        {summary.error.elementIds.length > 0 ? <span className="block">Elements: {summary.error.elementIds.join(', ')}</span> : null}
+        {names.text(summary.error.message)}
+        {elements.length > 0 ? <span className="block">Elements: {elements.join(', ')}</span> : null}
       </Notice>
     );
   }
+  const neutralCurrents = summary.neutralCurrents.filter((n) => !names.isHidden(n.elementId));
   const phases = [...new Set(summary.buses.flatMap((b) => Object.keys(b.phaseVolts)))].sort();
   return (
     <div className="flex flex-col gap-3">
@@ -74,7 +72,7 @@ export function ResultsSummaryTables({ summary }: { summary: ResultsSummary }) {
             {summary.buses.map((b) => (
               <tr key={b.bus}>
                 <th scope="row" className="font-normal text-ink">
-                  {b.bus}
+                  {names.bus(b.bus)}
                 </th>
                 {phases.map((p) => (
                   <td key={p} className="num text-right">
@@ -89,7 +87,7 @@ export function ResultsSummaryTables({ summary }: { summary: ResultsSummary }) {
           </tbody>
         </table>
       </div>
-      {summary.neutralCurrents.length > 0 ? (
+      {neutralCurrents.length > 0 ? (
         <div className="overflow-x-auto">
           <table aria-label="Neutral currents at this revision" className={TABLE}>
             <thead>
@@ -102,10 +100,10 @@ export function ResultsSummaryTables({ summary }: { summary: ResultsSummary }) {
               </tr>
             </thead>
             <tbody>
-              {summary.neutralCurrents.map((n) => (
+              {neutralCurrents.map((n) => (
                 <tr key={n.key}>
                   <td className="num">{n.elementId}</td>
-                  <td>{n.bus}</td>
+                  <td>{names.drawnBus(n.bus)}</td>
                   <td className="num text-right">{formatQuantity(n.amps, 'A')}</td>
                 </tr>
               ))}
@@ -122,7 +120,7 @@ export function ResultsSummaryTables({ summary }: { summary: ResultsSummary }) {
             {summary.flags.map((f) => (
               <li key={f.key}>
                 <span aria-hidden="true">{f.severity === 'violation' ? '▲ ' : '△ '}</span>
-                <span className="font-semibold">{f.severity}</span>: {f.message}
+                <span className="font-semibold">{f.severity}</span>: {names.text(f.message)}
               </li>
             ))}
           </ul>
@@ -201,7 +199,7 @@ export function RevisionPage({ studyId, n, role }: { studyId: string; n: number;
                     <dt className="text-ink-muted">Frequency</dt>
                     <dd className="num">{revision.data.content.circuit.frequencyHz} Hz</dd>
                     <dt className="text-ink-muted">Elements</dt>
-                    <dd>{facts.byType.length === 0 ? 'none' : facts.byType.map(([t, c]) => `${c} ${t}`).join(', ')}</dd>
+                    <dd>{facts.byType.length === 0 ? 'none' : facts.byType.map((t) => `${t.count} ${t.type}`).join(', ')}</dd>
                     <dt className="text-ink-muted">Buses</dt>
                     <dd className="break-words">{facts.buses.join(' · ') || '—'}</dd>
                   </dl>
@@ -212,7 +210,7 @@ export function RevisionPage({ studyId, n, role }: { studyId: string; n: number;
               <h2 id="rev-results" className="text-base">
                 Results at revision {revision.data.number}
               </h2>
-              <ResultsSummaryTables summary={revision.data.summary} />
+              <ResultsSummaryTables summary={revision.data.summary} names={circuitNames(revision.data.content.circuit)} />
               <ResultsCaution />
             </section>
           </div>

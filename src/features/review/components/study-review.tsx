@@ -1,4 +1,5 @@
 import type { Role } from '../../../../shared/api/common.ts';
+import { circuitNames } from '../../../../shared/review/user-names.ts';
 import { useQuery } from '@tanstack/react-query';
 import { revisionQueryOptions } from '../api/get-revision.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
@@ -19,8 +20,8 @@ export function StudyReview({ studyId, role, userId, selectedElementId }: { stud
   return (
     <div id={REVIEW_SECTION_ID} className="mx-auto grid w-full max-w-6xl scroll-mt-4 gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
       <div className="flex min-w-0 flex-col gap-4">
-        <CommentsPanel studyId={studyId} role={role} userId={userId} elementIds={circuitElementIds(study.data.content.circuit)}
-          resultRows={resultRowChoices(revision.data?.summary)} selectedElementId={selectedElementId} />
+        <CommentsPanel studyId={studyId} role={role} userId={userId} elementIds={circuitElementIds(study.data.content.circuit)} circuit={study.data.content.circuit}
+          resultRows={resultRowChoices(revision.data?.summary, circuitNames(revision.data?.content.circuit))} selectedElementId={selectedElementId} />
       </div>
       <div className="flex flex-col gap-4">
         <ReviewPanel studyId={studyId} role={role} userId={userId} />

@@ -10,15 +10,20 @@
  * - a numeric field whose name contains `kV` (but not `kVA`/`kvar`) is a voltage in kilovolts, and one
  *   ending in `Volts`/`volts` a voltage in volts; both become the distinct nominal voltages, in volts.
  * The reference node `earth` is not a bus.
+ *
+ * It speaks of what the user drew: the hidden switch behind an opened connection is not counted,
+ * an element's private terminal bus counts as the bus it was drawn on, and types read in words
+ * ("transformer bank", "switch") as in the palette (shared/review/user-names.ts).
  */
+import { circuitNames, isPrivateName, typeWord } from '../../../../shared/review/user-names.ts';
 
 /** The numbers a study page shows about its circuit. */
 export interface ContentSummary {
   /** System frequency in Hz, or null when missing or invalid. */
   frequencyHz: number | null;
-  /** Number of elements. */
+  /** Number of elements drawn (hidden switches of opened connections are not elements). */
   elementCount: number;
-  /** Element counts by `type`, most frequent first, ties by name. */
+  /** Element counts by type in words, most frequent first, ties by name. */
   byType: { type: string; count: number }[];
   /** Distinct bus names, in natural order (B2 before B10). */
   buses: string[];
@@ -66,24 +71,24 @@ function voltsOfField(key: string, value: number): number | null {
   return null;
 }
 
-function walk(value: unknown, depth: number, buses: Set<string>, volts: Set<number>): void {
+function walk(value: unknown, depth: number, buses: Set<string>, volts: Set<number>, drawn: (bus: string) => string = (b) => b): void {
   if (depth > MAX_DEPTH) return;
   if (Array.isArray(value)) {
-    for (const item of value) if (isRecord(item)) walk(item, depth + 1, buses, volts);
+    for (const item of value) if (isRecord(item)) walk(item, depth + 1, buses, volts, drawn);
     return;
   }
   if (!isRecord(value)) return;
   for (const [key, v] of Object.entries(value)) {
     if (isBusKey(key)) {
-      for (const name of strings(v)) buses.add(name);
-    } else if (NODE_KEYS.has(key)) {
-      for (const node of strings(v)) buses.add(busOfNode(node));
+      for (const name of strings(v)) buses.add(drawn(name));
+    } else if (NODE_KEYS.has(key) || key === 'node') {
+      for (const node of strings(v)) buses.add(drawn(busOfNode(node)));
     } else if (typeof v === 'number') {
       const vv = voltsOfField(key, v);
       // Round to the millivolt so 0.208 kV and 208 V are one value despite float noise.
       if (vv !== null) volts.add(Math.round(vv * 1000) / 1000);
     } else if (typeof v === 'object' && v !== null) {
-      walk(v, depth + 1, buses, volts);
+      walk(v, depth + 1, buses, volts, drawn);
     }
   }
 }
@@ -107,18 +112,22 @@ export function summarizeCircuit(circuit: unknown): ContentSummary {
   const elements = Array.isArray(circuit.elements) ? circuit.elements : null;
   if (!elements) problems.push('The circuit has no element list.');
 
+  const names = circuitNames(circuit);
   const counts = new Map<string, number>();
   const buses = new Set<string>();
   const volts = new Set<number>();
   let unreadable = 0;
+  let drawnCount = 0;
   for (const element of elements ?? []) {
     if (!isRecord(element)) {
       unreadable += 1;
       continue;
     }
-    const type = typeof element.type === 'string' && element.type !== '' ? element.type : 'untyped';
+    if (typeof element.id === 'string' && isPrivateName(element.id)) continue;
+    drawnCount += 1;
+    const type = typeof element.type === 'string' && element.type !== '' ? typeWord(element.type) : 'untyped';
     counts.set(type, (counts.get(type) ?? 0) + 1);
-    walk(element, 0, buses, volts);
+    walk(element, 0, buses, volts, names.drawnBus);
   }
   if (unreadable > 0) problems.push(`${unreadable} element${unreadable === 1 ? ' is' : 's are'} not objects and were skipped.`);
 
@@ -144,7 +153,7 @@ export function summarizeCircuit(circuit: unknown): ContentSummary {
 
   return {
     frequencyHz,
-    elementCount: (elements ?? []).length,
+    elementCount: drawnCount + unreadable,
     byType,
     buses: [...buses].sort(natural.compare),
     nominalVolts: [...volts].sort((a, b) => a - b),

@@ -8,15 +8,26 @@ import { stubApi, type Handler } from '../../helpers/fake-api.ts';
 import { comment, ENGINEER, REVIEWER, SELF, STUDY_ID, team } from './review-fixtures.ts';
 import { renderReview } from './render-review.tsx';
 
-function setup(role: Role, items: Comment[], handlers: Record<string, Handler> = {}, resultRows: ResultRowChoice[] = []) {
+function setup(role: Role, items: Comment[], handlers: Record<string, Handler> = {}, resultRows: ResultRowChoice[] = [], circuit?: unknown) {
   const api = stubApi({
     'GET /api/studies/:id/comments': () => ({ body: { items } }),
     'GET /api/team': () => ({ body: team() }),
     ...handlers,
   });
-  renderReview(<CommentsPanel studyId={STUDY_ID} role={role} userId={SELF.id} elementIds={['SRC', 'DROP', 'LOAD-A']} resultRows={resultRows} />);
+  renderReview(<CommentsPanel studyId={STUDY_ID} role={role} userId={SELF.id} elementIds={['SRC', 'DROP', 'LOAD-A']} resultRows={resultRows} circuit={circuit} />);
   return api;
 }
+
+/** A circuit where LOAD-A's neutral was opened with one click: a hidden switch and a private terminal bus. */
+const OPENED = {
+  format: 'wyeward-circuit',
+  version: 1,
+  frequencyHz: 60,
+  elements: [
+    { type: 'load', id: 'LOAD-A', bus: 'LOAD-A~bus', connection: 'single', between: ['a', 'n'], each: { kw: 1 } },
+    { type: 'switch3', id: 'LOAD-A~bus~sw', from: 'HOUSE', to: 'LOAD-A~bus', conductors: ['a', 'b', 'c', 'n'], open: ['n'] },
+  ],
+};
 
 describe('comments', () => {
   it('renders a <script> body as text, keeps line breaks, and shows the anchor', async () => {
@@ -31,6 +42,25 @@ describe('comments', () => {
     expect(within(thread).getByText('Element DROP')).toBeInTheDocument();
   });
 
+  it('names threads on an opened connection and on its private terminal bus as the user drew them, never with internal names', async () => {
+    setup(
+      'viewer',
+      [
+        comment({ id: 'p1', body: 'Why is this open?', anchor: { elementId: 'LOAD-A~bus~sw' } }),
+        comment({ id: 'p2', body: 'Terminal voltage?', anchor: { resultRow: { table: 'bus-voltages', key: 'LOAD-A~bus' } } }),
+        comment({ id: 'p3', body: 'Current?', anchor: { resultRow: { table: 'neutral-currents', key: 'LOAD-A@LOAD-A~bus' } } }),
+      ],
+      {},
+      [],
+      OPENED,
+    );
+    const list = await screen.findByRole('list', { name: 'Comment threads' });
+    expect(within(list).getByRole('listitem', { name: /Connection LOAD-A–HOUSE/ })).toBeInTheDocument();
+    expect(within(list).getByRole('listitem', { name: /Bus voltages at LOAD-A terminals at HOUSE/ })).toBeInTheDocument();
+    expect(within(list).getByRole('listitem', { name: /Neutral current of LOAD-A at HOUSE/ })).toBeInTheDocument();
+    expect(list.textContent).not.toMatch(/~/);
+  });
+
   it('groups replies under their thread, marks resolved threads, and shows deleted comments as such', async () => {
     setup('viewer', [
       comment({ id: 'r1', body: 'Neutral current looks high at the house.', anchor: { resultRow: { table: 'neutral-currents', key: 'DROP@HOUSE' } } }),
@@ -39,7 +69,7 @@ describe('comments', () => {
     ]);
     const threads = await screen.findAllByRole('listitem');
     expect(threads).toHaveLength(2);
-    expect(threads[0]).toHaveAccessibleName('Thread by Dilys Arkwright, Result neutral-currents: DROP@HOUSE');
+    expect(threads[0]).toHaveAccessibleName('Thread by Dilys Arkwright, Neutral current of DROP at HOUSE');
     expect(within(threads[0]).getByRole('article', { name: 'Comment by Oskar Penhale' })).toHaveTextContent('Fixed in revision 3.');
     expect(threads[1]).toHaveTextContent('Resolved by Dilys Arkwright');
     expect(threads[1]).toHaveTextContent('Comment deleted.');

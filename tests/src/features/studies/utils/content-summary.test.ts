@@ -23,11 +23,12 @@ describe('summarizeCircuit', () => {
     });
     expect(s.frequencyHz).toBe(50);
     expect(s.elementCount).toBe(5);
+    // Types in words, never the engine's primitive names.
     expect(s.byType).toEqual([
-      { type: 'impedance', count: 2 },
-      { type: 'admittanceMatrix', count: 1 },
-      { type: 'voltageSource', count: 1 },
-      { type: 'zipLoad', count: 1 },
+      { type: 'impedance branch', count: 2 },
+      { type: 'admittance block', count: 1 },
+      { type: 'voltage source', count: 1 },
+      { type: 'ZIP load', count: 1 },
     ]);
     expect(s.buses).toEqual(['L1', 'S', 'T']);
     // The complex source EMF is not a rating; only the load's ratedVolts counts.
@@ -50,9 +51,26 @@ describe('summarizeCircuit', () => {
       ],
     });
     expect(s.byType[0]).toEqual({ type: 'load', count: 2 });
-    expect(s.byType.map((t) => t.type)).toEqual(['load', 'capacitorBank', 'line', 'source', 'transformer']);
+    expect(s.byType.map((t) => t.type)).toEqual(['load', 'capacitor bank', 'line', 'source', 'transformer bank']);
     expect(s.buses).toEqual(['B1', 'B2', 'B10']);
     expect(s.nominalVolts).toEqual([120, 208, 12470]);
+  });
+
+  it('counts what the user drew: the hidden switch of an opened neutral is neither an element nor its private bus a bus', () => {
+    const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+    const opened = {
+      ...demo,
+      elements: [
+        ...demo.elements.map((e) => (e.id === 'XFMR-SEC' ? { ...e, bus: 'XFMR-SEC~bus' } : e)),
+        { type: 'switch3', id: 'XFMR-SEC~bus~sw', from: 'PAD', to: 'XFMR-SEC~bus', conductors: ['a', 'b', 'c', 'n'], closed: true, open: ['n'] },
+      ],
+    };
+    const s = summarizeCircuit(opened);
+    // (P) The demo draws 6 elements (source, drop, three loads, rod) on 2 buses; 7 are stored.
+    expect(opened.elements).toHaveLength(7);
+    expect(s.elementCount).toBe(6);
+    expect(s.byType.map((t) => t.type)).not.toContain('switch');
+    expect(s.buses).toEqual(['HOUSE', 'PAD']);
   });
 
   it('uses a circuit-level bus list when there is one', () => {
@@ -115,6 +133,6 @@ describe('summarizeCircuit on the engine’s demo circuits', () => {
     const s = summarizeCircuit(deltaWyeBank);
     expect(s.nominalVolts).toEqual([208, 12470]);
     expect(s.byType.find((t) => t.type === 'load')?.count).toBe(2);
-    expect(s.byType.find((t) => t.type === 'transformer')?.count).toBe(1);
+    expect(s.byType.find((t) => t.type === 'transformer bank')?.count).toBe(1);
   });
 });
