@@ -1,10 +1,11 @@
 /** The audit trail: every sign-up, study change, invite and role change is recorded with who, what, when and which study. */
-import { and, count, desc, eq, like } from 'drizzle-orm';
+import { and, count, desc, eq, inArray, like } from 'drizzle-orm';
 import { AUDIT_PAGE_SIZE, type AuditAction, type AuditListResponse, type AuditQuery } from '../../shared/api/audit.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
-import { auditEvents, users } from '../db/schema.ts';
+import { auditEvents, studies, users } from '../db/schema.ts';
 import { isUuid } from '../errors.ts';
+import { actionWords, auditText } from './audit-words.ts';
 
 /** A Drizzle client or an open transaction (both can insert). */
 type Writer = Pick<Db, 'insert'>;
@@ -57,15 +58,45 @@ export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<Au
       .offset((q.page - 1) * AUDIT_PAGE_SIZE),
     db.select({ total: count() }).from(auditEvents).where(where),
   ]);
+  // Names of the members and studies the details point at (removed members and deleted studies included).
+  const ids = new Set<string>();
+  const studyIds = new Set<string>();
+  const collect = (v: unknown): void => {
+    if (typeof v === 'string' && isUuid(v)) ids.add(v);
+    else if (Array.isArray(v)) v.forEach(collect);
+    else if (v && typeof v === 'object') Object.values(v).forEach(collect);
+  };
+  for (const r of rows) {
+    collect(r.detail);
+    if (r.studyId) studyIds.add(r.studyId);
+  }
+  const [userRows, studyRows] = await Promise.all([
+    ids.size > 0 ? db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, [...ids])) : [],
+    ids.size + studyIds.size > 0
+      ? db
+          .select({ id: studies.id, name: studies.name, deletedAt: studies.deletedAt })
+          .from(studies)
+          .where(and(eq(studies.teamId, actor.teamId), inArray(studies.id, [...new Set([...ids, ...studyIds])])))
+      : [],
+  ]);
+  const userName = new Map(userRows.map((u) => [u.id, u.name]));
+  const studyById = new Map(studyRows.map((s) => [s.id, s]));
+  const names = { user: (id: string) => userName.get(id), study: (id: string) => studyById.get(id)?.name };
   return {
-    items: rows.map((r) => ({
-      id: r.id,
-      at: r.at.toISOString(),
-      actor: { id: r.actorId, name: r.actorName },
-      action: r.action,
-      studyId: r.studyId,
-      detail: r.detail,
-    })),
+    items: rows.map((r) => {
+      const s = r.studyId ? studyById.get(r.studyId) : undefined;
+      return {
+        id: r.id,
+        at: r.at.toISOString(),
+        actor: { id: r.actorId, name: r.actorName },
+        action: r.action,
+        actionLabel: actionWords(r.action),
+        studyId: r.studyId,
+        study: s ? { id: s.id, name: s.name, deleted: s.deletedAt !== null } : null,
+        text: auditText(r.action, r.detail, names),
+        detail: r.detail,
+      };
+    }),
     total,
   };
 }

@@ -1,10 +1,12 @@
 /**
  * Export of a study as a file and import of one. The export (`wyeward-study`) wraps the circuit
  * (a `wyeward-circuit` object that the engine and CLI read as is) with its layout and settings.
- * Import accepts that, or a bare `wyeward-circuit` file, and names every problem by its path in
- * the file.
+ * Import accepts that, or a bare `wyeward-circuit` file. Every problem reads like a form error
+ * ("element LOAD3: every phase › P (kW) must be a number", shared/review/circuit-issues.ts), keyed
+ * by its path in the file.
  */
 import { parseCircuit, InvalidCircuitError } from '../../shared/engine/index.ts';
+import { circuitIssueFields, circuitIssueWords } from '../../shared/review/circuit-issues.ts';
 import type { CreatedStudy, StudyContent } from '../../shared/api/studies.ts';
 import { studyFileSchema, type StudyFile } from '../../shared/api/transfer.ts';
 import type { Actor } from '../auth/index.ts';
@@ -33,9 +35,11 @@ export async function exportStudy(db: Db, actor: Actor, id: string): Promise<{ f
   return { file, fileName: `${slug}.wyeward.json` };
 }
 
+/** 400 with every problem in words (`fields`: path in the file → sentence); the message names the first. */
 function invalid(fields: Record<string, string>): AppError {
-  const [first] = Object.entries(fields);
-  return new AppError(400, 'validation', first ? `The file is not valid: ${first[0]}: ${first[1]}` : 'The file is not valid.', { fields });
+  const list = Object.values(fields);
+  const more = list.length > 1 ? ` (and ${list.length - 1} more problem${list.length > 2 ? 's' : ''})` : '';
+  return new AppError(400, 'validation', list.length > 0 ? `The file is not valid: ${list[0]}${more}.` : 'The file is not valid.', { fields });
 }
 
 /** The engine's own check of a circuit, with field paths prefixed by where the circuit sits in the file. */
@@ -44,10 +48,11 @@ function checkCircuit(circuit: unknown, prefix: string): void {
     parseCircuit(circuit);
   } catch (err) {
     if (!(err instanceof InvalidCircuitError)) throw err;
-    const fields: Record<string, string> = {};
-    for (const issue of err.issues) {
-      const key = issue.path === '(root)' ? prefix || '_' : `${prefix ? `${prefix}.` : ''}${issue.path}`;
-      fields[key] ??= issue.message;
+    const issues = err.issues.length > 0 ? err.issues : [{ path: '(root)', message: err.message }];
+    const fields = circuitIssueFields(circuit, issues.map((i) => ({ ...i, path: i.path === '(root)' ? '' : i.path })), prefix ? `${prefix}.` : '');
+    if (fields[prefix ? `${prefix}.` : ''] !== undefined) {
+      fields[prefix || '_'] = fields[prefix ? `${prefix}.` : ''];
+      delete fields[prefix ? `${prefix}.` : ''];
     }
     throw invalid(fields);
   }
@@ -65,7 +70,14 @@ export async function importStudy(db: Db, actor: Actor, body: unknown, nameOverr
     return createImportedStudy(db, actor, { name, description, content: { circuit }, format: 'wyeward-circuit' });
   }
   const parsed = studyFileSchema.safeParse(body);
-  if (!parsed.success) throw invalid(zodFields(parsed.error));
+  if (!parsed.success) {
+    const circuit = (body as { circuit?: unknown }).circuit;
+    const fields: Record<string, string> = {};
+    for (const [path, message] of Object.entries(zodFields(parsed.error))) {
+      fields[path] = path.startsWith('circuit.') ? circuitIssueWords(circuit, { path: path.slice('circuit.'.length), message }) : circuitIssueWords(body, { path, message });
+    }
+    throw invalid(fields);
+  }
   const f = parsed.data;
   checkCircuit(f.circuit, 'circuit');
   const content: StudyContent = {

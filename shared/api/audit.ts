@@ -32,12 +32,61 @@ export const AUDIT_ACTIONS = [
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
+/** Each action in words, for the trail and its filter. */
+export const AUDIT_ACTION_WORDS: Record<AuditAction, string> = {
+  'user.sign-up': 'signed up',
+  'study.create': 'study created',
+  'study.update': 'study changed',
+  'study.delete': 'study deleted',
+  'study.clone': 'study copied',
+  'study.template': 'template mark changed',
+  'invite.create': 'invitation sent',
+  'invite.revoke': 'invitation withdrawn',
+  'invite.accept': 'invitation accepted',
+  'member.role': 'role changed',
+  'member.remove': 'member removed',
+  'revision.create': 'revision saved',
+  'revision.restore': 'revision restored',
+  'review.request': 'review requested',
+  'review.approve': 'approved',
+  'review.request-changes': 'changes requested',
+  'review.reset': 'back to draft',
+  'comment.create': 'comment written',
+  'comment.edit': 'comment edited',
+  'comment.delete': 'comment deleted',
+  'comment.resolve': 'thread resolved',
+  'comment.reopen': 'thread reopened',
+  'attachment.upload': 'file attached',
+  'attachment.delete': 'file removed',
+  'study.import': 'study imported',
+  'study.export': 'study exported',
+};
+
+/** Action families in words, for the filter ("review." = every review action). */
+export const AUDIT_FAMILY_WORDS: Record<string, string> = {
+  'user.': 'sign-ups',
+  'study.': 'studies',
+  'invite.': 'invitations',
+  'member.': 'members',
+  'revision.': 'revisions',
+  'review.': 'reviews',
+  'comment.': 'comments',
+  'attachment.': 'attachments',
+};
+
 export const auditEventSchema = z.object({
   id: z.string(),
   at: isoDateSchema,
   actor: userRefSchema,
   action: z.string(),
+  /** The action in words ("review requested"). */
+  actionLabel: z.string(),
   studyId: z.string().nullable(),
+  /** The study's name, also for a deleted study (then `deleted` is true). */
+  study: z.object({ id: z.string(), name: z.string(), deleted: z.boolean() }).nullable(),
+  /** The detail as people read it: member and study names, revision numbers, never ids or JSON. */
+  text: z.string(),
+  /** The recorded detail as stored (for API clients; pages show `text`). */
   detail: z.unknown(),
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;

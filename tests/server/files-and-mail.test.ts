@@ -146,6 +146,27 @@ describe('export and import', () => {
     expect(Object.keys(bare.body.error.fields)).toContain('frequencyHz');
     expect((await engineer.post('/api/studies/import').send([1, 2])).status).toBe(400);
   });
+
+  it('words each problem like a form error, naming the element as the file names it (no schema paths or validator phrasing)', async () => {
+    const broken = { format: 'wyeward-study', version: 1, name: 'Broken', circuit: { ...circuit, elements: [{ type: 'source', id: 'S', bus: 'B', kvLL: -1 }] } };
+    const res = await engineer.post('/api/studies/import').send(broken);
+    expect(res.body.error.fields['circuit.elements[0].kvLL']).toBe('element S: rated voltage (kV, line to line) must be greater than 0');
+    expect(res.body.error.message).toBe('The file is not valid: element S: rated voltage (kV, line to line) must be greater than 0.');
+
+    const load3 = {
+      ...circuit,
+      elements: [...circuit.elements, { type: 'load', id: 'LOAD3', bus: 'B1', connection: 'single', between: ['a', 'n'], each: { kw: 'three', kvar: 0 } }],
+    };
+    const text = await engineer.post('/api/studies/import').send(load3);
+    expect(text.status).toBe(400);
+    expect(Object.values(text.body.error.fields)).toEqual(['element LOAD3: every phase › P (kW) must be a number']);
+
+    const bare = await engineer.post('/api/studies/import').send({ ...circuit, frequencyHz: 'sixty', elements: [{ type: 'warpdrive', id: 'W1' }] });
+    const words = Object.values(bare.body.error.fields) as string[];
+    expect(words).toContain('frequency (Hz) must be a number');
+    expect(words).toContain('element W1: “warpdrive” is not a kind of element Wyeward knows (the circuit file format lists them)');
+    for (const w of [...words, bare.body.error.message]) expect(w).not.toMatch(/Invalid input|expected number|elements\[|switch3|zipLoad|voltageSource/);
+  });
 });
 
 describe('mail through SMTP into the local fake server', () => {

@@ -1,5 +1,5 @@
 import { Link, useSearchParams } from 'react-router';
-import { AUDIT_ACTIONS, AUDIT_PAGE_SIZE } from '../../../../shared/api/audit.ts';
+import { AUDIT_ACTION_WORDS, AUDIT_ACTIONS, AUDIT_FAMILY_WORDS, AUDIT_PAGE_SIZE } from '../../../../shared/api/audit.ts';
 import { Button } from '../../../components/button.tsx';
 import { controlClass } from '../../../components/field.tsx';
 import { Loading } from '../../../components/loading.tsx';
@@ -9,23 +9,6 @@ import { useAudit, useAuditChoices, type AuditFilters } from '../api/get-audit.t
 
 /** Action families offered as prefixes ("review." = every review action). */
 const PREFIXES = [...new Set(AUDIT_ACTIONS.map((a) => `${a.split('.')[0]}.`))];
-
-/** An event's detail as "key: value · …", with member ids shown as names. */
-export function detailText(detail: unknown, names: ReadonlyMap<string, string>): string {
-  const value = (v: unknown): string => {
-    if (v === null || v === undefined) return '—';
-    if (typeof v === 'string') return names.get(v) ?? v;
-    if (Array.isArray(v)) return v.map(value).join(', ');
-    if (typeof v === 'object') return JSON.stringify(v);
-    return String(v);
-  };
-  if (detail && typeof detail === 'object' && !Array.isArray(detail)) {
-    return Object.entries(detail as Record<string, unknown>)
-      .map(([k, v]) => `${k}: ${value(v)}`)
-      .join(' · ');
-  }
-  return detail === null || detail === undefined ? '' : value(detail);
-}
 
 /** The team's audit trail for owners: filter by study, action and actor; 50 events a page, newest first. */
 export function AuditPage() {
@@ -38,8 +21,6 @@ export function AuditPage() {
   };
   const audit = useAudit(filters);
   const { studies, team } = useAuditChoices();
-  const studyName = new Map((studies.data?.items ?? []).map((s) => [s.id, s.name] as const));
-  const memberName = new Map((team.data?.members ?? []).map((m) => [m.userId, m.name] as const));
   const pages = audit.data ? Math.max(1, Math.ceil(audit.data.total / AUDIT_PAGE_SIZE)) : 1;
 
   const set = (key: string, value: string) =>
@@ -73,14 +54,14 @@ export function AuditPage() {
             <optgroup label="Families">
               {PREFIXES.map((p) => (
                 <option key={p} value={p}>
-                  {p}* (all)
+                  All {AUDIT_FAMILY_WORDS[p] ?? p}
                 </option>
               ))}
             </optgroup>
             <optgroup label="Actions">
               {AUDIT_ACTIONS.map((a) => (
                 <option key={a} value={a}>
-                  {a}
+                  {AUDIT_ACTION_WORDS[a]}
                 </option>
               ))}
             </optgroup>
@@ -123,17 +104,21 @@ export function AuditPage() {
                     <time dateTime={e.at}>{formatDateTime(e.at)}</time>
                   </td>
                   <td>{e.actor.name}</td>
-                  <td className="num">{e.action}</td>
+                  <td>{e.actionLabel}</td>
                   <td>
-                    {e.studyId ? (
-                      <Link to={`/studies/${e.studyId}`} className="text-accent hover:underline">
-                        {studyName.get(e.studyId) ?? 'a study'}
+                    {e.study && !e.study.deleted ? (
+                      <Link to={`/studies/${e.study.id}`} className="text-accent hover:underline">
+                        {e.study.name}
                       </Link>
+                    ) : e.study ? (
+                      <span>
+                        {e.study.name} <span className="text-ink-muted">(deleted)</span>
+                      </span>
                     ) : (
                       '—'
                     )}
                   </td>
-                  <td className="max-w-md break-words text-[12px] text-ink-muted">{detailText(e.detail, memberName)}</td>
+                  <td className="max-w-md break-words text-[12px] text-ink-muted">{e.text}</td>
                 </tr>
               ))}
             </tbody>

@@ -17,7 +17,7 @@ async function readJson(file: File): Promise<{ ok: true; value: unknown } | { ok
   }
 }
 
-/** "Import study": upload a study file (or a bare circuit file) to make a new study; per-field errors are listed by path. */
+/** "Import study": upload a study file (or a bare circuit file) to make a new study; each problem is listed as the server words it ("element LOAD3: … must be a number"). */
 export function ImportStudyButton() {
   const [open, setOpen] = useState(false);
   const [file, setFile] = useState<File | null>(null);
@@ -78,9 +78,7 @@ export function ImportStudyButton() {
               {fields.length > 0 ? (
                 <ul aria-label="Problems in the file" className="list-disc pl-4">
                   {fields.map(([path, message]) => (
-                    <li key={path}>
-                      <span className="num font-semibold">{path}</span>: {message}
-                    </li>
+                    <li key={path}>{message}</li>
                   ))}
                 </ul>
               ) : (

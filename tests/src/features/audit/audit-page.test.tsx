@@ -7,22 +7,54 @@ import { renderApp } from '../../helpers/render-app.tsx';
 import { REVIEWER, team } from '../review/review-fixtures.ts';
 
 describe('audit page', () => {
-  it('filters by action family and actor through the query, and shows member ids in details as names', async () => {
+  it('filters by action family and actor through the query, and shows each event in words with member and study names', async () => {
     const s = study({ name: 'Tallow Lane drop' });
     const api = stubApi({
       'GET /api/auth/me': () => ({ body: me('owner') }),
       'GET /api/team': () => ({ body: team() }),
       'GET /api/studies': () => ({ body: { items: [s], total: 1, page: 1, pageSize: 100 } }),
       'GET /api/audit': () => ({
-        body: { items: [{ id: 'a1', at: '2026-11-02T11:00:00.000Z', actor: REVIEWER, action: 'review.request', studyId: s.id, detail: { revision: 2, reviewers: [REVIEWER.id] } }], total: 1 },
+        body: {
+          items: [
+            {
+              id: 'a1',
+              at: '2026-11-02T11:00:00.000Z',
+              actor: REVIEWER,
+              action: 'review.request',
+              actionLabel: 'review requested',
+              studyId: s.id,
+              study: { id: s.id, name: 'Tallow Lane drop', deleted: false },
+              text: 'asked Dilys Arkwright to review revision 2',
+              detail: { revision: 2, reviewers: [REVIEWER.id] },
+            },
+            {
+              id: 'a2',
+              at: '2026-11-02T10:00:00.000Z',
+              actor: REVIEWER,
+              action: 'study.delete',
+              actionLabel: 'study deleted',
+              studyId: 'f2b7c2f4-5c55-4a3e-9a43-0b9a1f3f9a10',
+              study: { id: 'f2b7c2f4-5c55-4a3e-9a43-0b9a1f3f9a10', name: 'Old drop', deleted: true },
+              text: 'deleted “Old drop”',
+              detail: { name: 'Old drop' },
+            },
+          ],
+          total: 2,
+        },
       }),
     });
     const user = userEvent.setup();
     renderApp('/audit');
     const table = await screen.findByRole('table', { name: 'Audit events' });
-    const row = within(table).getAllByRole('row')[1];
-    expect(row).toHaveTextContent('revision: 2 · reviewers: Dilys Arkwright');
+    const [, row, deleted] = within(table).getAllByRole('row');
+    expect(row).toHaveTextContent('review requested');
+    expect(row).toHaveTextContent('asked Dilys Arkwright to review revision 2');
     expect(within(row).getByRole('link', { name: 'Tallow Lane drop' })).toHaveAttribute('href', `/studies/${s.id}`);
+    // A deleted study keeps its name, without a link to a page that is gone.
+    expect(deleted).toHaveTextContent('Old drop (deleted)');
+    expect(within(deleted).queryByRole('link')).not.toBeInTheDocument();
+    // No raw action names, ids or JSON on the page.
+    expect(table.textContent).not.toMatch(/review\.request|[{}]|[0-9a-f]{8}-[0-9a-f]{4}/);
     await user.selectOptions(screen.getByLabelText('Action'), 'review.');
     await user.selectOptions(screen.getByLabelText('Actor'), REVIEWER.id);
     await waitFor(() => {

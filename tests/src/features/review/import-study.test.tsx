@@ -6,12 +6,12 @@ import { apiError, stubApi } from '../../helpers/fake-api.ts';
 import { renderReview } from './render-review.tsx';
 
 describe('import a study file', () => {
-  it('lists the per-field errors of a refused file', async () => {
+  it('lists the problems of a refused file as the server words them, without the paths in the file', async () => {
     const posted: unknown[] = [];
     stubApi({
       'POST /api/studies/import': (req) => {
         posted.push(req.body);
-        return apiError(400, 'validation', 'The file has problems', { fields: { 'circuit.elements.2.kvLL': 'Must be greater than 0', name: 'Name is required' } });
+        return apiError(400, 'validation', 'The file has problems', { fields: { 'circuit.elements[2].each.kw': 'element LOAD3: every phase › P (kW) must be a number', name: 'Name is required' } });
       },
     });
     const user = userEvent.setup();
@@ -22,7 +22,8 @@ describe('import a study file', () => {
     await user.upload(within(dialog).getByLabelText('Study file'), file);
     await user.click(within(dialog).getByRole('button', { name: 'Import' }));
     const problems = await within(dialog).findByRole('list', { name: 'Problems in the file' });
-    expect(within(problems).getAllByRole('listitem').map((li) => li.textContent)).toEqual(['circuit.elements.2.kvLL: Must be greater than 0', 'name: Name is required']);
+    expect(within(problems).getAllByRole('listitem').map((li) => li.textContent)).toEqual(['element LOAD3: every phase › P (kW) must be a number', 'Name is required']);
+    expect(problems).not.toHaveTextContent('circuit.elements');
     expect(posted).toEqual([{ format: 'wyeward-study', version: 1, name: '' }]);
   });
 
