@@ -176,6 +176,8 @@ export const reviewEvents = pgTable(
     revision: integer('revision'),
     reviewers: jsonb('reviewers').$type<string[]>().notNull().default([]),
     message: text('message').notNull().default(''),
+    /** On an approval: how many violations the approver acknowledged (null when the revision had none). */
+    acknowledgedViolations: integer('acknowledged_violations'),
     at: ts('at').notNull().defaultNow(),
   },
   (t) => [index('review_events_study_idx').on(t.studyId, t.at)],

@@ -27,13 +27,13 @@ export function studyLink(appUrl: string, studyId: string): string {
 export async function notify(
   db: Db,
   mailer: Mailer,
-  n: { kind: NotificationKind; teamId: string; studyId: string; actorId: string; recipients: Recipient[]; text: string; subject: string; quote?: string; link: string },
+  n: { kind: NotificationKind; teamId: string; studyId: string; actorId: string; recipients: Recipient[]; text: string; subject: string; quote?: string; link: string; details?: string[] },
 ): Promise<void> {
   const seen = new Set<string>();
   const to = n.recipients.filter((r) => r.id !== n.actorId && !seen.has(r.id) && seen.add(r.id));
   if (to.length === 0) return;
   await db.insert(notifications).values(to.map((r) => ({ userId: r.id, teamId: n.teamId, kind: n.kind, studyId: n.studyId, actorId: n.actorId, text: n.text })));
-  const body = notificationMail({ headline: n.text, quote: n.quote, link: n.link });
+  const body = notificationMail({ headline: n.text, details: n.details, quote: n.quote, link: n.link });
   for (const r of to) {
     await mailer.send({ teamId: n.teamId, to: r.email, subject: n.subject, text: body.text, html: body.html });
   }

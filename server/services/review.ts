@@ -18,7 +18,8 @@ import { AppError, fieldError, isUuid, notFound } from '../errors.ts';
 import type { Mailer } from '../mail/index.ts';
 import { recordAudit } from './audit.ts';
 import { notify, recipients, studyLink } from './notifications.ts';
-import { ensureRevision, getRevision } from './revisions.ts';
+import { revisionRisk, riskSentence, type RevisionRisk } from '../../shared/review/risk.ts';
+import { ensureRevision, getRevision, type Conn } from './revisions.ts';
 import { getStudy, visible } from './studies.ts';
 
 const STATUS_WORDS: Record<StudyStatus, string> = {
@@ -40,7 +41,14 @@ function illegal(action: ReviewActionRequest['action'], status: StudyStatus): st
   return `This study is ${STATUS_WORDS[status]}, not in review; its author must request a review first.`;
 }
 
-/** The review record of a study: status, the open (or last) request, the approved revision and every event. */
+/** The danger of revision `n` of a study (violations, the worst one in the words of the diagram), or null when there is no such revision. */
+export async function riskOf(db: Conn, studyId: string, n: number | null | undefined): Promise<RevisionRisk | null> {
+  if (n === null || n === undefined) return null;
+  const rev = await getRevision(db, studyId, n).catch(() => null);
+  return rev ? revisionRisk(rev.number, rev.summary, rev.content.circuit) : null;
+}
+
+/** The review record of a study: status, the open (or last) request, the approved revision, every event, and the danger of the revision concerned. */
 export async function getReviewState(db: Db, actor: Actor, id: string): Promise<ReviewState> {
   const study = await getStudy(db, actor, id);
   const rows = await db
@@ -61,8 +69,16 @@ export async function getReviewState(db: Db, actor: Actor, id: string): Promise<
     revision: e.revision,
     reviewers: e.reviewers.map((r) => ({ id: r, name: names.get(r) ?? '(removed)' })),
     message: e.message,
+    acknowledgedViolations: e.acknowledgedViolations ?? null,
   }));
-  return { status: study.status, review: study.review ?? null, approvedRevision: study.approvedRevision ?? null, events };
+  const concerned = study.status === 'in-review' ? study.review?.revision : (study.approvedRevision ?? study.revision ?? study.review?.revision);
+  return {
+    status: study.status,
+    review: study.review ?? null,
+    approvedRevision: study.approvedRevision ?? null,
+    events,
+    risk: await riskOf(db, id, concerned),
+  };
 }
 
 /** Applies one review action; answers the new review state. */
@@ -103,7 +119,7 @@ export async function reviewAction(db: Db, mailer: Mailer, appUrl: string, actor
         message: input.message ?? '',
       });
       await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'review.request', studyId: id, detail: { revision: rev.number, reviewers: chosen } });
-      return { name: s.name, revision: rev.number, notifyIds: chosen };
+      return { name: s.name, revision: rev.number, notifyIds: chosen, risk: await riskOf(tx, id, rev.number) };
     }
 
     // approve or request-changes
@@ -112,7 +128,9 @@ export async function reviewAction(db: Db, mailer: Mailer, appUrl: string, actor
     if (!isChosen && actor.role !== 'owner') {
       throw new AppError(403, 'forbidden', 'Only the reviewers chosen for this study, or an owner, can approve it or request changes.');
     }
-    const revisionAuthor = (await getRevision(tx, id, reviewRevision)).author.id;
+    const reviewed = await getRevision(tx, id, reviewRevision);
+    const revisionAuthor = reviewed.author.id;
+    const risk = revisionRisk(reviewed.number, reviewed.summary, reviewed.content.circuit);
     if (actor.userId === s.reviewRequestedBy || actor.userId === revisionAuthor) {
       throw new AppError(
         403,
@@ -122,6 +140,14 @@ export async function reviewAction(db: Db, mailer: Mailer, appUrl: string, actor
     }
     if (input.revision !== undefined && input.revision !== reviewRevision) {
       throw new AppError(409, 'conflict', `Revision ${reviewRevision} is under review, not revision ${input.revision}; reload the study.`);
+    }
+    // Sign-off knows the danger: a revision with violations is approved only when the approver says so.
+    const acknowledged = input.action === 'approve' && risk.violationCount > 0 ? risk.violationCount : null;
+    if (acknowledged !== null && input.acknowledgeViolations !== true) {
+      throw fieldError(
+        'acknowledgeViolations',
+        `${riskSentence(risk)} Acknowledge the ${risk.violationCount === 1 ? 'violation' : 'violations'} to approve this revision anyway.`,
+      );
     }
     const toStatus: StudyStatus = input.action === 'approve' ? 'approved' : 'changes-requested';
     await tx
@@ -138,29 +164,40 @@ export async function reviewAction(db: Db, mailer: Mailer, appUrl: string, actor
       revision: reviewRevision,
       reviewers: s.reviewers,
       message: input.message ?? '',
+      acknowledgedViolations: acknowledged,
     });
     await recordAudit(tx, {
       teamId: actor.teamId,
       actorId: actor.userId,
       action: input.action === 'approve' ? 'review.approve' : 'review.request-changes',
       studyId: id,
-      detail: { revision: reviewRevision },
+      detail: { revision: reviewRevision, ...(acknowledged !== null ? { violations: acknowledged } : {}) },
     });
-    return { name: s.name, revision: reviewRevision, notifyIds: [...new Set([s.reviewRequestedBy!, revisionAuthor])] };
+    return { name: s.name, revision: reviewRevision, notifyIds: [...new Set([s.reviewRequestedBy!, revisionAuthor])], risk };
   });
 
   const to = await recipients(db, outcome.notifyIds);
   const link = studyLink(appUrl, id);
   const base = { teamId: actor.teamId, studyId: id, actorId: actor.userId, recipients: to, quote: input.message || undefined, link };
+  // Review and approval mail state the revision's violations (count and the worst one) beside the caution.
+  const danger = outcome.risk ? [riskSentence(outcome.risk)] : [];
   if (input.action === 'request') {
     await notify(db, mailer, {
       ...base,
       kind: 'review-requested',
       text: `${actor.name} asks you to review "${outcome.name}" (revision ${outcome.revision}).`,
       subject: `Review requested: ${outcome.name}`,
+      details: danger,
     });
   } else if (input.action === 'approve') {
-    await notify(db, mailer, { ...base, kind: 'approved', text: `${actor.name} approved "${outcome.name}" (revision ${outcome.revision}).`, subject: `Approved: ${outcome.name}` });
+    const ack = outcome.risk && outcome.risk.violationCount > 0 ? ` acknowledging ${outcome.risk.violationCount} violation${outcome.risk.violationCount === 1 ? '' : 's'}` : '';
+    await notify(db, mailer, {
+      ...base,
+      kind: 'approved',
+      text: `${actor.name} approved "${outcome.name}" (revision ${outcome.revision})${ack}.`,
+      subject: `Approved: ${outcome.name}`,
+      details: danger,
+    });
   } else {
     await notify(db, mailer, {
       ...base,

@@ -12,16 +12,19 @@ import {
   type StudyContent,
   type StudyDetail,
   type StudySummary,
+  type TemplateListResponse,
   type UpdateStudyRequest,
 } from '../../shared/api/studies.ts';
 import type { RevisionSummary } from '../../shared/api/revisions.ts';
 import { PRIVATE_MARK } from '../../shared/review/user-names.ts';
+import { revisionRisk } from '../../shared/review/risk.ts';
+import type { ResultsSummary } from '../../shared/review/summary.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
 import { reviewEvents, studies, users } from '../db/schema.ts';
 import { AppError, isUuid, notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
-import { appendRevision, ensureRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
+import { appendRevision, ensureRevision, getRevision, latestRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
 import { validateCircuit } from './study-content.ts';
 
 const createdByUser = alias(users, 'created_by_user');
@@ -381,15 +384,26 @@ export async function cloneStudy(db: Db, actor: Actor, id: string, input: CloneS
   });
 }
 
-/** The templates of the team (approved studies marked as templates), as in `GET /api/studies?template=true`. */
-export async function listTemplates(db: Db, actor: Actor): Promise<{ items: StudySummary[] }> {
+/**
+ * The templates of the team (approved studies marked as templates), as in `GET /api/studies?template=true`,
+ * each with the danger of the revision a new study would copy (its violations and the worst one).
+ */
+export async function listTemplates(db: Db, actor: Actor): Promise<TemplateListResponse> {
   const rows = await db
-    .select(summaryColumns)
+    .select({ ...summaryColumns, approvedRevision: studies.approvedRevision })
     .from(studies)
     .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
     .innerJoin(updatedByUser, eq(updatedByUser.id, studies.updatedBy))
     .where(and(visible(actor), eq(studies.isTemplate, true)))
     .orderBy(asc(sql`lower(${studies.name})`), asc(studies.id))
     .limit(500);
-  return { items: rows.map(toSummary) };
+  const items = await Promise.all(
+    rows.map(async (r) => {
+      const rev = r.approvedRevision !== null ? await getRevision(db, r.id, r.approvedRevision).catch(() => null) : null;
+      const latest = rev ?? (await latestRevision(db, r.id));
+      const risk = latest ? revisionRisk(latest.number, latest.summary as ResultsSummary, (latest.content as StudyContent).circuit) : null;
+      return { ...toSummary(r), risk };
+    }),
+  );
+  return { items };
 }

@@ -61,3 +61,16 @@ export type UserRef = z.infer<typeof userRefSchema>;
 
 /** Timestamps travel as ISO 8601 strings (UTC). */
 export const isoDateSchema = z.string();
+
+/**
+ * The danger of one revision, in short (shared/review/risk.ts computes it): whether it solves,
+ * its violation and warning counts, and the worst violation in the words of the diagram.
+ */
+export const revisionRiskSchema = z.object({
+  revision: z.number().int(),
+  solved: z.boolean(),
+  violationCount: z.number().int(),
+  warningCount: z.number().int(),
+  worst: z.string().nullable(),
+  error: z.string().nullable(),
+});

@@ -1,6 +1,6 @@
 /** Review states (`/api/studies/:id/review`): request → approve | request changes; edits return the study to draft. */
 import { z } from 'zod';
-import { isoDateSchema, userRefSchema } from './common.ts';
+import { isoDateSchema, revisionRiskSchema, userRefSchema } from './common.ts';
 import { studyStatusSchema } from './studies.ts';
 
 export const REVIEW_ACTIONS = ['request', 'approve', 'request-changes'] as const;
@@ -15,6 +15,11 @@ export const reviewActionRequestSchema = z
     message: z.string().trim().max(5000, 'Message is at most 5000 characters').optional(),
     /** The revision the caller looked at; approval is refused when the study has moved on. */
     revision: z.number().int().min(1).optional(),
+    /**
+     * Approving a revision with violations: the approver has read them (count and worst one) and
+     * approves anyway. Without it such an approval is refused (400); the count is recorded.
+     */
+    acknowledgeViolations: z.boolean().optional(),
   })
   .superRefine((v, ctx) => {
     if (v.action === 'request' && (!v.reviewers || v.reviewers.length === 0)) {
@@ -36,6 +41,8 @@ export const reviewEventSchema = z.object({
   revision: z.number().int().nullable(),
   reviewers: z.array(userRefSchema),
   message: z.string(),
+  /** On an approval: the violations the approver acknowledged (null when there were none). */
+  acknowledgedViolations: z.number().int().nullable(),
 });
 export type ReviewEvent = z.infer<typeof reviewEventSchema>;
 
@@ -45,5 +52,7 @@ export const reviewStateSchema = z.object({
   review: z.object({ requestedBy: userRefSchema, reviewers: z.array(userRefSchema), revision: z.number().int() }).nullable(),
   approvedRevision: z.number().int().nullable(),
   events: z.array(reviewEventSchema),
+  /** The danger of the revision under review (else the approved one, else the latest): what a sign-off must state. */
+  risk: revisionRiskSchema.nullable(),
 });
 export type ReviewState = z.infer<typeof reviewStateSchema>;

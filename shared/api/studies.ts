@@ -1,6 +1,6 @@
 /** Studies (`/api/studies/*`): team-scoped circuit studies with optimistic versioning. */
 import { z } from 'zod';
-import { isoDateSchema, userRefSchema } from './common.ts';
+import { isoDateSchema, revisionRiskSchema, userRefSchema } from './common.ts';
 
 export const STUDY_STATUSES = ['draft', 'in-review', 'changes-requested', 'approved'] as const;
 export const studyStatusSchema = z.enum(STUDY_STATUSES);
@@ -123,3 +123,10 @@ export const versionConflictBodySchema = z.object({
   current: studyDetailSchema,
 });
 export type VersionConflictBody = z.infer<typeof versionConflictBodySchema>;
+
+/** GET /api/templates: the team's templates, each with the danger of the revision a new study copies. */
+export const templateListResponseSchema = z.object({
+  items: z.array(studySummarySchema.extend({ risk: revisionRiskSchema.nullable() })),
+});
+export type TemplateListResponse = z.infer<typeof templateListResponseSchema>;
+export type TemplateSummary = TemplateListResponse['items'][number];

@@ -4,3 +4,4 @@ export * from './diff.ts';
 export * from './mentions.ts';
 export * from './user-names.ts';
 export * from './parameter-words.ts';
+export * from './risk.ts';

@@ -206,7 +206,7 @@ const rows: Row[] = [
   {
     name: 'POST /api/studies/:id/review (approve)',
     expect: m(200, 403, 200, 403, 404),
-    send: async (a) => a.post(`/api/studies/${await inReview()}/review`).send({ action: 'approve' }),
+    send: async (a) => a.post(`/api/studies/${await inReview()}/review`).send({ action: 'approve', acknowledgeViolations: true }),
   },
   {
     name: 'POST /api/studies/:id/review (request-changes)',

@@ -151,7 +151,7 @@ async function studyIn(state: 'draft' | 'in-review' | 'changes-requested' | 'app
   if (state === 'draft') return s.id;
   expect((await review('engineer', s.id, { action: 'request', reviewers: [people.reviewer.id] })).status).toBe(200);
   if (state === 'in-review') return s.id;
-  const action = state === 'approved' ? { action: 'approve' } : { action: 'request-changes', message: 'Add the rod resistance' };
+  const action = state === 'approved' ? { action: 'approve', acknowledgeViolations: true } : { action: 'request-changes', message: 'Add the rod resistance' };
   expect((await review('reviewer', s.id, action)).status).toBe(200);
   return s.id;
 }
@@ -175,7 +175,7 @@ describe('review state machine: every transition × every role', () => {
     it.each(WHO)('as %s', async (who) => {
       const id = await studyIn(c.from);
       const reviewers = [who === 'reviewer2' ? people.reviewer.id : people.reviewer2.id];
-      const body = c.action === 'request' ? { action: 'request', reviewers } : c.action === 'approve' ? { action: 'approve' } : { action: 'request-changes', message: 'Check the rod' };
+      const body = c.action === 'request' ? { action: 'request', reviewers } : c.action === 'approve' ? { action: 'approve', acknowledgeViolations: true } : { action: 'request-changes', message: 'Check the rod' };
       const res = await review(who, id, body);
       expect(res.status, JSON.stringify(res.body)).toBe(c.expect[who]);
       const after = await study(id);
@@ -196,7 +196,7 @@ describe('review rules', () => {
     // An owner submits their own study, naming another owner too: they still cannot approve it.
     const mine = await newStudy('owner');
     expect((await review('owner', mine.id, { action: 'request', reviewers: [people.owner2.id] })).status).toBe(200);
-    const self = await review('owner', mine.id, { action: 'approve' });
+    const self = await review('owner', mine.id, { action: 'approve', acknowledgeViolations: true });
     expect(self.status).toBe(403);
     expect(self.body.error.message).toBe('You cannot approve your own study; another reviewer or owner must.');
 
@@ -205,9 +205,9 @@ describe('review rules', () => {
     const edit = await as.owner2.patch(`/api/studies/${s.id}`).send({ version: 1, content: { circuit: repaired } });
     expect(edit.status).toBe(200);
     expect((await review('engineer', s.id, { action: 'request', reviewers: [people.owner2.id] })).status).toBe(200);
-    expect((await review('owner2', s.id, { action: 'approve' })).status).toBe(403);
+    expect((await review('owner2', s.id, { action: 'approve', acknowledgeViolations: true })).status).toBe(403);
     expect((await review('owner2', s.id, { action: 'request-changes', message: 'x' })).status).toBe(403);
-    expect((await review('owner', s.id, { action: 'approve' })).status).toBe(200);
+    expect((await review('owner', s.id, { action: 'approve', acknowledgeViolations: true })).status).toBe(200);
   });
 
   it('validates the reviewers of a request', async () => {
@@ -227,9 +227,9 @@ describe('review rules', () => {
 
   it('binds an approval to the revision under review; an edit afterwards returns to draft and keeps the record', async () => {
     const id = await studyIn('in-review');
-    const wrong = await review('reviewer', id, { action: 'approve', revision: 7 });
+    const wrong = await review('reviewer', id, { action: 'approve', acknowledgeViolations: true, revision: 7 });
     expect(wrong.status).toBe(409);
-    const ok = await review('reviewer', id, { action: 'approve', revision: 1, message: 'Matches the field readings' });
+    const ok = await review('reviewer', id, { action: 'approve', acknowledgeViolations: true, revision: 1, message: 'Matches the field readings' });
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: 'approved', approvedRevision: 1, review: { revision: 1, requestedBy: { id: people.engineer.id }, reviewers: [{ id: people.reviewer.id }] } });
 
@@ -265,7 +265,7 @@ describe('review rules', () => {
     expect(fixed.body.status).toBe('draft');
     await review('engineer', s.id, { action: 'request', reviewers: [people.reviewer2.id] });
     expect((await study(s.id)).review.revision).toBe(2);
-    await review('reviewer2', s.id, { action: 'approve', revision: 2 });
+    await review('reviewer2', s.id, { action: 'approve', acknowledgeViolations: true, revision: 2 });
     expect((await mailTo('engineer')).map((m) => m.subject)).toContain(`Approved: ${name}`);
 
     const notes = await as.engineer.get('/api/notifications');

@@ -1,11 +1,11 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { CreatedStudy, StudyDetail, StudySummary } from '../../../../shared/api/studies.ts';
+import type { CreatedStudy, StudyDetail, TemplateListResponse } from '../../../../shared/api/studies.ts';
 import { api } from '../../../lib/api-client.ts';
 import { reviewKeys, studyPath } from './keys.ts';
 
-/** GET /api/templates: approved studies marked as templates. */
-export function getTemplates(signal?: AbortSignal): Promise<{ items: StudySummary[] }> {
-  return api.get<{ items: StudySummary[] }>('/api/templates', { signal });
+/** GET /api/templates: approved studies marked as templates, each with the danger of the revision a copy starts from. */
+export function getTemplates(signal?: AbortSignal): Promise<TemplateListResponse> {
+  return api.get<TemplateListResponse>('/api/templates', { signal });
 }
 
 export function templatesQueryOptions() {

@@ -26,6 +26,12 @@ export function ReviewEvents({ events }: { events: ReviewEvent[] }) {
             ) : null}
             {e.action === 'request' && e.reviewers.length > 0 ? <> from {e.reviewers.map((r) => r.name).join(', ')}</> : null}
           </p>
+          {e.action === 'approve' && e.acknowledgedViolations ? (
+            <p className="text-[12px] text-danger">
+              <span aria-hidden="true">▲ </span>
+              Approved acknowledging {e.acknowledgedViolations === 1 ? '1 violation' : `${e.acknowledgedViolations} violations`} of that revision.
+            </p>
+          ) : null}
           <p className="num text-[12px] text-ink-muted">
             <time dateTime={e.at}>{formatDateTime(e.at)}</time>
           </p>

@@ -14,6 +14,7 @@ import { canRequestReview, canWrite, decisionBlocker, reviewDiffHref } from '../
 import { DecisionDialog } from './decision-dialog.tsx';
 import { RequestReviewDialog } from './request-review-dialog.tsx';
 import { ReviewEvents } from './review-events.tsx';
+import { RiskNotice } from './risk-notice.tsx';
 import { TemplateToggle } from './template-toggle.tsx';
 
 const WHY_NOT: Record<string, string> = {
@@ -59,6 +60,7 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
           </Link>
         </div>
       ) : null}
+      {state.status === 'in-review' && state.risk ? <RiskNotice risk={state.risk} compact /> : null}
 
       {lastChanges ? (
         <div className="rounded-[3px] border border-caution/40 bg-caution-soft px-3 py-2 text-sm">
@@ -130,7 +132,7 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
         <RequestReviewDialog studyId={studyId} selfId={userId} open onClose={() => setDialog(null)} again={state.review?.reviewers.map((r) => r.id)} />
       ) : null}
       {(dialog === 'approve' || dialog === 'request-changes') && underReview !== null ? (
-        <DecisionDialog studyId={studyId} kind={dialog} revision={underReview} open onClose={() => setDialog(null)} />
+        <DecisionDialog studyId={studyId} kind={dialog} revision={underReview} risk={state.risk} open onClose={() => setDialog(null)} />
       ) : null}
     </section>
   );

@@ -1,14 +1,17 @@
+import { useState } from 'react';
 import { Link, useNavigate } from 'react-router';
 import type { Role } from '../../../../shared/api/common.ts';
-import type { StudySummary } from '../../../../shared/api/studies.ts';
+import type { TemplateSummary } from '../../../../shared/api/studies.ts';
 import { TemplateBadge } from '../../../components/badges.tsx';
 import { Button } from '../../../components/button.tsx';
+import { Dialog } from '../../../components/dialog.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { formatDateTime, plural } from '../../../lib/format.ts';
 import { useReview } from '../api/get-review.ts';
 import { useNewFromTemplate, useTemplates } from '../api/templates.ts';
 import { canWrite } from '../utils/permissions.ts';
+import { RiskNotice } from './risk-notice.tsx';
 
 /** Who approved the template's current revision (from its review history). */
 function ApprovedBy({ studyId }: { studyId: string }) {
@@ -24,9 +27,17 @@ function ApprovedBy({ studyId }: { studyId: string }) {
   );
 }
 
-function TemplateCard({ t, role }: { t: StudySummary; role: Role }) {
+/**
+ * One template: what it is, who approved it, and the danger of the revision a copy starts from
+ * (its violations and the worst one, with the caution). "New from template" on a revision with
+ * violations first says so and asks to go on.
+ */
+function TemplateCard({ t, role }: { t: TemplateSummary; role: Role }) {
   const start = useNewFromTemplate();
   const navigate = useNavigate();
+  const [confirming, setConfirming] = useState(false);
+  const dangerous = t.risk !== null && (!t.risk.solved || t.risk.violationCount > 0);
+  const go = () => start.mutate({ id: t.id }, { onSuccess: (created) => navigate(`/studies/${created.id}`) });
   return (
     <li className="flex flex-col gap-2 rounded-[4px] border border-rule bg-panel px-4 py-3">
       <article aria-labelledby={`tpl-${t.id}`} className="flex flex-1 flex-col gap-2">
@@ -49,6 +60,7 @@ function TemplateCard({ t, role }: { t: StudySummary; role: Role }) {
           <dt className="text-ink-muted">Updated</dt>
           <dd className="num">{formatDateTime(t.updatedAt)}</dd>
         </dl>
+        {t.risk ? <RiskNotice risk={t.risk} compact /> : null}
       </article>
       {canWrite(role) ? (
         <Button
@@ -56,12 +68,25 @@ function TemplateCard({ t, role }: { t: StudySummary; role: Role }) {
           aria-label={`New study from template ${t.name}`}
           busy={start.isPending}
           busyText="Starting…"
-          onClick={() => start.mutate({ id: t.id }, { onSuccess: (created) => navigate(`/studies/${created.id}`) })}
+          onClick={() => (dangerous ? setConfirming(true) : go())}
         >
           New from template
         </Button>
       ) : null}
       {start.isError ? <Notice tone="error">{start.error.message}</Notice> : null}
+      {confirming && t.risk ? (
+        <Dialog open title={`Start from “${t.name}”?`} description="The new study copies this template's circuit, with the results below." onClose={() => setConfirming(false)} width="max-w-lg">
+          <div className="flex flex-col gap-3">
+            <RiskNotice risk={t.risk} />
+            <div className="flex justify-end gap-2">
+              <Button onClick={() => setConfirming(false)}>Cancel</Button>
+              <Button variant="primary" busy={start.isPending} busyText="Starting…" onClick={go}>
+                Start a new study anyway
+              </Button>
+            </div>
+          </div>
+        </Dialog>
+      ) : null}
     </li>
   );
 }

@@ -39,7 +39,7 @@ export function revision(number: number, author = ENGINEER, overrides: Partial<R
 }
 
 export function reviewState(overrides: Partial<ReviewState> = {}): ReviewState {
-  return { status: 'draft', review: null, approvedRevision: null, events: [], ...overrides };
+  return { status: 'draft', review: null, approvedRevision: null, events: [], risk: null, ...overrides };
 }
 
 /** A study in review: `requestedBy` asked `reviewers` to look at revision 2. */
@@ -48,7 +48,7 @@ export function inReview(requestedBy = ENGINEER, reviewers = [REVIEWER]): Review
     status: 'in-review',
     review: { requestedBy, reviewers, revision: 2 },
     events: [
-      { id: 'e1', at: '2026-11-02T11:00:00.000Z', actor: requestedBy, action: 'request', fromStatus: 'draft', toStatus: 'in-review', revision: 2, reviewers, message: 'Please check the neutral.' },
+      { id: 'e1', at: '2026-11-02T11:00:00.000Z', actor: requestedBy, action: 'request', fromStatus: 'draft', toStatus: 'in-review', revision: 2, reviewers, message: 'Please check the neutral.', acknowledgedViolations: null },
     ],
   });
 }

@@ -145,7 +145,7 @@ describe('review actions by role and state', () => {
       status: 'approved',
       approvedRevision: 2,
       review: { requestedBy: ENGINEER, reviewers: [REVIEWER], revision: 2 },
-      events: [{ id: 'e2', at: '2026-11-03T09:00:00.000Z', actor: REVIEWER, action: 'approve', fromStatus: 'in-review', toStatus: 'approved', revision: 2, reviewers: [], message: '' }],
+      events: [{ id: 'e2', at: '2026-11-03T09:00:00.000Z', actor: REVIEWER, action: 'approve', fromStatus: 'in-review', toStatus: 'approved', revision: 2, reviewers: [], message: '', acknowledgedViolations: null }],
     });
     const patches: unknown[] = [];
     setup('engineer', state, {

@@ -35,7 +35,7 @@ describe('review permissions', () => {
       review: { requestedBy: ENGINEER, reviewers: [REVIEWER], revision: 5 },
       events: [
         ...first.events,
-        { id: 'e2', at: '2026-11-02T12:00:00.000Z', actor: REVIEWER, action: 'request-changes', fromStatus: 'in-review', toStatus: 'changes-requested', revision: 2, reviewers: [], message: 'Fix the neutral.' },
+        { id: 'e2', at: '2026-11-02T12:00:00.000Z', actor: REVIEWER, action: 'request-changes', fromStatus: 'in-review', toStatus: 'changes-requested', revision: 2, reviewers: [], message: 'Fix the neutral.', acknowledgedViolations: null },
       ],
     };
     expect(reviewDiffHref('s1', again)).toBe('/studies/s1/diff?from=2&to=5');

@@ -1,0 +1,1 @@
+ALTER TABLE "review_events" ADD COLUMN "acknowledged_violations" integer;
