@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import type { RevisionRisk } from '../../../../shared/review/risk.ts';
 import { StudyReview } from '../../../../src/features/review/components/study-review.tsx';
 import { TemplatesPage } from '../../../../src/features/review/components/templates-page.tsx';
-import { apiError, stubApi } from '../../helpers/fake-api.ts';
+import { apiError, stubApi, type FakeResponse } from '../../helpers/fake-api.ts';
 import { study, studyDetail } from '../../helpers/fixtures.ts';
 import { renderReview } from './render-review.tsx';
 import { ENGINEER, inReview, revision, REVIEWER, reviewState, SELF, STUDY_ID, team } from './review-fixtures.ts';
@@ -20,7 +20,7 @@ const RISK: RevisionRisk = {
   error: null,
 };
 
-function setupReview(risk: RevisionRisk | null, post: (body: unknown) => { status?: number; body: unknown }) {
+function setupReview(risk: RevisionRisk | null, post: (body: unknown) => FakeResponse) {
   const me_ = { id: SELF.id, name: SELF.name };
   const state = { ...inReview(ENGINEER, [me_]), risk };
   const posted: unknown[] = [];
