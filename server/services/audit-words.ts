@@ -4,13 +4,15 @@
  * never JSON or an id. Pure: the caller looks the names up (audit.ts).
  */
 import { AUDIT_ACTION_WORDS } from '../../shared/api/audit.ts';
-import { anchorWords, joinWords } from '../../shared/review/user-names.ts';
+import { anchorWords, joinWords, type CircuitNames } from '../../shared/review/user-names.ts';
 
 export interface AuditNames {
   /** A member's name by user id (removed members included). */
   user(id: string): string | undefined;
   /** A study's name by id (deleted studies included). */
   study(id: string): string | undefined;
+  /** The names of the event's study circuit as drawn (for comment anchors), when known. */
+  circuit?: CircuitNames;
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -60,7 +62,7 @@ function fallback(d: Record<string, unknown>, names: AuditNames): string {
 /** The event's detail in words ("revision 2 sent for review to Dilys Arkwright"). */
 export function auditText(action: string, detail: unknown, names: AuditNames): string {
   const d = isRecord(detail) ? detail : {};
-  const who = (id: unknown) => (typeof id === 'string' ? (names.user(id) ?? 'a removed member') : 'a member');
+  const who = (id: unknown) => (typeof id === 'string' ? (names.user(id) ?? 'a former member') : 'a member');
   const rev = typeof d.revision === 'number' ? `revision ${d.revision}` : 'the study';
   const seeded = d.seeded === true ? ' (demo data)' : '';
   const sentence = ((): string => {
@@ -117,7 +119,7 @@ export function auditText(action: string, detail: unknown, names: AuditNames): s
       }
       case 'comment.create': {
         const on = isRecord(d.anchor) && (('elementId' in d.anchor && typeof d.anchor.elementId === 'string') || ('resultRow' in d.anchor && isRecord(d.anchor.resultRow)))
-          ? ` on ${anchorWords(d.anchor as Parameters<typeof anchorWords>[0])}`
+          ? ` on ${anchorWords(d.anchor as Parameters<typeof anchorWords>[0], names.circuit)}`
           : '';
         return d.parentId ? 'replied to a comment' : `commented${on}`;
       }

@@ -5,6 +5,7 @@ import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
 import { auditEvents, studies, users } from '../db/schema.ts';
 import { isUuid } from '../errors.ts';
+import { circuitNames } from '../../shared/review/user-names.ts';
 import { actionWords, auditText } from './audit-words.ts';
 
 /** A Drizzle client or an open transaction (both can insert). */
@@ -81,6 +82,13 @@ export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<Au
   ]);
   const userName = new Map(userRows.map((u) => [u.id, u.name]));
   const studyById = new Map(studyRows.map((s) => [s.id, s]));
+  // A comment's anchor reads in the names of its study's circuit as drawn.
+  const anchored = [...new Set(rows.filter((r) => r.action === 'comment.create' && r.studyId).map((r) => r.studyId!))];
+  const circuits = new Map(
+    (anchored.length > 0 ? await db.select({ id: studies.id, content: studies.content }).from(studies).where(and(eq(studies.teamId, actor.teamId), inArray(studies.id, anchored))) : []).map(
+      (s) => [s.id, circuitNames((s.content as { circuit?: unknown } | null)?.circuit)] as const,
+    ),
+  );
   const names = { user: (id: string) => userName.get(id), study: (id: string) => studyById.get(id)?.name };
   return {
     items: rows.map((r) => {
@@ -93,7 +101,7 @@ export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<Au
         actionLabel: actionWords(r.action),
         studyId: r.studyId,
         study: s ? { id: s.id, name: s.name, deleted: s.deletedAt !== null } : null,
-        text: auditText(r.action, r.detail, names),
+        text: auditText(r.action, r.detail, { ...names, circuit: r.studyId ? circuits.get(r.studyId) : undefined }),
         detail: r.detail,
       };
     }),
