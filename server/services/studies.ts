@@ -39,6 +39,11 @@ const elementCount = sql<number>`case when jsonb_typeof(${studies.content}->'cir
   then (select count(*) from jsonb_array_elements(${studies.content}->'circuit'->'elements') as e(el)
         where strpos(coalesce(e.el->>'id', ''), ${PRIVATE_MARK}) = 0) else 0 end`.mapWith(Number);
 
+/** Number of a study's latest revision: the one number users read (the edit `version` is internal). */
+const latestRevisionNumber = sql<number | null>`(select max(${studyRevisions.number}) from ${studyRevisions} where ${studyRevisions.studyId} = ${studies.id})`.mapWith(
+  (v: unknown) => (v === null ? null : Number(v)),
+);
+
 const summaryColumns = {
   id: studies.id,
   name: studies.name,
@@ -53,6 +58,7 @@ const summaryColumns = {
   createdAt: studies.createdAt,
   updatedAt: studies.updatedAt,
   elementCount,
+  revision: latestRevisionNumber,
 };
 
 type SummaryRow = {
@@ -69,6 +75,7 @@ type SummaryRow = {
   createdAt: Date;
   updatedAt: Date;
   elementCount: number;
+  revision: number | null;
 };
 
 function toSummary(r: SummaryRow): StudySummary {
@@ -84,6 +91,7 @@ function toSummary(r: SummaryRow): StudySummary {
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
     elementCount: r.elementCount,
+    revision: r.revision ?? null,
   };
 }
 
@@ -141,9 +149,6 @@ export async function getStudy(db: Conn, actor: Actor, id: string): Promise<Stud
       reviewers: studies.reviewers,
       reviewRevision: studies.reviewRevision,
       approvedRevision: studies.approvedRevision,
-      revision: sql<number | null>`(select max(${studyRevisions.number}) from ${studyRevisions} where ${studyRevisions.studyId} = ${studies.id})`.mapWith(
-        (v: unknown) => (v === null ? null : Number(v)),
-      ),
     })
     .from(studies)
     .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
@@ -263,7 +268,7 @@ export async function applyEdit(db: Db, actor: Actor, id: string, input: StudyEd
       throw new AppError(
         409,
         'version-conflict',
-        `This study was changed by ${current.updatedBy.name} since you opened it (your version ${input.version}, now ${current.version}).`,
+        `This study was changed by ${current.updatedBy.name} since you opened it; nothing of yours was saved.`,
         { body: { current } },
       );
     }

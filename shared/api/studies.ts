@@ -36,6 +36,10 @@ export const studyNameSchema = z.string().trim().min(1, 'Name is required').max(
 export const studyDescriptionSchema = z.string().trim().max(5000, 'Description is at most 5000 characters');
 
 /** One row of the studies list. */
+/**
+ * `version` is the edit version used for optimistic concurrency (sent back on every save); it is
+ * internal. Users read the revision number (`revision`) alone.
+ */
 export const studySummarySchema = z.object({
   id: z.string(),
   name: z.string(),
@@ -47,8 +51,10 @@ export const studySummarySchema = z.object({
   updatedBy: userRefSchema,
   createdAt: isoDateSchema,
   updatedAt: isoDateSchema,
-  /** Number of elements in the study's circuit. */
+  /** Number of elements drawn in the study's circuit. */
   elementCount: z.number().int(),
+  /** Number of the latest revision (what users count); null for a study never saved since revisions exist. */
+  revision: z.number().int().nullable().optional(),
 });
 export type StudySummary = z.infer<typeof studySummarySchema>;
 
@@ -58,8 +64,6 @@ export const studyDetailSchema = studySummarySchema.extend({
   clonedFrom: z.object({ id: z.string(), name: z.string() }).nullable(),
   /** Revision of the source this study was started from (issue 5). */
   clonedFromRevision: z.number().int().nullable().optional(),
-  /** Number of the latest revision; null for a study never saved since revisions exist. */
-  revision: z.number().int().nullable().optional(),
   /** The open (or last) review request. */
   review: z
     .object({ requestedBy: userRefSchema, reviewers: z.array(userRefSchema), revision: z.number().int() })

@@ -36,8 +36,8 @@ export const ROLE_LABEL: Record<Role, string> = {
 
 /** What each role may do, in one line (shown next to the role select and on invites). */
 export const ROLE_HINT: Record<Role, string> = {
-  owner: 'everything, including members, roles and invites',
-  engineer: 'creates, edits, clones and deletes studies; marks templates',
-  reviewer: 'reads studies (comments and approval come later)',
-  viewer: 'reads studies',
+  owner: 'everything, including members, roles, invites, outgoing mail and the audit trail',
+  engineer: 'creates, edits, clones and deletes studies; requests reviews; marks approved studies as templates',
+  reviewer: 'reads studies, comments, and approves them or requests changes',
+  viewer: 'reads studies and their comments',
 };

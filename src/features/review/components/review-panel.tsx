@@ -6,7 +6,7 @@ import { Button, buttonClass } from '../../../components/button.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import { useReview } from '../api/get-review.ts';
+import { useLiveReview } from '../api/use-live-review.ts';
 import { useRevisions } from '../api/get-revisions.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
 import { exportUrl } from '../api/transfer.ts';
@@ -24,7 +24,7 @@ const WHY_NOT: Record<string, string> = {
 
 /** Status, the actions the member may take now, the approved revision, the review history, and links to history, diff and export. */
 export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: Role; userId: string }) {
-  const review = useReview(studyId);
+  const review = useLiveReview(studyId);
   const study = useStudyRecord(studyId);
   const revisions = useRevisions(studyId);
   const [dialog, setDialog] = useState<null | 'request' | 'approve' | 'request-changes'>(null);

@@ -2,7 +2,7 @@ import { Link } from 'react-router';
 import { StatusBadge } from '../../../components/badges.tsx';
 import { buttonClass } from '../../../components/button.tsx';
 import { useComments } from '../api/get-comments.ts';
-import { useReview } from '../api/get-review.ts';
+import { useLiveReview } from '../api/use-live-review.ts';
 import { reviewDiffHref } from '../utils/permissions.ts';
 import { REVIEW_SECTION_ID } from './study-review.tsx';
 
@@ -11,7 +11,7 @@ import { REVIEW_SECTION_ID } from './study-review.tsx';
  * (what a reviewer reads first), and a jump to the review panel, comments and files below the canvas.
  */
 export function ReviewStrip({ studyId }: { studyId: string }) {
-  const review = useReview(studyId);
+  const review = useLiveReview(studyId);
   const comments = useComments(studyId);
   if (!review.data) return null;
   const state = review.data;

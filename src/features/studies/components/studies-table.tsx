@@ -45,7 +45,8 @@ function buildColumns(actions: StudyRowActions) {
       enableSorting: false,
       cell: (info) => (info.getValue() ? <TemplateBadge /> : <span className="text-ink-faint">—<span className="sr-only">not a template</span></span>),
     }),
-    helper.accessor('version', { header: 'Version', enableSorting: false, cell: (info) => <span className="num">v{info.getValue()}</span> }),
+    // Users count revisions; the edit version stays internal.
+    helper.accessor((row) => row.revision ?? null, { id: 'revision', header: 'Revision', enableSorting: false, cell: (info) => <span className="num">{info.getValue() ?? '—'}</span> }),
     helper.accessor((row) => row.updatedBy.name, {
       id: 'updatedBy',
       header: 'Updated by',
@@ -90,7 +91,7 @@ function buildColumns(actions: StudyRowActions) {
   ]);
 }
 
-const NUMERIC = new Set(['version', 'elementCount']);
+const NUMERIC = new Set(['revision', 'elementCount']);
 
 /** The studies table: sorting is done by the server (name, updated at), so the table runs in manual mode. */
 export function StudiesTable({ rows, sort, dir, onSortChange, canWrite, onClone, onDelete, cloningId }: StudiesTableProps) {

@@ -24,7 +24,10 @@ function valuesOf(study: StudyDetail): DetailsInput {
  * someone else saved in between (409), it shows their version and lets the user choose: take
  * theirs, or keep editing and knowingly replace it on the next save. Never a silent overwrite.
  */
+const STATUS_WORDS: Record<StudyDetail['status'], string> = { draft: 'a draft', 'in-review': 'in review', 'changes-requested': 'waiting for changes', approved: 'approved' };
+
 export function StudyDetailsForm({ study, onDone }: { study: StudyDetail; onDone: () => void }) {
+  const templateAllowed = study.status === 'approved' || study.isTemplate;
   const update = useUpdateStudy(study.id);
   const [baseVersion, setBaseVersion] = useState(study.version);
   const [conflict, setConflict] = useState<StudyDetail | null>(null);
@@ -71,7 +74,7 @@ export function StudyDetailsForm({ study, onDone }: { study: StudyDetail; onDone
         <div role="alert" className="rounded-[3px] border border-caution/60 bg-caution-soft px-3 py-2 text-sm">
           <p className="font-semibold">
             <span aria-hidden="true">! </span>
-            {conflict.updatedBy.name} saved this study while you were editing (now <span className="num">v{conflict.version}</span>, {formatDateTime(conflict.updatedAt)}).
+            {conflict.updatedBy.name} saved this study while you were editing (<span className="num">{formatDateTime(conflict.updatedAt)}</span>).
           </p>
           <p className="mt-1 text-[13px]">Nothing of yours was saved. Their version reads:</p>
           <dl className="mt-1 grid grid-cols-[max-content_1fr] gap-x-3 gap-y-0.5 text-[13px]">
@@ -93,23 +96,28 @@ export function StudyDetailsForm({ study, onDone }: { study: StudyDetail; onDone
         </div>
       ) : null}
       {overwriteOf ? (
-        <Notice tone="caution" title={`Saving now replaces ${overwriteOf.updatedBy.name}'s version v${overwriteOf.version}.`} />
+        <Notice tone="caution" title={`Saving now replaces what ${overwriteOf.updatedBy.name} saved at ${formatDateTime(overwriteOf.updatedAt)}.`} />
       ) : null}
       {problem ? <Notice tone="error" title={problem} /> : null}
       <TextField label="Name" error={errors.name?.message} {...form.register('name')} />
       <TextAreaField label="Description" error={errors.description?.message} {...form.register('description')} />
-      <label className="flex items-center gap-2 text-sm">
-        <input type="checkbox" className="h-4 w-4 accent-accent" {...form.register('isTemplate')} />
-        Template — others on the team can start new studies from it
-      </label>
+      {/* Only an approved study may become a template (the server refuses it otherwise): offer the box only then, and say why not. */}
+      {templateAllowed ? (
+        <label className="flex items-center gap-2 text-sm">
+          <input type="checkbox" className="h-4 w-4 accent-accent" {...form.register('isTemplate')} />
+          Template — others on the team can start new studies from it
+        </label>
+      ) : (
+        <p className="text-[13px] text-ink-muted">
+          Template: only an approved study can become a template; this one is {STATUS_WORDS[study.status]}. Request a review, and mark it once it is approved.
+        </p>
+      )}
       <div className="flex gap-2">
         <Button type="submit" variant="primary" busy={update.isPending} busyText="Saving…" disabled={conflict !== null}>
           Save changes
         </Button>
         <Button onClick={onDone}>Cancel</Button>
-        <span className="self-center text-[12px] text-ink-muted">
-          Editing from <span className="num">v{baseVersion}</span>
-        </span>
+
       </div>
     </form>
   );

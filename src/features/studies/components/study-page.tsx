@@ -15,7 +15,7 @@ import { ContentSummaryPanel } from './content-summary-panel.tsx';
 import { StudyLoadError } from './study-load-error.tsx';
 import { StudyDetailsForm } from './study-details-form.tsx';
 
-/** One study: its record (who, when, version, origin), content summary, and the edits the role allows. */
+/** One study: its record (who, when, revision, origin), content summary, and the edits the role allows. */
 export function StudyPage({ id, role }: { id: string; role: Role }) {
   const study = useStudy(id);
   const navigate = useNavigate();
@@ -44,7 +44,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
           <p className="mt-1 flex flex-wrap items-center gap-2">
             <StatusBadge status={s.status} />
             {s.isTemplate ? <TemplateBadge /> : null}
-            <span className="num text-[13px] text-ink-muted">version v{s.version}</span>
+            {s.revision ? <span className="num text-[13px] text-ink-muted">revision {s.revision}</span> : null}
           </p>
         </div>
         {canEdit && !editing ? (
@@ -95,8 +95,8 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
               <br />
               <time dateTime={s.updatedAt} className="num">{formatDateTime(s.updatedAt)}</time>
             </dd>
-            <dt className="text-ink-muted">Version</dt>
-            <dd className="num">v{s.version}</dd>
+            <dt className="text-ink-muted">Revision</dt>
+            <dd className="num">{s.revision ?? '—'}</dd>
             <dt className="text-ink-muted">Cloned from</dt>
             <dd>
               {s.clonedFrom ? (

@@ -62,8 +62,8 @@ describe('study page', () => {
   });
 
   it('on a version conflict shows their version and lets the engineer reload theirs', async () => {
-    const mine = studyDetail({ name: 'Hollin Cross feeder', description: 'First pass', version: 2 });
-    const theirs: StudyDetail = { ...mine, name: 'Hollin Cross feeder (rev B)', description: 'Checked by Dilys', version: 3, updatedBy: { id: 'u3', name: 'Dilys Arkwright' } };
+    const mine = studyDetail({ name: 'Hollin Cross feeder', description: 'First pass', version: 2, revision: 2 });
+    const theirs: StudyDetail = { ...mine, name: 'Hollin Cross feeder (rev B)', description: 'Checked by Dilys', version: 3, revision: 3, updatedBy: { id: 'u3', name: 'Dilys Arkwright' } };
     const { api } = setup('engineer', mine, () =>
       ({ ...apiError(409, 'version-conflict', 'The study was changed by someone else.'), body: { error: { code: 'version-conflict', message: 'The study was changed by someone else.' }, current: theirs } }),
     );
@@ -79,21 +79,22 @@ describe('study page', () => {
     expect(api.calls.find((c) => c.method === 'PATCH')?.body).toMatchObject({ version: 2, name: 'Hollin Cross feeder — my edit' });
     expect(screen.getByText('Nothing of yours was saved. Their version reads:')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Save changes' })).toBeDisabled();
-    // The record beside the form already shows the saved version; the form still holds my text.
+    // The record beside the form already shows the saved revision (the one number users read); the form still holds my text.
     const record = screen.getByRole('region', { name: 'Record' });
-    expect(within(record).getByText('v3')).toBeInTheDocument();
+    expect(within(record).getByText('3')).toBeInTheDocument();
+    expect(document.body.textContent).not.toMatch(/\bv\d/);
     expect(within(record).getByText('Dilys Arkwright')).toBeInTheDocument();
     expect(screen.getByLabelText('Name')).toHaveValue('Hollin Cross feeder — my edit');
 
     await user.click(screen.getByRole('button', { name: 'Reload theirs (discard my changes)' }));
     expect(screen.getByLabelText('Name')).toHaveValue('Hollin Cross feeder (rev B)');
     expect(screen.getByLabelText('Description')).toHaveValue('Checked by Dilys');
-    expect(screen.getByText('v3', { selector: 'span.num' })).toBeInTheDocument();
+    expect(screen.getByText('revision 3', { selector: 'span.num' })).toBeInTheDocument();
   });
 
   it('keeping my edits after a conflict saves against their version, and says so first', async () => {
-    const mine = studyDetail({ name: 'Sallow Bank', version: 5 });
-    const theirs: StudyDetail = { ...mine, name: 'Sallow Bank (theirs)', version: 6, updatedBy: { id: 'u3', name: 'Dilys Arkwright' } };
+    const mine = studyDetail({ name: 'Sallow Bank', version: 5, updatedAt: '2026-11-02T09:00:00.000Z' });
+    const theirs: StudyDetail = { ...mine, name: 'Sallow Bank (theirs)', version: 6, updatedAt: '2026-11-02T10:30:00.000Z', updatedBy: { id: 'u3', name: 'Dilys Arkwright' } };
     let patches = 0;
     const { api } = setup('owner', mine, (req) => {
       patches += 1;
@@ -108,13 +109,28 @@ describe('study page', () => {
     await user.click(screen.getByRole('button', { name: 'Save changes' }));
     await user.click(await screen.findByRole('button', { name: 'Keep editing mine' }));
 
-    expect(screen.getByText("Saving now replaces Dilys Arkwright's version v6.")).toBeInTheDocument();
+    expect(screen.getByText(/^Saving now replaces what Dilys Arkwright saved at .+\.$/)).toBeInTheDocument();
     expect(screen.getByLabelText('Name')).toHaveValue('Sallow Bank (mine)');
     await user.click(screen.getByRole('button', { name: 'Save changes' }));
 
     await waitFor(() => expect(screen.getByRole('heading', { level: 1 })).toHaveTextContent('Sallow Bank (mine)'));
     const sent = api.calls.filter((c) => c.method === 'PATCH').map((c) => (c.body as { version: number }).version);
     expect(sent).toEqual([5, 6]);
+  });
+
+  it('offers the Template box only on an approved study (or a template), and says why not on a draft', async () => {
+    setup('engineer', studyDetail({ name: 'Draft feeder', status: 'draft' }), () => ({ body: {} }));
+    const user = userEvent.setup();
+    await user.click(await screen.findByRole('button', { name: 'Edit details' }));
+    expect(screen.queryByRole('checkbox', { name: /Template/ })).not.toBeInTheDocument();
+    expect(screen.getByText(/only an approved study can become a template; this one is a draft/)).toBeInTheDocument();
+  });
+
+  it('offers the Template box on an approved study', async () => {
+    setup('engineer', studyDetail({ name: 'Approved feeder', status: 'approved' }), () => ({ body: {} }));
+    const user = userEvent.setup();
+    await user.click(await screen.findByRole('button', { name: 'Edit details' }));
+    expect(screen.getByRole('checkbox', { name: /Template/ })).not.toBeChecked();
   });
 
   it('says a missing study is not found (another team’s study is a 404 too)', async () => {
