@@ -124,7 +124,8 @@ describe('review and reuse in a real browser', () => {
     const changes = reviewer.getByRole('region', { name: 'Changes from revision 1 to revision 2' });
     await changes.waitFor();
     const params = changes.getByRole('table', { name: 'Changes to MILL-LOAD' });
-    await expect.poll(() => params.textContent()).toContain('phases.a.kw');
+    // The changed parameter in words, never a schema path.
+    await expect.poll(() => params.textContent()).toContain('phases › phase A › P (kW)');
     const results = await changes.getByRole('table', { name: 'Result changes' }).textContent();
     expect(results).toMatch(/neutral current at [^:]+: [\d.]+ A → [\d.]+ A/); // a neutral current changed, with units
     expect(results).toMatch(/[+−][\d.]+ A/); // and its signed delta
@@ -162,10 +163,12 @@ describe('review and reuse in a real browser', () => {
     await reviewRegion(engineer).getByText('asked Idunn Castellane to review revision 3', { exact: false }).waitFor();
     await expect.poll(async () => (await mail()).filter((m) => m.subject === `Review requested: ${STUDY_NAME}`).length, { timeout: 20_000 }).toBe(2);
 
-    // The reviewer approves revision 3.
+    // The reviewer approves revision 3: the fault study has violations, so the dialog states them and asks for the acknowledgement.
     await reviewer.goto(`${product.baseUrl}/studies/${studyId}`);
     await reviewRegion(reviewer).getByRole('button', { name: 'Approve' }).click();
     const approveDialog = reviewer.getByRole('dialog', { name: 'Approve revision 3?' });
+    await approveDialog.getByText(/Revision 3 has \d+ violations?\./).waitFor();
+    await approveDialog.getByRole('checkbox', { name: /I have read the .* of revision 3 and approve it anyway/ }).check();
     await approveDialog.getByRole('button', { name: 'Approve' }).click();
     await reviewRegion(reviewer).getByText(/Approved revision 3 by Idunn Castellane/).waitFor();
     await approveDialog.waitFor({ state: 'hidden' });
@@ -190,6 +193,8 @@ describe('review and reuse in a real browser', () => {
     await card.getByText('Idunn Castellane').waitFor(); // who approved it
     await screenshot(engineer, 'review-6-templates');
     await card.getByRole('button', { name: `New study from template ${STUDY_NAME}` }).click();
+    // Its approved revision has violations: the gallery says so before copying them.
+    await engineer.getByRole('dialog', { name: `Start from “${STUDY_NAME}”?` }).getByRole('button', { name: 'Start a new study anyway' }).click();
     await engineer.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname) && !url.pathname.endsWith(studyId));
     const newId = new URL(engineer.url()).pathname.split('/').pop()!;
     const res = await engineer.request.get(`${product.baseUrl}/api/studies/${newId}`);
@@ -221,10 +226,11 @@ describe('review and reuse in a real browser', () => {
 
     await owner.goto(`${product.baseUrl}/audit`);
     await owner.getByLabel('Action').selectOption('review.');
-    await owner.getByRole('table', { name: 'Audit events' }).getByText('review.approve').first().waitFor();
+    await owner.getByRole('table', { name: 'Audit events' }).getByText('approved', { exact: true }).first().waitFor();
     const actions = await owner.getByRole('table', { name: 'Audit events' }).locator('tbody tr td:nth-child(3)').allTextContents();
     expect(actions.length).toBeGreaterThan(0);
-    expect(actions.every((a) => a.startsWith('review.'))).toBe(true);
+    // Review actions, in words.
+    expect(actions.every((a) => ['review requested', 'approved', 'changes requested', 'back to draft'].includes(a))).toBe(true);
     await screenshot(owner, 'review-11-audit');
 
     // Export through the download endpoint, import the same file on the studies list page.

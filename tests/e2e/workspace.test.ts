@@ -146,7 +146,7 @@ describe('study workspace in a real browser', () => {
     const conflict = page.getByRole('dialog', { name: 'Someone saved this study while you were editing' });
     await conflict.waitFor();
     await screenshot(page, 'workspace-save-conflict');
-    await conflict.getByRole('button', { name: `Save mine over v${before.version + 1}` }).click();
+    await conflict.getByRole('button', { name: 'Save mine over theirs' }).click();
     await expect.poll(() => page.getByText('Unsaved changes').count()).toBe(0);
     const after = (await (await page.request.get(`${product.baseUrl}/api/studies/${studyId}`)).json()) as { version: number; content: { circuit: CircuitInput } };
     expect(after.version).toBe(before.version + 2);

@@ -602,7 +602,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           </nav>
           <h1 className="text-lg">{study.name}</h1>
           <StatusBadge status={study.status} />
-          <span className="num text-[12px] text-ink-muted">v{baseVersion}</span>
+          {/* Users count revisions; the edit version (baseVersion) stays internal. */}
+          {study.revision ? <span className="num text-[12px] text-ink-muted">revision {study.revision}</span> : null}
           <Link to={`/studies/${study.id}/details`} className="text-[13px] text-accent hover:underline">
             Details and record
           </Link>

@@ -56,7 +56,7 @@ export function ConflictDialog({ theirs, diff, busy, onLoadTheirs, onOverwrite, 
       {theirs ? (
         <div className="text-sm">
           <p>
-            <span className="font-semibold">{theirs.updatedBy.name}</span> saved version <span className="num">v{theirs.version}</span> at{' '}
+            <span className="font-semibold">{theirs.updatedBy.name}</span> saved{theirs.revision ? <> revision <span className="num">{theirs.revision}</span></> : null} at{' '}
             <time className="num">{formatDateTime(theirs.updatedAt)}</time>. Compared with your diagram, their version has:
           </p>
           <ul className="mt-2 list-disc pl-5 text-[13px]">
@@ -70,7 +70,7 @@ export function ConflictDialog({ theirs, diff, busy, onLoadTheirs, onOverwrite, 
             <Button onClick={onCancel}>Keep editing</Button>
             <Button onClick={onLoadTheirs}>Load their version</Button>
             <Button variant="danger" busy={busy} busyText="Saving…" onClick={onOverwrite}>
-              Save mine over v{theirs.version}
+              Save mine over theirs
             </Button>
           </div>
         </div>

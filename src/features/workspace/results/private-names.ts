@@ -5,10 +5,19 @@
  * the user drew.
  */
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
+import { circuitNames } from '../../../../shared/review/user-names.ts';
 
-/** The result without buses and elements whose names contain `marker` (flags and totals unchanged). */
+/**
+ * The result without buses and elements whose names contain `marker` (totals unchanged); flag
+ * messages that name a private bus or switch are put in the words of the diagram
+ * ("KITCHEN terminals at HOUSE", shared/review/user-names.ts), read from the result's own switches.
+ */
 export function hidePrivate(result: CircuitResult, marker: string | undefined): CircuitResult {
   if (!marker) return result;
+  const names = circuitNames({
+    elements: Object.values(result.elements).map((e) => ({ type: e.type, id: e.id, from: e.ports?.[0]?.bus, to: e.ports?.[1]?.bus })),
+  });
+  const flags = result.flags.some((f) => f.message.includes(marker)) ? result.flags.map((f) => (f.message.includes(marker) ? { ...f, message: names.text(f.message) } : f)) : result.flags;
   const buses = result.buses.filter((b) => !b.bus.includes(marker));
   // Kept elements that sit behind a generated switch name the bus the user drew instead of the private one.
   const elements = Object.fromEntries(
@@ -21,7 +30,7 @@ export function hidePrivate(result: CircuitResult, marker: string | undefined): 
       }),
   );
   // Never hide everything: a study made only of generated names still shows its results.
-  return { ...result, buses: buses.length > 0 ? buses : result.buses, elements: Object.keys(elements).length > 0 ? elements : result.elements };
+  return { ...result, flags, buses: buses.length > 0 ? buses : result.buses, elements: Object.keys(elements).length > 0 ? elements : result.elements };
 }
 
 /**
