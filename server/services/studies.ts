@@ -59,6 +59,7 @@ const summaryColumns = {
   updatedAt: studies.updatedAt,
   elementCount,
   revision: latestRevisionNumber,
+  approvedRevision: studies.approvedRevision,
 };
 
 type SummaryRow = {
@@ -76,6 +77,7 @@ type SummaryRow = {
   updatedAt: Date;
   elementCount: number;
   revision: number | null;
+  approvedRevision: number | null;
 };
 
 function toSummary(r: SummaryRow): StudySummary {
@@ -124,7 +126,19 @@ export async function listStudies(db: Db, actor: Actor, q: ListStudiesQuery): Pr
     .limit(q.pageSize)
     .offset((q.page - 1) * q.pageSize);
   const [{ total }] = await db.select({ total: count() }).from(studies).where(where);
-  return { items: rows.map(toSummary), total, page: q.page, pageSize: q.pageSize };
+  // Templates carry the danger of what a copy starts from, so "Start from template" can state it.
+  const items = await Promise.all(rows.map(async (r) => (r.isTemplate ? { ...toSummary(r), risk: await templateRisk(db, r.id, r.approvedRevision) } : toSummary(r))));
+  return { items, total, page: q.page, pageSize: q.pageSize };
+}
+
+/**
+ * The danger of the revision a copy of a template starts from (its approved revision, else its
+ * latest): violations and the worst one, in the words of the diagram.
+ */
+async function templateRisk(db: Conn, studyId: string, approvedRevision: number | null) {
+  const rev = approvedRevision !== null ? await getRevision(db, studyId, approvedRevision).catch(() => null) : null;
+  const latest = rev ?? (await latestRevision(db, studyId));
+  return latest ? revisionRisk(latest.number, latest.summary as ResultsSummary, (latest.content as StudyContent).circuit) : null;
 }
 
 /** Names of users by id (for reviewer lists). */
@@ -148,7 +162,6 @@ export async function getStudy(db: Conn, actor: Actor, id: string): Promise<Stud
       reviewRequestedBy: studies.reviewRequestedBy,
       reviewers: studies.reviewers,
       reviewRevision: studies.reviewRevision,
-      approvedRevision: studies.approvedRevision,
     })
     .from(studies)
     .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
@@ -170,6 +183,7 @@ export async function getStudy(db: Conn, actor: Actor, id: string): Promise<Stud
     revision: row.revision ?? null,
     review,
     approvedRevision: row.approvedRevision,
+    ...(row.isTemplate ? { risk: await templateRisk(db, row.id, row.approvedRevision) } : {}),
   };
 }
 
@@ -395,20 +409,12 @@ export async function cloneStudy(db: Db, actor: Actor, id: string, input: CloneS
  */
 export async function listTemplates(db: Db, actor: Actor): Promise<TemplateListResponse> {
   const rows = await db
-    .select({ ...summaryColumns, approvedRevision: studies.approvedRevision })
+    .select(summaryColumns)
     .from(studies)
     .innerJoin(createdByUser, eq(createdByUser.id, studies.createdBy))
     .innerJoin(updatedByUser, eq(updatedByUser.id, studies.updatedBy))
     .where(and(visible(actor), eq(studies.isTemplate, true)))
     .orderBy(asc(sql`lower(${studies.name})`), asc(studies.id))
     .limit(500);
-  const items = await Promise.all(
-    rows.map(async (r) => {
-      const rev = r.approvedRevision !== null ? await getRevision(db, r.id, r.approvedRevision).catch(() => null) : null;
-      const latest = rev ?? (await latestRevision(db, r.id));
-      const risk = latest ? revisionRisk(latest.number, latest.summary as ResultsSummary, (latest.content as StudyContent).circuit) : null;
-      return { ...toSummary(r), risk };
-    }),
-  );
-  return { items };
+  return { items: await Promise.all(rows.map(async (r) => ({ ...toSummary(r), risk: await templateRisk(db, r.id, r.approvedRevision) }))) };
 }

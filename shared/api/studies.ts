@@ -55,6 +55,8 @@ export const studySummarySchema = z.object({
   elementCount: z.number().int(),
   /** Number of the latest revision (what users count); null for a study never saved since revisions exist. */
   revision: z.number().int().nullable().optional(),
+  /** Templates only: the danger of the revision a copy starts from (violations, the worst one). */
+  risk: revisionRiskSchema.nullable().optional(),
 });
 export type StudySummary = z.infer<typeof studySummarySchema>;
 

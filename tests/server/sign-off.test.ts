@@ -127,5 +127,10 @@ describe('e-mails and the template gallery state the danger', () => {
     const item = gallery.body.items.find((x: { id: string }) => x.id === id);
     expect(item.risk).toMatchObject({ revision: 1, solved: true, violationCount: VIOLATIONS });
     expect(item.risk.worst).toMatch(/^bus HOUSE/);
+    // The same on the study and in the list, where "Start from template" is offered too; other studies carry none.
+    expect((await reviewer.get(`/api/studies/${id}`)).body.risk).toEqual(item.risk);
+    const list = (await reviewer.get('/api/studies?pageSize=100')).body.items as { id: string; isTemplate: boolean; risk?: unknown }[];
+    expect(list.find((x) => x.id === id)!.risk).toEqual(item.risk);
+    expect(list.filter((x) => !x.isTemplate).every((x) => x.risk === undefined)).toBe(true);
   });
 });

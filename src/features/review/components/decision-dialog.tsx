@@ -6,7 +6,7 @@ import { TextAreaField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { useReviewAction } from '../api/review-action.ts';
-import { RiskNotice } from './risk-notice.tsx';
+import { RiskNotice } from '../../../components/risk-notice.tsx';
 
 /**
  * Approve or request changes on the revision under review; a request for changes must say what

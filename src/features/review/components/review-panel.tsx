@@ -14,7 +14,7 @@ import { canRequestReview, canWrite, decisionBlocker, reviewDiffHref } from '../
 import { DecisionDialog } from './decision-dialog.tsx';
 import { RequestReviewDialog } from './request-review-dialog.tsx';
 import { ReviewEvents } from './review-events.tsx';
-import { RiskNotice } from './risk-notice.tsx';
+import { RiskNotice } from '../../../components/risk-notice.tsx';
 import { TemplateToggle } from './template-toggle.tsx';
 
 const WHY_NOT: Record<string, string> = {

@@ -11,7 +11,7 @@ import { formatDateTime, plural } from '../../../lib/format.ts';
 import { useReview } from '../api/get-review.ts';
 import { useNewFromTemplate, useTemplates } from '../api/templates.ts';
 import { canWrite } from '../utils/permissions.ts';
-import { RiskNotice } from './risk-notice.tsx';
+import { RiskNotice } from '../../../components/risk-notice.tsx';
 
 /** Who approved the template's current revision (from its review history). */
 function ApprovedBy({ studyId }: { studyId: string }) {

@@ -3,6 +3,7 @@ import { useNavigate, useSearchParams } from 'react-router';
 import type { ListStudiesQuery, StudySummary } from '../../../../shared/api/studies.ts';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmDialog } from '../../../components/dialog.tsx';
+import { RiskNotice } from '../../../components/risk-notice.tsx';
 import { controlClass } from '../../../components/field.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
@@ -25,6 +26,8 @@ export function StudiesList({ role }: { role: Role }) {
   const remove = useDeleteStudy();
   const [newOpen, setNewOpen] = useState(false);
   const [toDelete, setToDelete] = useState<StudySummary | null>(null);
+  // A template whose revision has violations (or does not solve) is copied only after saying so.
+  const [toStart, setToStart] = useState<StudySummary | null>(null);
   const [actionError, setActionError] = useState<string | null>(null);
   const canCreate = can(role, 'study:create');
   const canWrite = can(role, 'study:clone');
@@ -50,9 +53,10 @@ export function StudiesList({ role }: { role: Role }) {
 
   const cloneMutate = clone.mutate;
   const resetRemove = remove.reset;
-  const onClone = useCallback(
+  const copy = useCallback(
     (study: StudySummary) => {
       setActionError(null);
+      setToStart(null);
       cloneMutate(
         { id: study.id },
         {
@@ -62,6 +66,13 @@ export function StudiesList({ role }: { role: Role }) {
       );
     },
     [cloneMutate, navigate],
+  );
+  const onClone = useCallback(
+    (study: StudySummary) => {
+      if (study.isTemplate && study.risk && (!study.risk.solved || study.risk.violationCount > 0)) setToStart(study);
+      else copy(study);
+    },
+    [copy],
   );
   const onDelete = useCallback(
     (study: StudySummary) => {
@@ -190,6 +201,17 @@ export function StudiesList({ role }: { role: Role }) {
         </nav>
       ) : null}
 
+      <ConfirmDialog
+        open={toStart !== null}
+        title={`Start from “${toStart?.name ?? ''}”?`}
+        confirmLabel="Start a new study anyway"
+        busy={clone.isPending}
+        onCancel={() => setToStart(null)}
+        onConfirm={() => toStart && copy(toStart)}
+      >
+        <p className="mb-2">The new study copies this template's circuit, with these results:</p>
+        {toStart?.risk ? <RiskNotice risk={toStart.risk} /> : null}
+      </ConfirmDialog>
       <NewStudyDialog open={newOpen} onClose={() => setNewOpen(false)} onCreated={(created) => navigate(`/studies/${created.id}`)} />
       <ConfirmDialog
         open={toDelete !== null}

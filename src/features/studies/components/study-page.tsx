@@ -4,6 +4,7 @@ import type { Role } from '../../../../shared/api/common.ts';
 import { StatusBadge, TemplateBadge } from '../../../components/badges.tsx';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmDialog } from '../../../components/dialog.tsx';
+import { RiskNotice } from '../../../components/risk-notice.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { can } from '../../../lib/authorization.ts';
@@ -23,11 +24,14 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
   const clone = useCloneStudy();
   const [editing, setEditing] = useState(false);
   const [confirmDelete, setConfirmDelete] = useState(false);
+  const [confirmStart, setConfirmStart] = useState(false);
   const canEdit = can(role, 'study:edit');
 
   if (study.isPending) return <Loading label="Loading the study…" />;
   if (study.isError) return <StudyLoadError error={study.error} />;
   const s = study.data;
+  const dangerous = s.isTemplate && s.risk !== null && s.risk !== undefined && (!s.risk.solved || s.risk.violationCount > 0);
+  const copy = () => clone.mutate({ id: s.id }, { onSuccess: (created) => navigate(`/studies/${created.id}`) });
 
   return (
     <div className="mx-auto flex max-w-6xl flex-col gap-4">
@@ -53,7 +57,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
             <Button
               busy={clone.isPending}
               busyText={s.isTemplate ? 'Starting…' : 'Cloning…'}
-              onClick={() => clone.mutate({ id: s.id }, { onSuccess: (created) => navigate(`/studies/${created.id}`) })}
+              onClick={() => (dangerous ? setConfirmStart(true) : copy())}
             >
               {s.isTemplate ? 'Start from template' : 'Clone'}
             </Button>
@@ -111,7 +115,20 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
         </section>
       </div>
 
+      {s.isTemplate && s.risk ? <RiskNotice risk={s.risk} compact /> : null}
       <ContentSummaryPanel circuit={s.content.circuit} workspaceHref={`/studies/${s.id}`} />
+
+      <ConfirmDialog
+        open={confirmStart}
+        title={`Start from “${s.name}”?`}
+        confirmLabel="Start a new study anyway"
+        busy={clone.isPending}
+        onCancel={() => setConfirmStart(false)}
+        onConfirm={copy}
+      >
+        <p className="mb-2">The new study copies this template's circuit, with these results:</p>
+        {s.risk ? <RiskNotice risk={s.risk} /> : null}
+      </ConfirmDialog>
 
       <ConfirmDialog
         open={confirmDelete}

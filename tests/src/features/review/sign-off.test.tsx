@@ -48,7 +48,7 @@ describe('approve dialog', () => {
     const dialog = await screen.findByRole('dialog', { name: 'Approve revision 2?' });
     expect(dialog).toHaveTextContent('Revision 2 has 3 violations.');
     expect(dialog).toHaveTextContent('The worst: bus HOUSE c-n: 167.3 V = 1.394 pu');
-    expect(dialog).toHaveTextContent('a lost neutral puts dangerous voltages on equipment');
+    expect(dialog).toHaveTextContent('A lost or open neutral puts dangerous voltages on equipment and people.');
     await user.click(within(dialog).getByRole('button', { name: 'Approve' }));
     expect(within(dialog).getByRole('alert')).toHaveTextContent('Acknowledge the violations');
     expect(posted).toEqual([]);

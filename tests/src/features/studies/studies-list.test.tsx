@@ -56,6 +56,36 @@ describe('studies list', () => {
     expect(within(plainRow).getByRole('button', { name: 'Clone Apsley feeder unbalance' })).toBeInTheDocument();
   });
 
+  it('states a template’s violations before "Start from template" copies them', async () => {
+    const risky = study({
+      id: 'tpl-risky',
+      name: 'Brackenfield open neutral',
+      isTemplate: true,
+      status: 'approved',
+      risk: { revision: 2, solved: true, violationCount: 3, warningCount: 0, worst: 'bus HOUSE c-n: 167.3 V = 1.394 pu is above the violation limit', error: null },
+    });
+    const posted: string[] = [];
+    stubApi({
+      'GET /api/auth/me': () => ({ body: me('engineer') }),
+      'GET /api/studies': () => ({ body: { items: [risky], total: 1, page: 1, pageSize: 20 } }),
+      'POST /api/studies/:id/clone': (req) => {
+        posted.push(req.url.pathname);
+        return { status: 201, body: { id: 'copy-1', version: 1 } };
+      },
+      'GET /api/studies/:id': () => ({ body: { ...risky, id: 'copy-1', content: { circuit: { format: 'wyeward-circuit', version: 1, frequencyHz: 60, elements: [] } }, clonedFrom: null } }),
+    });
+    const user = userEvent.setup();
+    renderApp('/');
+    await user.click(await screen.findByRole('button', { name: 'Start from template Brackenfield open neutral' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Start from “Brackenfield open neutral”?' });
+    expect(dialog).toHaveTextContent('Revision 2 has 3 violations.');
+    expect(dialog).toHaveTextContent('The worst: bus HOUSE c-n: 167.3 V');
+    expect(dialog).toHaveTextContent('licensed practice');
+    expect(posted).toEqual([]);
+    await user.click(within(dialog).getByRole('button', { name: 'Start a new study anyway' }));
+    await waitFor(() => expect(posted).toEqual(['/api/studies/tpl-risky/clone']));
+  });
+
   it('sorts by name through the server when the Name header is used, and flips on a second press', async () => {
     const { api } = setup('viewer');
     await screen.findByRole('link', { name: 'Apsley feeder unbalance' });

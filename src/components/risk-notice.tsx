@@ -1,7 +1,17 @@
-import type { RevisionRisk } from '../../../../shared/review/risk.ts';
-import { riskSentence } from '../../../../shared/review/risk.ts';
-import { Notice } from '../../../components/notice.tsx';
-import { ResultsCaution } from './results-caution.tsx';
+import type { RevisionRisk } from '../../shared/review/risk.ts';
+import { riskSentence, SAFETY_CAUTION } from '../../shared/review/risk.ts';
+import { Notice } from './notice.tsx';
+
+function Caution() {
+  return (
+    <p className="rounded-[3px] border border-caution/40 bg-caution-soft px-3 py-1.5 text-[12px] text-ink">
+      <span className="font-semibold text-caution">
+        <span aria-hidden="true">⚠ </span>Caution:
+      </span>{' '}
+      {SAFETY_CAUTION}
+    </p>
+  );
+}
 
 /**
  * What a sign-off must state: the revision's violations (how many, and the worst one in the words
@@ -23,7 +33,7 @@ export function RiskNotice({ risk, compact = false }: { risk: RevisionRisk; comp
           {riskSentence(risk)}
         </p>
       )}
-      {compact && !danger ? null : <ResultsCaution />}
+      {compact && !danger ? null : <Caution />}
     </div>
   );
 }
