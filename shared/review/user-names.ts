@@ -246,6 +246,12 @@ export function drawnElements(circuit: unknown): Map<string, Record<string, unkn
   return out;
 }
 
+/** "3 loads", "1 switch", "2 switches": a count with its type word. */
+export function countWords(count: number, word: string): string {
+  if (count === 1) return `1 ${word}`;
+  return `${count} ${/(s|x|ch|sh)$/.test(word) ? `${word}es` : `${word}s`}`;
+}
+
 /** Element counts by type in words, as drawn (hidden switches not counted). */
 export function drawnCounts(circuit: unknown): { total: number; byType: { type: string; count: number }[] } {
   const counts = new Map<string, number>();

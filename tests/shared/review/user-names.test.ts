@@ -1,7 +1,7 @@
 /** User names only: internal expansions of an opened connection and engine type names read as what the user drew. */
 import { describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../../shared/engine/index.ts';
-import { circuitNames, conductorWords, diffRevisions, drawnCounts, drawnElements, parameterWords, summarizeCircuit, typeWord, valueWords } from '../../../shared/review/index.ts';
+import { circuitNames, conductorWords, countWords, diffRevisions, drawnCounts, drawnElements, parameterWords, summarizeCircuit, typeWord, valueWords } from '../../../shared/review/index.ts';
 
 const base = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
 /** The demo with its drop repaired, and KITCHEN's neutral opened the way the workspace writes one click on "Open neutral". */
@@ -80,6 +80,9 @@ describe('drawn elements and counts', () => {
   });
 
   it('says type names and conductors in words', () => {
+    expect(countWords(3, 'load')).toBe('3 loads');
+    expect(countWords(2, 'switch')).toBe('2 switches');
+    expect(countWords(1, 'earth electrode')).toBe('1 earth electrode');
     expect(typeWord('switch3')).toBe('switch');
     expect(typeWord('zipLoad')).toBe('ZIP load');
     expect(typeWord('nonsense')).toBe('element');

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Link, useNavigate } from 'react-router';
 import type { Role } from '../../../../shared/api/common.ts';
 import type { ResultsSummary } from '../../../../shared/review/summary.ts';
-import { circuitNames, drawnCounts, drawnElements, type CircuitNames } from '../../../../shared/review/user-names.ts';
+import { circuitNames, countWords, drawnCounts, drawnElements, type CircuitNames } from '../../../../shared/review/user-names.ts';
 import { Button, buttonClass } from '../../../components/button.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
@@ -199,7 +199,7 @@ export function RevisionPage({ studyId, n, role }: { studyId: string; n: number;
                     <dt className="text-ink-muted">Frequency</dt>
                     <dd className="num">{revision.data.content.circuit.frequencyHz} Hz</dd>
                     <dt className="text-ink-muted">Elements</dt>
-                    <dd>{facts.byType.length === 0 ? 'none' : facts.byType.map((t) => `${t.count} ${t.type}`).join(', ')}</dd>
+                    <dd>{facts.byType.length === 0 ? 'none' : facts.byType.map((t) => countWords(t.count, t.type)).join(', ')}</dd>
                     <dt className="text-ink-muted">Buses</dt>
                     <dd className="break-words">{facts.buses.join(' · ') || '—'}</dd>
                   </dl>
