@@ -4,7 +4,7 @@
  * reopen; edit and delete one's own; @mentions notify team members. Text is stored and returned
  * verbatim and never rendered as HTML by the server; e-mails escape it.
  */
-import { circuitNames } from '../../shared/review/user-names.ts';
+import { anchorWords, circuitNames } from '../../shared/review/user-names.ts';
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import type { Comment, CommentAnchor, CreateCommentRequest, UpdateCommentRequest } from '../../shared/api/comments.ts';
 import { findMentions } from '../../shared/review/mentions.ts';
@@ -79,14 +79,24 @@ async function teamMembers(db: Db, teamId: string) {
 }
 
 /** Sends mention notifications for the members newly mentioned in `body`. */
-async function notifyMentions(db: Db, mailer: Mailer, appUrl: string, actor: Actor, studyId: string, studyName: string, body: string, mentioned: { id: string; name: string; email: string }[]) {
+async function notifyMentions(
+  db: Db,
+  mailer: Mailer,
+  appUrl: string,
+  actor: Actor,
+  studyId: string,
+  studyName: string,
+  body: string,
+  mentioned: { id: string; name: string; email: string }[],
+  where?: string,
+) {
   await notify(db, mailer, {
     kind: 'mention',
     teamId: actor.teamId,
     studyId,
     actorId: actor.userId,
     recipients: mentioned,
-    text: `${actor.name} mentioned you in a comment on "${studyName}".`,
+    text: `${actor.name} mentioned you in a comment on ${where ? `${where} of ` : ''}"${studyName}".`,
     subject: `${actor.name} mentioned you: ${studyName}`,
     quote: body,
     link: studyLink(appUrl, studyId),
@@ -110,8 +120,8 @@ export async function createComment(db: Db, mailer: Mailer, appUrl: string, acto
   }
   const latest = await latestRevision(db, studyId);
   let anchor = input.anchor;
+  const circuit = (latest?.content as { circuit?: { elements?: { id?: unknown }[] } } | undefined)?.circuit ?? study.content.circuit;
   if (anchor && 'elementId' in anchor) {
-    const circuit = (latest?.content as { circuit?: { elements?: { id?: unknown }[] } } | undefined)?.circuit ?? study.content.circuit;
     // A thread on the hidden switch of an opened connection belongs to the element the user drew.
     anchor = { elementId: circuitNames(circuit).drawnElement(anchor.elementId) };
     const ids = new Set((circuit.elements ?? []).map((e) => (e as { id?: unknown }).id));
@@ -132,7 +142,8 @@ export async function createComment(db: Db, mailer: Mailer, appUrl: string, acto
     })
     .returning();
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'comment.create', studyId, detail: { commentId: row.id, parentId, anchor: anchor ?? null } });
-  await notifyMentions(db, mailer, appUrl, actor, studyId, study.name, input.body, mentioned);
+  // The mail says where the comment points, in the names the user drew ("element KITCHEN").
+  await notifyMentions(db, mailer, appUrl, actor, studyId, study.name, input.body, mentioned, anchor ? anchorWords(anchor, circuitNames(circuit)) : undefined);
   return (await toComments(db, [row]))[0];
 }
 

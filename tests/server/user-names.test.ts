@@ -28,11 +28,13 @@ let t: TestApp;
 let engineer: TestAgent;
 let owner: TestAgent;
 let reviewerId: string;
+let teamId: string;
 
 beforeAll(async () => {
   db = await openTestDb();
   t = makeApp(db);
   const team = await makeTeam(db, 'Names team');
+  teamId = team;
   const e = await makeUser(db, team, 'engineer', 'Edda Engineer');
   const o = await makeUser(db, team, 'owner', 'Orla Owner');
   reviewerId = (await makeUser(db, team, 'reviewer', 'Rhea Reviewer')).id;
@@ -84,6 +86,13 @@ describe('a study with a neutral opened by one click', () => {
     const res = await engineer.post(`/api/studies/${id}/comments`).send({ body: 'Why is the source neutral open?', anchor: { elementId: 'XFMR-SEC~bus~sw' } });
     expect(res.status).toBe(201);
     expect(res.body.anchor).toEqual({ elementId: 'XFMR-SEC' });
+    // A mention on a result row of the private terminal bus says where, in words.
+    await engineer.post(`/api/studies/${id}/comments`).send({ body: '@Rhea what does the source see?', anchor: { resultRow: { table: 'bus-voltages', key: 'XFMR-SEC~bus' } } });
+    const mails = (await t.mailer.list(teamId)).filter((m) => m.subject.startsWith('Edda Engineer mentioned you'));
+    expect(mails.length).toBeGreaterThan(0);
+    const full = (await t.mailer.get(teamId, mails[0].id))!;
+    expect(full.text).toContain('Edda Engineer mentioned you in a comment on bus voltages at XFMR-SEC terminals at PAD of "Opened ');
+    expect(full.text.replace(/https?:\/\/\S+/g, '')).not.toMatch(INTERNAL);
   });
 
   it('writes the audit trail in words: member and study names, revision numbers, no ids or JSON', async () => {
