@@ -4,7 +4,7 @@
  * the workspace stores them: hidden switches `<element>~<field>~sw` and private terminal buses) gets
  * a few revisions and comments, a review, an approval with its violations acknowledged in the
  * approve dialog, a template mark and a copy from the gallery. Then every route is visited as each
- * role, and every page's text (document.body.innerText) and every e-mail is searched for: the
+ * role, and every page's text (document.body.innerText, tooltips and accessible names) and every e-mail is searched for: the
  * private marker "~", "#"-names, engine type names (switch3, zipLoad, capacitorBank, …), UUIDs
  * and JSON braces. Links may carry ids (they are addresses, not words), so addresses are left out.
  * Screenshots of each page the engineer sees land in test-artifacts/names-*.png.
@@ -100,7 +100,13 @@ describe('no internal name on any page or e-mail', () => {
       // The workspace solves in a worker: wait for the results of the drawn buses.
       await page.getByRole('region', { name: 'Results' }).getByText('HOUSE').first().waitFor({ timeout: 20_000 }).catch(() => undefined);
     }
-    return page.evaluate(() => document.body.innerText);
+    // What people read: the text, and the tooltips and accessible names screen readers speak.
+    return page.evaluate(() => {
+      const attrs = [...document.querySelectorAll('[title], [aria-label], [alt], [placeholder]')].flatMap((el) =>
+        ['title', 'aria-label', 'alt', 'placeholder'].map((a) => el.getAttribute(a)).filter((v): v is string => !!v),
+      );
+      return `${document.body.innerText}\n${attrs.join('\n')}`;
+    });
   }
 
   function check(where: string, text: string) {
