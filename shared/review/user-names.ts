@@ -191,8 +191,14 @@ export function circuitNames(circuit: unknown): CircuitNames {
         if (t) return `${lead}${o.element} ${t.conductor ? `terminal ${conductorName(t.conductor)}` : 'terminals'} at ${o.bus}${t.trailing}`;
       }
     }
-    const g = guess(body.replace(/[.,;:!?)\]]+$/, ''));
-    return `${lead}${g.element}`;
+    // A generated name with no switch in this circuit (a damaged or foreign file): read its parts.
+    const m = /^([^~]*)~([^~]*?)(~sw)?(?:[./]([abcn12]))?([.,;:!?)\]]*)$/.exec(body);
+    if (m) {
+      const element = m[1] || 'an element';
+      if (m[3]) return `${lead}${m[4] ? `conductor ${conductorName(m[4])} of the ` : ''}connection ${element}–its bus${m[5]}`;
+      return `${lead}${element} ${m[4] ? `terminal ${conductorName(m[4])}` : 'terminals'}${m[5]}`;
+    }
+    return `${lead}${guess(body).element}`;
   };
 
   const text = (message: string): string => {
