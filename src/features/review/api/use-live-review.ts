@@ -10,8 +10,8 @@ import { reviewKeys } from './keys.ts';
  * cached study (`['studies', 'detail', id]`) with the server's answer, whose status may have moved
  * (a save returns a reviewed study to draft); the review, revisions and diffs cached under it are
  * then stale. When the study's edit version moves, they are refetched, and until the review
- * arrives the status shown is the study's own, so the page never says CHANGES REQUESTED about a
- * study the save just made a draft.
+ * arrives the status shown is the study's own (the newer of the two answers wins), so the page
+ * never says CHANGES REQUESTED about a study the save just made a draft.
  */
 export function useLiveReview(studyId: string): ReturnType<typeof useReview> {
   const queryClient = useQueryClient();
@@ -27,7 +27,8 @@ export function useLiveReview(studyId: string): ReturnType<typeof useReview> {
     seen.current = version;
   }, [queryClient, studyId, version]);
   const status = study.data?.status;
-  if (!review.data || !status || review.data.status === status) return review;
+  // Whichever answer is newer tells the status: the review after a review action, the study after a save.
+  if (!review.data || !status || review.data.status === status || review.dataUpdatedAt >= study.dataUpdatedAt) return review;
   const data: ReviewState = { ...review.data, status };
   return { ...review, data } as ReturnType<typeof useReview>;
 }
