@@ -83,7 +83,9 @@ export function circuitIssueWords(circuit: unknown, issue: CircuitIssue, prefix 
   if (el) {
     const i = Number(el[1]);
     const raw = isRecord(circuit) && Array.isArray(circuit.elements) ? circuit.elements[i] : undefined;
-    const id = isRecord(raw) && typeof raw.id === 'string' && raw.id !== '' ? raw.id : null;
+    // The element's name from the file, else from the engine's own label ("(id "LOAD3")") when the file is not at hand.
+    const hinted = /\(id "([^"]*)"\)/.exec(issue.message)?.[1] ?? null;
+    const id = isRecord(raw) && typeof raw.id === 'string' && raw.id !== '' ? raw.id : hinted || null;
     const who = id ? `element ${id}` : `element ${i + 1} (it has no name)`;
     const rest = el[2];
     const verb = /^(is|has|must|needs|does) /.test(msg);

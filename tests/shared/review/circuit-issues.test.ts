@@ -1,7 +1,7 @@
 /** Problems of a circuit file read like form errors: the element by its name, the field in words, what is wrong in words. */
 import { describe, expect, it } from 'vitest';
 import { InvalidCircuitError, parseCircuit } from '../../../shared/engine/index.ts';
-import { circuitIssueFields, issueMessageWords } from '../../../shared/review/circuit-issues.ts';
+import { circuitIssueFields, circuitIssueWords, issueMessageWords } from '../../../shared/review/circuit-issues.ts';
 
 /** The engine's issues of `circuit`, in words. */
 function words(circuit: unknown): string[] {
@@ -46,6 +46,10 @@ describe('circuit file problems in words', () => {
       ]),
     );
     for (const x of w) expect(x).not.toMatch(VALIDATOR);
+  });
+
+  it('names the element from the engine’s label when the file is not at hand', () => {
+    expect(circuitIssueWords(null, { path: 'elements[2].kva', message: 'Too small: expected number to be >0 (id "TX1")' })).toBe('element TX1: rating (kVA) must be greater than 0');
   });
 
   it('says two elements share a name', () => {
