@@ -9,11 +9,13 @@
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
  * never a stack trace. `--timings` adds one stderr line splitting the run (start-up and imports,
  * read, JSON parse, validate + expand, solve, results, output). Big JSON results are written in
- * chunks (see writeJson). Kept light on purpose (it is benchmarked against ngspice): file → parse →
+ * chunks (see writeJson); a primitive-only file's --json is written straight from the solution
+ * (printed-json.ts). Kept light on purpose (it is benchmarked against ngspice): file → parse →
  * solve → write, importing only the engine.
  */
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
+import { writePrintedPrimitiveJson } from './printed-json.ts';
 import { EngineError, circuitResults, prepareCircuit, solvePrimitives, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
 
 const CAUTION =
@@ -193,23 +195,28 @@ export function main(argv: string[]): void {
     fail(2, `${file} is not valid JSON: ${(e as Error).message}`);
   }
   mark('JSON parse');
-  let result: CircuitResult;
+  let result: CircuitResult | undefined;
+  const write = (chunk: string) => process.stdout.write(chunk);
   try {
     // solveCircuit's steps, one by one so that --timings can split them
     const prepared = prepareCircuit(input);
     mark('validate + expand');
     const solution = solvePrimitives(prepared.primitives);
     mark('solve');
-    result = circuitResults(prepared, solution);
-    mark('results');
+    // --json of a primitive-only file: only what is printed, straight from the solution (same bytes)
+    if (asJson && !full && writePrintedPrimitiveJson(prepared, solution, write)) mark('results + JSON write');
+    else {
+      result = circuitResults(prepared, solution);
+      mark('results');
+    }
   } catch (e) {
     if (e instanceof EngineError) fail(e.code === 'invalid-circuit' ? 2 : 3, e.message);
     fail(3, `internal error: ${(e as Error).message ?? String(e)}`);
   }
-  if (asJson) {
-    writeJson(jsonResult(result, full), (chunk) => process.stdout.write(chunk));
+  if (result && asJson) {
+    writeJson(jsonResult(result, full), write);
     mark('JSON write');
-  } else {
+  } else if (result) {
     process.stdout.write(formatReport(result));
     mark('report');
   }

@@ -28,7 +28,8 @@ export function splitBusNode(node: string): { bus: string; conductor: string } |
   return { bus, conductor };
 }
 
-function busResults(ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, floatingNodes: Set<string>): BusResult[] {
+/** Per-bus results of every bus named by a port or by a node "BUS.c" (also used by the CLI's printed-only path). */
+export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, floatingNodes: Set<string>): BusResult[] {
   const buses = new Map<string, Set<string>>();
   const order: string[] = [];
   const note = (bus: string) => {
@@ -130,12 +131,32 @@ function absorbedPower(p: Primitive, I: readonly Cx[], V: (n: string) => Cx): Cx
   return { re, im };
 }
 
+/** The powers of one bare primitive: absorbed (Σ V·I*), the source's emf power and internal loss. */
+export interface PrimitivePowers {
+  absorbed: Cx;
+  emf?: Cx;
+  internalLoss?: Cx;
+}
+
+/**
+ * Powers of a bare primitive from its solver currents `I` (shared by the full results and the CLI's
+ * printed-only path, so both add up the same numbers in the same order).
+ */
+export function primitivePowers(prim: Primitive, I: readonly Cx[], V: (n: string) => Cx, isSource: boolean): PrimitivePowers {
+  const absorbed = I.length ? absorbedPower(prim, I, V) : ZERO;
+  let emf: Cx | undefined;
+  if (prim.type === 'voltageSource' && I.length) emf = mul(prim.volts, conj(I[0]));
+  else if (prim.type === 'currentSource') emf = neg(absorbed);
+  const internalLoss = isSource && emf ? add(emf, absorbed) : undefined;
+  return { absorbed, emf, internalLoss };
+}
+
 /** A bare primitive: its currents are the solver's (fast path: large primitive-only files). */
 function primitiveResult(e: Expansion, sol: PrimitiveSolution, V: (n: string) => Cx): ElementWork {
   const t = e.primitives[0];
   const I = sol.elementCurrents.get(t.prim.id) ?? [];
-  const absorbed = I.length ? absorbedPower(t.prim, I, V) : ZERO;
   const isSource = e.category === 'source';
+  const { absorbed, emf, internalLoss } = primitivePowers(t.prim, I, V, isSource);
   const result: ElementResult = {
     id: e.id,
     type: e.type,
@@ -144,16 +165,8 @@ function primitiveResult(e: Expansion, sol: PrimitiveSolution, V: (n: string) =>
     currentDirection: 'primitive',
     power: toPhasor(isSource ? neg(absorbed) : absorbed),
   };
-  let emf: Cx | undefined;
-  if (t.prim.type === 'voltageSource' && I.length) {
-    emf = mul(t.prim.volts, conj(I[0]));
-    result.emfPower = toPhasor(emf);
-  } else if (t.prim.type === 'currentSource') emf = neg(absorbed);
-  let internalLoss: Cx | undefined;
-  if (isSource && emf) {
-    internalLoss = add(emf, absorbed);
-    result.losses = toPhasor(internalLoss);
-  }
+  if (t.prim.type === 'voltageSource' && emf) result.emfPower = toPhasor(emf);
+  if (internalLoss) result.losses = toPhasor(internalLoss);
   if (e.category === 'series') result.losses = result.power;
   return { result, absorbed, emf, internalLoss };
 }
@@ -242,6 +255,75 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
   return { result, absorbed, emf, internalLoss };
 }
 
+/** The work of one element that the totals need. */
+export type TotalsWork = PrimitivePowers;
+
+/**
+ * Sums of source, load, fault and loss powers over the elements, added in element order (the
+ * full results and the CLI's printed-only path share it: same additions, same last bits).
+ */
+export class TotalsSum {
+  private acc: Record<'source' | 'load' | 'fault' | 'losses', { re: number; im: number }> = { source: { re: 0, im: 0 }, load: { re: 0, im: 0 }, fault: { re: 0, im: 0 }, losses: { re: 0, im: 0 } };
+
+  private addTo(key: 'source' | 'load' | 'fault' | 'losses', c: Cx): void {
+    this.acc[key].re += c.re;
+    this.acc[key].im += c.im;
+  }
+
+  /** Add one element of category `category`. */
+  add(category: string, w: TotalsWork): void {
+    if (category === 'source') this.addTo('source', w.emf ?? neg(w.absorbed));
+    else if (category === 'load' || category === 'fault') this.addTo(category, w.absorbed);
+    else this.addTo('losses', w.absorbed); // series elements and earth electrodes
+    if (w.internalLoss) this.addTo('losses', w.internalLoss);
+  }
+
+  /** The totals of the result. */
+  result(maxKclResidualAmps: number): CircuitResult['totals'] {
+    const { source, load, fault, losses } = this.acc;
+    const residual = sub(sub(sub(source, load), fault), losses);
+    return {
+      sourcePower: toPhasor(source),
+      loadPower: toPhasor(load),
+      faultPower: toPhasor(fault),
+      losses: toPhasor(losses),
+      powerBalanceResidual: toPhasor(residual),
+      maxKclResidualAmps,
+    };
+  }
+}
+
+/** Voltage-dependent load branches the solver found below their low-voltage threshold, named by their element. */
+export function lowVoltageLoadBranches(expansions: Expansion[], sol: PrimitiveSolution): LowVoltageLoadBranch[] {
+  const lowLoads: LowVoltageLoadBranch[] = [];
+  if (sol.lowVoltageLoads && sol.lowVoltageLoads.length > 0) {
+    const owner = new Map<string, { e: Expansion; phase?: string }>();
+    for (const e of expansions) for (const t of e.primitives) if (t.prim.type === 'zipLoad') owner.set(t.prim.id, { e, phase: t.phase });
+    for (const l of sol.lowVoltageLoads) {
+      const o = owner.get(l.id);
+      const prim = o?.e.primitives.find((t) => t.prim.id === l.id)?.prim;
+      const volts = prim && prim.type === 'zipLoad' ? l.voltsPu * prim.ratedVolts : NaN;
+      const multi = o ? o.e.primitives.length > 1 : false;
+      lowLoads.push({ elementId: o?.e.id ?? l.id, ...(multi && o?.phase ? { branch: o.phase } : {}), volts, voltsPu: l.voltsPu, lowVoltagePu: l.lowVoltagePu });
+    }
+  }
+  return lowLoads;
+}
+
+/** The conventions stated in every result. */
+export function resultConventions(sequence: 'ABC' | 'ACB'): CircuitResult['conventions'] {
+  return {
+    phasors: 'RMS',
+    power: 'S = V·I*, load convention, Q > 0 lagging',
+    sequence,
+    sequenceComponents:
+      sequence === 'ABC'
+        ? 'a = 1∠120°: X0 = (Xa+Xb+Xc)/3, X1 = (Xa+aXb+a²Xc)/3, X2 = (Xa+a²Xb+aXc)/3; bus sequence voltages are of the phase-to-earth voltages'
+        : 'ACB system: positive sequence is the system rotation, X1 = (Xa+a²Xb+aXc)/3, X2 = (Xa+aXb+a²Xc)/3 (a = 1∠120°); bus sequence voltages are of the phase-to-earth voltages',
+    transformerShift: 'per transformer (phaseShift): IEC clock number (LV lags HV by clock × 30° in an ABC system) or the North American rule (LV lags HV by 30° for D–Y and Y–D)',
+  };
+}
+
 /** Build the whole typed result. */
 export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, limits: LimitSet): CircuitResult {
   const nodes: Record<string, Phasor> = {};
@@ -249,25 +331,10 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
   const floatingNodes = new Set(sol.floating.flatMap((f) => f.nodes));
   const buses = busResults(ctx, expansions, sol, floatingNodes);
   const works = expansions.map((e) => elementResult(e, sol, ctx.sequence));
+  const totals = new TotalsSum();
+  for (const w of works) totals.add(w.result.category, w);
   const elements: Record<string, ElementResult> = {};
   for (const w of works) elements[w.result.id] = w.result;
-  const acc: Record<string, { re: number; im: number }> = { source: { re: 0, im: 0 }, load: { re: 0, im: 0 }, fault: { re: 0, im: 0 }, losses: { re: 0, im: 0 } };
-  const addTo = (key: string, c: Cx) => {
-    acc[key].re += c.re;
-    acc[key].im += c.im;
-  };
-  for (const w of works) {
-    const cat = w.result.category;
-    if (cat === 'source') addTo('source', w.emf ?? neg(w.absorbed));
-    else if (cat === 'load' || cat === 'fault') addTo(cat, w.absorbed);
-    else addTo('losses', w.absorbed); // series elements and earth electrodes
-    if (w.internalLoss) addTo('losses', w.internalLoss);
-  }
-  const sourcePower = acc.source;
-  const loadPower = acc.load;
-  const faultPower = acc.fault;
-  const losses = acc.losses;
-  const residual = sub(sub(sub(sourcePower, loadPower), faultPower), losses);
   const faults: FaultResult[] = [];
   for (const e of expansions) {
     if (e.meta?.kind !== 'fault') continue;
@@ -286,45 +353,17 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
     });
   }
   const elementList = works.map((w) => w.result);
-  const lowLoads: LowVoltageLoadBranch[] = [];
-  if (sol.lowVoltageLoads && sol.lowVoltageLoads.length > 0) {
-    const owner = new Map<string, { e: Expansion; phase?: string }>();
-    for (const e of expansions) for (const t of e.primitives) if (t.prim.type === 'zipLoad') owner.set(t.prim.id, { e, phase: t.phase });
-    for (const l of sol.lowVoltageLoads) {
-      const o = owner.get(l.id);
-      const prim = o?.e.primitives.find((t) => t.prim.id === l.id)?.prim;
-      const volts = prim && prim.type === 'zipLoad' ? l.voltsPu * prim.ratedVolts : NaN;
-      const multi = o ? o.e.primitives.length > 1 : false;
-      lowLoads.push({ elementId: o?.e.id ?? l.id, ...(multi && o?.phase ? { branch: o.phase } : {}), volts, voltsPu: l.voltsPu, lowVoltagePu: l.lowVoltagePu });
-    }
-  }
   return {
     ...(circuit.name !== undefined ? { name: circuit.name } : {}),
     frequencyHz: circuit.frequencyHz,
-    conventions: {
-      phasors: 'RMS',
-      power: 'S = V·I*, load convention, Q > 0 lagging',
-      sequence: ctx.sequence,
-      sequenceComponents:
-        ctx.sequence === 'ABC'
-          ? 'a = 1∠120°: X0 = (Xa+Xb+Xc)/3, X1 = (Xa+aXb+a²Xc)/3, X2 = (Xa+a²Xb+aXc)/3; bus sequence voltages are of the phase-to-earth voltages'
-          : 'ACB system: positive sequence is the system rotation, X1 = (Xa+a²Xb+aXc)/3, X2 = (Xa+aXb+a²Xc)/3 (a = 1∠120°); bus sequence voltages are of the phase-to-earth voltages',
-      transformerShift: 'per transformer (phaseShift): IEC clock number (LV lags HV by clock × 30° in an ABC system) or the North American rule (LV lags HV by 30° for D–Y and Y–D)',
-    },
+    conventions: resultConventions(ctx.sequence),
     nodes,
     buses,
     elements,
     faults,
-    totals: {
-      sourcePower: toPhasor(sourcePower),
-      loadPower: toPhasor(loadPower),
-      faultPower: toPhasor(faultPower),
-      losses: toPhasor(losses),
-      powerBalanceResidual: toPhasor(residual),
-      maxKclResidualAmps: sol.maxKclResidualAmps,
-    },
+    totals: totals.result(sol.maxKclResidualAmps),
     floating: sol.floating,
-    flags: computeFlags(buses, elementList, sol.floating, limits, lowLoads),
+    flags: computeFlags(buses, elementList, sol.floating, limits, lowVoltageLoadBranches(expansions, sol)),
     limits,
     iterations: sol.iterations,
   };
