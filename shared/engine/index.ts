@@ -24,6 +24,10 @@ export {
 } from './schema/circuit.ts';
 export { complexSchema, earthingSchema, CONDUCTORS, PHASES, type Conductor, type Phase, type ComplexInput, type EarthingInput } from './schema/common.ts';
 export { toCx } from './schema/to-cx.ts';
+export { casesSchema, studyCaseSchema, caseChangeSchema, BASE_CASE_ID, type StudyCase, type CaseChange } from './schema/cases.ts';
+export { applyCase, circuitCases, caseLabel } from './cases/apply-case.ts';
+export { setPath, getPath, resolveParameter, type ParameterPath } from './cases/set-path.ts';
+export { sweepValues, sweepPoints, sweepCircuit, MAX_SWEEP_POINTS, type SweepParameter } from './cases/sweep-points.ts';
 export { circuitJsonSchema } from './schema/json-schema.ts';
 export * from './schema/blocks.ts';
 export * from './schema/primitives.ts';

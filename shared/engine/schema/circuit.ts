@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { busSchema, nonNegNum, posNum } from './common.ts';
 import { primitiveSchemas } from './primitives.ts';
 import { blockSchemas } from './blocks.ts';
+import { casesSchema } from './cases.ts';
 
 export const elementSchemas = { ...primitiveSchemas, ...blockSchemas } as const;
 export type ElementType = keyof typeof elementSchemas;
@@ -67,6 +68,7 @@ export const circuitSchema = z.strictObject({
   buses: z.array(busInfoSchema).optional(),
   limits: limitsSchema.optional(),
   elements: z.array(elementSchema),
+  cases: casesSchema.optional().meta({ description: 'Study cases: named lists of changes (set fields of an element, add one, remove one) applied to this base circuit. See docs/circuit-format.md.' }),
 });
 /** A validated circuit (defaults applied). */
 export type Circuit = z.infer<typeof circuitSchema>;
