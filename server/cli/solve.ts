@@ -1,5 +1,8 @@
 /**
- * `npm run -s solve -- <file.json> [--json [--full]] [--timings]`: solve a Wyeward circuit file.
+ * `npm run -s solve -- <file.json> [--json [--full]] [--case <id> | --all-cases] [--timings]`: solve a
+ * Wyeward circuit file, or one of its study cases (`--case`), or the base and every case
+ * (`--all-cases`: with --json `{ "cases": { "base": {…}, "<id>": {…} } }`, each entry exactly what
+ * `--json` prints for that case, or `{ "error": { code, message } }` for a case that fails).
  *
  * Without --json: a readable report (buses, element currents, faults, totals, flags) with the
  * safety caution. With --json: the results as JSON on stdout: `nodes` (voltage to earth per node)
@@ -16,13 +19,13 @@
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { writePrintedPrimitiveJson } from './printed-json.ts';
-import { EngineError, circuitResults, prepareCircuit, solvePrimitives, type CircuitResult, type Phasor } from '../../shared/engine/index.ts';
+import { BASE_CASE_ID, EngineError, applyCase, caseLabel, circuitCases, circuitResults, prepareCircuit, solvePrimitives, type CircuitResult, type Phasor, type StudyCase } from '../../shared/engine/index.ts';
 
-const CAUTION =
+export const CAUTION =
   'CAUTION: Wyeward is an engineering aid. Results are only as good as the model; designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.';
 
 /** Exit with one line on stderr. */
-function fail(code: number, message: string): never {
+export function fail(code: number, message: string): never {
   process.stderr.write(`solve: ${message.split('\n')[0]}\n`);
   process.exit(code);
 }
@@ -120,7 +123,7 @@ const BATCH = 256;
  * text as `JSON.stringify(value) + '\n'`, but the large records (nodes, elements) are serialized
  * a batch of entries at a time, so a 20 000-bus result (~32 MB) never exists as one string and one buffer.
  */
-export function writeJson(value: Record<string, unknown>, write: (chunk: string) => void, chunkChars = 1 << 20): void {
+export function writeJson(value: Record<string, unknown>, write: (chunk: string) => void, chunkChars = 1 << 20, end = '\n'): void {
   let buf = '';
   const push = (s: string) => {
     buf += s;
@@ -164,20 +167,32 @@ export function writeJson(value: Record<string, unknown>, write: (chunk: string)
     if (inBatch) flush();
     push('}');
   }
-  push('}\n');
+  push(`}${end}`);
   if (buf) write(buf);
 }
 
 /** Run the CLI on its arguments (exits the process on errors). Called directly or by solve-launcher.mjs. */
 export function main(argv: string[]): void {
   const t0 = performance.now();
-  const args = argv.filter((a) => a !== '--json' && a !== '--full' && a !== '--timings');
+  const switches = new Set(['--json', '--full', '--timings', '--all-cases']);
+  const args: string[] = [];
+  let caseId: string | undefined;
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === '--case' || a.startsWith('--case=')) {
+      const v = a === '--case' ? argv[++i] : a.slice('--case='.length);
+      if (!v || v.startsWith('--')) fail(2, `--case needs the id of a case (${USAGE})`);
+      caseId = v;
+    } else if (!switches.has(a)) args.push(a);
+  }
   const asJson = argv.includes('--json');
   const full = argv.includes('--full');
   const timings = argv.includes('--timings');
+  const allCases = argv.includes('--all-cases');
   const unknownFlag = args.find((a) => a.startsWith('--'));
   if (unknownFlag) fail(2, `unknown option ${unknownFlag} (${USAGE})`);
   if (args.length !== 1) fail(2, USAGE);
+  if (allCases && caseId !== undefined) fail(2, `--case and --all-cases cannot be used together (${USAGE})`);
   const file = args[0];
   const marks: [string, number][] = [];
   const mark = (label: string) => marks.push([label, performance.now()]);
@@ -195,6 +210,21 @@ export function main(argv: string[]): void {
     fail(2, `${file} is not valid JSON: ${(e as Error).message}`);
   }
   mark('JSON parse');
+  if (allCases) {
+    solveAllCases(input, asJson, full);
+    return;
+  }
+  let studyCase: StudyCase | undefined;
+  if (caseId !== undefined && caseId !== BASE_CASE_ID) {
+    try {
+      studyCase = circuitCases(input).find((c) => c.id === caseId);
+      input = applyCase(input as Record<string, unknown>, caseId);
+    } catch (e) {
+      if (e instanceof EngineError) fail(2, e.message);
+      throw e;
+    }
+    mark('apply case');
+  }
   let result: CircuitResult | undefined;
   const write = (chunk: string) => process.stdout.write(chunk);
   try {
@@ -217,7 +247,7 @@ export function main(argv: string[]): void {
     writeJson(jsonResult(result, full), write);
     mark('JSON write');
   } else if (result) {
-    process.stdout.write(formatReport(result));
+    process.stdout.write((studyCase ? `${caseHeading(studyCase)}\n` : '') + formatReport(result));
     mark('report');
   }
   if (timings) {
@@ -233,7 +263,69 @@ export function main(argv: string[]): void {
   }
 }
 
-const USAGE = 'usage: solve <file.json> [--json [--full]]';
+const USAGE = 'usage: solve <file.json> [--json [--full]] [--case <id> | --all-cases]';
+
+/** The line above a case's readable report. */
+const caseHeading = (c: StudyCase) => `Study ${caseLabel(c)}${c.name ? ` (${c.id})` : ''}: the base circuit with ${c.changes.length} change${c.changes.length === 1 ? '' : 's'}`;
+
+/** Solve one circuit file (no cases): the results, or the engine error. */
+export function solveOne(input: unknown): { result: CircuitResult } | { error: EngineError } {
+  try {
+    const prepared = prepareCircuit(input);
+    return { result: circuitResults(prepared, solvePrimitives(prepared.primitives)) };
+  } catch (e) {
+    if (e instanceof EngineError) return { error: e };
+    return { error: new EngineError('non-convergence', `internal error: ${(e as Error).message ?? String(e)}`) };
+  }
+}
+
+/** Exit code of an engine error, as for a single solve: 2 invalid input, 3 cannot be solved. */
+export const exitCodeOf = (e: EngineError) => (e.code === 'invalid-circuit' ? 2 : 3);
+
+/**
+ * --all-cases: the base and every case, in file order. A case that fails is reported in its entry
+ * (JSON) or in its section (report) and the others still run; the exit code is then that of the
+ * worst failure, with one stderr line naming the first failing case.
+ */
+function solveAllCases(input: unknown, asJson: boolean, full: boolean): void {
+  let cases: StudyCase[];
+  try {
+    cases = circuitCases(input);
+  } catch (e) {
+    if (e instanceof EngineError) fail(2, e.message);
+    throw e;
+  }
+  const write = (chunk: string) => process.stdout.write(chunk);
+  const failures: { label: string; error: EngineError }[] = [];
+  const entries: [string, StudyCase | undefined][] = [[BASE_CASE_ID, undefined], ...cases.map((c): [string, StudyCase] => [c.id, c])];
+  if (asJson) write('{"cases":{');
+  entries.forEach(([id, c], k) => {
+    let outcome: ReturnType<typeof solveOne>;
+    try {
+      outcome = solveOne(applyCase(input as Record<string, unknown>, id));
+    } catch (e) {
+      if (!(e instanceof EngineError)) throw e;
+      outcome = { error: e };
+    }
+    if ('error' in outcome) failures.push({ label: c ? caseLabel(c) : 'the base circuit', error: outcome.error });
+    if (asJson) {
+      write(`${k ? ',' : ''}${JSON.stringify(id)}:`);
+      if ('error' in outcome) write(JSON.stringify({ error: { code: outcome.error.code, message: outcome.error.message } }));
+      else writeJson(jsonResult(outcome.result, full), write, 1 << 20, '');
+    } else {
+      write(`${c ? caseHeading(c) : 'Base circuit'}\n`);
+      write('error' in outcome ? `  cannot be solved: ${outcome.error.message}\n\n` : formatReport(outcome.result));
+      write('\n');
+    }
+  });
+  if (asJson) write('}}\n');
+  if (failures.length) {
+    const worst = Math.max(...failures.map((f) => exitCodeOf(f.error)));
+    const more = failures.length > 1 ? ` (and ${failures.length - 1} more case${failures.length > 2 ? 's' : ''} failed)` : '';
+    const { label, error } = failures[0];
+    fail(worst, `${error.message.startsWith(label) ? error.message : `${label}: ${error.message}`}${more}`);
+  }
+}
 
 // Run only as a program (tests and tools may import the formatters).
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main(process.argv.slice(2));
