@@ -63,7 +63,7 @@ describe('solve CLI launcher', () => {
     expect(missing.stderr).toMatch(/^solve: cannot read .*nope\.json: ENOENT\n$/);
     const usage = launch([]);
     expect(usage.code).toBe(2);
-    expect(usage.stderr).toBe('solve: usage: solve <file.json> [--json [--full]]\n');
+    expect(usage.stderr).toBe('solve: usage: solve <file.json> [--json [--full]] [--case <id> | --all-cases]\n');
     const ill = path.join(dir, 'ill.json');
     writeFileSync(
       ill,

@@ -94,7 +94,7 @@ describe('solve CLI', () => {
   it('no file argument: exit 2 with the usage line', () => {
     const r = run([]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toBe('solve: usage: solve <file.json> [--json [--full]]\n');
+    expect(r.stderr).toBe('solve: usage: solve <file.json> [--json [--full]] [--case <id> | --all-cases]\n');
   });
   it('a network that cannot be solved (source shorted by a switch): exit 3 naming the elements', () => {
     const r = run([file('short.json', { ...primitives, elements: [...primitives.elements, { type: 'switch', id: 'SHORT', from: 'n1', to: 'earth', closed: true }] })]);
