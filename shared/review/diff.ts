@@ -7,6 +7,7 @@
 import { complexText, parameterWords, valueWords } from './parameter-words.ts';
 import type { FlagSummary, ResultsSummary } from './summary.ts';
 import { circuitNames, conductorWords, drawnElements, typeWord, type CircuitNames } from './user-names.ts';
+import { caseDiff, type CaseDiffLine } from './case-diff.ts';
 
 /** What a revision holds, as far as the diff is concerned. */
 export interface DiffSide {
@@ -62,8 +63,10 @@ export interface RevisionDiff {
   from: number;
   to: number;
   elements: { added: ElementRef[]; removed: ElementRef[]; changed: ElementChange[] };
-  /** Changes outside `elements` (frequency, sequence, buses, limits, name…). */
+  /** Changes outside `elements` and `cases` (frequency, sequence, buses, limits, name…). */
   circuit: ValueChange[];
+  /** Study cases added, removed, renamed and changed, in words (see case-diff.ts). */
+  cases: CaseDiffLine[];
   layoutChanged: boolean;
   settingsChanged: boolean;
   results: ResultDelta[];
@@ -155,7 +158,7 @@ const refOf = (id: string, e: Record<string, Json>): ElementRef => ({ id, type: 
 /** The circuit without its elements, its bus list keyed by bus name (so a bus reads "bus HOUSE", not "item 2"). */
 function circuitLevel(c: Json): Record<string, Json> {
   if (!isPlainObject(c)) return {};
-  const rest = Object.fromEntries(Object.entries(c).filter(([k]) => k !== 'elements'));
+  const rest = Object.fromEntries(Object.entries(c).filter(([k]) => k !== 'elements' && k !== 'cases'));
   if (Array.isArray(rest.buses)) {
     rest.buses = Object.fromEntries(
       rest.buses.map((b, i) => {
@@ -280,6 +283,7 @@ export function diffRevisions(from: DiffSide, to: DiffSide): RevisionDiff {
     to: to.number,
     elements: { added, removed, changed },
     circuit,
+    cases: caseDiff(from.content.circuit, to.content.circuit),
     layoutChanged: !jsonEqual(from.content.layout ?? null, to.content.layout ?? null),
     settingsChanged: !jsonEqual(from.content.settings ?? null, to.content.settings ?? null),
     results: resultDeltas(from.summary, to.summary, names),

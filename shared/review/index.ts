@@ -5,3 +5,4 @@ export * from './mentions.ts';
 export * from './user-names.ts';
 export * from './parameter-words.ts';
 export * from './risk.ts';
+export * from './case-diff.ts';

@@ -128,6 +128,28 @@ describe('revisions', () => {
     expect(list.body.items[0].results).toMatchObject({ ok: false, error: { code: expect.any(String), message: expect.any(String) } });
   });
 
+  it('keeps study cases through save, export and import, and the diff says what changed in them', async () => {
+    const s = await newStudy();
+    const lost = { id: 'lost-n', name: 'Neutral lost', changes: [{ element: 'DROP', set: { open: ['n'] } }] };
+    const withCases = { ...repaired, cases: [lost] };
+    const saved = await as.engineer.post(`/api/studies/${s.id}/revisions`).send({ version: 1, content: { circuit: withCases }, message: 'lost-neutral case' });
+    expect(saved.status).toBe(201);
+    expect((await as.viewer.get(`/api/studies/${s.id}`)).body.content.circuit.cases).toEqual([lost]);
+    const d = await as.viewer.get(`/api/studies/${s.id}/diff`);
+    expect(d.body.cases.map((c: { text: string }) => c.text)).toEqual(['case "Neutral lost" added (1 change)', 'case "Neutral lost": DROP open n added']);
+    expect(d.body.circuit).toEqual([]);
+    // export, then import: the cases come back as they were
+    const file = JSON.parse((await as.viewer.get(`/api/studies/${s.id}/export`)).text);
+    expect(file.circuit.cases).toEqual([lost]);
+    const imported = await as.engineer.post('/api/studies/import').send(file);
+    expect(imported.status).toBe(201);
+    expect((await as.engineer.get(`/api/studies/${imported.body.id}`)).body.content.circuit.cases).toEqual([lost]);
+    // a malformed case is refused with its path
+    const bad = await as.engineer.post(`/api/studies/${s.id}/revisions`).send({ version: 2, content: { circuit: { ...repaired, cases: [lost, lost] } } });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toContain('content.circuit.cases[1].id');
+  });
+
   it('diffs two revisions with element changes and result deltas with units', async () => {
     const s = await newStudy();
     await as.engineer.patch(`/api/studies/${s.id}`).send({ version: 1, content: { circuit: repaired } });

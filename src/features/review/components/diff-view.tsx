@@ -24,7 +24,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
   const { elements } = diff;
   const same = diff.from === diff.to;
   const nothing =
-    elements.added.length + elements.removed.length + elements.changed.length + diff.circuit.length + diff.results.length + diff.flags.added.length + diff.flags.removed.length === 0 &&
+    elements.added.length + elements.removed.length + elements.changed.length + diff.circuit.length + (diff.cases ?? []).length + diff.results.length + diff.flags.added.length + diff.flags.removed.length === 0 &&
     !diff.layoutChanged &&
     !diff.settingsChanged;
   return (
@@ -149,6 +149,19 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
           </div>
         ))}
       </section>
+
+      {(diff.cases ?? []).length > 0 ? (
+        <section aria-labelledby="diff-cases" className="flex flex-col gap-1">
+          <h3 id="diff-cases" className={H3}>
+            Study cases
+          </h3>
+          <ul aria-label="Study case changes" className="flex flex-col gap-0.5 text-[13px]">
+            {diff.cases.map((c, i) => (
+              <li key={i}>{c.text}</li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
 
       {diff.circuit.length > 0 || diff.layoutChanged || diff.settingsChanged ? (
         <section aria-labelledby="diff-circuit" className="flex flex-col gap-1">

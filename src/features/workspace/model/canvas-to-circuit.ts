@@ -203,6 +203,7 @@ export function canvasToCircuit(nodes: WorkspaceNode[], edges: WorkspaceEdge[], 
     ...(buses.length > 0 ? { buses } : {}),
     ...(settings.limits ? { limits: settings.limits as CircuitInput['limits'] } : {}),
     elements,
+    ...(settings.cases ? { cases: settings.cases as CircuitInput['cases'] } : {}),
   };
   return { circuit, map, problems };
 }

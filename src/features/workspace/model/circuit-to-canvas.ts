@@ -164,6 +164,7 @@ export function circuitToCanvas(circuit: CircuitInput, layout?: WorkspaceLayout 
     ...(circuit.limits ? { limits: { set: circuit.limits.set ?? 'ansi-c84.1', ...circuit.limits } } : {}),
     ...(circuit.name ? { name: circuit.name } : {}),
     ...(circuit.description ? { description: circuit.description } : {}),
+    ...(circuit.cases ? { cases: circuit.cases } : {}),
     ...(layout ? { shiftConvention: layout.shiftConvention, wiringStandard: layout.wiringStandard } : inferConvention(elements)),
   };
   return { nodes: positioned, edges, settings };

@@ -45,6 +45,8 @@ export interface StudySettings {
   description?: string;
   shiftConvention: ShiftConvention;
   wiringStandard: WiringStandard;
+  /** The circuit's study cases, carried through the canvas unchanged (edited elsewhere). */
+  cases?: unknown[];
 }
 
 /** Settings of a new study: 60 Hz, ABC, ANSI C84.1 limits, North American practice. */

@@ -28,6 +28,7 @@ function diff(from: number, to: number): RevisionDiff {
       ],
     },
     circuit: [{ path: 'frequencyHz', from: 60, to: 50, label: 'frequency (Hz)', fromText: '60', toText: '50' }],
+    cases: [{ caseId: 'lost-n', kind: 'change-added', text: 'case "Neutral lost": DROP open n added' }],
     layoutChanged: true,
     settingsChanged: false,
     results: [
@@ -71,6 +72,7 @@ describe('diff view', () => {
     expect(region).not.toHaveTextContent('switch3');
     expect(within(region).getByRole('table', { name: 'Circuit changes' })).toHaveTextContent('frequency (Hz)6050');
     expect(region).toHaveTextContent('The diagram layout changed.');
+    expect(within(region).getByRole('list', { name: 'Study case changes' })).toHaveTextContent('case "Neutral lost": DROP open n added');
     // Results are shown, so the caution is beside them.
     expect(region).toHaveTextContent('licensed practice');
   });

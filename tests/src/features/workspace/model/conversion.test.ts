@@ -31,6 +31,15 @@ describe('circuitToCanvas → canvasToCircuit', () => {
     });
   }
 
+  it('carries the study cases through the canvas unchanged (a save from the workspace keeps them)', () => {
+    const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+    const cases = [{ id: 'repaired', name: 'Neutral repaired', changes: [{ element: 'DROP', set: { open: [] } }] }];
+    const canvas = circuitToCanvas({ ...demo, cases } as CircuitInput);
+    expect(canvasToCircuit(canvas.nodes, canvas.edges, canvas.settings).circuit.cases).toEqual(cases);
+    const none = circuitToCanvas(demo);
+    expect(canvasToCircuit(none.nodes, none.edges, none.settings).circuit).not.toHaveProperty('cases');
+  });
+
   it('keeps element ids as canvas node ids and maps bus names to bus nodes', () => {
     const canvas = circuitToCanvas(demoCircuits[0].circuit);
     const ids = canvas.nodes.map((n) => n.id);
