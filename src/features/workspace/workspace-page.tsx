@@ -37,6 +37,7 @@ import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog, type Conflict
 import { historyReducer, initHistory } from './editing/history.ts';
 import { shortcutOf } from './editing/shortcuts.ts';
 import { PRIVATE_SEP, canvasToCircuit } from './model/canvas-to-circuit.ts';
+import { CasesCompare } from './results/cases-compare.tsx';
 import { busNodeId, canvasLayout, circuitToCanvas, wireId } from './model/circuit-to-canvas.ts';
 import { freshId, newElement, type PaletteItem } from './model/defaults.ts';
 import { readLayout, type StudySettings } from './model/layout.ts';
@@ -697,6 +698,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
         <div className="overflow-auto">
           <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={selectedName} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} />
+          <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
         </div>
       </div>
 
