@@ -1,6 +1,7 @@
 /**
  * The cases compare table as data: one row per quantity that matters in a lost-neutral or
- * contingency review (each phase's voltage and the neutral shift per bus, IEC voltage unbalance,
+ * contingency review (each phase's voltage and the neutral shift per bus, voltage unbalance by each
+ * definition (IEC, NEMA, IEEE),
  * each element's neutral and earth current, the number of flags), one value per case, the delta
  * against the base (the first case), and the worst case of each row: the largest value, or for a
  * phase voltage the furthest from the bus's nominal. Pure; labels speak of what the user drew.
@@ -45,6 +46,8 @@ function quantities(r: CircuitResult, specs: Map<string, RowSpec>): Map<string, 
     for (const [c, v] of Object.entries(b.lineToNeutral)) put(`v:${b.bus}:${c}`, { label: `${b.bus} ${c}-${ref}`, unit: 'V', nominal: b.nominalVLN }, v.mag);
     if (b.neutralToEarth) put(`shift:${b.bus}`, { label: `${b.bus} neutral shift`, unit: 'V' }, b.neutralToEarth.mag);
     if (b.iecUnbalancePercent !== undefined) put(`unb:${b.bus}`, { label: `${b.bus} unbalance (IEC)`, unit: '%' }, b.iecUnbalancePercent);
+    if (b.nemaUnbalancePercent !== undefined) put(`unb-nema:${b.bus}`, { label: `${b.bus} unbalance (NEMA)`, unit: '%' }, b.nemaUnbalancePercent);
+    if (b.ieeeUnbalancePercent !== undefined) put(`unb-ieee:${b.bus}`, { label: `${b.bus} unbalance (IEEE)`, unit: '%' }, b.ieeeUnbalancePercent);
   }
   for (const e of Object.values(r.elements)) {
     const port = e.ports?.find((p) => p.conductors.includes('n'));

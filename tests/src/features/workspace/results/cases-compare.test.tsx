@@ -36,6 +36,7 @@ describe('compareCases', () => {
     const dist = vc.values.map((v) => Math.abs(v! - 120));
     expect(vc.worst).toBe(dist.indexOf(Math.max(...dist)));
     expect(row('flags').values[0]).toBeLessThan(row('flags').values[1]!);
+    for (const k of ['unb:HOUSE', 'unb-nema:HOUSE', 'unb-ieee:HOUSE']) expect(row(k).worst, k).not.toBeNull();
   });
 
   it('no worst case when every case agrees, and missing values for a case that failed', () => {
