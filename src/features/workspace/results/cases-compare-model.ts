@@ -58,6 +58,9 @@ function quantities(r: CircuitResult, specs: Map<string, RowSpec>): Map<string, 
   return out;
 }
 
+/** A row marks a worst case only when the cases differ by more than this (V, A, % or flags): no marks on rounding noise. */
+export const WORST_THRESHOLD = 0.05;
+
 /** The rows of the compare table, in the order quantities first appear (base first). */
 export function compareCases(outcomes: readonly CaseOutcome[]): CompareRow[] {
   const specs = new Map<string, RowSpec>();
@@ -70,7 +73,7 @@ export function compareCases(outcomes: readonly CaseOutcome[]): CompareRow[] {
     const badness = values.map((v) => (v === null ? null : spec.nominal ? Math.abs(v - spec.nominal) : v));
     let worst: number | null = null;
     const present = badness.filter((x): x is number => x !== null);
-    if (present.length >= 2 && Math.max(...present) - Math.min(...present) > 1e-9 * Math.max(1, Math.max(...present))) {
+    if (present.length >= 2 && Math.max(...present) - Math.min(...present) > WORST_THRESHOLD) {
       worst = badness.indexOf(Math.max(...present));
     }
     rows.push({ key, label: spec.label, unit: spec.unit, values, deltas, worst });
