@@ -11,6 +11,8 @@
  * `{ "parameters": ["KITCHEN.each.kw"], "points": [ { "values": [1.5], "nodes": {…}, "elements": {…}, "flags": […] } ] }`,
  * each point's nodes/elements/flags exactly what `solve --json` prints for that circuit, or
  * `{ "values": […], "error": { "code", "message" } }` for a point that fails.
+ * `--envelope <bus> [--levels <from>:<to>:<steps>]` instead of --set: the lost-neutral envelope of
+ * that bus (see runEnvelope).
  * A failing point never stops the sweep. Exit codes as for solve: 0 every point solved; 2 invalid
  * input (file, options, parameter paths, a case), or some point left an invalid circuit; 3 some
  * point could not be solved (one stderr line: how many, and the first).
@@ -21,6 +23,7 @@ import {
   EngineError,
   InvalidCircuitError,
   applyCase,
+  lostNeutralEnvelope,
   parseCircuit,
   setPath,
   sweepCircuit,
@@ -31,7 +34,7 @@ import {
 } from '../../shared/engine/index.ts';
 import { CAUTION, exitCodeOf, jsonResult, solveOne } from './solve.ts';
 
-const USAGE = 'usage: sweep <file.json> --set <element>.<field>[.<subfield>…]=<from>:<to>:<steps>[:log] [--set …] [--case <id>] [--json]';
+const USAGE = 'usage: sweep <file.json> (--set <element>.<field>[.<subfield>…]=<from>:<to>:<steps>[:log] [--set …] | --envelope <bus> [--levels <from>:<to>:<steps>]) [--case <id>] [--json]';
 
 function fail(code: number, message: string): never {
   process.stderr.write(`sweep: ${message.split('\n')[0]}\n`);
@@ -86,13 +89,17 @@ export function main(argv: string[]): void {
   const params: SweepParameter[] = [];
   const args: string[] = [];
   let caseId = 'base';
+  let envelopeBus: string | undefined;
+  let levels: string | undefined;
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
-    if (a === '--set' || a.startsWith('--set=') || a === '--case' || a.startsWith('--case=')) {
-      const name = a.startsWith('--set') ? '--set' : '--case';
+    const name = ['--set', '--case', '--envelope', '--levels'].find((n) => a === n || a.startsWith(`${n}=`));
+    if (name) {
       const v = a.includes('=') && a.indexOf('=') === name.length ? a.slice(name.length + 1) : argv[++i];
       if (!v || v.startsWith('--')) fail(2, `${name} needs a value (${USAGE})`);
       if (name === '--case') caseId = v;
+      else if (name === '--envelope') envelopeBus = v;
+      else if (name === '--levels') levels = v;
       else {
         try {
           params.push(parseSetOption(v));
@@ -106,7 +113,9 @@ export function main(argv: string[]): void {
   const unknownFlag = args.find((a) => a.startsWith('--'));
   if (unknownFlag) fail(2, `unknown option ${unknownFlag} (${USAGE})`);
   if (args.length !== 1) fail(2, USAGE);
-  if (params.length < 1 || params.length > 2) fail(2, `give one or two --set parameters (${USAGE})`);
+  if (envelopeBus !== undefined && params.length > 0) fail(2, `--envelope and --set cannot be used together (${USAGE})`);
+  if (levels !== undefined && envelopeBus === undefined) fail(2, `--levels goes with --envelope (${USAGE})`);
+  if (envelopeBus === undefined && (params.length < 1 || params.length > 2)) fail(2, `give one or two --set parameters (${USAGE})`);
   const file = args[0];
   let text: string;
   try {
@@ -121,6 +130,10 @@ export function main(argv: string[]): void {
     fail(2, `${file} is not valid JSON: ${(e as Error).message}`);
   }
 
+  if (envelopeBus !== undefined) {
+    runEnvelope(input, caseId, envelopeBus, levels, asJson);
+    return;
+  }
   // everything that is wrong before the first point is invalid input (exit 2)
   let base: CircuitInput;
   let points: number[][];
@@ -186,6 +199,44 @@ export function main(argv: string[]): void {
     const first = failures[0];
     fail(worst, `${failures.length} of ${points.length} points failed; first at ${paths.map((p, i) => `${p} = ${number(first.values[i])}`).join(', ')}: ${first.error.message}`);
   }
+}
+
+/**
+ * --envelope <bus>: the lost-neutral envelope of that bus (the circuit, or --case, must have its
+ * neutral open): each single-phase kW load from --levels (default 0.1:1:5, fractions of its value),
+ * every combination. Text: per load its worst voltages, and the share outside the violation band;
+ * --json: the whole envelope (locus included). Exit 3 when some combination could not be solved.
+ */
+function runEnvelope(input: unknown, caseId: string, bus: string, levels: string | undefined, asJson: boolean): void {
+  let fractions: SweepParameter;
+  try {
+    fractions = parseSetOption(`levels=${levels ?? '0.1:1:5'}`);
+  } catch (e) {
+    fail(2, (e as Error).message.replace('--set levels=', '--levels '));
+  }
+  let env: ReturnType<typeof lostNeutralEnvelope>;
+  try {
+    const circuit = applyCase(input as Record<string, unknown>, caseId);
+    parseCircuit(circuit);
+    env = lostNeutralEnvelope(circuit, { bus, fromFraction: fractions.from, toFraction: fractions.to, steps: fractions.steps });
+  } catch (e) {
+    if (e instanceof EngineError) fail(2, e.message);
+    throw e;
+  }
+  process.stderr.write(`${CAUTION}\n`);
+  if (asJson) process.stdout.write(`${JSON.stringify(env)}\n`);
+  else {
+    const pct = (x: number) => `${(100 * x).toFixed(0)} %`;
+    const out = [
+      `Lost-neutral envelope at ${bus}: each load from ${pct(fractions.from)} to ${pct(fractions.to)} of its value in ${fractions.steps} levels, ${env.solved} combinations solved`,
+      'A lost neutral is a hazard to remove, not a margin to use.',
+      ...env.loads.map((l) => `  ${l.id} (${l.phase}-n): ${l.minVolts.toFixed(1)} V to ${l.maxVolts.toFixed(1)} V (${l.minPu.toFixed(3)} to ${l.maxPu.toFixed(3)} pu of ${l.ratedVolts.toFixed(1)} V)`),
+      `Combinations with a load outside ${env.violationPu[0].toFixed(3)}–${env.violationPu[1].toFixed(3)} pu: ${(100 * env.outsideShare).toFixed(1)} %`,
+      '',
+    ];
+    process.stdout.write(out.join('\n'));
+  }
+  if (env.failed > 0) fail(3, `${env.failed} of ${env.failed + env.solved} combinations could not be solved`);
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main(process.argv.slice(2));

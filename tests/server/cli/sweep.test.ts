@@ -8,7 +8,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { applyCase, solveCircuit, sweepCircuit, type CircuitInput } from '../../../shared/engine/index.ts';
+import { applyCase, lostNeutralEnvelope, solveCircuit, sweepCircuit, type CircuitInput } from '../../../shared/engine/index.ts';
 import { jsonResult } from '../../../server/cli/solve.ts';
 import { cabs, LOADS, millman, serviceCircuit } from '../../shared/engine/cases/lost-neutral-fixture.ts';
 
@@ -122,6 +122,25 @@ describe('sweep CLI', () => {
       expect(r.stderr.trim().split('\n')).toHaveLength(1);
       expect(r.stderr).toMatch(message);
     }
+  });
+
+  it('--envelope: the lost-neutral envelope of a bus on a case, as the engine computes it (checked against Millman in tests/shared)', () => {
+    const expected = lostNeutralEnvelope(applyCase(studyCircuit, 'lost-n'), { bus: 'HOUSE', fromFraction: 0.2, toFraction: 1, steps: 3 });
+    const j = sweep([study, '--case', 'lost-n', '--envelope', 'HOUSE', '--levels', '0.2:1:3', '--json']);
+    expect(j.code).toBe(0);
+    expect(JSON.parse(j.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+    const text = sweep([study, '--case', 'lost-n', '--envelope', 'HOUSE', '--levels', '0.2:1:3']);
+    expect(text.stdout.split('\n')[0]).toBe('Lost-neutral envelope at HOUSE: each load from 20 % to 100 % of its value in 3 levels, 27 combinations solved');
+    expect(text.stdout).toContain('A lost neutral is a hazard to remove');
+    const k = expected.loads[0];
+    expect(text.stdout).toContain(`  KITCHEN (a-n): ${k.minVolts.toFixed(1)} V to ${k.maxVolts.toFixed(1)} V`);
+    expect(text.stdout).toContain(`${(100 * expected.outsideShare).toFixed(1)} %`);
+    const both = sweep([study, '--envelope', 'HOUSE', '--set', 'ROD.ohms=1:2:2']);
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/cannot be used together/);
+    const noLoads = sweep([study, '--envelope', 'PAD']);
+    expect(noLoads.code).toBe(2);
+    expect(noLoads.stderr).toBe('sweep: bus PAD: no single-phase kW loads between a phase and the neutral to vary\n');
   });
 
   it('the launcher prints exactly what the TypeScript entry prints', () => {
