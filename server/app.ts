@@ -1,4 +1,5 @@
 /** Builds the Express app without listening: used by index.ts, dev.ts and the supertest tests. */
+import { randomUUID } from 'node:crypto';
 import express, { type Express } from 'express';
 import { originCheck, sessionMiddleware } from './auth/index.ts';
 import { createLucia } from './auth/lucia.ts';
@@ -6,6 +7,7 @@ import { createSignInLimiter } from './auth/rate-limit.ts';
 import type { Config } from './config.ts';
 import type { Db } from './db/index.ts';
 import { errorHandler } from './error-handler.ts';
+import { guardBody, guardUrl } from './input-guard.ts';
 import { AppError } from './errors.ts';
 import type { Mailer } from './mail/index.ts';
 import { auditRoutes } from './routes/audit.ts';
@@ -38,13 +40,22 @@ export function createApp({ db, config, mailer, mountClient }: AppDeps): Express
   const lucia = createLucia(db, { cookieSecure: config.cookieSecure });
   const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter() };
 
+  app.use((_req, res, next) => {
+    // Names the request in the log and in a 500's message, so a report can be matched to its log line.
+    res.locals.requestId = randomUUID();
+    res.setHeader('X-Request-Id', res.locals.requestId);
+    next();
+  });
+
   const api = express.Router();
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
+  api.use(guardUrl);
   api.use(originCheck(config.appUrl));
   api.use(express.json({ limit: JSON_LIMIT }));
+  api.use(guardBody);
   api.use(sessionMiddleware(db, lucia));
   api.get('/health', (_req, res) => {
     res.json({ ok: true });

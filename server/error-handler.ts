@@ -1,11 +1,15 @@
 /**
  * The one error middleware: every failure leaves as `{ error: { code, message, … } }`.
- * Bad input is always a 4xx; only real bugs are 500 (and logged).
+ * Bad input is always a 4xx; only real bugs are 500 (and logged). A database refusal that input
+ * caused (a value the column cannot hold, a unique key taken by a concurrent request) is a 4xx too.
+ * The log line names the request id, method, route pattern, status and error codes, never the
+ * request body, the query string or a database query's parameters (see logError).
  */
-import type { ErrorRequestHandler } from 'express';
+import type { ErrorRequestHandler, Request } from 'express';
 import { z } from 'zod';
 import type { ErrorBody, ErrorCode } from '../shared/api/common.ts';
-import { AppError } from './errors.ts';
+import { AppError, databaseErrorCode } from './errors.ts';
+import { logEvent } from './log.ts';
 
 /** `path.to.field` → first message, from a zod error. */
 export function zodFields(err: z.ZodError): Record<string, string> {
@@ -36,7 +40,48 @@ const STATUS_CODES: Partial<Record<number, ErrorCode>> = {
   429: 'rate-limited',
 };
 
-export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
+/**
+ * PostgreSQL error classes caused by the request's values rather than by the code (SQLSTATE,
+ * PostgreSQL manual appendix A): data exceptions (22…) and integrity violations (23…).
+ */
+function databaseRefusal(code: string | undefined): { status: number; code: ErrorCode; message: string } | null {
+  if (!code) return null;
+  if (code === '23505') return { status: 409, code: 'conflict', message: 'This already exists (another request just created it).' };
+  if (code.startsWith('23')) return { status: 409, code: 'conflict', message: 'This conflicts with another change made at the same time; reload and try again.' };
+  if (code.startsWith('22')) return { status: 400, code: 'validation', message: 'The request contains a value that cannot be stored.' };
+  if (code === '54001') return { status: 400, code: 'validation', message: 'The request is nested too deeply to be stored.' };
+  return null;
+}
+
+/** The route pattern of a request (`/api/studies/:id`), never its concrete URL or query string. */
+export function routeOf(req: Request): string {
+  const pattern = (req.route as { path?: unknown } | undefined)?.path;
+  return typeof pattern === 'string' ? `${req.baseUrl}${pattern}` : `${req.baseUrl || ''}(no route)`;
+}
+
+/** The stack of an error without its message line (messages may quote values, e.g. a database query's parameters). */
+function framesOf(err: unknown): string[] {
+  const stack = err instanceof Error && typeof err.stack === 'string' ? err.stack : '';
+  return stack
+    .split('\n')
+    .filter((l) => /^\s+at /.test(l))
+    .slice(0, 12)
+    .map((l) => l.trim());
+}
+
+function logError(req: Request, requestId: string, status: number, err: unknown) {
+  logEvent('error', {
+    requestId,
+    method: req.method,
+    route: routeOf(req),
+    status,
+    error: err instanceof Error ? err.name : typeof err,
+    ...(databaseErrorCode(err) ? { sqlstate: databaseErrorCode(err) } : {}),
+    ...(status >= 500 ? { at: framesOf(err) } : {}),
+  });
+}
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   if (res.headersSent) return next(err);
   const send = (status: number, error: ErrorBody['error'], extra: Record<string, unknown> = {}) =>
     res.status(status).json({ error, ...extra });
@@ -77,6 +122,12 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
           : 'The request could not be read.';
     return send(status, { code, message });
   }
-  console.error('Unhandled error:', err);
-  return send(500, { code: 'internal', message: 'Something went wrong on the server; it has been logged.' });
+  const requestId = String(res.locals.requestId ?? '-');
+  const refusal = databaseRefusal(databaseErrorCode(err));
+  if (refusal) {
+    logError(req, requestId, refusal.status, err);
+    return send(refusal.status, { code: refusal.code, message: refusal.message });
+  }
+  logError(req, requestId, 500, err);
+  return send(500, { code: 'internal', message: `Something went wrong on the server; it has been logged (reference ${requestId}).` });
 };

@@ -40,3 +40,17 @@ const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/
 export function isUuid(s: string): boolean {
   return UUID_RE.test(s);
 }
+
+/** The SQLSTATE of a database error, also when wrapped by the ORM (DrizzleQueryError keeps it in `cause`). */
+export function databaseErrorCode(err: unknown): string | undefined {
+  for (let e = err, i = 0; e && typeof e === 'object' && i < 5; e = (e as { cause?: unknown }).cause, i++) {
+    const code = (e as { code?: unknown }).code;
+    if (typeof code === 'string' && /^[0-9A-Z]{5}$/.test(code)) return code;
+  }
+  return undefined;
+}
+
+/** True for a unique-key violation (two requests racing to create the same thing). */
+export function isUniqueViolation(err: unknown): boolean {
+  return databaseErrorCode(err) === '23505';
+}

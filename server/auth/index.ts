@@ -28,6 +28,8 @@ declare global {
       user: User | null;
       session: Session | null;
       actor: Actor | null;
+      /** Random id of the request (X-Request-Id), used in log lines. */
+      requestId: string;
     }
   }
 }
@@ -44,14 +46,27 @@ export async function loadActor(db: Db, user: { id: string; name: string; email:
   return m ? { userId: user.id, name: user.name, email: user.email, teamId: m.teamId, teamName: m.teamName, role: m.role } : null;
 }
 
+/** Shape of the session ids lucia issues (40 lower-case base32 characters); anything else is not looked up. */
+const SESSION_ID_RE = /^[a-z0-9]{20,64}$/;
+
 /** Reads the session cookie, validates it (refreshing or clearing the cookie as lucia asks) and fills `res.locals`. */
 export function sessionMiddleware(db: Db, lucia: AuthLucia): RequestHandler {
   return async (req, res, next) => {
     res.locals.user = null;
     res.locals.session = null;
     res.locals.actor = null;
-    const sessionId = lucia.readSessionCookie(req.headers.cookie ?? '');
-    if (!sessionId) return next();
+    let sessionId: string | null = null;
+    try {
+      sessionId = lucia.readSessionCookie(req.headers.cookie ?? '');
+    } catch {
+      sessionId = ''; // an undecodable cookie header: no session, and the cookie is cleared below
+    }
+    if (sessionId === null) return next();
+    if (!SESSION_ID_RE.test(sessionId)) {
+      // Not an id this server ever issued (NUL, broken Unicode, wrong length): no session, and the cookie is cleared.
+      res.appendHeader('Set-Cookie', lucia.createBlankSessionCookie().serialize());
+      return next();
+    }
     const { session, user } = await lucia.validateSession(sessionId);
     if (!session) {
       res.appendHeader('Set-Cookie', lucia.createBlankSessionCookie().serialize());

@@ -5,6 +5,7 @@
  * sent copy is stored in the same folder. If sending fails, the copy is stored anyway and the
  * failure logged, so an invite link is never lost.
  */
+import { logEvent } from '../log.ts';
 import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import type { MailMessage, MailSummary } from '../../shared/api/mail.ts';
 import { startMailSink, type MailSink } from './sink.ts';
@@ -89,7 +90,7 @@ export function createMailer({ dir, from, smtpUrl, sinkPort = 0 }: MailerOptions
         // The sink stored the message before acknowledging it; a real server keeps nothing for us.
         if (smtpUrl) await storeCopy(id, mail, message);
       } catch (err) {
-        console.error(`SMTP delivery of mail ${id} to ${mail.to} failed (a copy is kept under DATA_DIR/mail):`, err);
+        logEvent('warn', { event: 'smtp-delivery-failed', mailId: id, error: err instanceof Error ? err.name : typeof err, note: 'a copy is kept under DATA_DIR/mail' });
         await storeCopy(id, mail, message);
       }
       return id;

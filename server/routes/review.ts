@@ -31,7 +31,9 @@ function singleFile(): RequestHandler {
         }
         return next(new AppError(400, 'validation', `The upload could not be read: ${err.message}.`, { fields: { file: err.message } }));
       }
-      next(err);
+      // Anything else from the multipart parser is a body it could not read (truncated, malformed
+      // part headers, a bad boundary): a client error, whatever the parser calls it.
+      next(new AppError(400, 'validation', 'The upload could not be read: the form data is malformed.', { fields: { file: 'Malformed form data' } }));
     });
   };
 }

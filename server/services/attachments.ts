@@ -36,10 +36,14 @@ export function sniffType(bytes: Buffer): AttachmentContentType | null {
   }
 }
 
-/** A safe display name: the last path segment, no control characters, at most 200 characters. */
+/** A safe display name: the last path segment, no control characters (CR, LF, NUL…) or broken Unicode, at most 200 characters. */
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? '';
-  const clean = base.replace(/[\u0000-\u001f\u007f"]/g, '').trim().slice(-200);
+  const clean = base
+    .replace(/[\u0000-\u001f\u007f"]|[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/g, '')
+    .trim()
+    .slice(-200)
+    .replace(/^[\udc00-\udfff]/, '');
   return clean || 'file';
 }
 

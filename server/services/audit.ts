@@ -28,6 +28,7 @@ export async function recordAudit(
 /** The team's events, newest first, optionally of one study, one action (or action prefix) and one actor. */
 export async function listAudit(db: Db, actor: Actor, q: AuditQuery): Promise<AuditListResponse> {
   if (q.studyId !== undefined && !isUuid(q.studyId)) return { items: [], total: 0 };
+  if (q.actor && !isUuid(q.actor)) return { items: [], total: 0 };
   // An action ending in "." is a prefix (`review.` = every review action); LIKE wildcards are escaped.
   const action = q.action
     ? q.action.endsWith('.')

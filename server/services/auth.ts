@@ -8,7 +8,7 @@ import { hashPassword, verifyAgainstDummy, verifyPassword } from '../auth/passwo
 import type { SignInLimiter } from '../auth/rate-limit.ts';
 import type { Db } from '../db/index.ts';
 import { invites, memberships, teams, users } from '../db/schema.ts';
-import { AppError, fieldError } from '../errors.ts';
+import { AppError, fieldError, isUniqueViolation } from '../errors.ts';
 import { recordAudit } from './audit.ts';
 import { hashInviteToken } from './invites-token.ts';
 
@@ -61,7 +61,7 @@ export async function signUp(db: Db, input: SignUpRequest): Promise<Actor> {
     });
   } catch (err) {
     // Two sign-ups racing for one address: the unique index decides.
-    if (err instanceof Error && /users_email_unique|duplicate key/.test(err.message)) {
+    if (isUniqueViolation(err)) {
       throw new AppError(409, 'conflict', EMAIL_TAKEN, { fields: { email: EMAIL_TAKEN } });
     }
     throw err;

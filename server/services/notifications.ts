@@ -6,6 +6,7 @@ import type { Db } from '../db/index.ts';
 import { notifications, studies, users } from '../db/schema.ts';
 import type { Mailer } from '../mail/index.ts';
 import { notificationMail } from '../mail/templates.ts';
+import { isUuid } from '../errors.ts';
 
 export type NotificationKind = Notification['kind'];
 
@@ -74,7 +75,7 @@ export async function listNotifications(db: Db, actor: Actor): Promise<Notificat
 /** Marks the given (or all) of the caller's notifications read; returns the unread count. */
 export async function markRead(db: Db, actor: Actor, input: MarkReadRequest): Promise<{ unread: number }> {
   const mine = and(eq(notifications.userId, actor.userId), eq(notifications.teamId, actor.teamId), isNull(notifications.readAt));
-  const ids = (input.ids ?? []).filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  const ids = (input.ids ?? []).filter(isUuid);
   if (input.ids === undefined || ids.length > 0) {
     await db
       .update(notifications)

@@ -1,6 +1,7 @@
 /** Review states (`/api/studies/:id/review`): request → approve | request changes; edits return the study to draft. */
 import { z } from 'zod';
 import { isoDateSchema, revisionRiskSchema, userRefSchema } from './common.ts';
+import { positiveInt32 } from './limits.ts';
 import { studyStatusSchema } from './studies.ts';
 
 export const REVIEW_ACTIONS = ['request', 'approve', 'request-changes'] as const;
@@ -14,7 +15,7 @@ export const reviewActionRequestSchema = z
     reviewers: z.array(z.string().min(1).max(100)).max(MAX_REVIEWERS, `At most ${MAX_REVIEWERS} reviewers`).optional(),
     message: z.string().trim().max(5000, 'Message is at most 5000 characters').optional(),
     /** The revision the caller looked at; approval is refused when the study has moved on. */
-    revision: z.number().int().min(1).optional(),
+    revision: positiveInt32('revision').optional(),
     /**
      * Approving a revision with violations: the approver has read them (count and worst one) and
      * approves anyway. Without it such an approval is refused (400); the count is recorded.

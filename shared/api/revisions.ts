@@ -3,6 +3,7 @@ import { z } from 'zod';
 import type { ResultsSummary } from '../review/summary.ts';
 import type { RevisionDiff } from '../review/diff.ts';
 import { isoDateSchema, userRefSchema } from './common.ts';
+import { positiveInt32, positiveInt32Query } from './limits.ts';
 import { studyContentSchema, studyDetailSchema, type StudyContent } from './studies.ts';
 
 export const revisionMessageSchema = z.string().trim().max(500, 'Message is at most 500 characters');
@@ -33,7 +34,7 @@ export type RevisionListResponse = z.infer<typeof revisionListResponseSchema>;
 
 /** POST /api/studies/:id/revisions. */
 export const createRevisionRequestSchema = z.object({
-  version: z.number().int().min(1),
+  version: positiveInt32('version'),
   content: studyContentSchema,
   message: revisionMessageSchema.optional(),
 });
@@ -41,7 +42,7 @@ export type CreateRevisionRequest = z.infer<typeof createRevisionRequestSchema>;
 
 /** POST /api/studies/:id/revisions/:n/restore. */
 export const restoreRevisionRequestSchema = z.object({
-  version: z.number().int().min(1),
+  version: positiveInt32('version'),
   message: revisionMessageSchema.optional(),
 });
 export type RestoreRevisionRequest = z.infer<typeof restoreRevisionRequestSchema>;
@@ -52,8 +53,8 @@ export type SavedRevision = z.infer<typeof savedRevisionSchema>;
 
 /** GET /api/studies/:id/diff query: `to` defaults to the latest revision, `from` to `to − 1`. */
 export const diffQuerySchema = z.object({
-  from: z.coerce.number().int().min(1).optional(),
-  to: z.coerce.number().int().min(1).optional(),
+  from: positiveInt32Query('from').optional(),
+  to: positiveInt32Query('to').optional(),
 });
 export type DiffQuery = z.infer<typeof diffQuerySchema>;
 

@@ -1,6 +1,7 @@
 /** Studies (`/api/studies/*`): team-scoped circuit studies with optimistic versioning. */
 import { z } from 'zod';
 import { isoDateSchema, revisionRiskSchema, userRefSchema } from './common.ts';
+import { positiveInt32, storableJson } from './limits.ts';
 
 export const STUDY_STATUSES = ['draft', 'in-review', 'changes-requested', 'approved'] as const;
 export const studyStatusSchema = z.enum(STUDY_STATUSES);
@@ -22,8 +23,8 @@ export type CircuitEnvelope = z.infer<typeof circuitEnvelopeSchema>;
 /** What a study holds: the circuit and, optionally, the diagram layout and the workspace settings (both kept verbatim). */
 export const studyContentSchema = z.object({
   circuit: circuitEnvelopeSchema,
-  layout: z.unknown().optional(),
-  settings: z.unknown().optional(),
+  layout: storableJson.optional(),
+  settings: storableJson.optional(),
 });
 export type StudyContent = z.infer<typeof studyContentSchema>;
 
@@ -109,7 +110,7 @@ export type CreatedStudy = z.infer<typeof createdStudySchema>;
 
 /** PATCH /api/studies/:id: `version` is the version the client edited. */
 export const updateStudyRequestSchema = z.object({
-  version: z.number().int().min(1),
+  version: positiveInt32('version'),
   name: studyNameSchema.optional(),
   description: studyDescriptionSchema.optional(),
   content: studyContentSchema.optional(),

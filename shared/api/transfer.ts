@@ -1,5 +1,6 @@
 /** Export and import of a study as a file (`GET /api/studies/:id/export`, `POST /api/studies/import`). */
 import { z } from 'zod';
+import { storableJson } from './limits.ts';
 import { circuitEnvelopeSchema, studyDescriptionSchema, studyNameSchema } from './studies.ts';
 
 /** A study file: the circuit (a `wyeward-circuit` object, valid for the engine) with its layout and settings. */
@@ -11,8 +12,8 @@ export const studyFileSchema = z.object({
   exportedAt: z.string().optional(),
   revision: z.number().int().nullable().optional(),
   circuit: circuitEnvelopeSchema,
-  layout: z.unknown().optional(),
-  settings: z.unknown().optional(),
+  layout: storableJson.optional(),
+  settings: storableJson.optional(),
 });
 export type StudyFile = z.infer<typeof studyFileSchema>;
 

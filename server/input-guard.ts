@@ -1,0 +1,38 @@
+/**
+ * The API's input boundary: every piece of text a request carries (path, query string, JSON body)
+ * is checked before a route, a service, the database or the engine sees it. NUL characters and lone
+ * UTF-16 surrogates (which PostgreSQL refuses) and JSON nested deeper than JSON_MAX_DEPTH are
+ * answered with 400 and a field message. Cookies are read only by the session middleware, which
+ * treats a malformed session cookie as no session; uploaded file names are cleaned where they are
+ * stored (services/attachments.ts).
+ */
+import type { RequestHandler } from 'express';
+import { BAD_TEXT_MESSAGE, findJsonProblem, isBadText } from '../shared/api/limits.ts';
+import { AppError } from './errors.ts';
+
+function refuse(field: string, message: string): AppError {
+  return new AppError(400, 'validation', field === '_' ? `The request body: ${message.toLowerCase()}.` : `${field}: ${message}.`, { fields: { [field]: message } });
+}
+
+/** Checks the path and query string; mount before the routes. */
+export const guardUrl: RequestHandler = (req, _res, next) => {
+  let path: string;
+  try {
+    path = decodeURIComponent(req.path);
+  } catch {
+    throw new AppError(400, 'validation', 'The address contains an invalid %-escape.');
+  }
+  if (isBadText(path)) throw refuse('path', BAD_TEXT_MESSAGE);
+  const q = findJsonProblem(req.query, 8);
+  if (q) throw refuse(q.path, q.message);
+  next();
+};
+
+/** Checks a parsed JSON body (mount right after express.json). */
+export const guardBody: RequestHandler = (req, _res, next) => {
+  if (req.body !== undefined) {
+    const p = findJsonProblem(req.body);
+    if (p) throw refuse(p.path, p.message);
+  }
+  next();
+};
