@@ -37,8 +37,8 @@ export function createApp({ db, config, mailer, mountClient }: AppDeps): Express
     // A number means "this many proxies in front"; anything else is Express's list/keyword syntax.
     app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
   }
-  const lucia = createLucia(db, { cookieSecure: config.cookieSecure });
-  const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter() };
+  const lucia = createLucia(db, { cookieSecure: config.cookieSecure, idleHours: config.sessionIdleHours });
+  const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
 
   app.use((_req, res, next) => {
     // Names the request in the log and in a 500's message, so a report can be matched to its log line.
@@ -56,7 +56,7 @@ export function createApp({ db, config, mailer, mountClient }: AppDeps): Express
   api.use(originCheck(config.appUrl));
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
-  api.use(sessionMiddleware(db, lucia));
+  api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays }));
   api.get('/health', (_req, res) => {
     res.json({ ok: true });
   });

@@ -20,6 +20,22 @@ export interface Config {
   trustProxy?: string;
   /** Mark the session cookie Secure (COOKIE_SECURE=1, or automatically when APP_URL is https). */
   cookieSecure: boolean;
+  /** Idle session expiry in hours (SESSION_IDLE_HOURS, default 12): a session unused for this long ends (after half of it at the earliest). */
+  sessionIdleHours: number;
+  /** Absolute maximum life of a session in days (SESSION_MAX_DAYS, default 30), however often it is used. */
+  sessionMaxDays: number;
+  /** Failed sign-ins one address may make (all accounts together) per 15 minutes (SIGN_IN_ADDRESS_LIMIT, default 300: a whole office behind one NAT). */
+  signInAddressLimit: number;
+  /** Sign-up requests one address may make per hour (SIGN_UP_ADDRESS_LIMIT, default 10). */
+  signUpAddressLimit: number;
+}
+
+function positiveNumber(env: NodeJS.ProcessEnv, name: string, fallback: number, max: number): number {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isFinite(n) || n <= 0 || n > max) throw new Error(`${name} must be a number above 0 and at most ${max} (got "${raw}")`);
+  return n;
 }
 
 /** Reads the configuration from `env` (process.env by default). */
@@ -33,6 +49,15 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     throw new Error(`SMTP_SINK_PORT must be a whole number from 0 to 65535 (got "${env.SMTP_SINK_PORT}")`);
   }
   const appUrl = (env.APP_URL ?? `http://localhost:${port}`).replace(/\/+$/, '');
+  let parsedAppUrl: URL;
+  try {
+    parsedAppUrl = new URL(appUrl);
+  } catch {
+    throw new Error(`APP_URL must be an absolute http(s) URL such as https://wyeward.example.com (got "${appUrl}")`);
+  }
+  if (!['http:', 'https:'].includes(parsedAppUrl.protocol) || parsedAppUrl.pathname !== '/' || parsedAppUrl.search || parsedAppUrl.hash) {
+    throw new Error(`APP_URL must be the http(s) origin the app is served at, with no path (got "${appUrl}")`);
+  }
   return {
     port,
     dataDir: path.resolve(env.DATA_DIR ?? './data'),
@@ -43,5 +68,9 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mailFrom: env.MAIL_FROM ?? 'Wyeward <no-reply@wyeward.test>',
     cookieSecure: env.COOKIE_SECURE === '1' || appUrl.startsWith('https://'),
     trustProxy: env.TRUST_PROXY || undefined,
+    sessionIdleHours: positiveNumber(env, 'SESSION_IDLE_HOURS', 12, 24 * 365),
+    sessionMaxDays: positiveNumber(env, 'SESSION_MAX_DAYS', 30, 3650),
+    signInAddressLimit: Math.round(positiveNumber(env, 'SIGN_IN_ADDRESS_LIMIT', 300, 1e6)),
+    signUpAddressLimit: Math.round(positiveNumber(env, 'SIGN_UP_ADDRESS_LIMIT', 10, 1e6)),
   };
 }

@@ -10,6 +10,7 @@ import { closeDb, openDb } from './db/index.ts';
 import { sessions } from './db/schema.ts';
 import { seedDemo } from './db/seed.ts';
 import { createMailer } from './mail/index.ts';
+import { clearExpiredThrottles } from './auth/rate-limit.ts';
 
 /** The project root (the directory holding package.json). */
 export const ROOT = path.resolve(import.meta.dirname, '..');
@@ -19,6 +20,7 @@ export async function prepareDatabase(config: Config, log: (msg: string) => void
   const db = await openDb({ dataDir: path.join(config.dataDir, 'pglite') });
   // lucia drops an expired session when it is presented; this clears the ones never presented again.
   await db.delete(sessions).where(lt(sessions.expiresAt, new Date()));
+  await clearExpiredThrottles(db);
   if (config.demo) {
     const seeded = await seedDemo(db);
     if (seeded.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);

@@ -50,7 +50,8 @@ export async function loadActor(db: Db, user: { id: string; name: string; email:
 const SESSION_ID_RE = /^[a-z0-9]{20,64}$/;
 
 /** Reads the session cookie, validates it (refreshing or clearing the cookie as lucia asks) and fills `res.locals`. */
-export function sessionMiddleware(db: Db, lucia: AuthLucia): RequestHandler {
+export function sessionMiddleware(db: Db, lucia: AuthLucia, { maxDays }: { maxDays: number }): RequestHandler {
+  const maxMs = maxDays * 24 * 60 * 60 * 1000;
   return async (req, res, next) => {
     res.locals.user = null;
     res.locals.session = null;
@@ -68,6 +69,12 @@ export function sessionMiddleware(db: Db, lucia: AuthLucia): RequestHandler {
       return next();
     }
     const { session, user } = await lucia.validateSession(sessionId);
+    if (session && Date.now() - new Date(session.createdAt).getTime() > maxMs) {
+      // Past the absolute maximum: the session ends however recently it was used.
+      await lucia.invalidateSession(session.id);
+      res.appendHeader('Set-Cookie', lucia.createBlankSessionCookie().serialize());
+      return next();
+    }
     if (!session) {
       res.appendHeader('Set-Cookie', lucia.createBlankSessionCookie().serialize());
       return next();

@@ -38,14 +38,48 @@ export const memberships = pgTable(
   (t) => [index('memberships_team_idx').on(t.teamId)],
 );
 
-/** lucia 3 sessions. */
-export const sessions = pgTable('sessions', {
-  id: text('id').primaryKey(),
-  userId: text('user_id')
-    .notNull()
-    .references(() => users.id, { onDelete: 'cascade' }),
-  expiresAt: ts('expires_at').notNull(),
+/** lucia 3 sessions. `expiresAt` moves on with use (idle expiry); `createdAt` bounds a session's whole life (absolute maximum). */
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: ts('expires_at').notNull(),
+    createdAt: ts('created_at').notNull().defaultNow(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+);
+
+/**
+ * Counters of the sign-in and sign-up throttles (rate-limiter-flexible's Drizzle store: key,
+ * points, expiry), kept in the database so a restart does not forget them.
+ */
+export const authThrottle = pgTable('auth_throttle', {
+  key: text('key').primaryKey(),
+  points: integer('points').notNull(),
+  expire: ts('expire'),
 });
+
+/**
+ * A sign-up that creates a new team waits here until its e-mail address is confirmed through the
+ * link mailed to it; then the account is made. Only the token's SHA-256 is stored.
+ */
+export const signUpRequests = pgTable(
+  'sign_up_requests',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    tokenHash: text('token_hash').notNull(),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    teamName: text('team_name').notNull(),
+    passwordHash: text('password_hash').notNull(),
+    createdAt: ts('created_at').notNull().defaultNow(),
+    expiresAt: ts('expires_at').notNull(),
+  },
+  (t) => [uniqueIndex('sign_up_requests_token_idx').on(t.tokenHash), index('sign_up_requests_expires_idx').on(t.expiresAt)],
+);
 
 export const studies = pgTable(
   'studies',

@@ -1,28 +1,44 @@
 /** /api/auth: sign-up, sign-in, sign-out, me, demo accounts. */
-import { Router, type Response } from 'express';
-import { signInRequestSchema, signUpRequestSchema, type DemoInfo } from '../../shared/api/auth.ts';
+import { Router, type Request, type Response } from 'express';
+import { signInRequestSchema, signUpConfirmRequestSchema, signUpRequestSchema, type DemoInfo } from '../../shared/api/auth.ts';
 import { actorOf } from '../auth/index.ts';
 import { DEMO_ACCOUNTS } from '../db/demo-accounts.ts';
-import { signUp, toMe, verifyCredentials } from '../services/auth.ts';
+import { confirmSignUp, requestSignUp, signUpWithInvite, toMe, verifyCredentials } from '../services/auth.ts';
 import type { RouteContext } from './context.ts';
 
-export function authRoutes({ db, config, lucia, limiter }: RouteContext): Router {
+export function authRoutes({ db, config, lucia, limiter, mailer }: RouteContext): Router {
   const r = Router();
 
   async function startSession(res: Response, userId: string) {
-    const session = await lucia.createSession(userId, {});
+    const session = await lucia.createSession(userId, { createdAt: new Date() });
     res.appendHeader('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
   }
 
+  const addressOf = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown';
+
   r.post('/sign-up', async (req, res) => {
-    const actor = await signUp(db, signUpRequestSchema.parse(req.body));
+    const input = signUpRequestSchema.parse(req.body);
+    await limiter.signUp(addressOf(req));
+    if (input.inviteToken) {
+      const actor = await signUpWithInvite(db, { ...input, inviteToken: input.inviteToken });
+      await startSession(res, actor.userId);
+      res.status(201).json(toMe(actor));
+      return;
+    }
+    res.status(202).json(await requestSignUp(db, mailer, config.appUrl, input));
+  });
+
+  r.post('/sign-up/confirm', async (req, res) => {
+    const { token } = signUpConfirmRequestSchema.parse(req.body);
+    await limiter.signUp(addressOf(req));
+    const actor = await confirmSignUp(db, token);
     await startSession(res, actor.userId);
     res.status(201).json(toMe(actor));
   });
 
   r.post('/sign-in', async (req, res) => {
     const input = signInRequestSchema.parse(req.body);
-    const actor = await verifyCredentials(db, limiter, input, req.ip ?? req.socket.remoteAddress ?? 'unknown');
+    const actor = await verifyCredentials(db, limiter, input, addressOf(req));
     await startSession(res, actor.userId);
     res.json(toMe(actor));
   });

@@ -28,6 +28,18 @@ export const signUpRequestSchema = z
   });
 export type SignUpRequest = z.infer<typeof signUpRequestSchema>;
 
+/**
+ * Answer to a sign-up that creates a new team (202): the same whether or not the address already
+ * has an account. A mail to the address either holds the link that finishes the sign-up or says an
+ * account exists.
+ */
+export const signUpPendingSchema = z.object({ status: z.literal('check-inbox'), email: z.string() });
+export type SignUpPending = z.infer<typeof signUpPendingSchema>;
+
+/** POST /api/auth/sign-up/confirm: the token from the mailed link; answers 201 with `Me` and a session. */
+export const signUpConfirmRequestSchema = z.object({ token: z.string().min(1, 'The link is incomplete').max(200) });
+export type SignUpConfirmRequest = z.infer<typeof signUpConfirmRequestSchema>;
+
 /** POST /api/auth/sign-in. */
 export const signInRequestSchema = z.object({
   email: emailSchema,

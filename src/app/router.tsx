@@ -2,6 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, type RouteObject } from 'react-router';
 import { RouteError } from '../components/route-error.tsx';
 import { AcceptInviteRoute } from './routes/accept-invite.tsx';
+import { ConfirmSignUpRoute } from './routes/confirm-sign-up.tsx';
 import { AppLayout, AppLayoutFallback, appLayoutLoader } from './routes/app-layout.tsx';
 import { NotFoundRoute } from './routes/not-found.tsx';
 import { SignInRoute } from './routes/sign-in.tsx';
@@ -25,6 +26,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
     // No loaders here: the signed-out pages render at once (the demo list starts loading immediately).
     { path: '/sign-in', element: <SignInRoute />, errorElement: <RouteError /> },
     { path: '/sign-up', element: <SignUpRoute />, errorElement: <RouteError /> },
+    { path: '/sign-up/confirm', element: <ConfirmSignUpRoute />, errorElement: <RouteError /> },
     { path: '/invite/:token', element: <AcceptInviteRoute />, errorElement: <RouteError /> },
     {
       path: '/',

@@ -3,9 +3,11 @@ import { readFileSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ACCOUNT_FAILURES, ADDRESS_FAILURES, WINDOW_SECONDS } from '../../server/auth/rate-limit.ts';
+import { backoffSeconds, FREE_FAILURES, MAX_WAIT_SECONDS } from '../../server/auth/rate-limit.ts';
+import { eq } from 'drizzle-orm';
 import type { Db } from '../../server/db/index.ts';
-import { makeApp, makeTeam, makeUser, PASSWORD, signedIn, APP_URL, type TestApp } from './helpers.ts';
+import { sessions } from '../../server/db/schema.ts';
+import { accountMail, makeApp, makeTeam, makeUser, PASSWORD, signedIn, signUpNewTeam, APP_URL, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
 let db: Db;
@@ -21,11 +23,18 @@ afterAll(async () => {
 });
 
 describe('sign-up, sign-in, sign-out', () => {
-  it('signs up a new owner of a new team and keeps them signed in with an HttpOnly, SameSite=Lax cookie', async () => {
+  it('signs up a new team through a mailed link, then keeps the owner signed in with an HttpOnly, SameSite=Lax cookie', async () => {
     const agent = request.agent(t.app);
-    const res = await agent
+    const pending = await agent
       .post('/api/auth/sign-up')
       .send({ name: 'Nell Ostrander', email: '  Nell@Example.TEST ', password: 'long enough pass', teamName: 'Ostrander Consulting' });
+    expect(pending.status).toBe(202);
+    expect(pending.body).toEqual({ status: 'check-inbox', email: 'nell@example.test' });
+    expect(pending.headers['set-cookie']).toBeUndefined();
+    const mail = await accountMail(t.mailer, 'nell@example.test');
+    expect(mail.subject).toBe('Finish creating your Wyeward account');
+    const token = /http:\/\/localhost:3000\/sign-up\/confirm#([A-Za-z0-9_-]+)/.exec(mail.text)![1];
+    const res = await agent.post('/api/auth/sign-up/confirm').send({ token });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ user: { name: 'Nell Ostrander', email: 'nell@example.test' }, team: { name: 'Ostrander Consulting' }, role: 'owner' });
     const cookie = String(res.headers['set-cookie']);
@@ -36,22 +45,29 @@ describe('sign-up, sign-in, sign-out', () => {
     const me = await agent.get('/api/auth/me');
     expect(me.status).toBe(200);
     expect(me.body).toEqual(res.body);
+    // The link works once.
+    expect((await request(t.app).post('/api/auth/sign-up/confirm').send({ token })).status).toBe(404);
   });
 
   it('marks the cookie Secure when COOKIE_SECURE=1', async () => {
     const secure = makeApp(db, { COOKIE_SECURE: '1' });
-    const res = await request(secure.app)
-      .post('/api/auth/sign-up')
-      .send({ name: 'Sec', email: 'secure-cookie@example.test', password: 'long enough pass', teamName: 'S' });
+    const { res } = await signUpNewTeam(secure, { name: 'Sec', email: 'secure-cookie@example.test', password: 'long enough pass', teamName: 'S' });
     expect(String(res.headers['set-cookie'])).toMatch(/Secure/);
   });
 
-  it('refuses a second account for the same e-mail with 409', async () => {
+  it('answers a sign-up for an address that has an account exactly like a new one, and mails "you already have an account"', async () => {
     const body = { name: 'Dup', email: 'dup@example.test', password: 'long enough pass', teamName: 'Dup team' };
-    expect((await request(t.app).post('/api/auth/sign-up').send(body)).status).toBe(201);
+    expect((await signUpNewTeam(t, body)).res.status).toBe(201);
     const again = await request(t.app).post('/api/auth/sign-up').send({ ...body, email: 'DUP@example.test' });
-    expect(again.status).toBe(409);
-    expect(again.body.error).toMatchObject({ code: 'conflict', message: 'An account with this e-mail already exists' });
+    const fresh = await request(t.app).post('/api/auth/sign-up').send({ ...body, email: 'nobody-yet@example.test' });
+    expect(again.status).toBe(202);
+    expect(fresh.status).toBe(202);
+    expect(Object.keys(again.body)).toEqual(Object.keys(fresh.body));
+    expect(again.body.status).toBe(fresh.body.status);
+    const mail = await accountMail(t.mailer, 'dup@example.test', 2);
+    expect(mail.subject).toBe('You already have a Wyeward account');
+    expect(mail.text).toContain('http://localhost:3000/sign-in');
+    expect(mail.text).not.toMatch(/sign-up\/confirm/);
   });
 
   it('requires passwords of 10 to 200 characters, a valid e-mail and a team name', async () => {
@@ -66,10 +82,20 @@ describe('sign-up, sign-in, sign-out', () => {
       .post('/api/auth/sign-up')
       .send({ name: 'Long', email: 'long@example.test', password: 'x'.repeat(201), teamName: 'T' });
     expect(long.body.error.fields.password).toBe('Password must be at most 200 characters');
-    const exactly10 = await request(t.app)
+    const strong10 = await request(t.app)
       .post('/api/auth/sign-up')
-      .send({ name: 'Ten', email: 'ten@example.test', password: '0123456789', teamName: 'T' });
-    expect(exactly10.status).toBe(201);
+      .send({ name: 'Ten', email: 'ten@example.test', password: 'vq7#Lm2!xZ', teamName: 'T' });
+    expect(strong10.status).toBe(202);
+  });
+
+  it('refuses passwords that are easy to guess (common, keyboard rows, built from the name), with a reason', async () => {
+    for (const password of ['password123456', 'qwertyuiop12', '1234567890', 'Ostranderteam1']) {
+      const res = await request(t.app)
+        .post('/api/auth/sign-up')
+        .send({ name: 'Guessable Ostranderteam', email: 'weak@example.test', password, teamName: 'Ostrander team' });
+      expect(res.status, password).toBe(400);
+      expect(res.body.error.fields.password).toMatch(/guess|common|often used|pattern|name|Sequences|Straight/i);
+    }
   });
 
   it('gives unknown e-mail and wrong password the same 401 answer', async () => {
@@ -104,58 +130,107 @@ describe('sign-up, sign-in, sign-out', () => {
   });
 });
 
+describe('session expiry', () => {
+  it(`ends a session unused past its idle expiry, and any session older than the absolute maximum however recently used`, async () => {
+    const app = makeApp(db, { SESSION_IDLE_HOURS: '12', SESSION_MAX_DAYS: '30' });
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    const idle = await signedIn(app.app, u.email);
+    const old = await signedIn(app.app, u.email);
+    const rows = await db.select().from(sessions).where(eq(sessions.userId, u.id));
+    expect(rows).toHaveLength(2);
+    // A fresh session expires 12 h from now (idle span), not 30 days.
+    const hours = (rows[0].expiresAt.getTime() - Date.now()) / 3_600_000;
+    expect(hours).toBeGreaterThan(11.9);
+    expect(hours).toBeLessThanOrEqual(12);
+    const [a, b] = rows;
+    await db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(sessions.id, a.id));
+    await db.update(sessions).set({ createdAt: new Date(Date.now() - 31 * 86_400_000) }).where(eq(sessions.id, b.id));
+    expect((await idle.get('/api/auth/me')).status).toBe(401);
+    expect((await old.get('/api/auth/me')).status).toBe(401);
+    expect(await db.select().from(sessions).where(eq(sessions.userId, u.id))).toHaveLength(0);
+  });
+});
+
 describe('sign-in throttling', () => {
-  it(`refuses the account after ${ACCOUNT_FAILURES} failures with 429 and a retry time, even with the right password`, async () => {
-    const limited = makeApp(db);
-    const team = await makeTeam(db);
-    const u = await makeUser(db, team, 'viewer');
-    for (let i = 0; i < ACCOUNT_FAILURES; i++) {
-      expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: `wrong ${i}` })).status).toBe(401);
-    }
-    const res = await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD });
+  /** An app behind a proxy, so each request can come from its own client address. */
+  const proxied = makeApp.bind(null);
+  const attempt = (app: TestApp, ip: string, email: string, password: string) =>
+    request(app.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email, password });
+
+  it('50 wrong passwords from one address do not lock the account: the right password from another address signs in at once', async () => {
+    const app = proxied(db, { TRUST_PROXY: '1' });
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    const statuses = new Set<number>();
+    for (let i = 0; i < 50; i++) statuses.add((await attempt(app, '198.51.100.66', u.email, `wrong ${i}`)).status);
+    expect([...statuses].sort()).toEqual([401, 429]);
+    const res = await attempt(app, '203.0.113.10', u.email, PASSWORD);
+    expect(res.status).toBe(200);
+    expect(res.body.user.email).toBe(u.email);
+  });
+
+  it(`the pair account + address waits after ${FREE_FAILURES} failures, 2 s then doubling; the answer carries Retry-After`, async () => {
+    const app = proxied(db, { TRUST_PROXY: '1' });
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    for (let i = 0; i < FREE_FAILURES; i++) expect((await attempt(app, '198.51.100.7', u.email, 'wrong wrong')).status).toBe(401);
+    // The 6th failure is still checked (401) and starts the first wait.
+    expect((await attempt(app, '198.51.100.7', u.email, 'wrong wrong')).status).toBe(401);
+    const res = await attempt(app, '198.51.100.7', u.email, PASSWORD);
     expect(res.status).toBe(429);
     expect(res.body.error.code).toBe('rate-limited');
-    expect(res.body.error.message).toMatch(/Try again in \d+ minutes?/);
-    const retry = res.body.error.retryAfterSeconds;
-    expect(retry).toBeGreaterThan(0);
-    expect(retry).toBeLessThanOrEqual(WINDOW_SECONDS);
-    expect(res.headers['retry-after']).toBe(String(retry));
-    // Another account from the same address is still allowed.
-    const other = await makeUser(db, team, 'viewer');
-    expect((await request(limited.app).post('/api/auth/sign-in').send({ email: other.email, password: PASSWORD })).status).toBe(200);
+    expect(res.body.error.message).toMatch(/Try again in \d+ seconds?/);
+    expect(res.body.error.retryAfterSeconds).toBeGreaterThan(0);
+    expect(res.body.error.retryAfterSeconds).toBeLessThanOrEqual(2);
+    expect(res.headers['retry-after']).toBe(String(res.body.error.retryAfterSeconds));
   });
 
-  it('a successful sign-in clears the account count', async () => {
-    const limited = makeApp(db);
-    const team = await makeTeam(db);
-    const u = await makeUser(db, team, 'viewer');
-    for (let i = 0; i < ACCOUNT_FAILURES - 1; i++) await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: 'wrong wrong' });
-    expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD })).status).toBe(200);
-    for (let i = 0; i < ACCOUNT_FAILURES - 1; i++) {
-      expect((await request(limited.app).post('/api/auth/sign-in').send({ email: u.email, password: 'wrong wrong' })).status).toBe(401);
-    }
+  it('back-off: free up to the limit, then 2, 4, 8 … seconds, capped', () => {
+    expect([1, FREE_FAILURES].map(backoffSeconds)).toEqual([0, 0]);
+    expect([FREE_FAILURES + 1, FREE_FAILURES + 2, FREE_FAILURES + 3].map(backoffSeconds)).toEqual([2, 4, 8]); // (P) exponential back-off
+    expect(backoffSeconds(FREE_FAILURES + 40)).toBe(MAX_WAIT_SECONDS);
   });
 
-  it(`refuses the address after ${ADDRESS_FAILURES} failures across different accounts`, async () => {
-    const limited = makeApp(db);
-    for (let i = 0; i < ADDRESS_FAILURES; i++) {
-      const res = await request(limited.app).post('/api/auth/sign-in').send({ email: `spray-${i}@example.test`, password: 'guess guess' });
-      expect(res.status).toBe(401);
-    }
-    const res = await request(limited.app).post('/api/auth/sign-in').send({ email: 'spray-new@example.test', password: 'guess guess' });
+  it('a successful sign-in clears the pair', async () => {
+    const app = proxied(db, { TRUST_PROXY: '1' });
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    for (let i = 0; i < FREE_FAILURES - 1; i++) await attempt(app, '198.51.100.8', u.email, 'wrong wrong');
+    expect((await attempt(app, '198.51.100.8', u.email, PASSWORD)).status).toBe(200);
+    for (let i = 0; i < FREE_FAILURES; i++) expect((await attempt(app, '198.51.100.8', u.email, 'wrong wrong')).status).toBe(401);
+  });
+
+  it('keeps its counts in the database: a new app on the same database (a restart) still makes the pair wait', async () => {
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    const first = proxied(db, { TRUST_PROXY: '1' });
+    for (let i = 0; i <= FREE_FAILURES; i++) await attempt(first, '198.51.100.9', u.email, 'wrong wrong');
+    const restarted = proxied(db, { TRUST_PROXY: '1' });
+    expect((await attempt(restarted, '198.51.100.9', u.email, PASSWORD)).status).toBe(429);
+  });
+
+  it('refuses an address past its ceiling of failures across accounts (SIGN_IN_ADDRESS_LIMIT)', async () => {
+    const app = proxied(db, { TRUST_PROXY: '1', SIGN_IN_ADDRESS_LIMIT: '12' });
+    for (let i = 0; i < 12; i++) expect((await attempt(app, '198.51.100.10', `spray-${i}@example.test`, 'guess guess')).status).toBe(401);
+    const res = await attempt(app, '198.51.100.10', 'spray-new@example.test', 'guess guess');
     expect(res.status).toBe(429);
     expect(res.body.error.retryAfterSeconds).toBeGreaterThan(0);
+    // Other addresses are unaffected.
+    expect((await attempt(app, '198.51.100.11', 'spray-new@example.test', 'guess guess')).status).toBe(401);
+  });
+
+  it('throttles sign-ups per address (SIGN_UP_ADDRESS_LIMIT)', async () => {
+    const app = proxied(db, { TRUST_PROXY: '1', SIGN_UP_ADDRESS_LIMIT: '3' });
+    const body = (i: number) => ({ name: 'S', email: `signup-flood-${i}@example.test`, password: 'long enough pass', teamName: 'T' });
+    for (let i = 0; i < 3; i++) expect((await request(app.app).post('/api/auth/sign-up').set('X-Forwarded-For', '198.51.100.12').send(body(i))).status).toBe(202);
+    const res = await request(app.app).post('/api/auth/sign-up').set('X-Forwarded-For', '198.51.100.12').send(body(9));
+    expect(res.status).toBe(429);
   });
 });
 
 describe('behind a reverse proxy (TRUST_PROXY=1)', () => {
   it('counts failures per forwarded client address, not per proxy', async () => {
-    const proxied = makeApp(db, { TRUST_PROXY: '1' });
-    const attempt = (ip: string, i: number) =>
-      request(proxied.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email: `proxy-${i}@example.test`, password: 'guess guess' });
-    for (let i = 0; i < ADDRESS_FAILURES; i++) expect((await attempt('203.0.113.7', i)).status).toBe(401);
-    expect((await attempt('203.0.113.7', 99)).status).toBe(429);
-    expect((await attempt('198.51.100.20', 100)).status).toBe(401);
+    const app = makeApp(db, { TRUST_PROXY: '1', SIGN_IN_ADDRESS_LIMIT: '5' });
+    const attemptFrom = (ip: string, i: number) => request(app.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email: `proxy-${ip}-${i}@example.test`, password: 'guess guess' });
+    for (let i = 0; i < 5; i++) expect((await attemptFrom('203.0.113.7', i)).status).toBe(401);
+    expect((await attemptFrom('203.0.113.7', 99)).status).toBe(429);
+    expect((await attemptFrom('203.0.113.8', 0)).status).toBe(401);
   });
 });
 

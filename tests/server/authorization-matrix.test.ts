@@ -119,10 +119,16 @@ const rows: Row[] = [
   { name: 'GET /api/auth/me', expect: m(200, 200, 200, 200, 200), send: (a) => a.get('/api/auth/me') },
   {
     name: 'POST /api/auth/sign-up',
-    expect: all(201),
+    expect: all(202),
     freshAgent: true,
     send: (a) =>
       a.post('/api/auth/sign-up').send({ name: 'New Person', email: `new-${randomUUID()}@example.test`, password: PASSWORD, teamName: 'New team' }),
+  },
+  {
+    name: 'POST /api/auth/sign-up/confirm',
+    expect: all(404),
+    freshAgent: true,
+    send: (a) => a.post('/api/auth/sign-up/confirm').send({ token: 'not-a-mailed-token' }),
   },
   {
     name: 'POST /api/auth/sign-in',

@@ -28,7 +28,8 @@ export interface TestApp {
 /** An app on `db` with its own mail directory (and its own sign-in rate limiter). */
 export function makeApp(db: Db, env: Record<string, string> = {}): TestApp {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-test-'));
-  const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', ...env });
+  // Every test file's requests come from one address: sign-ups are not what most tests are about.
+  const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', SIGN_UP_ADDRESS_LIMIT: '100000', ...env });
   const mailDir = path.join(dataDir, 'mail');
   const mailer = createMailer({ dir: mailDir, from: config.mailFrom });
   return { app: createApp({ db, config, mailer }), db, mailer, mailDir, config };
@@ -92,4 +93,29 @@ export function circuitWith(n: number) {
       })),
     },
   };
+}
+
+/** Waits (bounded) for the `nth` account mail (sign-up, no team) to `to` and returns its text. */
+export async function accountMail(mailer: Mailer, to: string, nth = 1): Promise<{ subject: string; text: string }> {
+  for (let i = 0; i < 200; i++) {
+    const items = (await mailer.list('')).filter((m) => m.to === to);
+    if (items.length >= nth) {
+      const m = await mailer.get('', items[items.length - nth].id);
+      if (m) return { subject: m.subject, text: m.text };
+    }
+    await new Promise((r) => setTimeout(r, 25));
+  }
+  throw new Error(`no account mail to ${to}`);
+}
+
+/** Signs up a new team through the API as a person would: request, mailed link, confirmation. Returns the signed-in agent and the answer. */
+export async function signUpNewTeam(app: TestApp, body: { name: string; email: string; password: string; teamName: string }) {
+  const agent = request.agent(app.app);
+  const pending = await agent.post('/api/auth/sign-up').set('Origin', APP_URL).send(body);
+  if (pending.status !== 202) throw new Error(`sign-up failed: ${pending.status} ${JSON.stringify(pending.body)}`);
+  const mail = await accountMail(app.mailer, body.email.trim().toLowerCase());
+  const token = /\/sign-up\/confirm#([A-Za-z0-9_-]+)/.exec(mail.text)?.[1];
+  if (!token) throw new Error(`no sign-up link in: ${mail.subject}`);
+  const res = await agent.post('/api/auth/sign-up/confirm').set('Origin', APP_URL).send({ token });
+  return { agent, res, token };
 }

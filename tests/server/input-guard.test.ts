@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../shared/engine/index.ts';
 import { INT32_MAX, JSON_MAX_DEPTH } from '../../shared/api/limits.ts';
 import type { Db } from '../../server/db/index.ts';
-import { APP_URL, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
+import { accountMail, APP_URL, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 import { deep, toJson } from './fuzz/fuzz-kit.ts';
 
@@ -164,12 +164,17 @@ describe('JSON depth', () => {
 });
 
 describe('unique-key races', () => {
-  it('two simultaneous sign-ups with one e-mail: one succeeds, the other is 409, nothing is logged with the hash', async () => {
+  it('two simultaneous sign-up confirmations for one e-mail: one account is made, the other answer is 409', async () => {
     const body = { name: 'Racer', email: 'race@example.test', password: 'a long passphrase here', teamName: 'Race team' };
-    const [a, b] = await Promise.all([
-      request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send(body),
-      request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ ...body, teamName: 'Race team 2' }),
-    ]);
+    const tokens: string[] = [];
+    for (let i = 1; i <= 2; i++) {
+      expect((await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send(body)).status).toBe(202);
+      const mail = await accountMail(t.mailer, body.email, i);
+      tokens.push(/\/sign-up\/confirm#([A-Za-z0-9_-]+)/.exec(mail.text)![1]);
+    }
+    const [a, b] = await Promise.all(tokens.map((token) => request(t.app).post('/api/auth/sign-up/confirm').set('Origin', APP_URL).send({ token })));
     expect([a.status, b.status].sort()).toEqual([201, 409]);
+    const loser = a.status === 409 ? a : b;
+    expect(loser.body.error).toMatchObject({ code: 'conflict' });
   });
 });

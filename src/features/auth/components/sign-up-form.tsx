@@ -8,7 +8,7 @@ import { TextField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { applyServerErrors } from '../../../lib/form-errors.ts';
-import { useSignUp } from '../api/sign-up.ts';
+import { isPending, useSignUp } from '../api/sign-up.ts';
 
 type SignUpInput = z.input<typeof signUpRequestSchema>;
 type SignUpOutput = z.output<typeof signUpRequestSchema>;
@@ -23,6 +23,7 @@ interface SignUpFormProps {
 export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
   const signUp = useSignUp();
   const [problem, setProblem] = useState<string | null>(null);
+  const [sentTo, setSentTo] = useState<string | null>(null);
   const form = useForm<SignUpInput, unknown, SignUpOutput>({
     resolver: zodResolver(signUpRequestSchema),
     defaultValues: invite
@@ -34,7 +35,7 @@ export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
   const onSubmit = form.handleSubmit((values) => {
     setProblem(null);
     signUp.mutate(values, {
-      onSuccess: onSignedUp,
+      onSuccess: (answer) => (isPending(answer) ? setSentTo(answer.email) : onSignedUp(answer)),
       onError: (error) => {
         // The only 409 of sign-up is a taken address: say it at the e-mail field.
         if (isApiError(error, 409)) {
@@ -45,6 +46,15 @@ export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
       },
     });
   });
+
+  if (sentTo) {
+    return (
+      <Notice tone="info" title="Check your inbox">
+        We sent a message to {sentTo}. Open the link in it to finish creating your account and team (it works for 24 hours). If
+        the address already has an account, the message says so instead.
+      </Notice>
+    );
+  }
 
   return (
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-3">
@@ -63,7 +73,7 @@ export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
         label="Password"
         type="password"
         autoComplete="new-password"
-        hint={`At least ${PASSWORD_MIN} characters; a few unrelated words make a good one.`}
+        hint={`At least ${PASSWORD_MIN} characters and hard to guess; a few unrelated words make a good one.`}
         error={errors.password?.message}
         {...form.register('password')}
       />
