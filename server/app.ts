@@ -8,6 +8,7 @@ import type { Config } from './config.ts';
 import type { Db } from './db/index.ts';
 import { errorHandler } from './error-handler.ts';
 import { guardBody, guardUrl } from './input-guard.ts';
+import { securityHeaders } from './security-headers.ts';
 import { AppError } from './errors.ts';
 import type { Mailer } from './mail/index.ts';
 import { auditRoutes } from './routes/audit.ts';
@@ -25,12 +26,14 @@ export interface AppDeps {
   mailer: Mailer;
   /** Adds the client (static dist/ or vite middleware) after the API and before the error handler. */
   mountClient?: (app: Express) => void;
+  /** Development (vite middleware with hot reload): the CSP allows its inline scripts and websocket. */
+  dev?: boolean;
 }
 
 /** Largest accepted JSON body; a study's circuit and layout fit easily. */
 export const JSON_LIMIT = '2mb';
 
-export function createApp({ db, config, mailer, mountClient }: AppDeps): Express {
+export function createApp({ db, config, mailer, mountClient, dev = false }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy) {
@@ -40,6 +43,7 @@ export function createApp({ db, config, mailer, mountClient }: AppDeps): Express
   const lucia = createLucia(db, { cookieSecure: config.cookieSecure, idleHours: config.sessionIdleHours });
   const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
 
+  app.use(securityHeaders({ dev }));
   app.use((_req, res, next) => {
     // Names the request in the log and in a 500's message, so a report can be matched to its log line.
     res.locals.requestId = randomUUID();

@@ -14,4 +14,4 @@ const vite = await createServer({
   appType: 'spa',
 });
 
-await run(config, (app) => app.use(vite.middlewares), { server, onClose: () => vite.close() });
+await run(config, (app) => app.use(vite.middlewares), { server, dev: true, onClose: () => vite.close() });

@@ -33,15 +33,17 @@ export interface RunOptions {
   onClose?: () => Promise<void>;
   /** The HTTP server to serve on (dev mode shares it with vite's hot-reload socket); a new one by default. */
   server?: Server;
+  /** Development mode (vite middleware): a CSP that allows hot reload. */
+  dev?: boolean;
 }
 
 /** Opens the database, seeds the demo team when asked, and serves the app with the given client. */
-export async function run(config: Config, mountClient: (app: Express) => void, { onClose = async () => {}, server = createServer() }: RunOptions = {}) {
+export async function run(config: Config, mountClient: (app: Express) => void, { onClose = async () => {}, server = createServer(), dev = false }: RunOptions = {}) {
   const started = Date.now();
   const db = await prepareDatabase(config);
   const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
   const mail = await mailer.start();
-  const app = createApp({ db, config, mailer, mountClient });
+  const app = createApp({ db, config, mailer, mountClient, dev });
 
   server.on('request', app);
   await new Promise<void>((resolve, reject) => {

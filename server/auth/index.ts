@@ -5,7 +5,6 @@
 import { eq } from 'drizzle-orm';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import type { Session, User } from 'lucia';
-import { verifyRequestOrigin } from 'lucia';
 import { roleAtLeast, type Role } from '../../shared/api/common.ts';
 import type { Db } from '../db/index.ts';
 import { memberships, teams } from '../db/schema.ts';
@@ -87,19 +86,34 @@ export function sessionMiddleware(db: Db, lucia: AuthLucia, { maxDays }: { maxDa
   };
 }
 
+/** Methods that change nothing; every other method must prove it comes from the app itself. */
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
 /**
- * Refuses state-changing requests whose Origin is another site (403 `foreign-origin`). Requests
- * without an Origin header (curl, server-to-server, same-origin GET-like navigations) pass.
+ * The same-origin rule for state-changing requests (POST, PATCH, PUT, DELETE): the Origin header
+ * must be the configured APP_URL, compared by scheme, host and port (a URL's origin); a request
+ * without Origin passes only when the browser vouches for it with `Sec-Fetch-Site: same-origin`.
+ * Anything else is 403 `foreign-origin`: another site, another port or scheme, `Origin: null`,
+ * and clients that send neither header (scripts must send the app's Origin). Browsers send Origin
+ * on every cross-origin request and on same-origin POST/PATCH/DELETE fetches.
  */
 export function originCheck(appUrl: string): RequestHandler {
   const appOrigin = new URL(appUrl).origin;
   return (req, _res, next) => {
-    if (req.method === 'GET' || req.method === 'HEAD') return next();
+    if (SAFE_METHODS.has(req.method)) return next();
     const origin = req.headers.origin;
-    if (origin === undefined) return next();
-    const host = req.headers.host;
-    if (origin === appOrigin || (host && verifyRequestOrigin(origin, [host]))) return next();
-    next(new AppError(403, 'foreign-origin', 'Requests from other sites are refused.'));
+    if (origin !== undefined) {
+      let given: string | null = null;
+      try {
+        given = new URL(origin).origin;
+      } catch {
+        // not a URL (e.g. "null" from a sandboxed frame or a file:// page)
+      }
+      if (given !== null && given !== 'null' && given === appOrigin) return next();
+      return next(new AppError(403, 'foreign-origin', 'Requests from other sites are refused.'));
+    }
+    if (req.headers['sec-fetch-site'] === 'same-origin') return next();
+    next(new AppError(403, 'foreign-origin', 'Requests that change data must come from the app itself (send the app\'s Origin header).'));
   };
 }
 

@@ -38,7 +38,8 @@ export async function startProduct(env: Record<string, string> = {}): Promise<Ru
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-e2e-'));
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: root,
-    env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', NODE_ENV: 'production', ...env },
+    // APP_URL is the address the browser opens: state-changing requests must carry it as their Origin.
+    env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', NODE_ENV: 'production', APP_URL: `http://127.0.0.1:${port}`, ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let log = '';

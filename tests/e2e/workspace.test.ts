@@ -137,7 +137,10 @@ describe('study workspace in a real browser', () => {
 
     // Someone else saves meanwhile: the next save offers a choice instead of overwriting.
     const before = (await (await page.request.get(`${product.baseUrl}/api/studies/${studyId}`)).json()) as { version: number };
-    const other = await page.request.patch(`${product.baseUrl}/api/studies/${studyId}`, { data: { version: before.version, description: 'edited elsewhere' } });
+    const other = await page.request.patch(`${product.baseUrl}/api/studies/${studyId}`, {
+      data: { version: before.version, description: 'edited elsewhere' },
+      headers: { Origin: product.baseUrl },
+    });
     expect(other.status()).toBe(200);
     await clickWire(page, 'Connection SRC1 to bus B1');
     await page.getByRole('button', { name: 'Close neutral' }).click();

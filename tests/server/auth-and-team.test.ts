@@ -5,6 +5,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { backoffSeconds, FREE_FAILURES, MAX_WAIT_SECONDS } from '../../server/auth/rate-limit.ts';
 import { eq } from 'drizzle-orm';
+import { readConfig } from '../../server/config.ts';
 import type { Db } from '../../server/db/index.ts';
 import { sessions } from '../../server/db/schema.ts';
 import { accountMail, makeApp, makeTeam, makeUser, PASSWORD, signedIn, signUpNewTeam, APP_URL, type TestApp } from './helpers.ts';
@@ -24,7 +25,7 @@ afterAll(async () => {
 
 describe('sign-up, sign-in, sign-out', () => {
   it('signs up a new team through a mailed link, then keeps the owner signed in with an HttpOnly, SameSite=Lax cookie', async () => {
-    const agent = request.agent(t.app);
+    const agent = request.agent(t.app).set('Origin', APP_URL);
     const pending = await agent
       .post('/api/auth/sign-up')
       .send({ name: 'Nell Ostrander', email: '  Nell@Example.TEST ', password: 'long enough pass', teamName: 'Ostrander Consulting' });
@@ -46,7 +47,7 @@ describe('sign-up, sign-in, sign-out', () => {
     expect(me.status).toBe(200);
     expect(me.body).toEqual(res.body);
     // The link works once.
-    expect((await request(t.app).post('/api/auth/sign-up/confirm').send({ token })).status).toBe(404);
+    expect((await request(t.app).post('/api/auth/sign-up/confirm').set('Origin', APP_URL).send({ token })).status).toBe(404);
   });
 
   it('marks the cookie Secure when COOKIE_SECURE=1', async () => {
@@ -58,8 +59,8 @@ describe('sign-up, sign-in, sign-out', () => {
   it('answers a sign-up for an address that has an account exactly like a new one, and mails "you already have an account"', async () => {
     const body = { name: 'Dup', email: 'dup@example.test', password: 'long enough pass', teamName: 'Dup team' };
     expect((await signUpNewTeam(t, body)).res.status).toBe(201);
-    const again = await request(t.app).post('/api/auth/sign-up').send({ ...body, email: 'DUP@example.test' });
-    const fresh = await request(t.app).post('/api/auth/sign-up').send({ ...body, email: 'nobody-yet@example.test' });
+    const again = await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ ...body, email: 'DUP@example.test' });
+    const fresh = await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ ...body, email: 'nobody-yet@example.test' });
     expect(again.status).toBe(202);
     expect(fresh.status).toBe(202);
     expect(Object.keys(again.body)).toEqual(Object.keys(fresh.body));
@@ -71,7 +72,7 @@ describe('sign-up, sign-in, sign-out', () => {
   });
 
   it('requires passwords of 10 to 200 characters, a valid e-mail and a team name', async () => {
-    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'Short', email: 'not-an-email', password: '123456789' });
+    const res = await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ name: 'Short', email: 'not-an-email', password: '123456789' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({
       email: 'Enter a valid e-mail address',
@@ -79,11 +80,11 @@ describe('sign-up, sign-in, sign-out', () => {
       teamName: 'Team name is required',
     });
     const long = await request(t.app)
-      .post('/api/auth/sign-up')
+      .post('/api/auth/sign-up').set('Origin', APP_URL)
       .send({ name: 'Long', email: 'long@example.test', password: 'x'.repeat(201), teamName: 'T' });
     expect(long.body.error.fields.password).toBe('Password must be at most 200 characters');
     const strong10 = await request(t.app)
-      .post('/api/auth/sign-up')
+      .post('/api/auth/sign-up').set('Origin', APP_URL)
       .send({ name: 'Ten', email: 'ten@example.test', password: 'vq7#Lm2!xZ', teamName: 'T' });
     expect(strong10.status).toBe(202);
   });
@@ -91,7 +92,7 @@ describe('sign-up, sign-in, sign-out', () => {
   it('refuses passwords that are easy to guess (common, keyboard rows, built from the name), with a reason', async () => {
     for (const password of ['password123456', 'qwertyuiop12', '1234567890', 'Ostranderteam1']) {
       const res = await request(t.app)
-        .post('/api/auth/sign-up')
+        .post('/api/auth/sign-up').set('Origin', APP_URL)
         .send({ name: 'Guessable Ostranderteam', email: 'weak@example.test', password, teamName: 'Ostrander team' });
       expect(res.status, password).toBe(400);
       expect(res.body.error.fields.password).toMatch(/guess|common|often used|pattern|name|Sequences|Straight/i);
@@ -101,8 +102,8 @@ describe('sign-up, sign-in, sign-out', () => {
   it('gives unknown e-mail and wrong password the same 401 answer', async () => {
     const team = await makeTeam(db);
     const u = await makeUser(db, team, 'viewer');
-    const wrong = await request(t.app).post('/api/auth/sign-in').send({ email: u.email, password: 'not the password' });
-    const unknown = await request(t.app).post('/api/auth/sign-in').send({ email: 'nobody-here@example.test', password: 'not the password' });
+    const wrong = await request(t.app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: u.email, password: 'not the password' });
+    const unknown = await request(t.app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'nobody-here@example.test', password: 'not the password' });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body).toEqual({ error: { code: 'invalid-credentials', message: 'E-mail or password is incorrect.' } });
@@ -113,8 +114,8 @@ describe('sign-up, sign-in, sign-out', () => {
     const team = await makeTeam(db);
     const u = await makeUser(db, team, 'engineer');
     const agent = await signedIn(t.app, u.email);
-    const cookie = (await request(t.app).post('/api/auth/sign-in').send({ email: u.email, password: PASSWORD })).headers['set-cookie'];
-    const out = await request(t.app).post('/api/auth/sign-out').set('Cookie', cookie);
+    const cookie = (await request(t.app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: u.email, password: PASSWORD })).headers['set-cookie'];
+    const out = await request(t.app).post('/api/auth/sign-out').set('Origin', APP_URL).set('Cookie', cookie);
     expect(out.status).toBe(204);
     expect(String(out.headers['set-cookie'])).toMatch(/wyeward_session=;/);
     // The old cookie no longer works, even if a client kept it.
@@ -155,7 +156,7 @@ describe('sign-in throttling', () => {
   /** An app behind a proxy, so each request can come from its own client address. */
   const proxied = makeApp.bind(null);
   const attempt = (app: TestApp, ip: string, email: string, password: string) =>
-    request(app.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email, password });
+    request(app.app).post('/api/auth/sign-in').set('Origin', APP_URL).set('X-Forwarded-For', ip).send({ email, password });
 
   it('50 wrong passwords from one address do not lock the account: the right password from another address signs in at once', async () => {
     const app = proxied(db, { TRUST_PROXY: '1' });
@@ -218,8 +219,8 @@ describe('sign-in throttling', () => {
   it('throttles sign-ups per address (SIGN_UP_ADDRESS_LIMIT)', async () => {
     const app = proxied(db, { TRUST_PROXY: '1', SIGN_UP_ADDRESS_LIMIT: '3' });
     const body = (i: number) => ({ name: 'S', email: `signup-flood-${i}@example.test`, password: 'long enough pass', teamName: 'T' });
-    for (let i = 0; i < 3; i++) expect((await request(app.app).post('/api/auth/sign-up').set('X-Forwarded-For', '198.51.100.12').send(body(i))).status).toBe(202);
-    const res = await request(app.app).post('/api/auth/sign-up').set('X-Forwarded-For', '198.51.100.12').send(body(9));
+    for (let i = 0; i < 3; i++) expect((await request(app.app).post('/api/auth/sign-up').set('Origin', APP_URL).set('X-Forwarded-For', '198.51.100.12').send(body(i))).status).toBe(202);
+    const res = await request(app.app).post('/api/auth/sign-up').set('Origin', APP_URL).set('X-Forwarded-For', '198.51.100.12').send(body(9));
     expect(res.status).toBe(429);
   });
 });
@@ -227,7 +228,7 @@ describe('sign-in throttling', () => {
 describe('behind a reverse proxy (TRUST_PROXY=1)', () => {
   it('counts failures per forwarded client address, not per proxy', async () => {
     const app = makeApp(db, { TRUST_PROXY: '1', SIGN_IN_ADDRESS_LIMIT: '5' });
-    const attemptFrom = (ip: string, i: number) => request(app.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email: `proxy-${ip}-${i}@example.test`, password: 'guess guess' });
+    const attemptFrom = (ip: string, i: number) => request(app.app).post('/api/auth/sign-in').set('Origin', APP_URL).set('X-Forwarded-For', ip).send({ email: `proxy-${ip}-${i}@example.test`, password: 'guess guess' });
     for (let i = 0; i < 5; i++) expect((await attemptFrom('203.0.113.7', i)).status).toBe(401);
     expect((await attemptFrom('203.0.113.7', 99)).status).toBe(429);
     expect((await attemptFrom('203.0.113.8', 0)).status).toBe(401);
@@ -241,8 +242,13 @@ describe('same-origin rule', () => {
     const agent = await signedIn(t.app, u.email);
     for (const res of [
       await agent.post('/api/studies').set('Origin', 'https://evil.example').send({ name: 'csrf' }),
-      await request(t.app).post('/api/auth/sign-in').set('Origin', 'http://localhost:3001').send({ email: u.email, password: PASSWORD }),
+      await request(t.app).post('/api/auth/sign-in').set('Origin', 'http://localhost:3001').send({ email: u.email, password: PASSWORD }), // another port
+      await agent.post('/api/studies').set('Origin', 'https://localhost:3000').send({ name: 'csrf' }), // another scheme
       await agent.post('/api/auth/sign-out').set('Origin', 'null'),
+      await agent.post('/api/auth/sign-out').set('Origin', ''),
+      await agent.post('/api/auth/sign-out').set('Origin', 'not a url'),
+      // An Origin equal to the request's Host is not enough: only APP_URL counts.
+      await agent.post('/api/studies').set('Host', 'wyeward.internal:8080').set('Origin', 'http://wyeward.internal:8080').send({ name: 'by host' }),
     ]) {
       expect(res.status).toBe(403);
       expect(res.body.error.code).toBe('foreign-origin');
@@ -251,15 +257,36 @@ describe('same-origin rule', () => {
     expect((await agent.get('/api/auth/me')).status).toBe(200); // and the sign-out was refused
   });
 
-  it('lets the app origin, the request host and requests without Origin through', async () => {
-    const team = await makeTeam(db);
-    const u = await makeUser(db, team, 'engineer');
+  it('requires Origin (or Sec-Fetch-Site: same-origin) on state-changing requests', async () => {
+    const u = await makeUser(db, await makeTeam(db), 'engineer');
+    const agent = await signedIn(t.app, u.email);
+    const bare = await agent.post('/api/studies').unset('Origin').send({ name: 'no origin' });
+    expect(bare.status).toBe(403);
+    expect(bare.body.error).toMatchObject({ code: 'foreign-origin', message: expect.stringMatching(/Origin/) });
+    expect((await agent.delete('/api/studies/00000000-0000-4000-8000-000000000000').unset('Origin')).status).toBe(403);
+    expect((await agent.post('/api/studies').unset('Origin').set('Sec-Fetch-Site', 'cross-site').send({ name: 'x' })).status).toBe(403);
+    expect((await agent.post('/api/studies').unset('Origin').set('Sec-Fetch-Site', 'same-origin').send({ name: 'fetch metadata' })).status).toBe(201);
+  });
+
+  it('lets the app origin through, compared by scheme, host and port', async () => {
+    const u = await makeUser(db, await makeTeam(db), 'engineer');
     const agent = await signedIn(t.app, u.email);
     expect((await agent.post('/api/studies').set('Origin', APP_URL).send({ name: 'same origin' })).status).toBe(201);
-    expect((await agent.post('/api/studies').set('Host', 'wyeward.internal:8080').set('Origin', 'http://wyeward.internal:8080').send({ name: 'by host' })).status).toBe(201);
-    expect((await agent.post('/api/studies').send({ name: 'no origin' })).status).toBe(201);
+    expect((await agent.post('/api/studies').set('Origin', 'HTTP://LOCALHOST:3000').send({ name: 'same origin, other case' })).status).toBe(201);
+    const https = makeApp(db, { APP_URL: 'https://wyeward.example.org' });
+    // (a wrong password: 401 means the request passed the origin check, 403 that it was refused)
+    const attempt = (origin: string) => request(https.app).post('/api/auth/sign-in').set('Origin', origin).send({ email: u.email, password: 'not it at all' });
+    expect((await attempt('https://wyeward.example.org:443')).status).toBe(401); // the default port is the same origin
+    expect((await attempt('http://wyeward.example.org')).status).toBe(403);
+    expect((await attempt('https://wyeward.example.org:8443')).status).toBe(403);
     // Reads are never refused for their Origin.
     expect((await agent.get('/api/studies').set('Origin', 'https://evil.example')).status).toBe(200);
+  });
+
+  it('refuses an APP_URL that is not an http(s) origin at start', () => {
+    for (const APP_URL of ['wyeward.example.org', 'ftp://x.example', 'https://x.example/app', 'https://x.example/?a=1']) {
+      expect(() => readConfig({ APP_URL }), APP_URL).toThrow(/APP_URL/);
+    }
   });
 });
 
@@ -292,10 +319,10 @@ describe('invites and roles', () => {
     expect(info.body).toMatchObject({ email: 'new.engineer@example.test', role: 'engineer', teamName: 'Invite team' });
 
     // Wrong address is refused; the right one joins with the invited role.
-    const wrongEmail = await request(t.app).post('/api/auth/sign-up').send({ name: 'X', email: 'other@example.test', password: PASSWORD, inviteToken: token });
+    const wrongEmail = await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ name: 'X', email: 'other@example.test', password: PASSWORD, inviteToken: token });
     expect(wrongEmail.status).toBe(400);
     expect(wrongEmail.body.error.fields).toHaveProperty('email');
-    const invitee = request.agent(t.app);
+    const invitee = request.agent(t.app).set('Origin', APP_URL);
     const joined = await invitee.post('/api/auth/sign-up').send({ name: 'Nico Engineer', email: 'new.engineer@example.test', password: PASSWORD, inviteToken: token });
     expect(joined.status).toBe(201);
     expect(joined.body).toMatchObject({ team: { id: team, name: 'Invite team' }, role: 'engineer' });
@@ -318,7 +345,7 @@ describe('invites and roles', () => {
     expect((await owner.delete(`/api/team/invites/${inv.body.id}`)).status).toBe(204);
     expect((await request(t.app).get(`/api/invites/${token}`)).status).toBe(404);
     expect((await request(t.app).get('/api/invites/nonsense')).status).toBe(404);
-    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'R', email: 'revoked@example.test', password: PASSWORD, inviteToken: token });
+    const res = await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ name: 'R', email: 'revoked@example.test', password: PASSWORD, inviteToken: token });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('inviteToken');
   });
@@ -371,7 +398,7 @@ describe('invites and roles', () => {
     const eng = await signedIn(t.app, e.email);
     expect((await owner.delete(`/api/team/members/${e.id}`)).status).toBe(204);
     expect((await eng.get('/api/studies')).status).toBe(401);
-    const again = await request(t.app).post('/api/auth/sign-in').send({ email: e.email, password: PASSWORD });
+    const again = await request(t.app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: e.email, password: PASSWORD });
     expect(again.status).toBe(403);
     expect((await owner.get('/api/team')).body.members.map((m: { userId: string }) => m.userId)).toEqual([o.id]);
   });

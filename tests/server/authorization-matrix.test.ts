@@ -11,7 +11,7 @@ import type { Db } from '../../server/db/index.ts';
 import { invites } from '../../server/db/schema.ts';
 import { hashInviteToken } from '../../server/services/invites-token.ts';
 import { demoCircuits } from '../../shared/engine/index.ts';
-import { makeApp, makeStudy, makeTeam, makeUser, PASSWORD, signedIn, type TestApp } from './helpers.ts';
+import { APP_URL, makeApp, makeStudy, makeTeam, makeUser, PASSWORD, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
 const CALLERS = ['owner', 'engineer', 'reviewer', 'viewer', 'anonymous', 'otherOwner'] as const;
@@ -39,7 +39,7 @@ beforeAll(async () => {
   teamB = await makeTeam(db, 'Team B');
   for (const role of ['owner', 'engineer', 'reviewer', 'viewer'] as const) people[role] = await makeUser(db, teamA, role);
   people.otherOwner = await makeUser(db, teamB, 'owner');
-  for (const c of CALLERS) agents[c] = c === 'anonymous' ? request.agent(t.app) : await signedIn(t.app, people[c].email);
+  for (const c of CALLERS) agents[c] = c === 'anonymous' ? request.agent(t.app).set('Origin', APP_URL) : await signedIn(t.app, people[c].email);
   studyA = (await makeStudy(db, teamA, people.engineer.id, 'Team A feeder study')).id;
   mailA = await t.mailer.send({ teamId: teamA, to: 'someone@example.test', subject: 'Team A message', text: 'hello' });
   const r = await apiStudy();
@@ -263,7 +263,7 @@ describe.each(rows)('$name', (row) => {
     const agent = !row.freshAgent
       ? agents[caller]
       : caller === 'anonymous'
-        ? request.agent(t.app)
+        ? request.agent(t.app).set('Origin', APP_URL)
         : await signedIn(t.app, people[caller].email);
     const res = await row.send(agent, caller);
     expect(res.status, JSON.stringify(res.body)).toBe(row.expect[caller]);

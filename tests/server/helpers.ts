@@ -70,9 +70,12 @@ export async function markApproved(db: Db, studyId: string, revision = 1) {
   await db.update(studies).set({ status: 'approved', approvedRevision: revision }).where(eq(studies.id, studyId));
 }
 
-/** A supertest agent signed in as `email` (keeps the session cookie). */
-export async function signedIn(app: TestApp['app'], email: string, password = PASSWORD) {
-  const agent = request.agent(app);
+/**
+ * A supertest agent signed in as `email` (keeps the session cookie). Like a browser on the app, it
+ * sends the app's Origin with every request (the server refuses state-changing requests without it).
+ */
+export async function signedIn(app: TestApp['app'], email: string, password = PASSWORD, origin = APP_URL) {
+  const agent = request.agent(app).set('Origin', origin);
   const res = await agent.post('/api/auth/sign-in').send({ email, password });
   if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return agent;
@@ -110,7 +113,7 @@ export async function accountMail(mailer: Mailer, to: string, nth = 1): Promise<
 
 /** Signs up a new team through the API as a person would: request, mailed link, confirmation. Returns the signed-in agent and the answer. */
 export async function signUpNewTeam(app: TestApp, body: { name: string; email: string; password: string; teamName: string }) {
-  const agent = request.agent(app.app);
+  const agent = request.agent(app.app).set('Origin', APP_URL);
   const pending = await agent.post('/api/auth/sign-up').set('Origin', APP_URL).send(body);
   if (pending.status !== 202) throw new Error(`sign-up failed: ${pending.status} ${JSON.stringify(pending.body)}`);
   const mail = await accountMail(app.mailer, body.email.trim().toLowerCase());

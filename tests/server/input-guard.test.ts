@@ -61,7 +61,7 @@ describe('NUL characters and lone surrogates are refused with 400 and a field me
   });
 
   it('in the sign-up team name', async () => {
-    const res = await json(request.agent(t.app), 'post', '/api/auth/sign-up', JSON.stringify({ name: 'N', email: 'nul-team@example.test', password: 'a long passphrase here', teamName: 'Team\u0000' }));
+    const res = await json(request.agent(t.app).set('Origin', APP_URL), 'post', '/api/auth/sign-up', JSON.stringify({ name: 'N', email: 'nul-team@example.test', password: 'a long passphrase here', teamName: 'Team\u0000' }));
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('teamName');
   });

@@ -14,7 +14,7 @@ import { createMailer } from '../../server/mail/index.ts';
 import { prepareDatabase } from '../../server/runtime.ts';
 import { createApp } from '../../server/app.ts';
 import { serveClient } from '../../server/static-client.ts';
-import { makeApp, signedIn } from './helpers.ts';
+import { APP_URL, makeApp, signedIn } from './helpers.ts';
 import { openTestDb, templateBlob } from './test-db.ts';
 
 const dirs: string[] = [];
@@ -45,7 +45,7 @@ describe('restart', () => {
     expect(created.status).toBe(201);
     const edited = await engineer.patch(`/api/studies/${created.body.id}`).send({ version: 1, description: 'edited before close' });
     expect(edited.status).toBe(200);
-    const cookie = (await request(app).post('/api/auth/sign-in').send({ email: 'owner@wyeward.test', password: DEMO_PASSWORD })).headers['set-cookie'];
+    const cookie = (await request(app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'owner@wyeward.test', password: DEMO_PASSWORD })).headers['set-cookie'];
     const before = (await engineer.get('/api/studies?pageSize=100')).body;
     const ownerId = (await db.$client.query<{ id: string }>(`select id from users where email = 'owner@wyeward.test'`)).rows[0].id;
     await db.$client.query(`insert into sessions (id, user_id, expires_at) values ('long-expired', $1, now() - interval '1 day')`, [ownerId]);
@@ -142,7 +142,7 @@ describe('demo seed', () => {
     expect(users.rows[0].n).toBe(0);
     const demo = await request(makeApp(db, { DEMO: '0' }).app).get('/api/auth/demo');
     expect(demo.body).toEqual({ demo: false, accounts: [] });
-    const signIn = await request(makeApp(db).app).post('/api/auth/sign-in').send({ email: 'owner@wyeward.test', password: 'wyeward-demo' });
+    const signIn = await request(makeApp(db).app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'owner@wyeward.test', password: 'wyeward-demo' });
     expect(signIn.status).toBe(401);
     await db.$client.close();
   });

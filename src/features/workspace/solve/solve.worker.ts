@@ -1,5 +1,6 @@
 /// <reference lib="webworker" />
 /** The live-solve Web Worker: the shared engine off the main thread, one request at a time. */
+import '../../../lib/zod-csp.ts';
 import { createSolveHandler } from './solve-handler.ts';
 import type { SolveRequest } from './solve-protocol.ts';
 
