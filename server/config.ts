@@ -28,6 +28,10 @@ export interface Config {
   signInAddressLimit: number;
   /** Sign-up requests one address may make per hour (SIGN_UP_ADDRESS_LIMIT, default 10). */
   signUpAddressLimit: number;
+  /** Worker threads for heavy jobs: circuit checks and solves of large studies, diffs (WORK_THREADS, default 1). */
+  workThreads: number;
+  /** Time limit of one heavy job in milliseconds (WORK_TIMEOUT_MS, default 20000); past it the request gets 503. */
+  workTimeoutMs: number;
 }
 
 function positiveNumber(env: NodeJS.ProcessEnv, name: string, fallback: number, max: number): number {
@@ -72,5 +76,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionMaxDays: positiveNumber(env, 'SESSION_MAX_DAYS', 30, 3650),
     signInAddressLimit: Math.round(positiveNumber(env, 'SIGN_IN_ADDRESS_LIMIT', 300, 1e6)),
     signUpAddressLimit: Math.round(positiveNumber(env, 'SIGN_UP_ADDRESS_LIMIT', 10, 1e6)),
+    workThreads: Math.round(positiveNumber(env, 'WORK_THREADS', 1, 64)),
+    workTimeoutMs: Math.round(positiveNumber(env, 'WORK_TIMEOUT_MS', 20_000, 600_000)),
   };
 }

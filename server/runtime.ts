@@ -11,6 +11,7 @@ import { sessions } from './db/schema.ts';
 import { seedDemo } from './db/seed.ts';
 import { createMailer } from './mail/index.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
+import { closeWork, configureWork } from './work/index.ts';
 
 /** The project root (the directory holding package.json). */
 export const ROOT = path.resolve(import.meta.dirname, '..');
@@ -40,6 +41,7 @@ export interface RunOptions {
 /** Opens the database, seeds the demo team when asked, and serves the app with the given client. */
 export async function run(config: Config, mountClient: (app: Express) => void, { onClose = async () => {}, server = createServer(), dev = false }: RunOptions = {}) {
   const started = Date.now();
+  configureWork({ threads: config.workThreads, timeoutMs: config.workTimeoutMs });
   const db = await prepareDatabase(config);
   const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
   const mail = await mailer.start();
@@ -78,6 +80,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
     server.closeAllConnections();
     try {
       await onClose();
+      await closeWork();
       await mailer.close();
       await closeDb(db);
       process.exit(0);

@@ -8,7 +8,7 @@ import path from 'node:path';
 import { and, desc, eq, max } from 'drizzle-orm';
 import type { RevisionSummary, Revision } from '../../shared/api/revisions.ts';
 import type { StudyContent } from '../../shared/api/studies.ts';
-import { diffRevisions, jsonEqual, type RevisionDiff } from '../../shared/review/diff.ts';
+import { jsonEqual, type RevisionDiff } from '../../shared/review/diff.ts';
 import { summarizeCircuit, type ResultsSummary } from '../../shared/review/summary.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
 import type { Actor } from '../auth/index.ts';
@@ -16,6 +16,7 @@ import type { Db } from '../db/index.ts';
 import { studyRevisions, users } from '../db/schema.ts';
 import { notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
+import { work } from '../work/index.ts';
 
 /** A Drizzle client or an open transaction. */
 export type Conn = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -60,11 +61,12 @@ export function sameContent(a: unknown, b: unknown): boolean {
  */
 export async function appendRevision(
   db: Conn,
-  r: { studyId: string; teamId: string; authorId: string; content: StudyContent; message?: string; restoredFrom?: number | null; at?: Date; audit?: boolean },
+  r: { studyId: string; teamId: string; authorId: string; content: StudyContent; message?: string; restoredFrom?: number | null; at?: Date; audit?: boolean; summary?: ResultsSummary },
 ): Promise<RevisionRow> {
   const [{ n }] = await db.select({ n: max(studyRevisions.number) }).from(studyRevisions).where(eq(studyRevisions.studyId, r.studyId));
   const number = (n ?? 0) + 1;
-  const summary = summarizeCircuit(r.content.circuit);
+  // Callers solve before their transaction (off the request thread, server/work); solved here only when they did not.
+  const summary = r.summary ?? summarizeCircuit(r.content.circuit);
   const [row] = await db
     .insert(studyRevisions)
     .values({
@@ -136,5 +138,5 @@ export async function diffStudy(db: Db, _actor: Actor, studyId: string, q: { fro
   const toN = q.to ?? latest.number;
   const fromN = q.from ?? Math.max(1, toN - 1);
   const [a, b] = await Promise.all([getRevision(db, studyId, fromN), getRevision(db, studyId, toN)]);
-  return diffRevisions({ number: a.number, content: a.content, summary: a.summary }, { number: b.number, content: b.content, summary: b.summary });
+  return work().diff({ number: a.number, content: a.content, summary: a.summary }, { number: b.number, content: b.content, summary: b.summary });
 }

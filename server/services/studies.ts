@@ -25,7 +25,7 @@ import { reviewEvents, studies, users } from '../db/schema.ts';
 import { AppError, isUuid, notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
 import { appendRevision, ensureRevision, getRevision, latestRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
-import { validateCircuit } from './study-content.ts';
+import { checkContent } from './study-content.ts';
 
 const createdByUser = alias(users, 'created_by_user');
 const updatedByUser = alias(users, 'updated_by_user');
@@ -191,7 +191,7 @@ export async function getStudy(db: Conn, actor: Actor, id: string): Promise<Stud
 async function insertStudy(
   tx: Conn,
   actor: Actor,
-  v: { name: string; description: string; content: StudyContent; clonedFrom?: string; clonedFromRevision?: number; message: string },
+  v: { name: string; description: string; content: StudyContent; clonedFrom?: string; clonedFromRevision?: number; message: string; summary?: ResultsSummary },
 ): Promise<CreatedStudy> {
   const [row] = await tx
     .insert(studies)
@@ -206,24 +206,28 @@ async function insertStudy(
       updatedBy: actor.userId,
     })
     .returning({ id: studies.id, version: studies.version });
-  await appendRevision(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, content: v.content, message: v.message });
+  await appendRevision(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, content: v.content, message: v.message, summary: v.summary });
   return row;
 }
 
 /** Creates a study (empty 60 Hz circuit when no content is given) with its first revision. */
 export async function createStudy(db: Db, actor: Actor, input: CreateStudyRequest): Promise<CreatedStudy> {
   const content = input.content ?? emptyStudyContent();
-  validateCircuit(content);
+  const summary = await checkContent(content);
   return db.transaction(async (tx) => {
-    const row = await insertStudy(tx, actor, { name: input.name, description: input.description ?? '', content, message: 'Created' });
+    const row = await insertStudy(tx, actor, { name: input.name, description: input.description ?? '', content, message: 'Created', summary });
     await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.create', studyId: row.id, detail: { name: input.name } });
     return row;
   });
 }
 
 /** Creates a study from an imported file (validated by the caller) with its first revision. */
-export async function createImportedStudy(db: Db, actor: Actor, v: { name: string; description: string; content: StudyContent; format: string }): Promise<CreatedStudy> {
-  validateCircuit(v.content);
+export async function createImportedStudy(
+  db: Db,
+  actor: Actor,
+  v: { name: string; description: string; content: StudyContent; format: string; summary?: ResultsSummary },
+): Promise<CreatedStudy> {
+  v.summary ??= await checkContent(v.content);
   return db.transaction(async (tx) => {
     const row = await insertStudy(tx, actor, { ...v, message: `Imported from a ${v.format} file` });
     await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.import', studyId: row.id, detail: { name: v.name, format: v.format } });
@@ -247,7 +251,7 @@ export interface StudyEdit extends UpdateStudyRequest {
  */
 export async function applyEdit(db: Db, actor: Actor, id: string, input: StudyEdit): Promise<{ study: StudyDetail; revision: RevisionSummary | null }> {
   if (!isUuid(id)) throw notFound();
-  if (input.content) validateCircuit(input.content);
+  const summary = input.content ? await checkContent(input.content) : undefined;
   const made = await db.transaction(async (tx) => {
     const [before] = await tx.select().from(studies).where(visible(actor, id)).limit(1);
     if (!before) throw notFound();
@@ -308,6 +312,7 @@ export async function applyEdit(db: Db, actor: Actor, id: string, input: StudyEd
         content: input.content,
         message: input.message,
         restoredFrom: input.restoredFrom ?? null,
+        summary,
       });
       revisionNumber = rev.number;
     }
@@ -390,6 +395,7 @@ export async function cloneStudy(db: Db, actor: Actor, id: string, input: CloneS
       content,
       clonedFrom: from.id,
       clonedFromRevision: sourceRev.number,
+      summary: sourceRev.summary as ResultsSummary, // same content, same results
       message: `${from.isTemplate ? 'New from template' : 'Copy of'} "${from.name}" revision ${sourceRev.number}`,
     });
     await recordAudit(tx, {

@@ -5,7 +5,30 @@
  */
 import { InvalidCircuitError, parseCircuit } from '../../shared/engine/index.ts';
 import type { StudyContent } from '../../shared/api/studies.ts';
+import type { ResultsSummary } from '../../shared/review/summary.ts';
 import { AppError } from '../errors.ts';
+import type { CircuitIssue } from '../work/tasks.ts';
+import { work } from '../work/index.ts';
+
+/** The 400 validation error whose `fields` name each problem under `prefix` (`content.circuit…`). */
+export function circuitError(message: string, issues: CircuitIssue[], prefix = 'content.circuit'): AppError {
+  const fields: Record<string, string> = {};
+  for (const issue of issues) {
+    const key = issue.path === '(root)' ? prefix || '_' : `${prefix ? `${prefix}.` : ''}${issue.path}`;
+    fields[key] ??= issue.message;
+  }
+  return new AppError(400, 'validation', `The circuit is not valid: ${message.replace(/^invalid circuit: /, '')}`, { fields });
+}
+
+/**
+ * Checks the circuit with the engine's parser and solves it for the summary its revision keeps, off
+ * the request thread when it is large (server/work); throws the 400 of `circuitError`.
+ */
+export async function checkContent(content: StudyContent, prefix = 'content.circuit'): Promise<ResultsSummary> {
+  const prepared = await work().prepare(content.circuit);
+  if (!prepared.ok) throw circuitError(prepared.message, prepared.issues, prefix);
+  return prepared.summary;
+}
 
 /** Throws a 400 validation error whose `fields` name each problem under `content.circuit…`. */
 export function validateCircuit(content: StudyContent): void {

@@ -5,8 +5,8 @@
  * ("element LOAD3: every phase › P (kW) must be a number", shared/review/circuit-issues.ts), keyed
  * by its path in the file.
  */
-import { parseCircuit, InvalidCircuitError } from '../../shared/engine/index.ts';
 import { circuitIssueFields, circuitIssueWords } from '../../shared/review/circuit-issues.ts';
+import type { ResultsSummary } from '../../shared/review/summary.ts';
 import type { CreatedStudy, StudyContent } from '../../shared/api/studies.ts';
 import { studyFileSchema, type StudyFile } from '../../shared/api/transfer.ts';
 import type { Actor } from '../auth/index.ts';
@@ -15,6 +15,7 @@ import { zodFields } from '../error-handler.ts';
 import { AppError } from '../errors.ts';
 import { recordAudit } from './audit.ts';
 import { createImportedStudy, getStudy } from './studies.ts';
+import { work } from '../work/index.ts';
 
 /** The export file of a study and a download name for it. */
 export async function exportStudy(db: Db, actor: Actor, id: string): Promise<{ file: StudyFile; fileName: string }> {
@@ -42,20 +43,20 @@ function invalid(fields: Record<string, string>): AppError {
   return new AppError(400, 'validation', list.length > 0 ? `The file is not valid: ${list[0]}${more}.` : 'The file is not valid.', { fields });
 }
 
-/** The engine's own check of a circuit, with field paths prefixed by where the circuit sits in the file. */
-function checkCircuit(circuit: unknown, prefix: string): void {
-  try {
-    parseCircuit(circuit);
-  } catch (err) {
-    if (!(err instanceof InvalidCircuitError)) throw err;
-    const issues = err.issues.length > 0 ? err.issues : [{ path: '(root)', message: err.message }];
-    const fields = circuitIssueFields(circuit, issues.map((i) => ({ ...i, path: i.path === '(root)' ? '' : i.path })), prefix ? `${prefix}.` : '');
-    if (fields[prefix ? `${prefix}.` : ''] !== undefined) {
-      fields[prefix || '_'] = fields[prefix ? `${prefix}.` : ''];
-      delete fields[prefix ? `${prefix}.` : ''];
-    }
-    throw invalid(fields);
+/**
+ * The engine's own check of a circuit (off the request thread when large, server/work), with field
+ * paths prefixed by where the circuit sits in the file; answers the summary of its solve.
+ */
+async function checkCircuit(circuit: unknown, prefix: string): Promise<ResultsSummary> {
+  const prepared = await work().prepare(circuit);
+  if (prepared.ok) return prepared.summary;
+  const issues = prepared.issues.length > 0 ? prepared.issues : [{ path: '(root)', message: prepared.message }];
+  const fields = circuitIssueFields(circuit, issues.map((i) => ({ ...i, path: i.path === '(root)' ? '' : i.path })), prefix ? `${prefix}.` : '');
+  if (fields[prefix ? `${prefix}.` : ''] !== undefined) {
+    fields[prefix || '_'] = fields[prefix ? `${prefix}.` : ''];
+    delete fields[prefix ? `${prefix}.` : ''];
   }
+  throw invalid(fields);
 }
 
 /** Creates a study from an uploaded file. */
@@ -63,11 +64,11 @@ export async function importStudy(db: Db, actor: Actor, body: unknown, nameOverr
   if (typeof body !== 'object' || body === null || Array.isArray(body)) throw invalid({ _: 'Send the file as a JSON object.' });
   const format = (body as { format?: unknown }).format;
   if (format === 'wyeward-circuit') {
-    checkCircuit(body, '');
+    const summary = await checkCircuit(body, '');
     const circuit = body as StudyContent['circuit'] & { name?: unknown; description?: unknown };
     const name = nameOverride ?? (typeof circuit.name === 'string' && circuit.name.trim() ? circuit.name.trim().slice(0, 200) : 'Imported circuit');
     const description = typeof circuit.description === 'string' ? circuit.description.slice(0, 5000) : '';
-    return createImportedStudy(db, actor, { name, description, content: { circuit }, format: 'wyeward-circuit' });
+    return createImportedStudy(db, actor, { name, description, content: { circuit }, format: 'wyeward-circuit', summary });
   }
   const parsed = studyFileSchema.safeParse(body);
   if (!parsed.success) {
@@ -79,11 +80,11 @@ export async function importStudy(db: Db, actor: Actor, body: unknown, nameOverr
     throw invalid(fields);
   }
   const f = parsed.data;
-  checkCircuit(f.circuit, 'circuit');
+  const summary = await checkCircuit(f.circuit, 'circuit');
   const content: StudyContent = {
     circuit: f.circuit,
     ...(f.layout !== undefined ? { layout: f.layout } : {}),
     ...(f.settings !== undefined ? { settings: f.settings } : {}),
   };
-  return createImportedStudy(db, actor, { name: nameOverride ?? f.name, description: f.description ?? '', content, format: 'wyeward-study' });
+  return createImportedStudy(db, actor, { name: nameOverride ?? f.name, description: f.description ?? '', content, format: 'wyeward-study', summary });
 }

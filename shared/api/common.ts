@@ -30,6 +30,7 @@ export const ERROR_CODES = [
   'foreign-origin',
   'payload-too-large',
   'unsupported-media-type',
+  'unavailable',
   'internal',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -1,0 +1,87 @@
+/**
+ * Heavy work off the request thread: a small piscina pool of worker threads runs the jobs of
+ * tasks.ts (circuit checks, solves for revision summaries, diffs), so one 2 MB import or a large
+ * diff does not stall every other request. Each job has a time limit (WORK_TIMEOUT_MS, default
+ * 20 s): past it the thread is stopped and the request is answered 503 with a plain message; so is
+ * a request that finds the queue full. Small circuits run inline: handing them to a thread costs
+ * more than solving them.
+ *
+ * Workers are TypeScript files loaded through tsx (`--import tsx`, as the server itself runs).
+ */
+import { Piscina } from 'piscina';
+import type { RevisionDiff, DiffSide } from '../../shared/review/diff.ts';
+import { AppError } from '../errors.ts';
+import { prepare, runTask, type Prepared, type Task } from './tasks.ts';
+
+/** Jobs on circuits with fewer elements than this run inline (they take well under a millisecond). */
+export const INLINE_ELEMENTS = 60;
+
+export interface WorkPoolOptions {
+  /** Worker threads (default 1: the machine has few cores and the request thread needs one). */
+  threads?: number;
+  /** Time limit of one job in milliseconds. */
+  timeoutMs?: number;
+  /** Jobs that may wait for a thread before new ones are refused with 503. */
+  maxQueue?: number;
+}
+
+export interface WorkPool {
+  prepare(circuit: unknown): Promise<Prepared>;
+  diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
+  close(): Promise<void>;
+}
+
+function elementCount(circuit: unknown): number {
+  const elements = (circuit as { elements?: unknown } | null)?.elements;
+  return Array.isArray(elements) ? elements.length : 0;
+}
+
+export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 }: WorkPoolOptions = {}): WorkPool {
+  let pool: Piscina | null = null;
+  const getPool = () =>
+    (pool ??= new Piscina({
+      filename: new URL('./worker.ts', import.meta.url).href,
+      execArgv: ['--import', 'tsx'],
+      minThreads: 0,
+      maxThreads: threads,
+      idleTimeout: 60_000,
+      maxQueue,
+    }));
+
+  async function run<T>(task: Task): Promise<T> {
+    const p = getPool();
+    if (p.queueSize >= maxQueue) {
+      throw new AppError(503, 'unavailable', 'The server is busy with other large studies; try again in a moment.', { retryAfterSeconds: 5 });
+    }
+    try {
+      return (await p.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as T;
+    } catch (err) {
+      if (err instanceof Error && (err.name === 'AbortError' || /aborted/i.test(err.message))) {
+        throw new AppError(
+          503,
+          'unavailable',
+          `This study took longer than ${Math.round(timeoutMs / 1000)} s to check and solve, so it was stopped. Split it into smaller studies, or try again when the server is less busy.`,
+          { retryAfterSeconds: 30 },
+        );
+      }
+      throw err;
+    }
+  }
+
+  return {
+    async prepare(circuit) {
+      if (elementCount(circuit) < INLINE_ELEMENTS) return prepare(circuit);
+      return run<Prepared>({ kind: 'prepare', circuit });
+    },
+    async diff(from, to) {
+      const size = Math.max(elementCount((from.content as { circuit?: unknown }).circuit), elementCount((to.content as { circuit?: unknown }).circuit));
+      if (size < INLINE_ELEMENTS) return runTask({ kind: 'diff', from, to }) as RevisionDiff;
+      return run<RevisionDiff>({ kind: 'diff', from, to });
+    },
+    async close() {
+      const p = pool;
+      pool = null;
+      await p?.destroy();
+    },
+  };
+}
