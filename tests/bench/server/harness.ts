@@ -1,0 +1,94 @@
+/** Starts the real server (`server/index.ts`) on a free loopback port with a fresh data directory, for the server benchmarks. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { loadavg, tmpdir } from 'node:os';
+import path from 'node:path';
+
+export const ROOT = path.resolve(import.meta.dirname, '../../..');
+
+export interface BenchServer {
+  url: string;
+  pid: number;
+  child: ChildProcess;
+  stop(): Promise<void>;
+}
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve) => {
+    const s = createServer();
+    s.listen(0, '127.0.0.1', () => {
+      const port = (s.address() as { port: number }).port;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export async function startServer(env: Record<string, string> = {}): Promise<BenchServer> {
+  const port = await freePort();
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
+  const url = `http://127.0.0.1:${port}`;
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    cwd: ROOT,
+    env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...env },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  for (let i = 0; i < 600; i++) {
+    try {
+      if ((await fetch(`${url}/api/health`)).ok) break;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  return {
+    url,
+    pid: child.pid!,
+    child,
+    async stop() {
+      child.kill('SIGTERM');
+      await new Promise((r) => child.once('exit', r));
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Signs in and returns the headers a browser on the app would send (cookie, Origin). */
+export async function session(url: string, email = 'engineer@wyeward.test', password = 'wyeward-demo'): Promise<Record<string, string>> {
+  const res = await fetch(`${url}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Origin: url },
+    body: JSON.stringify({ email, password }),
+  });
+  if (!res.ok) throw new Error(`sign-in failed: ${res.status}`);
+  const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return { Cookie: cookie, Origin: url, 'Content-Type': 'application/json' };
+}
+
+/** The p-th percentile (0–100) of `xs`. */
+export function percentile(xs: number[], p: number): number {
+  if (xs.length === 0) return NaN;
+  const s = xs.slice().sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)];
+}
+
+/** RSS of a process in MB, from /proc. */
+export function rssMb(pid: number): number {
+  try {
+    const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+    return m ? Number(m[1]) / 1024 : NaN;
+  } catch {
+    return NaN;
+  }
+}
+
+/** CPU time (user + system) of a process in ms, from /proc (clock ticks of 10 ms). */
+export function cpuMs(pid: number): number {
+  const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+  return (Number(f[11]) + Number(f[12])) * 10;
+}
+
+/** The machine's load line (the figures depend on it). */
+export function machineLoad(): string {
+  return `load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`;
+}

@@ -1,0 +1,104 @@
+/**
+ * `npm run loadtest`: the server under a mixed workload of a busy team, on loopback only. Starts
+ * the real server (fresh database, demo team), signs in four demo users, and sends requests at a
+ * fixed rate (open loop: a slow answer does not slow the sender) for a bounded time:
+ *   40 % study list (page of 20), 20 % one study, 10 % team page, 10 % notifications, 10 % me,
+ *    5 % revision list, 5 % a small edit (PATCH name with the current version).
+ * Prints req/s achieved, latency p50/p99, errors, the server's CPU per request (from /proc) and its
+ * RSS before and after, with the machine's load. Nothing is asserted.
+ * LOADTEST_RATE (req/s, default 150), LOADTEST_SECONDS (default 30, at most 900), LOADTEST_CONNECTIONS (default 16).
+ */
+import { Agent, request } from 'node:http';
+import { cpuMs, machineLoad, percentile, rssMb, session, startServer } from './harness.ts';
+
+const RATE = Number(process.env.LOADTEST_RATE ?? 150);
+const SECONDS = Math.min(900, Number(process.env.LOADTEST_SECONDS ?? 30));
+const CONNECTIONS = Number(process.env.LOADTEST_CONNECTIONS ?? 16);
+
+const server = await startServer();
+const base = new URL(server.url);
+if (!['127.0.0.1', 'localhost', '::1'].includes(base.hostname)) throw new Error('the load test runs on loopback only');
+const agent = new Agent({ keepAlive: true, maxSockets: CONNECTIONS });
+
+function send(method: string, path: string, headers: Record<string, string>, body?: string): Promise<{ status: number; text: string }> {
+  return new Promise((resolve, reject) => {
+    const req = request({ host: base.hostname, port: base.port, method, path, headers: body ? { ...headers, 'Content-Length': Buffer.byteLength(body) } : headers, agent }, (res) => {
+      let text = '';
+      res.setEncoding('utf8');
+      res.on('data', (c: string) => (text += c));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
+    });
+    req.on('error', reject);
+    if (body) req.write(body);
+    req.end();
+  });
+}
+
+try {
+  await new Promise((r) => setTimeout(r, 3000));
+  const rssIdle = rssMb(server.pid);
+  const users = await Promise.all(['owner', 'engineer', 'reviewer', 'viewer'].map((r) => session(server.url, `${r}@wyeward.test`)));
+  const engineer = users[1];
+  const list = JSON.parse((await send('GET', '/api/studies?pageSize=20', engineer)).text) as { items: { id: string }[] };
+  const ids = list.items.map((s) => s.id);
+  // A study of our own for the edits, so the demo studies keep their state.
+  const created = JSON.parse((await send('POST', '/api/studies', engineer, JSON.stringify({ name: 'Load test study' }))).text) as { id: string };
+  let version = 1;
+  let n = 0;
+  const pick = <T>(xs: T[]) => xs[n % xs.length];
+
+  async function one(): Promise<number> {
+    n++;
+    const who = pick(users);
+    const r = (n * 7919) % 100;
+    if (r < 40) return (await send('GET', `/api/studies?pageSize=20&page=1`, who)).status;
+    if (r < 60) return (await send('GET', `/api/studies/${pick(ids)}`, who)).status;
+    if (r < 70) return (await send('GET', '/api/team', who)).status;
+    if (r < 80) return (await send('GET', '/api/notifications', who)).status;
+    if (r < 90) return (await send('GET', '/api/auth/me', who)).status;
+    if (r < 95) return (await send('GET', `/api/studies/${pick(ids)}/revisions`, who)).status;
+    const res = await send('PATCH', `/api/studies/${created.id}`, engineer, JSON.stringify({ version, name: `Load test study ${n}` }));
+    if (res.status === 200) version = (JSON.parse(res.text) as { version: number }).version;
+    return res.status === 409 ? 200 : res.status; // a lost race with our own previous edit is not a server error
+  }
+
+  // Warm up.
+  for (let i = 0; i < 50; i++) await one();
+  const rssBefore = rssMb(server.pid);
+  const cpuBefore = cpuMs(server.pid);
+  const latencies: number[] = [];
+  let errors = 0;
+  const statuses = new Map<number, number>();
+  const inFlight: Promise<void>[] = [];
+  const start = performance.now();
+  const total = RATE * SECONDS;
+  for (let i = 0; i < total; i++) {
+    const due = start + (i * 1000) / RATE;
+    const wait = due - performance.now();
+    if (wait > 1) await new Promise((r) => setTimeout(r, wait));
+    const t = performance.now();
+    inFlight.push(
+      one()
+        .then((status) => {
+          latencies.push(performance.now() - due); // from when it was due: includes waiting in our own queue
+          statuses.set(status, (statuses.get(status) ?? 0) + 1);
+          if (status >= 400) errors++;
+        })
+        .catch(() => {
+          errors++;
+          latencies.push(performance.now() - t);
+        }),
+    );
+  }
+  await Promise.all(inFlight);
+  const elapsed = (performance.now() - start) / 1000;
+  const cpu = cpuMs(server.pid) - cpuBefore;
+  const rssAfter = rssMb(server.pid);
+  console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users)`);
+  console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (${JSON.stringify([...statuses])})`);
+  console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests); RSS ${rssIdle.toFixed(0)} MB idle after start, ${rssBefore.toFixed(0)} MB after warm-up → ${rssAfter.toFixed(0)} MB after the run`);
+  console.log(machineLoad());
+} finally {
+  agent.destroy();
+  await server.stop();
+}
