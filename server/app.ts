@@ -60,7 +60,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false }: AppD
   api.use(originCheck(config.appUrl));
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
-  api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays }));
+  api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays, idleHours: config.sessionIdleHours }));
   api.get('/health', (_req, res) => {
     res.json({ ok: true });
   });

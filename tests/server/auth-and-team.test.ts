@@ -150,6 +150,20 @@ describe('session expiry', () => {
     expect((await old.get('/api/auth/me')).status).toBe(401);
     expect(await db.select().from(sessions).where(eq(sessions.userId, u.id))).toHaveLength(0);
   });
+  it('renews a session used in the second half of its idle span (new expiry, cookie sent again)', async () => {
+    const app = makeApp(db, { SESSION_IDLE_HOURS: '12' });
+    const u = await makeUser(db, await makeTeam(db), 'viewer');
+    const agent = await signedIn(app.app, u.email);
+    await db.update(sessions).set({ expiresAt: new Date(Date.now() + 3_600_000) }).where(eq(sessions.userId, u.id)); // 1 h left of 12
+    const res = await agent.get('/api/auth/me');
+    expect(res.status).toBe(200);
+    expect(String(res.headers['set-cookie'])).toMatch(/^wyeward_session=[a-z0-9]+;/);
+    const [row] = await db.select().from(sessions).where(eq(sessions.userId, u.id));
+    expect((row.expiresAt.getTime() - Date.now()) / 3_600_000).toBeGreaterThan(11.9);
+    // Early in its span it is not written again.
+    const again = await agent.get('/api/auth/me');
+    expect(again.headers['set-cookie']).toBeUndefined();
+  });
 });
 
 describe('sign-in throttling', () => {
