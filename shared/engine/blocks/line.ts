@@ -4,7 +4,9 @@
  * Expansion: one coupled branch `<id>/series` from the `from` conductors to the `to` conductors
  * with Z = (per-length matrix) × length, and, with shunt data, half of Y = (per-length) × length
  * as an admittance stamp to earth at each end (`<id>/shunt-from`, `<id>/shunt-to`: nominal π).
- * Per-length data, in Ω per `lengthUnit` (Carson data in Kersting's Ω/mile, converted):
+ * Per-length impedance and shunt data are per `perLengthUnit` (default: `lengthUnit`), converted here
+ * to per `lengthUnit`, so changing one unit never reinterprets the other (Carson data in Kersting's
+ * Ω/mile and feet, converted):
  * - perConductor: a diagonal matrix (no mutual coupling);
  * - matrix: the full n×n matrix in the order of `conductors`;
  * - sequence: Zs = (Z0 + 2Z1)/3, Zm = (Z0 − Z1)/3 on a, b, c (+ an uncoupled neutral if given);
@@ -17,21 +19,31 @@ import { InvalidCircuitError } from '../errors.ts';
 import { add, scale, sub, ZERO } from '../phasor.ts';
 import { toCx } from '../schema/to-cx.ts';
 import { CONDUCTORS } from '../schema/common.ts';
+import { METRES_PER, type PerLengthUnit } from '../schema/blocks.ts';
 import type { Circuit } from '../schema/circuit.ts';
 import { carsonPrimitiveMatrix, kronReduce } from './carson.ts';
 import { busNode, type ExpandContext, type Expansion, type TaggedPrimitive } from './expansion.ts';
 
 type LineElement = Extract<Circuit['elements'][number], { type: 'line' }>;
 
-/** Miles per unit of length (international mile). */
-const MILES_PER: Record<'km' | 'm' | 'mi' | 'ft', number> = { km: 1 / 1.609344, m: 1 / 1609.344, mi: 1, ft: 1 / 5280 };
+/** Per-length data given per `per` expressed per `unit`: multiply by this (lengths in metres, e.g. Ω/km → Ω/m is 1/1000). */
+function perLengthFactor(per: PerLengthUnit, unit: PerLengthUnit): number {
+  return METRES_PER[unit] / METRES_PER[per];
+}
 
 function fail(el: LineElement, msg: string): never {
   throw new InvalidCircuitError(`line ${el.id}: ${msg}`, [], { elementIds: [el.id] });
 }
 
-/** Conductors and per-length series matrix of a line (Ω per `lengthUnit`). */
+/** Conductors and per-length series matrix of a line (Ω per `lengthUnit`, whatever unit the data are given per). */
 export function linePerLengthMatrix(el: LineElement, frequencyHz: number): { conductors: string[]; z: Cx[][] } {
+  const { conductors, z } = givenPerLengthMatrix(el, frequencyHz);
+  const k = el.impedance.kind === 'carson' ? perLengthFactor('mi', el.lengthUnit) : perLengthFactor(el.perLengthUnit ?? el.lengthUnit, el.lengthUnit);
+  return { conductors, z: k === 1 ? z : z.map((r) => r.map((v) => scale(v, k))) };
+}
+
+/** The series matrix as given: Ω per `perLengthUnit` (Carson: Ω/mile). */
+function givenPerLengthMatrix(el: LineElement, frequencyHz: number): { conductors: string[]; z: Cx[][] } {
   const imp = el.impedance;
   switch (imp.kind) {
     case 'perConductor': {
@@ -69,8 +81,7 @@ export function linePerLengthMatrix(el: LineElement, frequencyHz: number): { con
         z = kronReduce(z, k);
         conductors = names.filter((c) => c !== 'n');
       }
-      const perUnit = MILES_PER[el.lengthUnit];
-      return { conductors, z: z.map((r) => r.map((v) => scale(v, perUnit))) };
+      return { conductors, z };
     }
   }
 }
@@ -95,7 +106,9 @@ export function expandLine(el: LineElement, ctx: ExpandContext): Expansion {
     const n = conductors.length;
     if (y.length !== n || y.some((r) => r.length !== n)) fail(el, `the shunt matrix must be ${n}×${n} in the order ${conductors.join(', ')}`);
     if (keep.length > 0) {
-      const half = keep.map((i) => keep.map((j) => scale(toCx(y[i][j]), el.length / 2)));
+      // Shunt data per `perLengthUnit` (default `lengthUnit`); length in metres over metres per that unit.
+      const lengthInPer = el.length * perLengthFactor(el.perLengthUnit ?? el.lengthUnit, el.lengthUnit);
+      const half = keep.map((i) => keep.map((j) => scale(toCx(y[i][j]), lengthInPer / 2)));
       for (const [end, bus] of [['from', el.from], ['to', el.to]] as const) {
         prims.push({ prim: { type: 'admittanceMatrix', id: `${el.id}/shunt-${end}`, nodes: keep.map((i) => busNode(bus, conductors[i])), siemens: half } });
       }

@@ -4,7 +4,7 @@
  * Expansions into primitives live in `../blocks/`, one file per block.
  */
 import { z } from 'zod';
-import { busSchema, complexSchema, conductorSchema, earthingSchema, idSchema, nodeSchema, nonNegNum, num, posNum } from './common.ts';
+import { busSchema, complexSchema, conductorSchema, earthingSchema, idSchema, isPassive, NEGATIVE_RESISTANCE, nodeSchema, nonNegNum, num, passiveComplexSchema, posNum } from './common.ts';
 
 const phaseOverride = z.strictObject({
   pu: nonNegNum.optional().meta({ description: 'EMF magnitude in per unit of nominal (line-to-neutral for wye, line-to-line for delta).' }),
@@ -14,8 +14,8 @@ const phaseOverride = z.strictObject({
 /** Internal impedance of a source: per phase, as sequence impedances, or from short-circuit MVA. */
 export const sourceImpedanceSchema = z.union(
   [
-    z.strictObject({ ohms: complexSchema }),
-    z.strictObject({ z1: complexSchema, z0: complexSchema.optional() }),
+    z.strictObject({ ohms: passiveComplexSchema }),
+    z.strictObject({ z1: passiveComplexSchema, z0: passiveComplexSchema.optional() }),
     z.strictObject({ shortCircuitMva: posNum, xOverR: posNum, z0OverZ1: posNum.optional() }),
   ],
   { error: 'expected source impedance { "ohms" }, { "z1", "z0"? } or { "shortCircuitMva", "xOverR", "z0OverZ1"? }' },
@@ -42,7 +42,7 @@ export const splitPhaseSourceSchema = z.strictObject({
   bus: busSchema,
   voltsLN: posNum.default(120).meta({ description: 'Leg-to-neutral EMF, V (leg-to-leg is twice this).' }),
   angleDeg: num.default(0),
-  ohms: complexSchema.optional().meta({ description: 'Internal impedance per leg, ohms.' }),
+  ohms: passiveComplexSchema.optional().meta({ description: 'Internal impedance per leg, ohms.' }),
   earthing: earthingSchema.optional(),
 });
 
@@ -50,18 +50,22 @@ const lineImpedanceSchema = z.union(
   [
     z.strictObject({
       kind: z.literal('perConductor'),
-      ohmsPerLength: z.partialRecord(conductorSchema, complexSchema),
+      ohmsPerLength: z.partialRecord(conductorSchema, passiveComplexSchema),
     }),
     z.strictObject({
       kind: z.literal('matrix'),
       conductors: z.array(conductorSchema).min(1),
       ohmsPerLength: z.array(z.array(complexSchema)),
+    }).superRefine((m, ctx) => {
+      m.ohmsPerLength.forEach((row, i) => {
+        if (row[i] !== undefined && !isPassive(row[i])) ctx.addIssue({ code: 'custom', path: ['ohmsPerLength', i, i], message: `self impedance of conductor ${m.conductors[i] ?? i + 1}: ${NEGATIVE_RESISTANCE}` });
+      });
     }),
     z.strictObject({
       kind: z.literal('sequence'),
-      z1PerLength: complexSchema,
-      z0PerLength: complexSchema,
-      neutralOhmsPerLength: complexSchema.optional(),
+      z1PerLength: passiveComplexSchema,
+      z0PerLength: passiveComplexSchema,
+      neutralOhmsPerLength: passiveComplexSchema.optional(),
     }),
     z.strictObject({
       kind: z.literal('carson'),
@@ -75,13 +79,26 @@ const lineImpedanceSchema = z.union(
   { error: 'expected line impedance of kind "perConductor", "matrix", "sequence" or "carson" with its fields' },
 );
 
+/** Units of a line's length. */
+export const LENGTH_UNITS = ['km', 'm', 'mi', 'ft'] as const;
+export type LengthUnit = (typeof LENGTH_UNITS)[number];
+/** Units that per-length line data may be given per (kft = 1000 ft). */
+export const PER_LENGTH_UNITS = ['km', 'm', 'mi', 'ft', 'kft'] as const;
+export type PerLengthUnit = (typeof PER_LENGTH_UNITS)[number];
+/** Metres in one of each length unit (international foot and mile). */
+export const METRES_PER: Record<PerLengthUnit, number> = { km: 1000, m: 1, mi: 1609.344, ft: 0.3048, kft: 304.8 };
+
 export const lineSchema = z.strictObject({
   type: z.literal('line'),
   id: idSchema,
   from: busSchema,
   to: busSchema,
   length: posNum,
-  lengthUnit: z.enum(['km', 'm', 'mi', 'ft']).default('km'),
+  lengthUnit: z.enum(LENGTH_UNITS).default('km').meta({ description: 'Unit of "length".' }),
+  perLengthUnit: z
+    .enum(PER_LENGTH_UNITS)
+    .optional()
+    .meta({ description: 'Unit of length the per-length impedance and shunt data are given per ("kft" = 1000 ft); default: the same as "lengthUnit". Carson data stay in their own units (ft, Ω/mile).' }),
   impedance: lineImpedanceSchema,
   shunt: z
     .strictObject({ siemensPerLength: z.array(z.array(complexSchema)) })
@@ -89,6 +106,12 @@ export const lineSchema = z.strictObject({
     .meta({ description: 'Shunt admittance per length, in the order of the line conductors; half at each end.' }),
   open: z.array(conductorSchema).default([]).meta({ description: 'Conductors that are open (broken) along this line.' }),
 });
+
+/** A bank's leakage impedance given as %R and %X must not be zero (%Z itself is checked above zero). */
+function leakageAboveZero(t: { percentZ?: number; percentR?: number; percentX?: number }): boolean {
+  return t.percentZ !== undefined || (t.percentR ?? 0) > 0 || (t.percentX ?? 0) > 0;
+}
+const LEAKAGE_ZERO = 'the leakage impedance must be above zero (%R and %X cannot both be 0)';
 
 const CONNECTIONS_NA = ['Yg-Yg', 'Y-Y', 'D-Yg', 'Yg-D', 'Y-D', 'D-D', 'D-Y', 'Yg-Y', 'Y-Yg'] as const;
 
@@ -118,7 +141,8 @@ export const transformerSchema = z
   })
   .refine((t) => (t.percentZ !== undefined && t.xOverR !== undefined && t.percentR === undefined && t.percentX === undefined) || (t.percentZ === undefined && t.xOverR === undefined && (t.percentR !== undefined || t.percentX !== undefined)), {
     message: 'give the leakage impedance as "percentR" and "percentX", or as "percentZ" and "xOverR"',
-  });
+  })
+  .refine(leakageAboveZero, { message: LEAKAGE_ZERO, path: ['percentX'] });
 
 export const splitPhaseTransformerSchema = z
   .strictObject({
@@ -138,11 +162,13 @@ export const splitPhaseTransformerSchema = z
   })
   .refine((t) => (t.percentZ !== undefined && t.xOverR !== undefined) !== (t.percentR !== undefined || t.percentX !== undefined), {
     message: 'give the leakage impedance as "percentR" and "percentX", or as "percentZ" and "xOverR"',
-  });
+  })
+  .refine(leakageAboveZero, { message: LEAKAGE_ZERO, path: ['percentX'] });
 
 /** One phase of a load: an impedance, R/L/C at the study frequency, or P and Q at rated voltage. */
 export const loadSpecSchema = z.union(
   [
+    // A negative resistance is refused by the load schema (a refinement here would hide under the union's message).
     z.strictObject({ ohms: complexSchema }),
     z.strictObject({
       rOhms: nonNegNum.optional(),
@@ -174,6 +200,14 @@ export const loadSchema = z
     each: loadSpecSchema.optional().meta({ description: 'The same value on every phase (kW/kvar per phase).' }),
     phases: z.partialRecord(z.enum(['a', 'b', 'c', 'ab', 'bc', 'ca']), loadSpecSchema).optional(),
     total: loadSpecSchema.optional().meta({ description: 'Three-phase total, split equally (kW/kvar only).' }),
+    generation: z.boolean().optional().meta({ description: 'The element generates real power: its kW may be negative (power delivered to the bus). Without it a negative kW is refused.' }),
+  })
+  .superRefine((l, ctx) => {
+    const specs: [PropertyKey[], LoadSpec | undefined][] = [[['each'], l.each], [['total'], l.total], ...Object.entries(l.phases ?? {}).map(([k, s]) => [['phases', k], s] as [PropertyKey[], LoadSpec | undefined])];
+    for (const [path, spec] of specs) {
+      if (spec && 'ohms' in spec && !isPassive(spec.ohms)) ctx.addIssue({ code: 'custom', path: [...path, 'ohms'], message: NEGATIVE_RESISTANCE });
+      if (!l.generation && spec && 'kw' in spec && spec.kw < 0) ctx.addIssue({ code: 'custom', path: [...path, 'kw'], message: 'a load cannot take negative kW; mark it as generation ("generation": true) if it delivers power' });
+    }
   })
   .refine((l) => [l.each, l.phases, l.total].filter((x) => x !== undefined).length === 1, {
     message: 'give exactly one of "each", "phases" or "total"',
@@ -197,8 +231,8 @@ export const faultSchema = z.strictObject({
   bus: busSchema,
   kind: z.enum(['threePhase', 'threePhaseEarth', 'lineEarth', 'lineLine', 'doubleLineEarth']),
   phases: z.array(z.enum(['a', 'b', 'c'])).optional().meta({ description: 'Faulted phases (default a for line-earth, b and c for line-line and double line-earth).' }),
-  ohms: complexSchema.default(0).meta({ description: 'Fault impedance in each faulted phase, ohms (0 = bolted).' }),
-  earthOhms: complexSchema.default(0).meta({ description: 'Impedance from the fault star point to earth, ohms.' }),
+  ohms: passiveComplexSchema.default(0).meta({ description: 'Fault impedance in each faulted phase, ohms (0 = bolted).' }),
+  earthOhms: passiveComplexSchema.default(0).meta({ description: 'Impedance from the fault star point to earth, ohms.' }),
 });
 
 export const switch3Schema = z.strictObject({
@@ -215,7 +249,7 @@ export const earthingElectrodeSchema = z.strictObject({
   type: z.literal('earthing'),
   id: idSchema,
   node: nodeSchema.meta({ description: 'Node connected to earth, e.g. "B1.n".' }),
-  ohms: complexSchema.meta({ description: 'Electrode resistance, ohms (0 = solid bond).' }),
+  ohms: passiveComplexSchema.meta({ description: 'Electrode resistance, ohms (0 = solid bond).' }),
 });
 
 export const blockSchemas = {

@@ -22,6 +22,26 @@ export const complexSchema = z.union(
 ).meta({ description: 'Complex value: a real number, {re, im} or {mag, angleDeg} (degrees).' });
 export type ComplexInput = z.infer<typeof complexSchema>;
 
+/** Real part of a complex input. */
+export function realPart(v: ComplexInput): number {
+  if (typeof v === 'number') return v;
+  if ('re' in v) return v.re;
+  return v.mag * Math.cos((v.angleDeg * Math.PI) / 180);
+}
+
+/** True when the real part is not negative (a magnitude∠±90° with rounding counts as zero). */
+export function isPassive(v: ComplexInput): boolean {
+  const re = realPart(v);
+  const mag = typeof v === 'number' ? Math.abs(v) : 're' in v ? Math.hypot(v.re, v.im) : v.mag;
+  return re >= -1e-12 * mag;
+}
+
+/** Message for an impedance with a negative real part. */
+export const NEGATIVE_RESISTANCE = 'an impedance cannot have a negative resistance (real part): a passive element only absorbs power';
+
+/** A passive impedance: a complex value whose real part (resistance) is not negative. */
+export const passiveComplexSchema = complexSchema.refine(isPassive, { error: NEGATIVE_RESISTANCE });
+
 /** Element id: non-empty. */
 export const idSchema = z.string().min(1, 'an id must not be empty');
 /** Node name: any non-empty string; "earth" is the reference. */
@@ -42,7 +62,7 @@ export type Phase = (typeof PHASES)[number];
 
 /** Earthing of a star point: solid, unearthed, or through an impedance (ohms). */
 export const earthingSchema = z
-  .union([z.enum(['solid', 'unearthed']), z.strictObject({ ohms: complexSchema })], {
+  .union([z.enum(['solid', 'unearthed']), z.strictObject({ ohms: passiveComplexSchema })], {
     error: 'expected earthing "solid", "unearthed" or { "ohms": complex }',
   })
   .meta({ description: 'Star-point earthing: "solid", "unearthed" or {ohms} (through an impedance).' });
