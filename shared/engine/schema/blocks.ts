@@ -206,7 +206,7 @@ export const loadSchema = z
     const specs: [PropertyKey[], LoadSpec | undefined][] = [[['each'], l.each], [['total'], l.total], ...Object.entries(l.phases ?? {}).map(([k, s]) => [['phases', k], s] as [PropertyKey[], LoadSpec | undefined])];
     for (const [path, spec] of specs) {
       if (spec && 'ohms' in spec && !isPassive(spec.ohms)) ctx.addIssue({ code: 'custom', path: [...path, 'ohms'], message: NEGATIVE_RESISTANCE });
-      if (!l.generation && spec && 'kw' in spec && spec.kw < 0) ctx.addIssue({ code: 'custom', path: [...path, 'kw'], message: 'a load cannot take negative kW; mark it as generation ("generation": true) if it delivers power' });
+      if (!l.generation && spec && 'kw' in spec && spec.kw < 0) ctx.addIssue({ code: 'custom', path: [...path, 'kw'], message: 'a load cannot take negative kW unless it is marked as generation' });
     }
   })
   .refine((l) => [l.each, l.phases, l.total].filter((x) => x !== undefined).length === 1, {

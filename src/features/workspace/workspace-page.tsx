@@ -38,7 +38,7 @@ import { historyReducer, initHistory } from './editing/history.ts';
 import { shortcutOf } from './editing/shortcuts.ts';
 import { PRIVATE_SEP, canvasToCircuit } from './model/canvas-to-circuit.ts';
 import { CasesCompare } from './results/cases-compare.tsx';
-import { busNodeId, canvasLayout, circuitToCanvas, wireId } from './model/circuit-to-canvas.ts';
+import { busNodeId, canvasLayout, circuitToCanvas, wireId, wireLabel } from './model/circuit-to-canvas.ts';
 import { freshId, newElement, type PaletteItem } from './model/defaults.ts';
 import { readLayout, type StudySettings } from './model/layout.ts';
 import { elementPorts, isBundleHandle } from './model/ports.ts';
@@ -109,6 +109,8 @@ type Conversion = ReturnType<typeof canvasToCircuit> & {
   ids: string[];
   /** Canvas element node id → its element (for wires that label port currents without a store subscription per edge). */
   elementOf: Record<string, CircuitElementInput>;
+  /** Element id → the element as wired into the circuit (phases a load sits on, buses): what labels show. */
+  wiredOf: Record<string, CircuitElementInput>;
 };
 const conversionCache = new WeakMap<WorkspaceEdge[], { data: unknown[]; settings: StudySettings; result: Conversion }>();
 const jsonCache = new WeakMap<object, string>();
@@ -124,7 +126,10 @@ function convert(d: Doc): Conversion {
   if (hit && hit.settings === d.settings && hit.data.length === data.length && hit.data.every((x, i) => x === data[i]) && d.nodes.every((n, i) => n.id === hit.result.ids[i])) return hit.result;
   const elementOf: Record<string, CircuitElementInput> = {};
   for (const n of d.nodes) if (isElementNode(n)) elementOf[n.id] = n.data.element;
-  const result: Conversion = { ...canvasToCircuit(d.nodes, d.edges, d.settings), ids: d.nodes.map((n) => n.id), elementOf };
+  const converted = canvasToCircuit(d.nodes, d.edges, d.settings);
+  const wiredOf: Record<string, CircuitElementInput> = {};
+  for (const e of converted.circuit.elements) if (e.id in elementOf) wiredOf[e.id] = e;
+  const result: Conversion = { ...converted, ids: d.nodes.map((n) => n.id), elementOf, wiredOf };
   conversionCache.set(d.edges, { data, settings: d.settings, result });
   return result;
 }
@@ -184,6 +189,22 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
   const commit = useCallback((next: Doc) => dispatch({ type: 'commit', next }), []);
 
+  const toggleOpen = useCallback(
+    (edgeId: string, c: Conductor) => {
+      const cur = docRef.current;
+      commit({
+        ...cur,
+        edges: cur.edges.map((e) => {
+          if (e.id !== edgeId) return e;
+          const open = e.data?.open ?? [];
+          return { ...e, data: { open: open.includes(c) ? open.filter((x) => x !== c) : [...open, c] } };
+        }),
+      });
+    },
+    [commit],
+  );
+
+
   // ---- circuit and live solve ----
   const conversion = convert(doc);
   const circuitKey = json(conversion.circuit);
@@ -236,8 +257,20 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       problems,
       busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
       elementOf: conversion.elementOf,
+      wiredOf: conversion.wiredOf,
+      toggleOpen: readOnly ? null : toggleOpen,
     }),
-    [readOnly, shifts, pins, doc.settings.wiringStandard, overlays, problems, conversion.map, conversion.elementOf],
+    [toggleOpen, readOnly, shifts, pins, doc.settings.wiringStandard, overlays, problems, conversion.map, conversion.elementOf, conversion.wiredOf],
+  );
+
+  // Wire names come from the current element and bus names at render time (never stored on the edge).
+  const edges = useMemo(
+    () =>
+      doc.edges.map((e) => {
+        const label = wireLabel(e.source, conversion.map.nodeToBus[e.target] ?? '');
+        return e.ariaLabel === label ? e : { ...e, ariaLabel: label };
+      }),
+    [doc.edges, conversion.map],
   );
 
   // ---- canvas changes ----
@@ -282,7 +315,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       const el = r.element.data.element;
       const makesSplit = el.type === 'splitPhaseSource' || (el.type === 'splitPhaseTransformer' && r.port === 'to');
       const nodes = makesSplit && !r.bus.data.splitPhase ? cur.nodes.map((n) => (n.id === r.bus.id && isBusNode(n) ? { ...n, data: { ...n.data, splitPhase: true } } : n)) : cur.nodes;
-      const edge: WorkspaceEdge = { id, type: 'wire', ariaLabel: `Connection ${r.element.id} to bus ${r.bus.data.name}`, source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
+      const edge: WorkspaceEdge = { id, type: 'wire', source: r.element.id, sourceHandle: r.port, target: r.bus.id, targetHandle: r.handle, data: { open: [] } };
       commit({ ...cur, nodes, edges: [...cur.edges.filter((e) => e.id !== id), edge] });
     },
     [readOnly, resolveConnection, commit],
@@ -363,21 +396,6 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
         ...cur,
         nodes: cur.nodes.map((n) => (n.id === id && isBusNode(n) ? { ...n, data: next } : n)),
         edges: cur.edges.filter((e) => e.target !== id || conds.has(e.targetHandle ?? 'all')),
-      });
-    },
-    [commit],
-  );
-
-  const toggleOpen = useCallback(
-    (edgeId: string, c: Conductor) => {
-      const cur = docRef.current;
-      commit({
-        ...cur,
-        edges: cur.edges.map((e) => {
-          if (e.id !== edgeId) return e;
-          const open = e.data?.open ?? [];
-          return { ...e, data: { open: open.includes(c) ? open.filter((x) => x !== c) : [...open, c] } };
-        }),
       });
     },
     [commit],
@@ -651,7 +669,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           <div className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
             <ReactFlow<WorkspaceNode, WorkspaceEdge>
               nodes={doc.nodes}
-              edges={doc.edges}
+              edges={edges}
               nodeTypes={nodeTypes}
               edgeTypes={edgeTypes}
               onNodesChange={onNodesChange}

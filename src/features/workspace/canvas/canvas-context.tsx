@@ -7,6 +7,7 @@ import { createContext, useContext } from 'react';
 import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import type { DiagramOverlays } from '../results/overlays.ts';
 import type { WiringStandard } from '../model/layout.ts';
+import type { Conductor } from '../model/types.ts';
 
 export interface CanvasView {
   readOnly: boolean;
@@ -22,6 +23,10 @@ export interface CanvasView {
   busNamesOf: (nodeId: string) => string[];
   /** Element node id → its element (wires read their element's ports here rather than subscribing to the flow store per edge). */
   elementOf: Record<string, CircuitElementInput>;
+  /** Element id → the element as wired into the circuit (absent while a port is unwired): labels read the phases and buses here, never from stored node data. */
+  wiredOf: Record<string, CircuitElementInput>;
+  /** Opens or closes one conductor of a wire (null when read-only): the control drawn on the wire calls it. */
+  toggleOpen: ((edgeId: string, conductor: Conductor) => void) | null;
 }
 
 export const CanvasViewContext = createContext<CanvasView>({
@@ -33,6 +38,8 @@ export const CanvasViewContext = createContext<CanvasView>({
   pins: {},
   busNamesOf: () => [],
   elementOf: {},
+  wiredOf: {},
+  toggleOpen: null,
 });
 
 export function useCanvasView(): CanvasView {

@@ -13,8 +13,11 @@ import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
 
 const POSITION: Record<PortSide, Position> = { top: Position.Top, bottom: Position.Bottom, left: Position.Left, right: Position.Right };
 
-/** A short parameter line under the id. */
-export function elementSummary(el: CircuitElementInput): string {
+/**
+ * A short parameter line under the id, from the element as wired (`wired`), so the phases a load
+ * sits on are those of its wires at render time; an unwired element says nothing of its phases.
+ */
+export function elementSummary(el: CircuitElementInput, wired = true): string {
   switch (el.type) {
     case 'source':
       return `${el.kvLL} kV ${el.connection ?? 'wye'}`;
@@ -25,12 +28,12 @@ export function elementSummary(el: CircuitElementInput): string {
     case 'transformer':
       return `${el.kva} kVA ${el.connection ?? el.vectorGroup ?? ''}`;
     case 'splitPhaseTransformer':
-      return `${el.kva} kVA ${el.primary.join('–').toUpperCase()}`;
+      return `${el.kva} kVA${wired ? ` ${el.primary.join('–').toUpperCase()}` : ''}`;
     case 'load': {
       const spec = el.each ?? el.total;
       const kw = spec && 'kw' in spec ? `${spec.kw} kW` : '';
-      const conn = el.connection === 'single' ? (el.between ?? []).join('–').toUpperCase() : el.connection;
-      return `${conn} ${kw}`.trim();
+      const conn = el.connection === 'single' ? (wired ? (el.between ?? []).join('–').toUpperCase() : 'single-phase') : el.connection;
+      return `${el.generation ? 'generation ' : ''}${conn} ${kw}`.trim();
     }
     case 'capacitorBank':
       return `${el.kvar} kvar`;
@@ -83,7 +86,9 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
       })}
       <div className="pointer-events-none absolute left-[68px] top-2 w-max max-w-[150px] text-[11px] leading-tight">
         <div className="num font-semibold text-ink">{id}</div>
-        <div className="num text-ink-muted">{elementSummary(el)}</div>
+        <div className="num text-ink-muted" data-testid={`summary-${id}`}>
+          {elementSummary(view.wiredOf[id] ?? el, view.wiredOf[id] !== undefined)}
+        </div>
         {view.shifts[id] !== undefined ? <ShiftNote shift={view.shifts[id]} /> : null}
         {ov?.loadingPercent !== undefined ? <div className="num text-ink-muted">{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
         {flag ? (

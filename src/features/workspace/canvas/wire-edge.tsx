@@ -8,7 +8,7 @@ import { BaseEdge, EdgeLabelRenderer, getSmoothStepPath, type EdgeProps } from '
 import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { elementPorts, isBundleHandle } from '../model/ports.ts';
-import type { WorkspaceEdge } from '../model/types.ts';
+import type { Conductor, WorkspaceEdge } from '../model/types.ts';
 import { useCanvasView } from './canvas-context.tsx';
 
 function amps(a: number): string {
@@ -37,8 +37,33 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
     currents = port?.terminal === 1 ? [] : ov.currents.filter((c) => c.port === idx && (!single || c.conductor === targetHandleId));
   }
 
+  // One click on the wire opens (or closes) its neutral, or the conductor of a single-conductor wire.
+  const toggled: Conductor | null = single ? ((targetHandleId ?? null) as Conductor | null) : 'n';
+  const busName = view.busNamesOf(props.target)[0] ?? '';
+  const wireName = `connection ${source} to bus ${busName}`;
+  const isOpen = toggled !== null && open.includes(toggled);
+  const words = toggled === null ? '' : toggled === 'n' ? 'neutral' : toggled === '1' || toggled === '2' ? `leg ${toggled}` : `phase ${phaseStyle(toggled, view.wiringStandard).label}`;
+
   return (
     <>
+      {view.toggleOpen && toggled ? (
+        <EdgeLabelRenderer>
+          <button
+            type="button"
+            className={`nodrag nopan num absolute rounded-full border px-1 text-[9px] font-semibold leading-[14px] ${isOpen ? 'border-danger bg-danger-soft text-danger' : 'border-rule-strong bg-panel text-ink-muted hover:text-ink'}`}
+            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${ly}px)`, pointerEvents: 'all' }}
+            aria-label={`${isOpen ? 'Close' : 'Open'} ${words} of ${wireName}`}
+            title={`${isOpen ? 'Close' : 'Open'} the ${words} of this connection`}
+            onClick={(e) => {
+              e.stopPropagation();
+              view.toggleOpen?.(id, toggled);
+            }}
+          >
+            {phaseStyle(toggled, view.wiringStandard).label}
+            <span aria-hidden="true">{isOpen ? ' ⊘' : ' ✂'}</span>
+          </button>
+        </EdgeLabelRenderer>
+      ) : null}
       <BaseEdge id={id} path={path} style={{ stroke, strokeWidth: single ? 2 : 3.2, strokeDasharray: open.length > 0 ? '2 5' : st?.dash || undefined }} interactionWidth={16} />
       <EdgeLabelRenderer>
         {open.length > 0 || currents.length > 0 ? (

@@ -26,6 +26,11 @@ export function wireId(elementId: string, port: string): string {
   return `${elementId}:${port}`;
 }
 
+/** Accessible name of a wire, from the names in force when it is drawn. */
+export function wireLabel(elementId: string, busName: string): string {
+  return `Connection ${elementId} to bus ${busName}`;
+}
+
 export interface CircuitToCanvasResult {
   nodes: WorkspaceNode[];
   edges: WorkspaceEdge[];
@@ -152,7 +157,7 @@ export function circuitToCanvas(circuit: CircuitInput, layout?: WorkspaceLayout 
       if (el.type === 'line' && port.id === 'from') open = lineOpen;
       const id = wireId(el.id, port.id);
       const handle = conductor ?? stored[id]?.busHandle ?? (port.side === 'bottom' ? 'all' : 'allb');
-      edges.push({ id, type: 'wire', ariaLabel: `Connection ${el.id} to bus ${realBus}`, source: el.id, sourceHandle: port.id, target: busNodeId(realBus), targetHandle: handle, data: { open } });
+      edges.push({ id, type: 'wire', source: el.id, sourceHandle: port.id, target: busNodeId(realBus), targetHandle: handle, data: { open } });
     }
   }
 

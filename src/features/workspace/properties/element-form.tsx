@@ -4,14 +4,14 @@
  * Enter or leaving a field the whole element is checked with the engine's own schema and applied.
  * Selects that change the element's shape apply at once.
  */
-import { zodResolver } from '@hookform/resolvers/zod';
-import { useId, useMemo } from 'react';
-import { useForm } from 'react-hook-form';
-import { z } from 'zod';
+import { useCallback, useId, useMemo } from 'react';
+import { useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { elementSchemas, formatPath, type CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { formatComplex, parseComplex } from './complex-input.ts';
 import { elementFields, fieldKey, getPath, normaliseLoad, selectValue, setPath, type FieldSpec } from './fields.ts';
 import { formatQuantity, parseLength, parseQuantity } from './unit-input.ts';
+import { withLength, type LineInput } from '../model/line-units.ts';
+import type { LengthUnit } from '../../../../shared/engine/index.ts';
 
 type Values = Record<string, string>;
 
@@ -48,7 +48,7 @@ function display(f: FieldSpec, el: CircuitElementInput): string {
     case 'complex':
       return v === undefined ? '' : formatComplex(v as never) + (f.unit ? ` ${f.unit}` : '');
     case 'length':
-      return `${v} ${(getPath(el, 'lengthUnit') as string | undefined) ?? 'km'}`;
+      return `${typeof v === 'number' ? Number(v.toPrecision(6)) : ''} ${(getPath(el, 'lengthUnit') as string | undefined) ?? 'km'}`;
     case 'phases':
       return Array.isArray(v) ? v.join(', ') : '';
     case 'text':
@@ -66,48 +66,26 @@ export function ElementForm({ element: given, readOnly, onApply }: { element: Ci
   const element = useMemo(() => (given.type === 'load' ? normaliseLoad(given) : given), [given]);
   const fields = useMemo(() => elementFields(element), [element]);
   const formId = useId();
-  const schema = useMemo(
-    () =>
-      z.object(
-        Object.fromEntries(
-          fields.map((f) => [
-            fieldKey(f.path),
-            z.string().superRefine((s, ctx) => {
-              const r = parseField(f, s, element);
-              if (!r.ok) ctx.addIssue({ code: 'custom', message: r.message });
-            }),
-          ]),
-        ),
-      ),
-    [fields, element],
-  );
   const defaults = useMemo(() => Object.fromEntries(fields.map((f) => [fieldKey(f.path), display(f, element)])), [fields, element]);
-  const form = useForm<Values>({ resolver: zodResolver(schema), defaultValues: defaults, values: defaults, mode: 'onBlur' });
-  const formError = form.formState.errors.root?.message;
+  /**
+   * One check for blur and submit alike: every field parses, then the whole element passes the
+   * engine's own schema; each objection lands beside its field (or under the form). The resolver
+   * is the only validation, so the first invalid entry gets its message as surely as the next.
+   */
+  const check = useCallback((values: Values) => checkElement(element, fields, values, defaults), [element, fields, defaults]);
+  const resolver = useCallback<Resolver<Values>>(
+    (values) => {
+      const r = check(values);
+      return r.ok ? { values, errors: {} } : { values: {}, errors: r.errors as FieldErrors<Values> };
+    },
+    [check],
+  );
+  const form = useForm<Values>({ resolver, defaultValues: defaults, values: defaults, mode: 'onBlur', reValidateMode: 'onBlur' });
+  const formError = (form.formState.errors as FieldErrors<Values & { root: string }>).root?.message;
 
   const apply = (values: Values) => {
-    const next = structuredClone(element) as Record<string, unknown>;
-    for (const f of fields) {
-      if (f.kind === 'select') continue;
-      const r = parseField(f, values[fieldKey(f.path)] ?? '', element);
-      if (!r.ok) return;
-      if (f.kind === 'length') {
-        const v = r.value as { length: number; unit: string };
-        next.length = v.length;
-        next.lengthUnit = v.unit;
-      } else setPath(next, f.path, r.value);
-    }
-    const checked = elementSchemas[element.type].safeParse(next);
-    if (!checked.success) {
-      for (const issue of checked.error.issues) {
-        const path = issue.path.map(String).join('.');
-        const f = fields.find((x) => path === x.path || path.startsWith(`${x.path}.`) || x.path.startsWith(`${path}.`));
-        if (f) form.setError(fieldKey(f.path), { message: plainIssue(issue) });
-        else form.setError('root', { message: `${formatPath(issue.path as (string | number)[])}: ${plainIssue(issue)}` });
-      }
-      return;
-    }
-    if (JSON.stringify(next) !== JSON.stringify(given)) onApply(next as CircuitElementInput);
+    const r = check(values);
+    if (r.ok && JSON.stringify(r.next) !== JSON.stringify(given)) onApply(r.next);
   };
   const submit = form.handleSubmit(apply);
 
@@ -173,6 +151,47 @@ export function ElementForm({ element: given, readOnly, onApply }: { element: Ci
       </fieldset>
     </form>
   );
+}
+
+type Checked = { ok: true; next: CircuitElementInput } | { ok: false; errors: Record<string, { type: string; message: string }> };
+
+/**
+ * The element the form's values describe, or the objections per field key: a field that does not
+ * parse, then the engine schema's issues placed at the field they concern. A field whose text is
+ * still what the form showed keeps its stored value (no rounding from display).
+ */
+export function checkElement(element: CircuitElementInput, fields: FieldSpec[], values: Values, shown: Values): Checked {
+  const errors: Record<string, { type: string; message: string }> = {};
+  const next = structuredClone(element) as Record<string, unknown>;
+  for (const f of fields) {
+    if (f.kind === 'select') continue;
+    const key = fieldKey(f.path);
+    const text = values[key] ?? '';
+    if (text === shown[key]) continue;
+    const r = parseField(f, text, element);
+    if (!r.ok) {
+      errors[key] = { type: 'parse', message: r.message };
+      continue;
+    }
+    if (f.kind === 'length') {
+      // A new length (and maybe unit): the per-length data keep their own unit.
+      const v = r.value as { length: number; unit: LengthUnit };
+      Object.assign(next, withLength(next as LineInput, v.length, v.unit));
+    } else setPath(next, f.path, r.value);
+  }
+  if (Object.keys(errors).length > 0) return { ok: false, errors };
+  const checked = elementSchemas[element.type].safeParse(next);
+  if (!checked.success) {
+    for (const issue of checked.error.issues) {
+      const path = issue.path.map(String).join('.');
+      const f = fields.find((x) => path === x.path || path.startsWith(`${x.path}.`) || x.path.startsWith(`${path}.`));
+      const key = f ? fieldKey(f.path) : 'root';
+      if (errors[key]) continue;
+      errors[key] = { type: 'schema', message: f ? plainIssue(issue) : `${formatPath(issue.path as (string | number)[])}: ${plainIssue(issue)}` };
+    }
+    return { ok: false, errors };
+  }
+  return { ok: true, next: next as CircuitElementInput };
 }
 
 /** A schema issue in plain words (zod's own wording for number bounds reads like code). */

@@ -5,6 +5,8 @@
  */
 import type { CircuitElementInput, ComplexInput } from '../../../../shared/engine/index.ts';
 import type { Dimension } from './unit-input.ts';
+import { LENGTH_WORDS, PER_LENGTH_WORDS, hasPerLengthData, lengthUnitOf, perLengthUnitOf, withLengthUnit, withPerLengthUnit, type LineInput } from '../model/line-units.ts';
+import type { LengthUnit, PerLengthUnit } from '../../../../shared/engine/index.ts';
 
 export type FieldSpec =
   | { kind: 'quantity'; path: string; label: string; dimension: Dimension; unit: string; optional?: boolean }
@@ -12,7 +14,15 @@ export type FieldSpec =
   | { kind: 'length'; path: 'length'; label: string }
   | { kind: 'phases'; path: string; label: string }
   | { kind: 'text'; path: string; label: string; optional?: boolean }
-  | { kind: 'select'; path: string; label: string; options: { value: string; label: string }[]; choose?: (el: CircuitElementInput, value: string) => CircuitElementInput };
+  | {
+      kind: 'select';
+      path: string;
+      label: string;
+      options: { value: string; label: string }[];
+      choose?: (el: CircuitElementInput, value: string) => CircuitElementInput;
+      /** The option in force, when it is not simply the value at `path`. */
+      current?: (el: CircuitElementInput) => string;
+    };
 
 /** Form key of a path (react-hook-form treats dots as nesting). */
 export function fieldKey(path: string): string {
@@ -136,6 +146,22 @@ function loadFields(raw: LoadEl): FieldSpec[] {
       },
     },
   ];
+  fields.push({
+    kind: 'select',
+    path: 'generation',
+    label: 'Role',
+    options: [
+      { value: 'load', label: 'Load (takes power)' },
+      { value: 'generation', label: 'Generation (negative kW allowed)' },
+    ],
+    current: (cur) => ((cur as LoadEl).generation ? 'generation' : 'load'),
+    choose: (cur, value) => {
+      const l = { ...(cur as LoadEl) };
+      if (value === 'generation') l.generation = true;
+      else delete l.generation;
+      return l;
+    },
+  });
   const mode = loadMode(el);
   const branches = el.connection === 'single' ? ['each'] : Object.keys(el.phases ?? {});
   for (const b of branches) {
@@ -229,16 +255,36 @@ export function elementFields(el: CircuitElementInput): FieldSpec[] {
         { kind: 'complex', path: 'ohms', label: 'Internal impedance per leg', unit: 'Ω', optional: true },
       ];
     case 'line': {
-      const unit = el.lengthUnit ?? 'km';
-      const f: FieldSpec[] = [{ kind: 'length', path: 'length', label: 'Length' }];
+      const per = perLengthUnitOf(el);
+      const unit = PER_LENGTH_WORDS[per];
+      const f: FieldSpec[] = [
+        { kind: 'length', path: 'length', label: 'Length' },
+        {
+          kind: 'select',
+          path: 'lengthUnit',
+          label: 'Length unit',
+          options: (Object.keys(LENGTH_WORDS) as LengthUnit[]).map((u) => ({ value: u, label: LENGTH_WORDS[u] })),
+          current: (cur) => lengthUnitOf(cur as LineInput),
+          choose: (cur, value) => withLengthUnit(cur as LineInput, value as LengthUnit),
+        },
+      ];
+      if (hasPerLengthData(el))
+        f.push({
+          kind: 'select',
+          path: 'perLengthUnit',
+          label: 'Impedance data given',
+          options: (Object.keys(PER_LENGTH_WORDS) as PerLengthUnit[]).map((u) => ({ value: u, label: PER_LENGTH_WORDS[u] })),
+          current: (cur) => perLengthUnitOf(cur as LineInput),
+          choose: (cur, value) => withPerLengthUnit(cur as LineInput, value as PerLengthUnit),
+        });
       const imp = el.impedance;
       if (imp.kind === 'perConductor') {
-        for (const c of Object.keys(imp.ohmsPerLength)) f.push({ kind: 'complex', path: `impedance.ohmsPerLength.${c}`, label: `Z ${c.toUpperCase()} per ${unit}`, unit: 'Ω' });
+        for (const c of Object.keys(imp.ohmsPerLength)) f.push({ kind: 'complex', path: `impedance.ohmsPerLength.${c}`, label: `Z ${c.toUpperCase()} ${unit}`, unit: 'Ω' });
       } else if (imp.kind === 'sequence') {
         f.push(
-          { kind: 'complex', path: 'impedance.z1PerLength', label: `Z1 per ${unit}`, unit: 'Ω' },
-          { kind: 'complex', path: 'impedance.z0PerLength', label: `Z0 per ${unit}`, unit: 'Ω' },
-          { kind: 'complex', path: 'impedance.neutralOhmsPerLength', label: `Z neutral per ${unit}`, unit: 'Ω', optional: true },
+          { kind: 'complex', path: 'impedance.z1PerLength', label: `Z1 ${unit}`, unit: 'Ω' },
+          { kind: 'complex', path: 'impedance.z0PerLength', label: `Z0 ${unit}`, unit: 'Ω' },
+          { kind: 'complex', path: 'impedance.neutralOhmsPerLength', label: `Z neutral ${unit}`, unit: 'Ω', optional: true },
         );
       }
       return f;
@@ -314,6 +360,7 @@ export function selectValue(el: CircuitElementInput, f: Extract<FieldSpec, { kin
     const l = normaliseLoad(el as LoadEl);
     return loadMode(l) === 'impedance' ? 'impedance' : 'power';
   }
+  if (f.current) return f.current(el);
   const v = getPath(el, f.path);
   if (isEarthingImpedance(v) && f.options.some((o) => o.value === 'impedance')) return 'impedance';
   if (f.path === 'closed') return v === false ? 'false' : 'true';
