@@ -1,5 +1,6 @@
 /** Studies (`/api/studies/*`): team-scoped circuit studies with optimistic versioning. */
 import { z } from 'zod';
+import type { CircuitElementInput } from '../engine/index.ts';
 import { isoDateSchema, revisionRiskSchema, userRefSchema } from './common.ts';
 import { positiveInt32, storableJson } from './limits.ts';
 
@@ -8,15 +9,16 @@ export const studyStatusSchema = z.enum(STUDY_STATUSES);
 export type StudyStatus = z.infer<typeof studyStatusSchema>;
 
 /**
- * The envelope every stored circuit must have. The server additionally validates the whole
- * circuit with the engine's `circuitSchema` (shared/engine) when it is available; this shape
- * check is what the API guarantees on its own.
+ * The envelope every stored circuit must have, typed as the engine's circuit (elements are the
+ * engine's element inputs). The server validates the whole circuit with the engine's
+ * `parseCircuit` on every write (so elements are only shape-checked as objects here, and a circuit
+ * stored under older rules still reads back); this shape check is what the API guarantees on its own.
  */
 export const circuitEnvelopeSchema = z.looseObject({
   format: z.literal('wyeward-circuit'),
   version: z.literal(1),
   frequencyHz: z.number().positive().max(1000),
-  elements: z.array(z.unknown()),
+  elements: z.array(z.custom<CircuitElementInput>((v) => v !== null && typeof v === 'object' && !Array.isArray(v), { error: 'each element must be an object' })),
 });
 export type CircuitEnvelope = z.infer<typeof circuitEnvelopeSchema>;
 

@@ -27,7 +27,8 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
         <span className="num font-semibold text-ink">{data.name}</span>
         <span className="num text-ink-muted">{data.kvLL !== undefined ? `${data.kvLL} kV` : data.splitPhase ? '120/240 V' : ''}</span>
         {ov ? (
-          <div className="num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted">
+          <div className={`num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`} data-stale={view.stale || undefined} title={view.stale ? 'Stale: from before the last edit, which cannot be solved' : undefined}>
+            {view.stale ? <span className="font-semibold text-caution no-underline">stale</span> : null}
             {Object.entries(ov.vln).map(([ph, v]) => (
               <span key={ph}>
                 {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V

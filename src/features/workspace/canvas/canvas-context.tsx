@@ -13,6 +13,8 @@ export interface CanvasView {
   readOnly: boolean;
   wiringStandard: WiringStandard;
   overlays: DiagramOverlays | null;
+  /** True when the overlays belong to an earlier edit (the latest cannot be solved): drawn marked as stale, never as current. */
+  stale: boolean;
   /** Canvas node id → messages to show beside it (unwired ports, engine errors naming it). */
   problems: Record<string, string[]>;
   /** Transformer id → the shift its convention states and the measured angle of LV V_AN minus HV V_AN, degrees. */
@@ -33,6 +35,7 @@ export const CanvasViewContext = createContext<CanvasView>({
   readOnly: true,
   wiringStandard: 'north-american',
   overlays: null,
+  stale: false,
   problems: {},
   shifts: {},
   pins: {},

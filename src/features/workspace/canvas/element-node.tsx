@@ -90,9 +90,9 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
           {elementSummary(view.wiredOf[id] ?? el, view.wiredOf[id] !== undefined)}
         </div>
         {view.shifts[id] !== undefined ? <ShiftNote shift={view.shifts[id]} /> : null}
-        {ov?.loadingPercent !== undefined ? <div className="num text-ink-muted">{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
+        {ov?.loadingPercent !== undefined ? <div className={`num text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`}>{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
         {flag ? (
-          <div className={`font-semibold ${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
+          <div className={`font-semibold ${view.stale ? 'line-through opacity-60 ' : ''}${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
             {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
           </div>
         ) : null}

@@ -75,7 +75,7 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
               <div className="font-semibold text-danger">{open.map((c) => phaseStyle(c, view.wiringStandard).label).join(', ')} open</div>
             ) : null}
             {currents.map((c) => (
-              <span key={c.conductor} className="mr-1 whitespace-nowrap" style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
+              <span key={c.conductor} className={`mr-1 whitespace-nowrap ${view.stale ? 'line-through opacity-60' : ''}`} style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
                 {phaseStyle(c.conductor, view.wiringStandard).label} {amps(c.mag)} A
               </span>
             ))}

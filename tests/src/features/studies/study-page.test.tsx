@@ -13,8 +13,8 @@ const circuit: CircuitEnvelope = {
   frequencyHz: 60,
   elements: [
     { type: 'source', id: 'S', bus: 'Yard', kvLL: 0.208 },
-    { type: 'load', id: 'L1', bus: 'Panel', ratedVolts: 120 },
-    { type: 'load', id: 'L2', bus: 'Panel', ratedVolts: 120 },
+    { type: 'load', id: 'L1', bus: 'Panel', connection: 'single', between: ['a', 'n'], ratedVolts: 120, each: { kw: 1, kvar: 0 } },
+    { type: 'load', id: 'L2', bus: 'Panel', connection: 'single', between: ['b', 'n'], ratedVolts: 120, each: { kw: 1, kvar: 0 } },
   ],
 };
 
