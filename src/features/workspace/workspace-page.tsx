@@ -33,7 +33,7 @@ import { BusNodeView } from './canvas/bus-node.tsx';
 import { CanvasViewContext, type CanvasView } from './canvas/canvas-context.tsx';
 import { ElementNodeView } from './canvas/element-node.tsx';
 import { Palette } from './canvas/palette.tsx';
-import { fitWithLabels, visibleArea } from './canvas/view-area.ts';
+import { MAX_FIT_ZOOM, fitWithLabels, reveal, visibleArea } from './canvas/view-area.ts';
 import { WireEdgeView } from './canvas/wire-edge.tsx';
 import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog } from './editing/dialogs.tsx';
 import { historyReducer, initHistory } from './editing/history.ts';
@@ -60,7 +60,7 @@ const edgeTypes: EdgeTypes = { wire: WireEdgeView };
 // would be copied into xyflow's store (or break MiniMap's memo and redraw all ~450 minimap nodes) on
 // every frame of a drag.
 const SNAP_GRID: [number, number] = [10, 10];
-const FIT_VIEW_OPTIONS = { padding: 0.15 };
+const FIT_VIEW_OPTIONS = { padding: 0.15, maxZoom: MAX_FIT_ZOOM };
 const PRO_OPTIONS = { hideAttribution: true };
 const ARIA_LABEL_CONFIG = { 'node.a11yDescription.default': 'Press Enter or Space to select; arrow keys move a selected node.' };
 const MINIMAP_STYLE = { width: 150, height: 96 };
@@ -98,7 +98,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const docRef = useRef(doc);
   docRef.current = doc;
   /** Applies a document command as one undoable edit. */
-  const run = useCallback(<A extends unknown[]>(fn: (d: WorkspaceDoc, ...args: A) => WorkspaceDoc, ...args: A) => dispatch({ type: 'commit', next: fn(docRef.current, ...args) }), []);
+  const run = useCallback(<A extends unknown[]>(fn: (d: WorkspaceDoc, ...args: A) => WorkspaceDoc, ...args: A) => dispatch({ type: 'apply', fn: (d) => fn(d, ...args) }), []);
   const viewport = useCallback(() => visibleArea(rf, canvasRef.current), [rf]);
 
   // ---- save, dirty mark, conflicts ----
@@ -174,7 +174,20 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const isValidConnection = useCallback((c: Connection | WorkspaceEdge) => commands.resolveConnection(docRef.current, c) !== null, []);
 
   // ---- editing actions ----
-  const addItem = useCallback((item: PaletteItem) => run(commands.addItem, item, viewport()), [run, viewport]);
+  // After an add or a paste, the new (selected) nodes are brought into view if they landed outside it.
+  const revealNext = useRef(false);
+  useEffect(() => {
+    if (!revealNext.current) return;
+    revealNext.current = false;
+    reveal(rf, canvasRef.current, doc.nodes.filter((n) => n.selected).map(commands.footprint));
+  }, [doc, rf]);
+  const addItem = useCallback(
+    (item: PaletteItem) => {
+      revealNext.current = true;
+      run(commands.addItem, item, viewport());
+    },
+    [run, viewport],
+  );
   const updateElement = useCallback((id: string, next: CircuitElementInput) => run(commands.updateElement, id, next), [run]);
   const updateBus = useCallback((id: string, next: BusNodeData) => run(commands.updateBus, id, next), [run]);
   const clipboard = useRef<Clip | null>(null);
@@ -200,7 +213,11 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     undo: () => ((historyMove.current = true), undo()),
     redo: () => ((historyMove.current = true), redo()),
     copy: () => void (clipboard.current = commands.copySelection(docRef.current)),
-    paste: () => clipboard.current && run(commands.paste, clipboard.current, viewport()),
+    paste: () => {
+      if (!clipboard.current) return;
+      revealNext.current = true;
+      run(commands.paste, clipboard.current, viewport());
+    },
     delete: () => run(commands.deleteSelection),
     save: openSave,
     fit,
@@ -267,6 +284,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   }, []);
 
   const layout = useMemo(() => readLayout(study.content.layout), [study.content.layout]);
+  // A study opened empty starts at 100 % (a fit would blow its first node up to the fit's maximum zoom).
+  const [initiallyDrawn] = useState(() => doc.nodes.length > 0);
   const statusText =
     live.status === 'solving' ? 'Solving…' : live.status === 'ok' ? `Solved in ${live.ms?.toFixed(1) ?? '–'} ms` : live.status === 'error' ? 'The circuit cannot be solved (see the note by the element)' : circuit.elements.length === 0 ? 'Add a source, a bus and loads to begin' : '';
 
@@ -348,7 +367,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
               snapToGrid={snap}
               snapGrid={SNAP_GRID}
               defaultViewport={layout?.viewport}
-              fitView={!layout?.viewport}
+              fitView={!layout?.viewport && initiallyDrawn}
               fitViewOptions={FIT_VIEW_OPTIONS}
               minZoom={0.2}
               maxZoom={3}

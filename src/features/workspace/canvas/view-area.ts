@@ -47,5 +47,31 @@ export function fitWithLabels(rf: Flow, container: HTMLElement | null, duration 
     maxX = Math.max(maxX, f.x + f.w);
     maxY = Math.max(maxY, f.y + f.h);
   }
-  void rf.fitBounds({ x: minX, y: minY, width: maxX - minX, height: maxY - minY }, { padding: 0.06, duration });
+  // A small diagram is not blown up past 1.5× (fitBounds alone would zoom to the flow's maximum).
+  const pane = container?.querySelector('.react-flow')?.getBoundingClientRect();
+  const w = maxX - minX;
+  const h = maxY - minY;
+  if (!pane || pane.width === 0) {
+    void rf.fitBounds({ x: minX, y: minY, width: w, height: h }, { padding: 0.06, duration });
+    return;
+  }
+  const zoom = Math.max(0.2, Math.min(MAX_FIT_ZOOM, pane.width / (w * 1.12), pane.height / (h * 1.12)));
+  void rf.setCenter(minX + w / 2, minY + h / 2, { zoom, duration });
+}
+
+/** Largest zoom a fit gives. */
+export const MAX_FIT_ZOOM = 1.5;
+
+/** Pans (at the same zoom) so that every box in `boxes` is in view, when one is not. */
+export function reveal(rf: Flow, container: HTMLElement | null, boxes: Rect[]): void {
+  const vp = visibleArea(rf, container);
+  if (!vp || boxes.length === 0) return;
+  const minX = Math.min(...boxes.map((b) => b.x));
+  const minY = Math.min(...boxes.map((b) => b.y));
+  const maxX = Math.max(...boxes.map((b) => b.x + b.w));
+  const maxY = Math.max(...boxes.map((b) => b.y + b.h));
+  const v = vp.view;
+  const blocked = vp.covered.some((c) => boxes.some((b) => b.x < c.x + c.w && b.x + b.w > c.x && b.y < c.y + c.h && b.y + b.h > c.y));
+  if (!blocked && minX >= v.x && minY >= v.y && maxX <= v.x + v.w && maxY <= v.y + v.h) return;
+  void rf.setCenter((minX + maxX) / 2, (minY + maxY) / 2, { zoom: rf.getZoom(), duration: 200 });
 }

@@ -1,7 +1,7 @@
 /**
  * Undo/redo over whole document snapshots (nodes, edges, settings). Snapshots share structure,
  * so keeping 100 is cheap. `commit` records an edit; `replace` changes the present without a history
- * entry (a drag in progress, selection); `undo`/`redo` walk the stacks; `reset` starts afresh (load,
+ * entry (a drag in progress, selection); `apply` records a command run on the present; `undo`/`redo` walk the stacks; `reset` starts afresh (load,
  * reload after a conflict).
  */
 export interface History<T> {
@@ -12,6 +12,7 @@ export interface History<T> {
 
 export type HistoryAction<T> =
   | { type: 'commit'; next: T }
+  | { type: 'apply'; fn: (present: T) => T }
   | { type: 'replace'; next: T }
   | { type: 'update'; fn: (present: T) => T }
   | { type: 'undo' }
@@ -32,6 +33,12 @@ export function historyReducer<T>(h: History<T>, a: HistoryAction<T>): History<T
     case 'commit':
       if (a.next === h.present) return h;
       return { past: [...h.past, h.present].slice(-HISTORY_LIMIT), present: a.next, future: [] };
+    case 'apply': {
+      // A command on the present as the reducer sees it (two key presses before a render each see the last).
+      const next = a.fn(h.present);
+      if (next === h.present) return h;
+      return { past: [...h.past, h.present].slice(-HISTORY_LIMIT), present: next, future: [] };
+    }
     case 'replace':
       return a.next === h.present ? h : { ...h, present: a.next };
     case 'update': {

@@ -55,7 +55,7 @@ const snap = (v: number) => Math.round(v / 10) * 10;
 /**
  * A free spot of `w`×`h` for a new node: beside the bus in use when asked (sources above it, loads
  * and feeders below), else the first free cell of a grid over the visible area, never under an
- * overlay; with no free cell in view, the middle of the view (never off-screen).
+ * overlay; with no free cell in view, the free cell nearest the view's middle.
  */
 export function freeSpot(doc: WorkspaceDoc, w: number, h: number, vp: Viewport | null, near?: 'above' | 'below'): { x: number; y: number } {
   const boxes = doc.nodes.map(footprint);
@@ -71,14 +71,33 @@ export function freeSpot(doc: WorkspaceDoc, w: number, h: number, vp: Viewport |
       if (ok(r)) return { x: r.x, y: r.y };
     }
   }
+  return firstFree({ w, h }, view, (r) => !boxes.some((b) => overlaps(r, b)) && !covered.some((c) => overlaps(r, c)));
+}
+
+/**
+ * Top-left of the first free `size` box: a grid over the view first (top-left to bottom-right),
+ * then rings around the view's middle, so a full view never makes nodes stack on one spot (the page
+ * then pans to show where it landed).
+ */
+function firstFree(size: { w: number; h: number }, view: Rect, free: (r: Rect) => boolean): { x: number; y: number } {
   const margin = 20;
-  for (let y = view.y + margin; y + h <= view.y + view.h; y += 40) {
-    for (let x = view.x + margin; x + w <= view.x + view.w; x += 40) {
-      const r = { x: snap(x), y: snap(y), w, h };
-      if (ok(r)) return { x: r.x, y: r.y };
+  for (let y = view.y + margin; y + size.h <= view.y + view.h; y += 40) {
+    for (let x = view.x + margin; x + size.w <= view.x + view.w; x += 40) {
+      const r = { x: snap(x), y: snap(y), w: size.w, h: size.h };
+      if (free(r)) return { x: r.x, y: r.y };
     }
   }
-  return { x: snap(view.x + view.w / 2 - w / 2), y: snap(view.y + view.h / 2 - h / 2) };
+  const cx = view.x + view.w / 2 - size.w / 2;
+  const cy = view.y + view.h / 2 - size.h / 2;
+  for (let ring = 1; ring < 200; ring++) {
+    for (let i = -ring; i <= ring; i++) {
+      for (const [dx, dy] of [[i, -ring], [i, ring], [-ring, i], [ring, i]]) {
+        const r = { x: snap(cx + dx * 60), y: snap(cy + dy * 60), w: size.w, h: size.h };
+        if (free(r)) return { x: r.x, y: r.y };
+      }
+    }
+  }
+  return { x: snap(cx), y: snap(cy) };
 }
 
 /** Names and node ids in use (bus names and element ids share one namespace with node ids). */
@@ -256,20 +275,14 @@ export function paste(doc: WorkspaceDoc, clip: Clip, vp: Viewport | null): Works
   return { ...base, nodes: [...base.nodes, ...pasted], edges: [...base.edges, ...edges] };
 }
 
-/** Top-left of a free place in view for a whole clip (its bounding box), else the view's middle. */
+/** Top-left of a free place for a whole clip (its bounding box): in view when there is room, else nearest the view's middle. */
 function freeSpotForClip(clipBoxes: Rect[], boxes: Rect[], vp: Viewport): { x: number; y: number } {
   const minX = Math.min(...clipBoxes.map((b) => b.x));
   const minY = Math.min(...clipBoxes.map((b) => b.y));
   const w = Math.max(...clipBoxes.map((b) => b.x + b.w)) - minX;
   const h = Math.max(...clipBoxes.map((b) => b.y + b.h)) - minY;
   const taken = [...boxes, ...vp.covered];
-  for (let y = vp.view.y + 20; y + h <= vp.view.y + vp.view.h; y += 40) {
-    for (let x = vp.view.x + 20; x + w <= vp.view.x + vp.view.w; x += 40) {
-      const r = { x: snap(x), y: snap(y), w, h };
-      if (!taken.some((o) => overlaps(r, o))) return { x: r.x, y: r.y };
-    }
-  }
-  return { x: snap(vp.view.x + vp.view.w / 2 - w / 2), y: snap(vp.view.y + vp.view.h / 2 - h / 2) };
+  return firstFree({ w, h }, vp.view, (r) => !taken.some((o) => overlaps(r, o)));
 }
 
 /** Study settings and per-bus nominal voltages (`kv`: bus node id → kV, undefined clears it). */

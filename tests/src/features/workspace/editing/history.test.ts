@@ -37,3 +37,14 @@ describe('historyReducer', () => {
     expect(run(h, { type: 'reset', next: 'z' })).toEqual({ past: [], present: 'z', future: [] });
   });
 });
+
+describe('apply', () => {
+  it('runs a command on the present the reducer holds, so two in a row both count', () => {
+    let h = initHistory({ n: 0 });
+    h = historyReducer(h, { type: 'apply', fn: (d) => ({ n: d.n + 1 }) });
+    h = historyReducer(h, { type: 'apply', fn: (d) => ({ n: d.n + 1 }) });
+    expect(h.present).toEqual({ n: 2 });
+    expect(h.past).toEqual([{ n: 0 }, { n: 1 }]);
+    expect(historyReducer(h, { type: 'apply', fn: (d) => d })).toBe(h);
+  });
+});
