@@ -1,21 +1,27 @@
 /**
  * Complex values as people type them: rectangular `R + jX` ("0.8+j1.5", "3-j4", "j2", "1.2 - 0.4j")
  * or polar `magnitude∠angle` in degrees ("120∠-30", "120@-30", "120 /_ 30"). A plain number is real.
- * An optional trailing unit (Ω, ohm, ohms, V, A) is accepted and ignored; the field knows its unit.
+ * An optional trailing Ω (ohm, ohms) is accepted; anything else — expressions ("208/sqrt(3)"),
+ * other units ("5 mΩ", "0.19 Ω/km" on per-length data) — goes to the unit-aware evaluator, which
+ * converts it or refuses a unit of another kind (a volt is never read as an ohm).
  */
-import type { ComplexInput } from '../../../../shared/engine/index.ts';
+import type { ComplexInput, PerLengthUnit } from '../../../../shared/engine/index.ts';
+import { evaluateComplex } from './expression.ts';
 
 export type ParseResult<T> = { ok: true; value: T } | { ok: false; message: string };
 
 const NUM = String.raw`[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?`;
-const UNIT = /\s*(?:Ω|ohms?|V|A)\s*$/i;
+const UNIT = /\s*(?:Ω|ohms?)\s*$/;
 const RE_POLAR = new RegExp(String.raw`^(${NUM})\s*(?:∠|@|/_)\s*(${NUM})\s*°?$`);
 const RE_REAL = new RegExp(String.raw`^(${NUM})$`);
 // j before or after the imaginary magnitude; an optional real part in front.
 const RE_RECT = new RegExp(String.raw`^(?:(${NUM})\s*)?([+-])?\s*(?:[ij]\s*(${NUM.replace('[+-]?', '')})?|(${NUM.replace('[+-]?', '')})\s*[ij])$`);
 
-/** Parses a complex value; polar input stays polar ({ mag, angleDeg }), rectangular becomes { re, im }, a real stays a number. */
-export function parseComplex(text: string): ParseResult<ComplexInput> {
+/**
+ * Parses a complex value; polar input stays polar ({ mag, angleDeg }), rectangular becomes { re, im },
+ * a real stays a number. `perLength`: the field holds data per that length unit (a typed "Ω/km" converts).
+ */
+export function parseComplex(text: string, perLength?: PerLengthUnit): ParseResult<ComplexInput> {
   const s = text.trim().replace(UNIT, '').replace(/−/g, '-').replace(/,(?=\d{3}\b)/g, '');
   if (s === '') return { ok: false, message: 'Enter a value, for example 0.8+j1.5 or 120∠-30.' };
   let m = RE_REAL.exec(s);
@@ -34,7 +40,7 @@ export function parseComplex(text: string): ParseResult<ComplexInput> {
     const im = m[2] === '-' ? -imAbs : imAbs;
     return { ok: true, value: { re, im } };
   }
-  return { ok: false, message: `“${text.trim()}” is not a complex value. Write it as R+jX (e.g. 0.8+j1.5, 3-j4) or magnitude∠angle in degrees (e.g. 120∠-30 or 120@-30).` };
+  return evaluateComplex(text, perLength);
 }
 
 function trim(x: number): string {

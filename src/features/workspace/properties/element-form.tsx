@@ -22,7 +22,7 @@ function parseField(f: FieldSpec, text: string, el: CircuitElementInput): { ok: 
     case 'quantity':
       return parseQuantity(t, f.dimension, f.unit);
     case 'complex':
-      return parseComplex(t);
+      return parseComplex(t, f.perLength);
     case 'length': {
       const r = parseLength(t, (getPath(el, 'lengthUnit') as 'km' | 'm' | 'mi' | 'ft' | undefined) ?? 'km');
       return r;

@@ -10,7 +10,7 @@ import type { LengthUnit, PerLengthUnit } from '../../../../shared/engine/index.
 
 export type FieldSpec =
   | { kind: 'quantity'; path: string; label: string; dimension: Dimension; unit: string; optional?: boolean }
-  | { kind: 'complex'; path: string; label: string; unit: string; optional?: boolean }
+  | { kind: 'complex'; path: string; label: string; unit: string; optional?: boolean; perLength?: PerLengthUnit }
   | { kind: 'length'; path: 'length'; label: string }
   | { kind: 'phases'; path: string; label: string }
   | { kind: 'text'; path: string; label: string; optional?: boolean }
@@ -279,12 +279,12 @@ export function elementFields(el: CircuitElementInput): FieldSpec[] {
         });
       const imp = el.impedance;
       if (imp.kind === 'perConductor') {
-        for (const c of Object.keys(imp.ohmsPerLength)) f.push({ kind: 'complex', path: `impedance.ohmsPerLength.${c}`, label: `Z ${c.toUpperCase()} ${unit}`, unit: 'Ω' });
+        for (const c of Object.keys(imp.ohmsPerLength)) f.push({ kind: 'complex', path: `impedance.ohmsPerLength.${c}`, label: `Z ${c.toUpperCase()} ${unit}`, unit: 'Ω', perLength: per });
       } else if (imp.kind === 'sequence') {
         f.push(
-          { kind: 'complex', path: 'impedance.z1PerLength', label: `Z1 ${unit}`, unit: 'Ω' },
-          { kind: 'complex', path: 'impedance.z0PerLength', label: `Z0 ${unit}`, unit: 'Ω' },
-          { kind: 'complex', path: 'impedance.neutralOhmsPerLength', label: `Z neutral ${unit}`, unit: 'Ω', optional: true },
+          { kind: 'complex', path: 'impedance.z1PerLength', label: `Z1 ${unit}`, unit: 'Ω', perLength: per },
+          { kind: 'complex', path: 'impedance.z0PerLength', label: `Z0 ${unit}`, unit: 'Ω', perLength: per },
+          { kind: 'complex', path: 'impedance.neutralOhmsPerLength', label: `Z neutral ${unit}`, unit: 'Ω', optional: true, perLength: per },
         );
       }
       return f;

@@ -4,24 +4,38 @@
  * when none is typed) converts to the base unit. A unit of another dimension is refused by name.
  */
 import type { ParseResult } from './complex-input.ts';
+import { evaluateQuantity, normalise } from './expression.ts';
 
 export type Dimension = 'voltage' | 'power' | 'reactive' | 'apparent' | 'impedance' | 'percent' | 'length' | 'frequency' | 'ratio';
 
-/** Units per dimension, as factors to the SI-ish unit of the dimension (V, W, var, VA, Ω, %, m, Hz). */
+/**
+ * Units per dimension, as factors to the SI-ish unit of the dimension (V, W, var, VA, Ω, %, m, Hz).
+ * Keys are case-sensitive: m is milli and M mega (MΩ is a megaohm, mW a milliwatt).
+ */
 const UNITS: Record<Dimension, Record<string, number>> = {
-  voltage: { v: 1, kv: 1e3, mv: 1e6 },
-  power: { w: 1, kw: 1e3, mw: 1e6 },
-  reactive: { var: 1, kvar: 1e3, mvar: 1e6 },
-  apparent: { va: 1, kva: 1e3, mva: 1e6 },
-  impedance: { 'ω': 1, ohm: 1, ohms: 1, 'mω': 1e-3, 'kω': 1e3 },
+  voltage: { V: 1, kV: 1e3, MV: 1e6 },
+  power: { W: 1, kW: 1e3, MW: 1e6 },
+  reactive: { var: 1, kvar: 1e3, Mvar: 1e6 },
+  apparent: { VA: 1, kVA: 1e3, MVA: 1e6 },
+  impedance: { 'Ω': 1, ohm: 1, ohms: 1, 'mΩ': 1e-3, 'kΩ': 1e3, 'MΩ': 1e6, mohm: 1e-3, kohm: 1e3, Mohm: 1e6 },
   percent: { '%': 1 },
   length: { m: 1, km: 1e3, ft: 0.3048, mi: 1609.344, mile: 1609.344, miles: 1609.344 },
-  frequency: { hz: 1 },
+  frequency: { Hz: 1 },
   ratio: { '': 1 },
 };
 
-// MV is ambiguous (megavolt vs a typo of mV); for voltage the only sensible reading is megavolt.
-const ALIASES: Record<string, string> = { 'Ω': 'ω', 'kΩ': 'kω', 'mΩ': 'mω', 'MΩ': 'mω' };
+/**
+ * The unit typed, found in `table`: exactly, or ignoring case when that names one unit and does
+ * not turn a lower-case m (milli) into M (mega). "kv" is kV; "mw" in a power field is refused.
+ */
+function findUnit(table: Record<string, number>, typed: string): { key: string } | { ambiguous: string } | null {
+  if (typed in table) return { key: typed };
+  const matches = Object.keys(table).filter((k) => k.toLowerCase() === typed.toLowerCase());
+  if (matches.length !== 1) return null;
+  const key = matches[0];
+  if (typed.startsWith('m') && key.startsWith('M')) return { ambiguous: key };
+  return { key };
+}
 
 /** Display names of the units of each dimension, for hints. */
 export const UNIT_HINT: Record<Dimension, string> = {
@@ -38,26 +52,35 @@ export const UNIT_HINT: Record<Dimension, string> = {
 
 const RE = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*([A-Za-zΩω%]*)$/;
 
-/** Parses `text` in `dimension`, returning the value in `baseUnit` (one of the dimension's units). */
+/**
+ * Parses `text` in `dimension`, returning the value in `baseUnit` (one of the dimension's units).
+ * A number with a unit is read directly; anything else ("208/sqrt(3)", "2 * 13.8 kV") is evaluated
+ * as a unit-aware expression.
+ */
 export function parseQuantity(text: string, dimension: Dimension, baseUnit: string): ParseResult<number> {
   const s = text.trim().replace(/−/g, '-').replace(/,(?=\d{3}\b)/g, '');
   if (s === '') return { ok: false, message: `Enter a value in ${UNIT_HINT[dimension]}.` };
   const m = RE.exec(s);
-  if (!m) return { ok: false, message: `“${text.trim()}” is not a number with a unit (${UNIT_HINT[dimension]}).` };
+  if (!m) return evaluateQuantity(text, baseUnit, UNIT_HINT[dimension]);
   const value = Number(m[1]);
-  const typed = m[2] === '' ? baseUnit : m[2];
-  const key = (ALIASES[typed] ?? typed).toLowerCase();
   const table = UNITS[dimension];
-  const baseKey = (ALIASES[baseUnit] ?? baseUnit).toLowerCase();
-  if (!(key in table)) return { ok: false, message: `“${m[2]}” is not a unit of ${dimension === 'ratio' ? 'this field' : dimension}; use ${UNIT_HINT[dimension]}.` };
-  return { ok: true, value: (value * table[key]) / table[baseKey] };
+  const found = findUnit(table, m[2] === '' ? baseUnit : m[2]);
+  if (found && 'ambiguous' in found) return { ok: false, message: `“${m[2]}” would be milli-; write ${found.ambiguous} if you mean mega-.` };
+  if (!found) return { ok: false, message: `“${m[2]}” is not a unit of ${dimension === 'ratio' ? 'this field' : dimension}; use ${UNIT_HINT[dimension]}.` };
+  return { ok: true, value: (value * table[found.key]) / table[baseUnit] };
 }
 
 /** Parses a length and keeps the unit typed (the engine stores length and unit together): "30 m" → 30, "m". */
 export function parseLength(text: string, defaultUnit: 'km' | 'm' | 'mi' | 'ft'): ParseResult<{ length: number; unit: 'km' | 'm' | 'mi' | 'ft' }> {
   const s = text.trim().toLowerCase();
   const m = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[+-]?\d+)?)\s*(km|m|mi|miles?|ft|feet)?$/.exec(s);
-  if (!m) return { ok: false, message: `“${text.trim()}” is not a length; write e.g. 30 m, 0.8 km, 1.2 mile or 150 ft.` };
+  if (!m) {
+    // An expression ("0.5 mi + 200 m", "2*400 m"): its value in the unit it ends with, else the line's unit.
+    const unit = (/(km|mi|ft|m)\s*$/.exec(normalise(text))?.[1] as 'km' | 'm' | 'mi' | 'ft' | undefined) ?? defaultUnit;
+    const r = evaluateQuantity(text, unit, 'a length in m, km, ft or mile');
+    if (!r.ok) return { ok: false, message: `“${text.trim()}” is not a length; write e.g. 30 m, 0.8 km, 1.2 mile or 150 ft.` };
+    return { ok: true, value: { length: r.value, unit } };
+  }
   const unit = m[2] === undefined ? defaultUnit : m[2].startsWith('mi') ? 'mi' : m[2] === 'feet' ? 'ft' : (m[2] as 'km' | 'm' | 'ft');
   return { ok: true, value: { length: Number(m[1]), unit } };
 }

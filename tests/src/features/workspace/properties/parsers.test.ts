@@ -31,7 +31,7 @@ describe('parseComplex', () => {
   });
 
   it('refuses nonsense and negative magnitudes in plain words', () => {
-    expect(parseComplex('abc')).toEqual({ ok: false, message: '“abc” is not a complex value. Write it as R+jX (e.g. 0.8+j1.5, 3-j4) or magnitude∠angle in degrees (e.g. 120∠-30 or 120@-30).' });
+    expect(parseComplex('abc')).toEqual({ ok: false, message: '“abc” is not a complex value. Write it as R+jX (e.g. 0.8+j1.5, 3-j4) or magnitude∠angle in degrees (e.g. 120∠-30 or 120@-30), optionally with Ω.' });
     expect(parseComplex('3+4')).toMatchObject({ ok: false });
     expect(parseComplex('-5∠10')).toEqual({ ok: false, message: 'A magnitude cannot be negative; add 180° to the angle instead.' });
     expect(parseComplex('  ')).toMatchObject({ ok: false });
@@ -65,7 +65,7 @@ describe('parseQuantity', () => {
 
   it('refuses a unit of another dimension by name', () => {
     expect(parseQuantity('4 kvar', 'power', 'kW')).toEqual({ ok: false, message: '“kvar” is not a unit of power; use W, kW or MW.' });
-    expect(parseQuantity('four', 'power', 'kW')).toEqual({ ok: false, message: '“four” is not a number with a unit (W, kW or MW).' });
+    expect(parseQuantity('four', 'power', 'kW')).toEqual({ ok: false, message: '“four” is not a number or an expression with units (W, kW or MW), e.g. 208/sqrt(3) or 13.8 kV.' });
   });
 
   it('keeps a line’s length with the unit typed', () => {
