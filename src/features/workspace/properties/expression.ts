@@ -5,13 +5,61 @@
  * are loaded with the workspace chunk only (the studies list never imports this file).
  */
 import Complex from 'complex.js';
-import * as m from 'mathjs';
+import {
+  absDependencies,
+  addDependencies,
+  complexDependencies,
+  cosDependencies,
+  create,
+  createUnitDependencies,
+  divideDependencies,
+  eDependencies,
+  evaluateDependencies,
+  expDependencies,
+  iDependencies,
+  log10Dependencies,
+  logDependencies,
+  multiplyDependencies,
+  piDependencies,
+  powDependencies,
+  sinDependencies,
+  sqrtDependencies,
+  subtractDependencies,
+  tanDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  unitDependencies,
+  type Unit,
+} from 'mathjs';
 import { METRES_PER, type ComplexInput, type PerLengthUnit } from '../../../../shared/engine/index.ts';
 
 export type ParseResult<T> = { ok: true; value: T } | { ok: false; message: string };
 
-const FUNCTIONS = ['evaluate', 'unit', 'createUnit', 'sqrt', 'add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus', 'pi', 'e', 'i', 'complex', 'cos', 'sin', 'tan', 'abs', 'exp', 'log', 'log10'] as const;
-const math = m.create(Object.fromEntries(FUNCTIONS.map((f) => [`${f}Dependencies`, (m as unknown as Record<string, m.FactoryFunctionMap>)[`${f}Dependencies`]])) as m.FactoryFunctionMap);
+// Only what an input needs (named, so the bundler leaves the rest of mathjs out of the workspace chunk).
+const math = create({
+  evaluateDependencies,
+  unitDependencies,
+  createUnitDependencies,
+  sqrtDependencies,
+  addDependencies,
+  subtractDependencies,
+  multiplyDependencies,
+  divideDependencies,
+  powDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  piDependencies,
+  eDependencies,
+  iDependencies,
+  complexDependencies,
+  cosDependencies,
+  sinDependencies,
+  tanDependencies,
+  absDependencies,
+  expDependencies,
+  logDependencies,
+  log10Dependencies,
+});
 math.createUnit('kft', '1000 ft');
 
 /** Typed forms people use that mathjs spells otherwise. */
@@ -33,7 +81,7 @@ export function normalise(text: string): string {
 }
 
 /** The value of an expression: a real number, a complex number, or a quantity with a unit. */
-function evaluate(expr: string): { kind: 'number'; value: number } | { kind: 'complex'; value: Complex } | { kind: 'unit'; value: m.Unit } | { kind: 'error'; message: string } {
+function evaluate(expr: string): { kind: 'number'; value: number } | { kind: 'complex'; value: Complex } | { kind: 'unit'; value: Unit } | { kind: 'error'; message: string } {
   try {
     const r = math.evaluate(expr) as unknown;
     if (typeof r === 'number') return Number.isFinite(r) ? { kind: 'number', value: r } : { kind: 'error', message: 'the result is not a finite number' };
@@ -41,7 +89,7 @@ function evaluate(expr: string): { kind: 'number'; value: number } | { kind: 'co
       const c = new Complex(r as Complex);
       return c.im === 0 ? { kind: 'number', value: c.re } : { kind: 'complex', value: c };
     }
-    if (r !== null && typeof r === 'object' && (r as m.Unit).units) return { kind: 'unit', value: r as m.Unit };
+    if (r !== null && typeof r === 'object' && (r as Unit).units) return { kind: 'unit', value: r as Unit };
     return { kind: 'error', message: 'not a number' };
   } catch (e) {
     return { kind: 'error', message: e instanceof Error ? e.message : String(e) };
@@ -61,7 +109,7 @@ const DIMENSION_WORDS: [string, string][] = [
   ['ohm/m', 'an impedance per length'],
 ];
 
-function dimensionWords(u: m.Unit): string {
+function dimensionWords(u: Unit): string {
   for (const [unit, words] of DIMENSION_WORDS) if (u.equalBase(math.unit(1, unit))) return words;
   return 'a quantity of another kind';
 }
