@@ -10,7 +10,7 @@ import { SignUpRoute } from './routes/sign-up.tsx';
 import { StudiesRoute } from './routes/studies.tsx';
 import { parseStudyListParams, studiesQueryOptions } from '../features/studies/api/get-studies.ts';
 import { studyQueryOptions } from '../features/studies/api/get-study.ts';
-import { teamQueryOptions } from '../features/team/api/get-team.ts';
+import { teamQueryOptions } from '../lib/api/team.ts';
 import { mailQueryOptions } from '../features/team/api/get-mail.ts';
 
 /**

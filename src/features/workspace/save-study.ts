@@ -5,10 +5,12 @@
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
+import type { StudyContent, StudyDetail } from '../../../shared/api/studies.ts';
+import { conflictOf, patchStudy, studyPatched } from '../../lib/api/studies.ts';
 import { docKey, docOf } from './model/conversion.ts';
 import type { WorkspaceDoc } from './model/document.ts';
-import { versionConflictBodySchema, type StudyContent, type StudyDetail } from '../../../shared/api/studies.ts';
-import { api, isApiError } from '../../lib/api-client.ts';
+
+export { conflictOf };
 
 export interface SaveStudyBody {
   version: number;
@@ -17,27 +19,12 @@ export interface SaveStudyBody {
   message?: string;
 }
 
-/** Sends the save. */
-export function saveStudy(id: string, body: SaveStudyBody): Promise<StudyDetail> {
-  return api.patch<StudyDetail>(`/api/studies/${encodeURIComponent(id)}`, body);
-}
-
-/** The study as saved by someone else, when `error` is a version conflict; otherwise null. */
-export function conflictOf(error: unknown): StudyDetail | null {
-  if (!isApiError(error, 409) || error.code !== 'version-conflict') return null;
-  const parsed = versionConflictBodySchema.safeParse(error.body);
-  return parsed.success ? parsed.data.current : null;
-}
-
-/** Save mutation; a success refreshes the cached study (same keys as the studies feature's queries). */
+/** Save mutation (the shared PATCH client); a success refreshes the cached study and the lists. */
 export function useSaveStudy(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: SaveStudyBody) => saveStudy(id, body),
-    onSuccess: (study) => {
-      queryClient.setQueryData(['studies', 'detail', id], study);
-      return queryClient.invalidateQueries({ queryKey: ['studies', 'list'] });
-    },
+    mutationFn: (body: SaveStudyBody) => patchStudy(id, body),
+    onSuccess: (study) => studyPatched(queryClient, study),
   });
 }
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditListResponse, AuditQuery } from '../../../../shared/api/audit.ts';
 import type { ListStudiesResponse } from '../../../../shared/api/studies.ts';
-import type { TeamResponse } from '../../../../shared/api/team.ts';
 import { api } from '../../../lib/api-client.ts';
+import { teamQueryOptions } from '../../../lib/api/team.ts';
 
 export type AuditFilters = Pick<AuditQuery, 'studyId' | 'action' | 'actor'> & { page: number };
 
@@ -25,6 +25,6 @@ export function useAuditChoices() {
     queryKey: ['studies', 'list', { page: 1, pageSize: 100, sort: 'name', dir: 'asc' }] as const,
     queryFn: ({ signal }) => api.get<ListStudiesResponse>('/api/studies', { query: { page: 1, pageSize: 100, sort: 'name', dir: 'asc' }, signal }),
   });
-  const team = useQuery({ queryKey: ['team', 'overview'] as const, queryFn: ({ signal }) => api.get<TeamResponse>('/api/team', { signal }) });
+  const team = useQuery(teamQueryOptions());
   return { studies, team };
 }

@@ -1,17 +1,11 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TeamResponse } from '../../../../shared/api/team.ts';
-import { api } from '../../../lib/api-client.ts';
-import { reviewKeys } from './keys.ts';
+import { useQuery } from '@tanstack/react-query';
+import { teamQueryOptions } from '../../../lib/api/team.ts';
 
-/** GET /api/team: the members to choose reviewers from and to resolve @mentions against. */
-export function getMembers(signal?: AbortSignal): Promise<TeamResponse> {
-  return api.get<TeamResponse>('/api/team', { signal });
-}
-
+/** The members to choose reviewers from and to resolve @mentions against: the one GET /api/team client (src/lib/api/team.ts). */
 export function membersQueryOptions() {
-  return queryOptions({ queryKey: reviewKeys.members(), queryFn: ({ signal }) => getMembers(signal), staleTime: 60_000 });
+  return teamQueryOptions();
 }
 
 export function useMembers() {
-  return useQuery(membersQueryOptions());
+  return useQuery(teamQueryOptions());
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { CreatedStudy, StudyDetail, TemplateListResponse } from '../../../../shared/api/studies.ts';
 import { api } from '../../../lib/api-client.ts';
+import { patchStudy } from '../../../lib/api/studies.ts';
 import { reviewKeys, studyPath } from './keys.ts';
 
 /** GET /api/templates: approved studies marked as templates, each with the danger of the revision a copy starts from. */
@@ -18,7 +19,7 @@ export function useTemplates() {
 
 /** PATCH /api/studies/:id { version, isTemplate } (write roles); marking a study that is not approved answers 409. */
 export function setTemplate(id: string, version: number, isTemplate: boolean): Promise<StudyDetail> {
-  return api.patch<StudyDetail>(studyPath(id), { version, isTemplate });
+  return patchStudy(id, { version, isTemplate });
 }
 
 export function useSetTemplate(id: string) {

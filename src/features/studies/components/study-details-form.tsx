@@ -8,7 +8,8 @@ import { TextAreaField, TextField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerErrors } from '../../../lib/form-errors.ts';
 import { formatDateTime } from '../../../lib/format.ts';
-import { conflictCurrent, useUpdateStudy } from '../api/update-study.ts';
+import { conflictOf } from '../../../lib/api/studies.ts';
+import { useUpdateStudy } from '../api/update-study.ts';
 
 /** The editable part of a study's details, built from the API's own field schemas. */
 const detailsSchema = z.object({ name: studyNameSchema, description: studyDescriptionSchema, isTemplate: z.boolean() });
@@ -43,7 +44,7 @@ export function StudyDetailsForm({ study, onDone }: { study: StudyDetail; onDone
       {
         onSuccess: () => onDone(),
         onError: (error) => {
-          const current = conflictCurrent(error);
+          const current = conflictOf(error);
           if (current) {
             setConflict(current);
             setOverwriteOf(null);

@@ -3,7 +3,7 @@ import type { Me } from '../../../../shared/api/auth.ts';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { can, ROLE_HINT, ROLE_LABEL } from '../../../lib/authorization.ts';
-import { useTeam } from '../api/get-team.ts';
+import { useTeam } from '../../../lib/api/team.ts';
 import { InviteForm, PendingInvites } from './invites.tsx';
 import { Members } from './members.tsx';
 

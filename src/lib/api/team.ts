@@ -1,6 +1,7 @@
+/** The one client of `GET /api/team` (team page, reviewer choice, @mentions, audit filters): one key, one query function. */
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TeamResponse } from '../../../../shared/api/team.ts';
-import { api } from '../../../lib/api-client.ts';
+import type { TeamResponse } from '../../../shared/api/team.ts';
+import { api } from '../api-client.ts';
 
 /** GET /api/team: the team, its members, and (for owners only) pending invites. */
 export function getTeam(signal?: AbortSignal): Promise<TeamResponse> {
@@ -8,7 +9,7 @@ export function getTeam(signal?: AbortSignal): Promise<TeamResponse> {
 }
 
 export function teamQueryOptions() {
-  return queryOptions({ queryKey: ['team', 'overview'] as const, queryFn: ({ signal }) => getTeam(signal) });
+  return queryOptions({ queryKey: ['team', 'overview'] as const, queryFn: ({ signal }) => getTeam(signal), staleTime: 60_000 });
 }
 
 export function useTeam() {
