@@ -20,10 +20,10 @@ async function wire(page: Page, from: string, to: string) {
   await page.mouse.up();
 }
 
-/** Clicks the middle of a wire, as a person selects a connection. */
+/** Clicks a wire a quarter of the way along (its middle carries the one-click open control), as a person selects a connection. */
 async function clickWire(page: Page, label: string) {
   const pt = await page.locator(`[aria-label="${label}"] path.react-flow__edge-interaction`).evaluate((p: SVGPathElement) => {
-    const q = p.getPointAtLength(p.getTotalLength() / 2);
+    const q = p.getPointAtLength(p.getTotalLength() / 4);
     const m = p.getScreenCTM()!;
     return { x: q.x * m.a + q.y * m.c + m.e, y: q.x * m.b + q.y * m.d + m.f };
   });
@@ -100,7 +100,7 @@ describe('study workspace in a real browser', () => {
 
     // One click opens the neutral of the service connection.
     await clickWire(page, 'Connection SRC1 to bus B1');
-    await page.getByRole('button', { name: 'Open neutral' }).click();
+    await page.getByRole('button', { name: 'Open neutral', exact: true }).click();
     await expect.poll(() => badge.textContent(), { timeout: 15_000 }).not.toMatch(/^N–E 0\.000 V$/);
     const shown = (await badge.textContent())!;
     // The results panel shows the same bus in its table: "62.4 V (52.0 %)".
@@ -143,7 +143,7 @@ describe('study workspace in a real browser', () => {
     });
     expect(other.status()).toBe(200);
     await clickWire(page, 'Connection SRC1 to bus B1');
-    await page.getByRole('button', { name: 'Close neutral' }).click();
+    await page.getByRole('button', { name: 'Close neutral', exact: true }).click();
     await page.getByRole('button', { name: 'Save study' }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Save' }).click();
     const conflict = page.getByRole('dialog', { name: 'Someone saved this study while you were editing' });
