@@ -104,3 +104,21 @@ describe('solve CLI', () => {
     expect(r.stderr).toMatch(/V1/);
   });
 });
+
+describe('solve CLI and non-physical values', () => {
+  it('a negative line resistance: exit 2 naming the element', () => {
+    const circuit = {
+      format: 'wyeward-circuit',
+      version: 1,
+      frequencyHz: 60,
+      elements: [
+        { type: 'source', id: 'SRC1', bus: 'A', kvLL: 0.208 },
+        { type: 'line', id: 'FEEDER', from: 'A', to: 'B', length: 100, lengthUnit: 'm', impedance: { kind: 'perConductor', ohmsPerLength: { a: { re: -0.001, im: 0.0003 } } } },
+      ],
+    };
+    const r = run([file('negative-r.json', circuit)]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/negative resistance/);
+    expect(r.stderr).toMatch(/FEEDER/);
+  });
+});
