@@ -44,36 +44,42 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
   const isOpen = toggled !== null && open.includes(toggled);
   const words = toggled === null ? '' : toggled === 'n' ? 'neutral' : toggled === '1' || toggled === '2' ? `leg ${toggled}` : `phase ${phaseStyle(toggled, view.wiringStandard).label}`;
 
+  const control =
+    view.toggleOpen && toggled ? (
+      <button
+        type="button"
+        className={`nodrag nopan num mr-1 rounded-full border px-1 text-[9px] font-semibold leading-[13px] ${isOpen ? 'border-danger bg-danger-soft text-danger' : 'border-rule-strong bg-panel text-ink-muted hover:text-ink'}`}
+        style={{ pointerEvents: 'all' }}
+        aria-label={`${isOpen ? 'Close' : 'Open'} ${words} of ${wireName}`}
+        title={`${isOpen ? 'Close' : 'Open'} the ${words} of this connection`}
+        onClick={(e) => {
+          e.stopPropagation();
+          view.toggleOpen?.(id, toggled);
+        }}
+      >
+        {phaseStyle(toggled, view.wiringStandard).label}
+        <span aria-hidden="true">{isOpen ? ' ⊘' : ' ✂'}</span>
+      </button>
+    ) : null;
+
   return (
     <>
-      {view.toggleOpen && toggled ? (
-        <EdgeLabelRenderer>
-          <button
-            type="button"
-            className={`nodrag nopan num absolute rounded-full border px-1 text-[9px] font-semibold leading-[14px] ${isOpen ? 'border-danger bg-danger-soft text-danger' : 'border-rule-strong bg-panel text-ink-muted hover:text-ink'}`}
-            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${ly}px)`, pointerEvents: 'all' }}
-            aria-label={`${isOpen ? 'Close' : 'Open'} ${words} of ${wireName}`}
-            title={`${isOpen ? 'Close' : 'Open'} the ${words} of this connection`}
-            onClick={(e) => {
-              e.stopPropagation();
-              view.toggleOpen?.(id, toggled);
-            }}
-          >
-            {phaseStyle(toggled, view.wiringStandard).label}
-            <span aria-hidden="true">{isOpen ? ' ⊘' : ' ✂'}</span>
-          </button>
-        </EdgeLabelRenderer>
-      ) : null}
       <BaseEdge id={id} path={path} style={{ stroke, strokeWidth: single ? 2 : 3.2, strokeDasharray: open.length > 0 ? '2 5' : st?.dash || undefined }} interactionWidth={16} />
       <EdgeLabelRenderer>
-        {open.length > 0 || currents.length > 0 ? (
+        {open.length > 0 || currents.length > 0 || control ? (
+          // One box per wire on its element-side leg: the one-click open control, what is open, the currents.
           <div
             className="nodrag nopan num pointer-events-none absolute rounded-[2px] border border-rule bg-panel/95 px-1 text-[10px] leading-tight"
             style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${(ly + sourceY) / 2}px)` }}
           >
             {open.length > 0 ? (
-              <div className="font-semibold text-danger">{open.map((c) => phaseStyle(c, view.wiringStandard).label).join(', ')} open</div>
-            ) : null}
+              <div className="font-semibold text-danger">
+                {control}
+                {open.map((c) => phaseStyle(c, view.wiringStandard).label).join(', ')} open
+              </div>
+            ) : (
+              control
+            )}
             {currents.map((c) => (
               <span key={c.conductor} className={`mr-1 whitespace-nowrap ${view.stale ? 'line-through opacity-60' : ''}`} style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
                 {phaseStyle(c.conductor, view.wiringStandard).label} {amps(c.mag)} A
