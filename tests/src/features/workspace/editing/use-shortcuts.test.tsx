@@ -12,7 +12,7 @@ function Harness({ readOnly, handlers }: { readOnly: boolean; handlers: Record<S
 }
 
 function handlers() {
-  return Object.fromEntries(ACTIONS.map((a) => [a, vi.fn()])) as Record<ShortcutAction, ReturnType<typeof vi.fn>>;
+  return Object.fromEntries(ACTIONS.map((a) => [a, vi.fn<() => void>()])) as Record<ShortcutAction, ReturnType<typeof vi.fn<() => void>>>;
 }
 
 describe('useShortcuts', () => {
