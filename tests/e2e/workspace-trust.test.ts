@@ -104,6 +104,17 @@ describe('the workspace shows exactly what is solved', () => {
     await expect.poll(() => props(page).getByRole('textbox', { name: /^Z1 per 1000 ft/ }).inputValue()).toBe('0.057912+j0.115824 Ω');
     await solved(page);
     expect(Math.abs((await busVolts(page, 'PMT')) - engine)).toBeLessThanOrEqual(tol);
+    // A value typed per km into data given per 1000 ft converts: the same line, the same far bus.
+    const z1 = props(page).getByRole('textbox', { name: /^Z1 per 1000 ft/ });
+    await z1.fill('0.19+j0.38 ohm/km');
+    await z1.press('Enter');
+    await expect.poll(() => z1.inputValue()).toBe('0.057912+j0.115824 Ω');
+    await solved(page);
+    expect(Math.abs((await busVolts(page, 'PMT')) - engine)).toBeLessThanOrEqual(tol);
+    // An expression in a length field.
+    await length.fill('2*400 m');
+    await length.press('Enter');
+    await expect.poll(() => length.inputValue()).toBe('800 m');
     await screenshot(page, 'trust-line-units');
     await page.close();
   });

@@ -85,7 +85,10 @@ export function ElementForm({ element: given, readOnly, onApply }: { element: Ci
 
   const apply = (values: Values) => {
     const r = check(values);
-    if (r.ok && JSON.stringify(r.next) !== JSON.stringify(given)) onApply(r.next);
+    if (!r.ok) return;
+    if (JSON.stringify(r.next) !== JSON.stringify(given)) onApply(r.next);
+    // The same value typed another way ("0.19 ohm/km" for 0.057912 Ω per 1000 ft): show it as stored.
+    else form.reset(defaults);
   };
   const submit = form.handleSubmit(apply);
 
