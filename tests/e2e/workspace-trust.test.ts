@@ -217,6 +217,12 @@ describe('the workspace shows exactly what is solved', () => {
       expect(text.y).toBeGreaterThanOrEqual(pane.y);
       expect(text.y + text.height).toBeLessThanOrEqual(pane.y + pane.height);
     }
+    // Nothing drawn for a node (symbol, name, notes) sits under the minimap after the fit.
+    for (const n of await page.locator('.react-flow__node, .react-flow__node *').all()) {
+      const b = await n.boundingBox();
+      if (!b || b.width === 0) continue;
+      expect(overlap(b, minimap)).toBe(false);
+    }
     for (const n of await page.locator('.react-flow__node [class*="text-ink-muted"]').all()) {
       const b = await n.boundingBox();
       if (!b) continue;

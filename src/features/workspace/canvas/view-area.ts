@@ -28,7 +28,7 @@ export function visibleArea(rf: Flow, container: HTMLElement | null): Viewport |
   return { view: toFlowRect(rf, inner), covered };
 }
 
-/** Fits the view to every node together with the labels drawn beside it. */
+/** Fits the view to every node together with the labels drawn beside it, above the minimap. */
 export function fitWithLabels(rf: Flow, container: HTMLElement | null, duration = 200): void {
   const nodes = rf.getNodes();
   if (nodes.length === 0) return;
@@ -55,8 +55,11 @@ export function fitWithLabels(rf: Flow, container: HTMLElement | null, duration 
     void rf.fitBounds({ x: minX, y: minY, width: w, height: h }, { padding: 0.06, duration });
     return;
   }
-  const zoom = Math.max(0.2, Math.min(MAX_FIT_ZOOM, pane.width / (w * 1.12), pane.height / (h * 1.12)));
-  void rf.setCenter(minX + w / 2, minY + h / 2, { zoom, duration });
+  // The minimap covers the bottom-right corner: fit into the height above it.
+  const mm = container?.querySelector('.react-flow__minimap')?.getBoundingClientRect();
+  const below = mm && mm.height > 0 ? pane.bottom - mm.top + 8 : 0;
+  const zoom = Math.max(0.2, Math.min(MAX_FIT_ZOOM, pane.width / (w * 1.12), (pane.height - below) / (h * 1.12)));
+  void rf.setCenter(minX + w / 2, minY + h / 2 + below / 2 / zoom, { zoom, duration });
 }
 
 /** Largest zoom a fit gives. */
