@@ -209,7 +209,18 @@ describe('the workspace shows exactly what is solved', () => {
     for (let i = 0; i < caps.length; i++) for (let j = i + 1; j < caps.length; j++) expect(overlap(caps[i], caps[j]), `CAP${i + 1} and CAP${j + 1} overlap`).toBe(false);
 
     await page.getByRole('button', { name: 'Fit view' }).click();
-    await page.waitForTimeout(400); // the fit animates over 200 ms
+    // The fit animates: wait until the viewport stops moving.
+    const transform = () => page.locator('.react-flow__viewport').evaluate((v) => (v as HTMLElement).style.transform);
+    let last = '';
+    await expect
+      .poll(async () => {
+        await page.waitForTimeout(150);
+        const now = await transform();
+        const still = now === last;
+        last = now;
+        return still;
+      }, { timeout: 15_000 })
+      .toBe(true);
     for (const k of [1, 2, 3, 4, 5, 6, 7]) {
       const text = (await page.getByText(`LOAD${k}`, { exact: true }).boundingBox())!;
       expect(text.x).toBeGreaterThanOrEqual(pane.x);
