@@ -57,8 +57,9 @@ function round(x: number): number {
 }
 
 /** The stable identity of a flag across revisions. */
-export function flagKey(f: Pick<Flag, 'code' | 'bus' | 'elementId' | 'conductor'>): string {
-  return [f.code, f.bus ?? '', f.elementId ?? '', f.conductor ?? ''].join('|');
+export function flagKey(f: Pick<Flag, 'code' | 'bus' | 'elementId' | 'conductor' | 'metric'>): string {
+  // An unbalance flag per definition: the definition is part of its identity.
+  return [f.code, f.bus ?? '', f.elementId ?? '', f.conductor ?? '', ...(f.metric ? [f.metric] : [])].join('|');
 }
 
 /** Extracts the summary from an engine result. */

@@ -36,6 +36,27 @@ export interface TransformerMeta {
   lagDeg: number;
   convention: 'iec' | 'northAmerican';
   vectorGroup: string;
+  /** HV tap in force, % of the rated ratio (three-phase banks). */
+  tapPercent?: number;
+}
+
+/** Loads: each branch's terminals and rated voltage, so results can give the voltage across the load itself. */
+export interface LoadMeta {
+  kind: 'load';
+  bus: string;
+  connection: 'wye' | 'wyeFloating' | 'delta' | 'single';
+  branches: {
+    /** Branch label ('a', 'ab', 'cn', …), as in `powerPerPhase`. */
+    key: string;
+    /** Conductors of the bus at each end ('star' for a floating wye's own star point). */
+    fromConductor: string;
+    toConductor: string;
+    fromNode: string;
+    toNode: string;
+    /** Rated voltage across the branch, V, and whether it came from the load's own rating or the bus nominal. */
+    ratedVolts?: number;
+    ratedFrom?: 'load' | 'bus';
+  }[];
 }
 
 export interface FaultMeta {
@@ -55,7 +76,7 @@ export interface Expansion {
   ports?: Port[];
   /** Block currents are reported into the element at each port, except for sources (out of the source into the bus). */
   currentDirection: 'into-element' | 'out-of-element' | 'primitive';
-  meta?: TransformerMeta | FaultMeta;
+  meta?: TransformerMeta | FaultMeta | LoadMeta;
 }
 
 /** Nominal voltages of a bus. */

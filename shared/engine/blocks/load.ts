@@ -79,16 +79,20 @@ export function expandLoad(el: LoadElement, ctx: ExpandContext): Expansion {
   // a load's own kvLL: line to line (split-phase bus: leg to leg, so leg to neutral is half of it)
   const split = ctx.splitPhase.has(el.bus);
   const nom: BusNominal | undefined = el.kvLL !== undefined ? { vLL: el.kvLL * 1000, vLN: (el.kvLL * 1000) / (split ? 2 : Math.sqrt(3)) } : nomBus;
-  let branches: { key: string; from: string; to: string; rated?: number }[];
+  const ratedFrom: 'load' | 'bus' | undefined = el.kvLL !== undefined ? 'load' : nomBus ? 'bus' : undefined;
+  let branches: { key: string; from: string; to: string; fromC: string; toC: string; rated?: number; ratedFrom?: 'load' | 'bus' }[];
   const star = el.connection === 'wyeFloating' ? `${el.id}#star` : busNode(el.bus, 'n');
   if (el.connection === 'wye' || el.connection === 'wyeFloating') {
-    branches = ['a', 'b', 'c'].map((p) => ({ key: p, from: busNode(el.bus, p), to: star, rated: nom?.vLN }));
+    const toC = el.connection === 'wye' ? 'n' : 'star';
+    branches = ['a', 'b', 'c'].map((p) => ({ key: p, from: busNode(el.bus, p), to: star, fromC: p, toC, rated: nom?.vLN, ratedFrom }));
   } else if (el.connection === 'delta') {
-    branches = [['a', 'b'], ['b', 'c'], ['c', 'a']].map(([p, q]) => ({ key: p + q, from: busNode(el.bus, p), to: busNode(el.bus, q), rated: nom?.vLL }));
+    branches = [['a', 'b'], ['b', 'c'], ['c', 'a']].map(([p, q]) => ({ key: p + q, from: busNode(el.bus, p), to: busNode(el.bus, q), fromC: p, toC: q, rated: nom?.vLL, ratedFrom }));
   } else {
     const [c1, c2] = el.between!;
     if (c1 === c2) fail(el.id, '"between" needs two different conductors');
-    branches = [{ key: `${c1}${c2}`, from: busNode(el.bus, c1), to: busNode(el.bus, c2), rated: el.ratedVolts ?? nominalBetween(nom, c1, c2) }];
+    const rated = el.ratedVolts ?? nominalBetween(nom, c1, c2);
+    const from1: 'load' | 'bus' | undefined = el.ratedVolts !== undefined ? 'load' : rated === undefined ? undefined : ratedFrom;
+    branches = [{ key: `${c1}${c2}`, from: busNode(el.bus, c1), to: busNode(el.bus, c2), fromC: c1, toC: c2, rated, ratedFrom: from1 }];
   }
   if (el.phases) {
     const keys = new Set(branches.map((b) => b.key));
@@ -109,5 +113,18 @@ export function expandLoad(el: LoadElement, ctx: ExpandContext): Expansion {
     primitives: prims,
     ports: [{ bus: el.bus, conductors, nodes: conductors.map((c) => busNode(el.bus, c)) }],
     currentDirection: 'into-element',
+    meta: {
+      kind: 'load',
+      bus: el.bus,
+      connection: el.connection,
+      branches: branches.map((b) => ({
+        key: b.key,
+        fromConductor: b.fromC,
+        toConductor: b.toC,
+        fromNode: b.from,
+        toNode: b.to,
+        ...(b.rated !== undefined ? { ratedVolts: b.rated, ...(b.ratedFrom ? { ratedFrom: b.ratedFrom } : {}) } : {}),
+      })),
+    },
   };
 }

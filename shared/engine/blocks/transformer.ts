@@ -6,6 +6,12 @@
  * (wye winding: kV_LL/√3, delta winding: kV_LL) and leakage z = (%R + j%X)/100 · V_LV,winding² / (S/3)
  * referred to the LV winding.
  *
+ * Tap (`tap: { steps, stepPercent }`, default 0): an off-load tap on the HV winding. The HV winding
+ * has (1 + steps·stepPercent/100) times its rated turns, so the ratio is n·(1 + tap%/100) and the
+ * LV voltage for a given HV voltage falls by that factor on a positive tap ((P) common practice:
+ * the tap changes the turns ratio; the leakage impedance stays as rated, referred to the LV
+ * winding, and rated winding currents stay at the rated tap).
+ *
  * Vector group: IEC 60076-1 clock notation `vectorGroup` ("Dyn11", "YNyn0", "Yd1", "Dd0", …: the LV
  * phasors lag the HV ones by clock × 30° for an ABC system), or the North American `connection`
  * ("D-Yg", "Yg-Yg", …) where the low side lags the high side by 30° for D–Y and Y–D (= IEC clock 1)
@@ -95,6 +101,11 @@ export function leakagePu(el: { percentR?: number; percentX?: number; percentZ?:
   return z;
 }
 
+/** The ratio multiplier of the HV tap, 1 + steps·stepPercent/100 (1 with no tap). */
+export function tapFactor(el: Pick<TransformerElement, 'tap'>): number {
+  return el.tap ? 1 + (el.tap.steps * el.tap.stepPercent) / 100 : 1;
+}
+
 /** Expand a three-phase bank into three unit stamps plus star-point earthing. */
 export function expandTransformer(el: TransformerElement): Expansion {
   if (el.from === el.to) throw new InvalidCircuitError(`transformer ${el.id}: "from" and "to" must be different buses`, [], { elementIds: [el.id] });
@@ -104,7 +115,7 @@ export function expandTransformer(el: TransformerElement): Expansion {
   const vLvW = arr.lv === 'wye' ? (el.kvLow * 1000) / Math.sqrt(3) : el.kvLow * 1000;
   const sUnit = (el.kva * 1000) / 3;
   const zLv = scale(leakagePu(el), (vLvW * vLvW) / sUnit);
-  const yw = twoWindingY(zLv, vHvW / vLvW);
+  const yw = twoWindingY(zLv, (vHvW / vLvW) * tapFactor(el));
   const hvStar = arr.hvNeutralOut ? busNode(el.from, 'n') : `${el.id}#hvStar`;
   const lvStar = arr.lvNeutralOut ? busNode(el.to, 'n') : `${el.id}#lvStar`;
   const hvNode = (i: number) => (i === 3 ? hvStar : busNode(el.from, PH[i]));
@@ -137,6 +148,6 @@ export function expandTransformer(el: TransformerElement): Expansion {
       { bus: el.to, conductors: lvC, nodes: lvC.map((c) => busNode(el.to, c)) },
     ],
     currentDirection: 'into-element',
-    meta: { kind: 'transformer', windings, lagDeg: 30 * arr.clock, convention: arr.convention, vectorGroup: arr.label },
+    meta: { kind: 'transformer', windings, lagDeg: 30 * arr.clock, convention: arr.convention, vectorGroup: arr.label, ...(el.tap ? { tapPercent: el.tap.steps * el.tap.stepPercent } : {}) },
   };
 }

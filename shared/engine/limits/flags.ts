@@ -1,7 +1,62 @@
-/** Flags: bus voltages, unbalance, neutral shift and transformer loading against a limit set. */
+/** Flags: bus voltages, load terminal voltages, unbalance, neutral shift and transformer loading against a limit set. */
 import type { FloatingIsland } from '../types.ts';
-import type { BusResult, ElementResult, Flag } from '../results/types.ts';
-import type { LimitSet } from './limit-sets.ts';
+import type { BusResult, ElementResult, Flag, LoadResult, NeutralCause } from '../results/types.ts';
+import { UNBALANCE_METRICS, type LimitSet, type UnbalanceMetric } from './limit-sets.ts';
+
+/** Names of the unbalance definitions, as flags and reports word them. */
+export const UNBALANCE_NAMES: Record<UnbalanceMetric, string> = { iec: 'IEC |V2|/|V1|', nema: 'line-voltage (NEMA)', ieee: 'phase-voltage (IEEE)' };
+
+/** Value of one unbalance definition at a bus, %. */
+export function unbalanceOf(bus: BusResult, metric: UnbalanceMetric): number | undefined {
+  return metric === 'iec' ? bus.iecUnbalancePercent : metric === 'nema' ? bus.nemaUnbalancePercent : bus.ieeeUnbalancePercent;
+}
+
+/** What a neutral shift means, by its cause (see results/neutral-cause.ts). */
+export function neutralCauseWords(cause: NeutralCause | undefined, openAt: readonly string[] = []): string {
+  switch (cause) {
+    case 'open-neutral':
+      return `the neutral is open upstream (${openAt.join(', ')}): the loads' star point has moved, so some loads see far more than their rating and others far less`;
+    case 'floating-neutral':
+      return "this bus's neutral is not joined to any source neutral (a floating neutral): the loads' star point is free to move";
+    case 'fault':
+      return "the fault in this study drives current through the neutral and earth paths; this is the fault's effect, not a lost neutral";
+    case 'unbalance':
+      return 'the neutral is intact; unbalanced load current through the neutral conductor and earthing raises it: check the neutral size, length and earthing';
+    default:
+      return 'check the neutral path';
+  }
+}
+
+/** Branch of a load in words: "c–n", "a to its own star point". */
+function branchWords(fromC: string, toC: string): string {
+  return toC === 'star' ? `${fromC} to its own star point` : `${fromC}–${toC}`;
+}
+
+/** Flags of loads whose own terminal voltage is outside the limit set's bands (pu of the load's rating). */
+function loadVoltageFlags(loads: readonly LoadResult[], limits: LimitSet): Flag[] {
+  const flags: Flag[] = [];
+  for (const l of loads) {
+    for (const b of l.branches) {
+      if (b.pu === undefined || b.ratedVolts === undefined || b.status === 'ok' || b.status === 'unrated') continue;
+      const severity: Flag['severity'] = b.status.startsWith('violation') ? 'violation' : 'warning';
+      const high = b.status.endsWith('high');
+      const band = severity === 'violation' ? limits.voltageViolationPu : limits.voltageWarningPu;
+      const limit = high ? band[1] : band[0];
+      const what = l.branches.length > 1 ? `load ${l.id} (${branchWords(b.fromConductor, b.toConductor)})` : `load ${l.id}`;
+      flags.push({
+        severity,
+        code: high ? 'load-voltage-high' : 'load-voltage-low',
+        elementId: l.id,
+        conductor: b.branch,
+        value: b.voltage.mag,
+        limit: limit * b.ratedVolts,
+        unit: 'V',
+        message: `${what} has ${f1(b.voltage.mag)} V across its terminals = ${f3(b.pu)} pu of its ${f1(b.ratedVolts)} V rating, ${high ? 'above' : 'below'} the ${severity} limit ${f3(limit)} pu`,
+      });
+    }
+  }
+  return flags;
+}
 
 const f3 = (x: number) => x.toFixed(3);
 const f1 = (x: number) => x.toFixed(1);
@@ -58,8 +113,9 @@ export interface LowVoltageLoadBranch {
 }
 
 /** All flags for the buses and elements of a result. */
-export function computeFlags(buses: BusResult[], elements: ElementResult[], floating: FloatingIsland[], limits: LimitSet, lowVoltageLoads: readonly LowVoltageLoadBranch[] = []): Flag[] {
+export function computeFlags(buses: BusResult[], elements: ElementResult[], floating: FloatingIsland[], limits: LimitSet, lowVoltageLoads: readonly LowVoltageLoadBranch[] = [], loads: readonly LoadResult[] = []): Flag[] {
   const flags: Flag[] = [];
+  flags.push(...loadVoltageFlags(loads, limits));
   // A ZIP load below the threshold no longer draws its stated constant-current / constant-power
   // share: the solver turned those parts into constant impedance there (common practice (P),
   // default 0.7 pu), so its power is less than asked for. Say so next to the load.
@@ -78,21 +134,24 @@ export function computeFlags(buses: BusResult[], elements: ElementResult[], floa
   }
   for (const bus of buses) {
     flags.push(...voltageFlags(bus, limits));
-    const u = limits.unbalanceMetric === 'iec' ? bus.iecUnbalancePercent : limits.unbalanceMetric === 'nema' ? bus.nemaUnbalancePercent : bus.ieeeUnbalancePercent;
-    if (u !== undefined && Number.isFinite(u) && u > limits.unbalancePercent) {
-      const name = limits.unbalanceMetric === 'iec' ? 'IEC |V2|/|V1|' : limits.unbalanceMetric === 'nema' ? 'line-voltage (NEMA)' : 'phase-voltage (IEEE)';
-      flags.push({ severity: 'warning', code: 'unbalance', bus: bus.bus, value: u, limit: limits.unbalancePercent, unit: '%', message: `bus ${bus.bus}: ${name} unbalance ${u.toFixed(2)} % exceeds ${limits.unbalancePercent} %` });
+    // Every definition against its own limit, the set's own definition first.
+    for (const metric of [limits.unbalanceMetric, ...UNBALANCE_METRICS.filter((m) => m !== limits.unbalanceMetric)]) {
+      const u = unbalanceOf(bus, metric);
+      const limit = limits.unbalanceLimits[metric];
+      if (u === undefined || !(u > limit)) continue;
+      flags.push({ severity: 'warning', code: 'unbalance', metric, bus: bus.bus, value: u, limit, unit: '%', message: `bus ${bus.bus}: ${UNBALANCE_NAMES[metric]} unbalance ${Number.isFinite(u) ? u.toFixed(2) : u} % exceeds ${limit} %` });
     }
     if (!bus.floating && bus.neutralShiftPercent !== undefined && bus.neutralShiftPercent > limits.neutralShiftPercent) {
       flags.push({
         severity: 'warning',
         code: 'neutral-shift',
+        ...(bus.neutralCause ? { cause: bus.neutralCause } : {}),
         bus: bus.bus,
         conductor: 'n',
         value: bus.neutralShiftPercent,
         limit: limits.neutralShiftPercent,
         unit: '%',
-        message: `bus ${bus.bus}: neutral-to-earth voltage ${f1(bus.neutralToEarth!.mag)} V is ${bus.neutralShiftPercent.toFixed(1)} % of nominal (limit ${limits.neutralShiftPercent} %): check for a lost or high-impedance neutral`,
+        message: `bus ${bus.bus}: neutral-to-earth voltage ${f1(bus.neutralToEarth!.mag)} V is ${bus.neutralShiftPercent.toFixed(1)} % of nominal (limit ${limits.neutralShiftPercent} %): ${neutralCauseWords(bus.neutralCause, bus.neutralOpenAt)}`,
       });
     }
   }

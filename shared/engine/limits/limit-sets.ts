@@ -7,12 +7,20 @@
  *   unbalance (ANSI C84.1 annex on voltage unbalance, which uses the max-deviation definition).
  * - IEC/EN: ±10 % of nominal (EN 50160 supply voltage variation; M) → violation; negative-sequence
  *   unbalance |V2|/|V1| within 2 % (EN 50160 (V); IEC 61000-2-2 compatibility level (M)).
+ * Every unbalance definition (IEC |V2|/|V1|, NEMA line-voltage, IEEE phase-voltage) is checked
+ * against its own limit (`unbalanceLimits`): the set's figure for each unless one is given per
+ * definition (P: the set's one figure applied to each definition; no standard states a separate
+ * phase-voltage figure). A bus is within only when every definition is.
  * Neutral shift (neutral-to-earth voltage above 10 % of nominal V_LN) and transformer loading
  * above 100 % are warnings in both sets (P: common practice, no standard number).
  */
 import type { LimitsInput } from '../schema/circuit.ts';
 import { limitsSchema } from '../schema/circuit.ts';
 import { InvalidCircuitError } from '../errors.ts';
+
+/** Unbalance definitions: IEC |V2|/|V1|, NEMA line-voltage, IEEE phase-voltage. */
+export type UnbalanceMetric = 'iec' | 'nema' | 'ieee';
+export const UNBALANCE_METRICS: readonly UnbalanceMetric[] = ['iec', 'nema', 'ieee'];
 
 /** A resolved limit set. */
 export interface LimitSet {
@@ -22,8 +30,11 @@ export interface LimitSet {
   voltageWarningPu: [number, number];
   /** [low, high] pu: outside → violation. */
   voltageViolationPu: [number, number];
-  unbalanceMetric: 'nema' | 'iec' | 'ieee';
+  /** The definition the set is stated in, and its figure. */
+  unbalanceMetric: UnbalanceMetric;
   unbalancePercent: number;
+  /** The limit each unbalance definition is checked against, %. */
+  unbalanceLimits: Record<UnbalanceMetric, number>;
   neutralShiftPercent: number;
   loadingPercent: number;
 }
@@ -35,6 +46,7 @@ export const ANSI_C84_1: LimitSet = {
   voltageViolationPu: [110 / 120, 127 / 120],
   unbalanceMetric: 'nema',
   unbalancePercent: 3,
+  unbalanceLimits: { iec: 3, nema: 3, ieee: 3 },
   neutralShiftPercent: 10,
   loadingPercent: 100,
 };
@@ -46,6 +58,7 @@ export const IEC_EN: LimitSet = {
   voltageViolationPu: [0.9, 1.1],
   unbalanceMetric: 'iec',
   unbalancePercent: 2,
+  unbalanceLimits: { iec: 2, nema: 2, ieee: 2 },
   neutralShiftPercent: 10,
   loadingPercent: 100,
 };
@@ -59,12 +72,16 @@ export function resolveLimits(...layers: (LimitsInput | undefined)[]): LimitSet 
     if (!parsed.success) throw new InvalidCircuitError(`invalid limits: ${parsed.error.issues[0].message}`, parsed.error.issues.map((i) => ({ path: `limits.${i.path.join('.')}`, message: i.message })));
     const l = parsed.data;
     const base = layer.set !== undefined ? (l.set === 'iec-en' ? IEC_EN : ANSI_C84_1) : out;
+    const unbalancePercent = l.unbalancePercent ?? base.unbalancePercent;
+    const sameFigure = l.unbalancePercent !== undefined ? { iec: unbalancePercent, nema: unbalancePercent, ieee: unbalancePercent } : base.unbalanceLimits;
+    const unbalanceLimits = { ...sameFigure, ...Object.fromEntries(Object.entries(l.unbalancePercentByMetric ?? {}).filter(([, v]) => v !== undefined)) } as Record<UnbalanceMetric, number>;
     out = {
       ...base,
+      unbalanceLimits,
       ...(l.voltageWarningPu ? { voltageWarningPu: l.voltageWarningPu } : {}),
       ...(l.voltageViolationPu ? { voltageViolationPu: l.voltageViolationPu } : {}),
       ...(l.unbalanceMetric ? { unbalanceMetric: l.unbalanceMetric } : {}),
-      ...(l.unbalancePercent !== undefined ? { unbalancePercent: l.unbalancePercent } : {}),
+      unbalancePercent: unbalanceLimits[l.unbalanceMetric ?? base.unbalanceMetric],
       ...(l.neutralShiftPercent !== undefined ? { neutralShiftPercent: l.neutralShiftPercent } : {}),
       ...(l.loadingPercent !== undefined ? { loadingPercent: l.loadingPercent } : {}),
     };

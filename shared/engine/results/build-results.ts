@@ -13,6 +13,8 @@ import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/un
 import type { LimitSet } from '../limits/limit-sets.ts';
 import { computeFlags, type LowVoltageLoadBranch } from '../limits/flags.ts';
 import { terminalCurrents } from './terminal-currents.ts';
+import { neutralCauses } from './neutral-cause.ts';
+import { loadResults } from './load-results.ts';
 import type { BusResult, CircuitResult, ElementResult, FaultResult, SequenceResult } from './types.ts';
 
 const seqPhasors = (s: SequenceComponents): SequenceResult => ({ zero: toPhasor(s.zero), positive: toPhasor(s.positive), negative: toPhasor(s.negative) });
@@ -88,6 +90,7 @@ export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: Pri
       r.iecUnbalancePercent = iecUnbalancePercent(s.positive, s.negative);
       r.nemaUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToLine).map((v) => v.mag));
       r.ieeeUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToNeutral).map((v) => v.mag));
+      if (hasN) r.sequenceToNeutral = seqPhasors(sequenceComponents(sub(V(bus, 'a'), vn), sub(V(bus, 'b'), vn), sub(V(bus, 'c'), vn), ctx.sequence));
     }
     out.push(r);
   }
@@ -204,7 +207,9 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
   if (e.ports) {
     ports = e.ports.map((p) => {
       const cs = p.nodes.map((n) => scale(into.get(n) ?? ZERO, sign));
-      return { ...(p.bus ? { bus: p.bus } : {}), conductors: p.conductors, nodes: p.nodes, currents: cs.map(toPhasor) };
+      const [ka, kb, kc] = ['a', 'b', 'c'].map((c) => p.conductors.indexOf(c));
+      const seq = ka >= 0 && kb >= 0 && kc >= 0 ? { sequence: seqPhasors(sequenceComponents(cs[ka], cs[kb], cs[kc], sequence)) } : {};
+      return { ...(p.bus ? { bus: p.bus } : {}), conductors: p.conductors, nodes: p.nodes, currents: cs.map(toPhasor), ...seq };
     });
     currents = e.ports.flatMap((p) => p.nodes.map((n) => scale(into.get(n) ?? ZERO, sign)));
   } else {
@@ -251,6 +256,7 @@ function elementResult(e: Expansion, sol: PrimitiveSolution, sequence: 'ABC' | '
     }
     result.loadingPercent = 100 * worst;
     result.phaseShift = { convention: e.meta.convention, vectorGroup: e.meta.vectorGroup, lvLagsHvDeg: e.meta.lagDeg };
+    if (e.meta.tapPercent !== undefined) result.tapPercent = e.meta.tapPercent;
   }
   return { result, absorbed, emf, internalLoss };
 }
@@ -318,8 +324,8 @@ export function resultConventions(sequence: 'ABC' | 'ACB'): CircuitResult['conve
     sequence,
     sequenceComponents:
       sequence === 'ABC'
-        ? 'a = 1∠120°: X0 = (Xa+Xb+Xc)/3, X1 = (Xa+aXb+a²Xc)/3, X2 = (Xa+a²Xb+aXc)/3; bus sequence voltages are of the phase-to-earth voltages'
-        : 'ACB system: positive sequence is the system rotation, X1 = (Xa+a²Xb+aXc)/3, X2 = (Xa+aXb+a²Xc)/3 (a = 1∠120°); bus sequence voltages are of the phase-to-earth voltages',
+        ? 'a = 1∠120°: X0 = (Xa+Xb+Xc)/3, X1 = (Xa+aXb+a²Xc)/3, X2 = (Xa+a²Xb+aXc)/3; bus sequence voltages are given of the phase-to-earth voltages and of the line-to-neutral voltages (relative to the bus neutral)'
+        : 'ACB system: positive sequence is the system rotation, X1 = (Xa+a²Xb+aXc)/3, X2 = (Xa+aXb+a²Xc)/3 (a = 1∠120°); bus sequence voltages are given of the phase-to-earth voltages and of the line-to-neutral voltages (relative to the bus neutral)',
     transformerShift: 'per transformer (phaseShift): IEC clock number (LV lags HV by clock × 30° in an ABC system) or the North American rule (LV lags HV by 30° for D–Y and Y–D)',
   };
 }
@@ -330,6 +336,14 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
   for (const [n, v] of sol.nodeVolts) nodes[n] = toPhasor(v);
   const floatingNodes = new Set(sol.floating.flatMap((f) => f.nodes));
   const buses = busResults(ctx, expansions, sol, floatingNodes);
+  const causes = neutralCauses(circuit, buses.filter((b) => b.conductors.includes('n')).map((b) => b.bus));
+  for (const b of buses) {
+    const c = causes.get(b.bus);
+    if (!c) continue;
+    b.neutralCause = c.cause;
+    if (c.openAt) b.neutralOpenAt = c.openAt;
+  }
+  const loads = loadResults(expansions, sol.nodeVolts, limits);
   const works = expansions.map((e) => elementResult(e, sol, ctx.sequence));
   const totals = new TotalsSum();
   for (const w of works) totals.add(w.result.category, w);
@@ -360,10 +374,11 @@ export function buildResults(circuit: Circuit, ctx: ExpandContext, expansions: E
     nodes,
     buses,
     elements,
+    loads,
     faults,
     totals: totals.result(sol.maxKclResidualAmps),
     floating: sol.floating,
-    flags: computeFlags(buses, elementList, sol.floating, limits, lowVoltageLoadBranches(expansions, sol)),
+    flags: computeFlags(buses, elementList, sol.floating, limits, lowVoltageLoadBranches(expansions, sol), loads),
     limits,
     iterations: sol.iterations,
   };

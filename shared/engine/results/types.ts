@@ -37,6 +37,22 @@ export interface BusResult {
   neutralShiftPercent?: number;
   /** Sequence components of the phase-to-earth voltages (three-phase buses with a, b, c). */
   sequence?: SequenceResult;
+  /**
+   * Sequence components of the line-to-neutral voltages, relative to this bus's neutral (three-phase
+   * buses with a, b, c and n). With the neutral shifted these differ from `sequence` by V0 only:
+   * V0(to neutral) = V0(to earth) − V(n-earth), while V1 and V2 are the same.
+   */
+  sequenceToNeutral?: SequenceResult;
+  /**
+   * Why this bus's neutral sits where it does (buses with a neutral): 'open-neutral' when its
+   * neutral is cut off from every source neutral by an opened neutral conductor (`neutralOpenAt`
+   * names the lines or switches), 'floating-neutral' when it was never joined to one, 'fault' when
+   * it is joined and the study has a fault, 'unbalance' when it is joined and the shift is the
+   * unbalanced load current through the neutral path.
+   */
+  neutralCause?: NeutralCause;
+  /** Lines and switches whose neutral conductor is open at the edge of this bus's neutral ('open-neutral'). */
+  neutralOpenAt?: string[];
   /** IEC unbalance factor |V2|/|V1|, %. */
   iecUnbalancePercent?: number;
   /** Line-voltage unbalance (NEMA MG 1 definition), %. */
@@ -47,12 +63,44 @@ export interface BusResult {
   floating: boolean;
 }
 
+/** What holds (or fails to hold) a bus's neutral; see `BusResult.neutralCause`. */
+export type NeutralCause = 'open-neutral' | 'floating-neutral' | 'fault' | 'unbalance';
+
 /** Currents of a block at one bus connection. */
 export interface PortResult {
   bus?: string;
   conductors: string[];
   nodes: string[];
   currents: Phasor[];
+  /** Sequence components of the phase currents a, b, c at this port (ports with all three). */
+  sequence?: SequenceResult;
+}
+
+/** The voltage across one branch of a load, at its own terminals. */
+export interface LoadBranchResult {
+  /** Branch label: 'a' (wye phase to its star point), 'ab' (delta), 'cn' (single-phase between c and n). */
+  branch: string;
+  /** Conductors at the load's connection ('star' for the own star point of a floating wye). */
+  fromConductor: string;
+  toConductor: string;
+  /** V(from) − V(to), RMS. */
+  voltage: Phasor;
+  /** Rated voltage of the branch, V: from the load's own rating (kvLL, ratedVolts) or the bus nominal. */
+  ratedVolts?: number;
+  ratedFrom?: 'load' | 'bus';
+  /** |voltage| / ratedVolts. */
+  pu?: number;
+  /** Against the limit set's voltage bands, in pu of the branch's rating. */
+  status: 'ok' | 'warning-high' | 'warning-low' | 'violation-high' | 'violation-low' | 'unrated';
+}
+
+/** Per load: the voltage across each of its branches. */
+export interface LoadResult {
+  id: string;
+  /** The bus the load is connected to (as the circuit names it). */
+  bus: string;
+  connection: 'wye' | 'wyeFloating' | 'delta' | 'single';
+  branches: LoadBranchResult[];
 }
 
 /** Per-element results. */
@@ -85,6 +133,8 @@ export interface ElementResult {
   loadingPercent?: number;
   /** Transformers: the phase shift in force. */
   phaseShift?: { convention: 'iec' | 'northAmerican'; vectorGroup: string; lvLagsHvDeg: number };
+  /** Three-phase banks with a tap: the HV tap in force, % of the rated ratio. */
+  tapPercent?: number;
 }
 
 /** Fault results. */
@@ -103,7 +153,11 @@ export interface FaultResult {
 /** A result outside a limit. */
 export interface Flag {
   severity: 'info' | 'warning' | 'violation';
-  code: 'voltage-low' | 'voltage-high' | 'unbalance' | 'neutral-shift' | 'overload' | 'floating' | 'load-low-voltage';
+  code: 'voltage-low' | 'voltage-high' | 'unbalance' | 'neutral-shift' | 'overload' | 'floating' | 'load-low-voltage' | 'load-voltage-high' | 'load-voltage-low';
+  /** Unbalance flags: the definition that is over its limit. */
+  metric?: 'iec' | 'nema' | 'ieee';
+  /** Neutral-shift flags: the cause (see `BusResult.neutralCause`). */
+  cause?: NeutralCause;
   bus?: string;
   elementId?: string;
   conductor?: string;
@@ -142,6 +196,8 @@ export interface CircuitResult {
   nodes: Record<string, Phasor>;
   buses: BusResult[];
   elements: Record<string, ElementResult>;
+  /** Per load, the voltage across its own terminals against its rating. */
+  loads: LoadResult[];
   faults: FaultResult[];
   totals: Totals;
   floating: FloatingIsland[];

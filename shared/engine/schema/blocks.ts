@@ -135,6 +135,14 @@ export const transformerSchema = z
     xOverR: posNum.optional(),
     hvEarthing: earthingSchema.optional(),
     lvEarthing: earthingSchema.optional(),
+    tap: z
+      .strictObject({
+        steps: z.number().int('tap steps must be a whole number').min(-32).max(32).default(0),
+        stepPercent: posNum.max(10).default(2.5),
+      })
+      .refine((t) => Math.abs(t.steps * t.stepPercent) < 50, { message: 'the tap position must stay within ±50 % of the rated ratio' })
+      .optional()
+      .meta({ description: 'Off-load tap on the HV winding: steps × stepPercent % (default 0). The HV winding turns, and so the HV:LV ratio, change by (1 + steps·stepPercent/100); a positive tap lowers the LV voltage for a given HV voltage.' }),
   })
   .refine((t) => (t.vectorGroup === undefined) !== (t.connection === undefined), {
     message: 'give exactly one of "vectorGroup" (IEC clock notation) or "connection" (North American rule)',

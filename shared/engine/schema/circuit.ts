@@ -43,8 +43,12 @@ export const limitsSchema = z.strictObject({
   set: z.enum(['ansi-c84.1', 'iec-en']).default('ansi-c84.1'),
   voltageWarningPu: puRange.optional().meta({ description: 'Voltage band [low, high] in pu of nominal outside which a warning is raised.' }),
   voltageViolationPu: puRange.optional().meta({ description: 'Voltage band [low, high] in pu of nominal outside which a violation is raised.' }),
-  unbalancePercent: nonNegNum.optional(),
-  unbalanceMetric: z.enum(['nema', 'iec', 'ieee']).optional(),
+  unbalancePercent: nonNegNum.optional().meta({ description: 'Unbalance limit, %, for every definition not given its own in "unbalancePercentByMetric".' }),
+  unbalanceMetric: z.enum(['nema', 'iec', 'ieee']).optional().meta({ description: 'The definition the limit set is stated in (named first in reports).' }),
+  unbalancePercentByMetric: z
+    .strictObject({ iec: nonNegNum.optional(), nema: nonNegNum.optional(), ieee: nonNegNum.optional() })
+    .optional()
+    .meta({ description: 'Own unbalance limit, %, per definition: iec |V2|/|V1|, nema line-voltage, ieee phase-voltage.' }),
   neutralShiftPercent: nonNegNum.optional().meta({ description: 'Neutral-to-earth voltage in % of nominal line-to-neutral above which a warning is raised.' }),
   loadingPercent: nonNegNum.optional().meta({ description: 'Transformer loading above which a warning is raised.' }),
 });

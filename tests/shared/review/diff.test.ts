@@ -119,7 +119,8 @@ describe('diffRevisions', () => {
     expect(drop.text).toMatch(/^neutral current at HOUSE \(DROP\): 0\.0 A → \d+\.\d A$/);
     // Results put neutral currents first, as a lost-neutral review reads them.
     expect(d.results[0].kind).toBe('neutral-current');
-    expect(d.flags.removed.map((f) => f.code).sort()).toEqual(['neutral-shift', 'voltage-high', 'voltage-high', 'voltage-low']);
+    // Bus phases a and c high, b low; the three loads' own terminal voltages; phase-voltage unbalance.
+    expect(d.flags.removed.map((f) => f.code).sort()).toEqual(['load-voltage-high', 'load-voltage-high', 'load-voltage-low', 'neutral-shift', 'unbalance', 'voltage-high', 'voltage-high', 'voltage-low']);
     expect(d.flags.added).toEqual([]);
   });
 
