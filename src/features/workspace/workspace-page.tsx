@@ -51,6 +51,7 @@ import { PropertyPanel, type Selection } from './properties/property-panel.tsx';
 import { SettingsDialog } from './properties/settings-dialog.tsx';
 import { CasesCompare } from './results/cases-compare.tsx';
 import { ResultsPanel } from './results/results-panel.tsx';
+import { NeutralHazardAlert } from './results/neutral-alert.tsx';
 import { conflictOf, useStudySave } from './save-study.ts';
 import { useWorkspaceSolve } from './solve/use-workspace-solve.ts';
 
@@ -381,7 +382,9 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
               <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
                 Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
               </p>
-            ) : null}
+            ) : (
+              <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
+            )}
             {doc.nodes.length === 0 ? (
               <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
                 {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}

@@ -8,6 +8,7 @@ import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { busConductors, type BusNode } from '../model/types.ts';
 import { useCanvasView } from './canvas-context.tsx';
+import { BusPhaseVoltages, flagWords, severitySign } from '../results/diagram-marks.tsx';
 
 export const BUS_WIDTH = 260;
 const HANDLE = 'h-3! w-3! rounded-full! border-2! border-panel!';
@@ -29,11 +30,7 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
         {ov ? (
           <div className={`num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`} data-stale={view.stale || undefined} title={view.stale ? 'Stale: from before the last edit, which cannot be solved' : undefined}>
             {view.stale ? <span className="font-semibold text-caution no-underline">stale</span> : null}
-            {Object.entries(ov.vln).map(([ph, v]) => (
-              <span key={ph}>
-                {phaseStyle(ph, view.wiringStandard).label} {fmt(v)} V
-              </span>
-            ))}
+            <BusPhaseVoltages overlay={ov} standard={view.wiringStandard} />
             {ov.neutralShiftV !== undefined ? (
               <span className={`rounded-[2px] px-1 font-semibold ${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10 ? 'bg-danger-soft text-danger' : 'bg-sunken text-ink'}`} title="Neutral-to-earth voltage (neutral shift)">
                 N–E {fmt(ov.neutralShiftV)} V
@@ -44,7 +41,7 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
         ) : null}
         {flag ? (
           <span className={`ml-auto rounded-[2px] px-1 text-[11px] font-semibold ${flag.severity === 'violation' ? 'bg-danger-soft text-danger' : flag.severity === 'warning' ? 'bg-caution-soft text-caution' : 'bg-sunken text-ink-muted'}`} title={flag.message}>
-            {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
+            {severitySign(flag.severity)} {flagWords(flag)}
           </span>
         ) : null}
       </div>

@@ -9,6 +9,7 @@ import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { elementPorts, type PortSide } from '../model/ports.ts';
 import type { ElementNode } from '../model/types.ts';
 import { useCanvasView, type CanvasView } from './canvas-context.tsx';
+import { flagWords, LoadVoltageNote, severitySign } from '../results/diagram-marks.tsx';
 import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
 
 const POSITION: Record<PortSide, Position> = { top: Position.Top, bottom: Position.Bottom, left: Position.Left, right: Position.Right };
@@ -90,10 +91,11 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
           {elementSummary(view.wiredOf[id] ?? el, view.wiredOf[id] !== undefined)}
         </div>
         {view.shifts[id] !== undefined ? <ShiftNote shift={view.shifts[id]} /> : null}
+        <LoadVoltageNote overlay={ov} standard={view.wiringStandard} />
         {ov?.loadingPercent !== undefined ? <div className={`num text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`}>{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
         {flag ? (
           <div className={`font-semibold ${view.stale ? 'line-through opacity-60 ' : ''}${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
-            {flag.severity === 'violation' ? '✖' : flag.severity === 'warning' ? '▲' : 'ⓘ'} {flag.code}
+            {severitySign(flag.severity)} {flagWords(flag)}
           </div>
         ) : null}
       </div>

@@ -297,6 +297,11 @@ export function elementFields(el: CircuitElementInput): FieldSpec[] {
       ];
       if (el.connection !== undefined) f.push({ kind: 'select', path: 'connection', label: 'Connection (North American rule)', options: NA_CONNECTIONS.map((c) => ({ value: c, label: c })) });
       else f.push({ kind: 'text', path: 'vectorGroup', label: 'Vector group (IEC clock)' });
+      // Off-load tap on the HV winding: the ratio changes by (1 + steps·step/100); + lowers the LV voltage.
+      f.push(
+        { kind: 'quantity', path: 'tap.steps', label: 'Tap position, HV winding (steps; + lowers LV)', dimension: 'ratio', unit: '', optional: true },
+        { kind: 'quantity', path: 'tap.stepPercent', label: 'Tap step', dimension: 'percent', unit: '%', optional: true },
+      );
       return [...f, ...leakage(el)];
     }
     case 'splitPhaseTransformer':

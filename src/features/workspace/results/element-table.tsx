@@ -1,4 +1,7 @@
-/** The "Element currents" table: conductor currents at each element's first connection, power, losses, loading. */
+/**
+ * The "Element currents" table: conductor currents at each element's first connection (both sides
+ * of a transformer bank, one row each), power, losses, loading, flags.
+ */
 import { useMemo } from 'react';
 import type { CircuitResult, ElementResult, Phasor } from '../../../../shared/engine/index.ts';
 import { PhasorCell } from './bus-table.tsx';
@@ -19,55 +22,129 @@ export function firstPortCurrent(e: ElementResult, conductor: string): Phasor | 
 
 const buses = (e: ElementResult) => [...new Set((e.ports ?? []).map((p) => p.bus).filter((b): b is string => !!b))];
 
-function elementColumns(result: CircuitResult, standard: WiringStandard): ResultColumn<ElementResult>[] {
-  const all = Object.values(result.elements);
-  const present = CONDUCTORS.filter((c) => all.some((e) => firstPortCurrent(e, c)));
-  const flagsOf = (e: ElementResult) => result.flags.filter((f) => f.elementId === e.id);
-  const num = (id: string, header: string, unit: string, get: (e: ElementResult) => number | undefined, digits?: number): ResultColumn<ElementResult> => ({
-    id,
-    header: `${header} (${unit})`,
-    numeric: true,
-    sortValue: get,
-    render: (e) => formatValue(get(e), unit, digits),
-    tsvHeader: [`${header} (${unit})`],
-    tsv: (e) => [get(e)?.toString() ?? ''],
+/** Element kinds in words (never the file format's type names). */
+export const TYPE_WORDS: Record<string, string> = {
+  source: 'Source',
+  splitPhaseSource: 'Split-phase source',
+  line: 'Line / cable',
+  transformer: 'Transformer bank',
+  splitPhaseTransformer: 'Single-phase transformer',
+  load: 'Load',
+  capacitorBank: 'Capacitor bank',
+  switch3: 'Switch',
+  earthing: 'Earth electrode',
+  fault: 'Fault',
+};
+export const typeWords = (type: string): string => TYPE_WORDS[type] ?? 'Network element';
+
+const TWO_SIDED = new Set(['transformer', 'splitPhaseTransformer']);
+
+/** Which side of an element a port is: "HV side (PMT)", "LV side (PM208)"; for others its bus. */
+export function sideLabel(e: ElementResult, port: number): string {
+  const bus = e.ports?.[port]?.bus;
+  if (TWO_SIDED.has(e.type)) return `${port === 0 ? (e.type === 'transformer' ? 'HV side' : 'Primary') : e.type === 'transformer' ? 'LV side' : 'Secondary'}${bus ? ` (${bus})` : ''}`;
+  return bus ?? '—';
+}
+
+/** One row of the table: an element at one of its connections. */
+export interface ElementRow {
+  rowId: string;
+  e: ElementResult;
+  port: number;
+}
+
+/** Rows: one per element, two for a transformer (HV and LV sides). */
+export function elementRows(result: CircuitResult): ElementRow[] {
+  return Object.values(result.elements).flatMap((e) => {
+    const rows: ElementRow[] = [{ rowId: e.id, e, port: 0 }];
+    if (TWO_SIDED.has(e.type) && (e.ports?.length ?? 0) > 1) rows.push({ rowId: `${e.id}\u0000lv`, e, port: 1 });
+    return rows;
   });
-  const phasor = (id: string, header: string, get: (e: ElementResult) => Phasor | undefined): ResultColumn<ElementResult> => ({
+}
+
+function portCurrent(e: ElementResult, port: number, conductor: string): Phasor | undefined {
+  const p = e.ports?.[port];
+  if (!p) return undefined;
+  const i = p.conductors.indexOf(conductor);
+  return i >= 0 ? p.currents[i] : undefined;
+}
+
+function elementColumns(result: CircuitResult, standard: WiringStandard): ResultColumn<ElementRow>[] {
+  const all = elementRows(result);
+  const present = CONDUCTORS.filter((c) => all.some((r) => portCurrent(r.e, r.port, c)));
+  const flagsOf = (e: ElementResult) => result.flags.filter((f) => f.elementId === e.id);
+  // Power, losses, loading and flags belong to the element: shown once, on its first row.
+  const num = (id: string, header: string, unit: string, getE: (e: ElementResult) => number | undefined, digits?: number): ResultColumn<ElementRow> => {
+    const get = (r: ElementRow) => (r.port === 0 ? getE(r.e) : undefined);
+    return {
+      id,
+      header: `${header} (${unit})`,
+      numeric: true,
+      sortValue: get,
+      render: (r) => (r.port === 0 ? formatValue(get(r), unit, digits) : ''),
+      tsvHeader: [`${header} (${unit})`],
+      tsv: (r) => [get(r)?.toString() ?? ''],
+    };
+  };
+  const phasor = (id: string, header: string, get: (r: ElementRow) => Phasor | undefined): ResultColumn<ElementRow> => ({
     id,
     header: `${header} (A∠°)`,
     numeric: true,
-    sortValue: (e) => get(e)?.mag,
-    render: (e) => <PhasorCell p={get(e)} />,
+    sortValue: (r) => get(r)?.mag,
+    render: (r) => <PhasorCell p={get(r)} />,
     tsvHeader: [`${header} |I| (A)`, `${header} angle (°)`],
-    tsv: (e) => {
-      const p = get(e);
+    tsv: (r) => {
+      const p = get(r);
       return p ? [String(p.mag), String(p.angleDeg)] : ['', ''];
     },
   });
+  const first = (r: ElementRow) => r.port === 0;
   return [
-    { id: 'id', header: 'Element', sortValue: (e) => e.id, render: (e) => <span className="font-semibold">{e.id}</span>, tsvHeader: ['Element'], tsv: (e) => [e.id] },
-    { id: 'type', header: 'Type', sortValue: (e) => e.type, render: (e) => e.type, tsvHeader: ['Type'], tsv: (e) => [e.type] },
-    { id: 'bus', header: 'Bus', sortValue: (e) => buses(e).join(' → '), render: (e) => buses(e).join(' → ') || '—', tsvHeader: ['Bus'], tsv: (e) => [buses(e).join(' -> ')] },
-    ...present.map((c) => phasor(`i-${c}`, `I ${phaseStyle(c, standard).label}`, (e) => firstPortCurrent(e, c))),
-    phasor('i-earth', 'I to earth', (e) => e.earthCurrent),
+    { id: 'id', header: 'Element', sortValue: (r) => r.e.id, render: (r) => <span className="font-semibold">{r.e.id}</span>, tsvHeader: ['Element'], tsv: (r) => [r.e.id] },
+    { id: 'type', header: 'Type', sortValue: (r) => typeWords(r.e.type), render: (r) => typeWords(r.e.type), tsvHeader: ['Type'], tsv: (r) => [typeWords(r.e.type)] },
+    {
+      id: 'bus',
+      header: 'Bus',
+      sortValue: (r) => (TWO_SIDED.has(r.e.type) ? sideLabel(r.e, r.port) : buses(r.e).join(' → ')),
+      render: (r) => (TWO_SIDED.has(r.e.type) ? sideLabel(r.e, r.port) : buses(r.e).join(' → ') || '—'),
+      tsvHeader: ['Bus'],
+      tsv: (r) => [TWO_SIDED.has(r.e.type) ? sideLabel(r.e, r.port) : buses(r.e).join(' -> ')],
+    },
+    ...present.map((c) => phasor(`i-${c}`, `I ${phaseStyle(c, standard).label}`, (r) => portCurrent(r.e, r.port, c))),
+    phasor('i-earth', 'I to earth', (r) => (first(r) ? r.e.earthCurrent : undefined)),
     num('p', 'P', 'kW', (e) => e.power.re / 1000),
     num('q', 'Q', 'kvar', (e) => e.power.im / 1000),
-    { id: 'pf', header: 'PF', numeric: true, sortValue: (e) => (e.power.mag ? Math.abs(e.power.re) / e.power.mag : undefined), render: (e) => formatPowerFactor(e.power), tsvHeader: ['PF'], tsv: (e) => [formatPowerFactor(e.power)] },
+    {
+      id: 'pf',
+      header: 'PF',
+      numeric: true,
+      sortValue: (r) => (first(r) && r.e.power.mag ? Math.abs(r.e.power.re) / r.e.power.mag : undefined),
+      render: (r) => (first(r) ? formatPowerFactor(r.e.power) : ''),
+      tsvHeader: ['PF'],
+      tsv: (r) => [first(r) ? formatPowerFactor(r.e.power) : ''],
+    },
     num('losses', 'Losses', 'kW', (e) => (e.losses ? e.losses.re / 1000 : undefined)),
     num('loading', 'Loading', '%', (e) => e.loadingPercent, 1),
-    { id: 'flags', header: 'Flags', sortValue: (e) => flagsOf(e).length, render: (e) => <FlagMark flags={flagsOf(e)} />, tsvHeader: ['Flags'], tsv: (e) => [flagsOf(e).map((f) => f.message).join('; ')] },
+    {
+      id: 'flags',
+      header: 'Flags',
+      sortValue: (r) => (first(r) ? flagsOf(r.e).length : undefined),
+      render: (r) => (first(r) ? <FlagMark flags={flagsOf(r.e)} /> : ''),
+      tsvHeader: ['Flags'],
+      tsv: (r) => [first(r) ? flagsOf(r.e).map((f) => f.message).join('; ') : ''],
+    },
   ];
 }
 
 /** Element currents of a result; `selectedId` highlights the canvas selection. */
 export function ElementTable({ result, standard, selectedId, onSelect }: { result: CircuitResult; standard: WiringStandard; selectedId?: string | null; onSelect?: (id: string) => void }) {
   const columns = useMemo(() => elementColumns(result, standard), [result, standard]);
-  const rows = useMemo(() => Object.values(result.elements), [result]);
+  const rows = useMemo(() => elementRows(result), [result]);
   return (
     <div>
-      <ResultsTable label="Element currents" rows={rows} columns={columns} rowId={(e) => e.id} selectedId={selectedId} onRowSelect={onSelect} />
+      <ResultsTable label="Element currents" rows={rows} columns={columns} rowId={(r) => r.rowId} selectedId={selectedId} onRowSelect={onSelect ? (id) => onSelect(id.split('\u0000')[0]) : undefined} />
       <p className="mt-1 text-[11px] text-ink-muted">
-        Currents at each element's first connection, RMS: into the element for loads and series elements, out of the source for sources. P and Q:
+        Currents at each element's first connection, and at both sides of a transformer bank, RMS: into the element for loads and series elements, out of the source for sources. P and Q:
         S = V·I*, load convention, Q &gt; 0 lagging; sources show what they deliver.
       </p>
     </div>

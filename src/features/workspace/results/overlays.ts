@@ -3,7 +3,7 @@
  * line-to-neutral magnitudes, the neutral shift and the worst flag; per element the currents per
  * conductor and its flags. Plain data, so the canvas nodes stay simple and memoisable.
  */
-import type { CircuitResult, Flag } from '../../../../shared/engine/index.ts';
+import type { CircuitResult, Flag, LoadBranchResult } from '../../../../shared/engine/index.ts';
 
 /** Overlay of one bus. */
 export interface BusOverlay {
@@ -40,6 +40,8 @@ export interface ElementOverlay {
   currents: ConductorCurrent[];
   /** Transformers: highest winding current, % of rating. */
   loadingPercent?: number;
+  /** Loads: the voltage across each branch at the load's own terminals, with its rating and verdict. */
+  loadBranches?: LoadBranchResult[];
   flags: Flag[];
   worstFlag?: Flag;
 }
@@ -76,6 +78,7 @@ export function diagramOverlays(result: CircuitResult): DiagramOverlays {
     };
   }
   const elements: Record<string, ElementOverlay> = {};
+  const loadsById = new Map((result.loads ?? []).map((l) => [l.id, l] as const));
   for (const e of Object.values(result.elements)) {
     const flags = result.flags.filter((f) => f.elementId === e.id);
     const currents: ConductorCurrent[] = [];
@@ -89,7 +92,8 @@ export function diagramOverlays(result: CircuitResult): DiagramOverlays {
     } else {
       e.currents.forEach((c, i) => currents.push({ port: 0, conductor: String(i + 1), mag: c.mag, angleDeg: c.angleDeg }));
     }
-    elements[e.id] = { id: e.id, type: e.type, direction: e.currentDirection, currents, loadingPercent: e.loadingPercent, flags, worstFlag: worstFlag(flags) };
+    const load = loadsById.get(e.id);
+    elements[e.id] = { id: e.id, type: e.type, direction: e.currentDirection, currents, loadingPercent: e.loadingPercent, ...(load ? { loadBranches: load.branches } : {}), flags, worstFlag: worstFlag(flags) };
   }
   return { buses, elements };
 }

@@ -7,17 +7,41 @@
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
 import { circuitNames } from '../../../../shared/review/user-names.ts';
 
+const escapeRe = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
+/**
+ * A generated name in words: "SRC1~bus~sw" and "SRC1~bus" → "the connection of SRC1"; a node
+ * "KITCHEN~bus.n" → "the connection of KITCHEN (n)". Names without the marker are returned as they are.
+ */
+export function generatedNameWords(name: string, marker: string | undefined): string {
+  if (!marker || !name.includes(marker)) return name;
+  const owner = name.split(marker)[0];
+  const dot = name.lastIndexOf('.');
+  const conductor = dot > name.lastIndexOf(marker) ? name.slice(dot + 1) : '';
+  return `the connection of ${owner}${conductor ? ` (${conductor})` : ''}`;
+}
+
+/** A message with every generated name (anything containing `marker`) put in words. */
+export function publicText(text: string, marker: string | undefined): string {
+  if (!marker || !text.includes(marker)) return text;
+  const token = new RegExp(`[^\\s,;:()]*${escapeRe(marker)}[^\\s,;:()]*`, 'g');
+  return text.replace(token, (t) => generatedNameWords(t, marker));
+}
+
 /**
  * The result without buses and elements whose names contain `marker` (totals unchanged); flag
  * messages that name a private bus or switch are put in the words of the diagram
- * ("KITCHEN terminals at HOUSE", shared/review/user-names.ts), read from the result's own switches.
+ * ("KITCHEN terminals at HOUSE", shared/review/user-names.ts), read from the result's own switches,
+ * and internal points of a block ("#") in words; loads name the bus the user drew.
  */
 export function hidePrivate(result: CircuitResult, marker: string | undefined): CircuitResult {
   if (!marker) return result;
   const names = circuitNames({
     elements: Object.values(result.elements).map((e) => ({ type: e.type, id: e.id, from: e.ports?.[0]?.bus, to: e.ports?.[1]?.bus })),
   });
-  const flags = result.flags.some((f) => f.message.includes(marker)) ? result.flags.map((f) => (f.message.includes(marker) ? { ...f, message: names.text(f.message) } : f)) : result.flags;
+  const internal = (t: string) => t.includes(marker) || t.includes('#');
+  const inWords = (t: string) => publicText(t.includes(marker) ? names.text(t) : t, marker);
+  const flags = result.flags.some((f) => internal(f.message)) ? result.flags.map((f) => (internal(f.message) ? { ...f, message: inWords(f.message) } : f)) : result.flags;
   const buses = result.buses.filter((b) => !b.bus.includes(marker));
   // Kept elements that sit behind a generated switch name the bus the user drew instead of the private one.
   const elements = Object.fromEntries(
@@ -29,8 +53,15 @@ export function hidePrivate(result: CircuitResult, marker: string | undefined): 
         return [id, { ...e, ports }];
       }),
   );
+  const loads = (result.loads ?? []).map((l) => (l.bus.includes(marker) ? { ...l, bus: publicBus(result, l.bus, marker) ?? l.bus } : l));
+  const floating = result.floating.some((f) => f.nodes.some(internal) || internal(f.referenceNode))
+    ? result.floating.map((f) => ({ ...f, nodes: [...new Set(f.nodes.map(inWords))], referenceNode: inWords(f.referenceNode) }))
+    : result.floating;
+  const busesShown = buses.length > 0 ? buses : result.buses;
+  // Neutral causes name the lines and switches opened: a generated switch in words.
+  const busesNamed = busesShown.map((b) => (b.neutralOpenAt?.some((id) => id.includes(marker)) ? { ...b, neutralOpenAt: b.neutralOpenAt.map((id) => generatedNameWords(id, marker)) } : b));
   // Never hide everything: a study made only of generated names still shows its results.
-  return { ...result, flags, buses: buses.length > 0 ? buses : result.buses, elements: Object.keys(elements).length > 0 ? elements : result.elements };
+  return { ...result, buses: busesNamed, elements: Object.keys(elements).length > 0 ? elements : result.elements, loads, flags, floating };
 }
 
 /**

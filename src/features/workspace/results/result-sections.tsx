@@ -1,6 +1,7 @@
 /** The smaller sections of the results panel: limits and flags, power balance, transformers, faults, floating parts, caution. */
 import { useState } from 'react';
-import type { CircuitResult, Flag } from '../../../../shared/engine/index.ts';
+import { UNBALANCE_METRICS, type CircuitResult, type Flag } from '../../../../shared/engine/index.ts';
+import { UnbalanceSummary } from './unbalance-summary.tsx';
 import { SEVERITY } from './flag-mark.tsx';
 import { formatMagnitude, formatPhasor, formatValue, kvar, kW } from './format.ts';
 import { phaseStyle, type WiringStandard } from './phase-style.ts';
@@ -13,8 +14,6 @@ export function FlagsSection({ result }: { result: CircuitResult }) {
   const l = result.limits;
   const rank = { violation: 0, warning: 1, info: 2 } as const;
   const flags = result.flags.slice().sort((a, b) => rank[a.severity] - rank[b.severity]);
-  const metric = l.unbalanceMetric;
-  const metricValue = (b: CircuitResult['buses'][number]) => (metric === 'iec' ? b.iecUnbalancePercent : metric === 'nema' ? b.nemaUnbalancePercent : b.ieeeUnbalancePercent);
   return (
     <section aria-labelledby="res-flags">
       <h3 id="res-flags" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
@@ -22,9 +21,9 @@ export function FlagsSection({ result }: { result: CircuitResult }) {
       </h3>
       <p className="text-[12px]">
         Limit set in force: <strong>{l.name}</strong>. Voltage warning outside {l.voltageWarningPu.map((x) => x.toFixed(3)).join('–')} pu, violation outside{' '}
-        {l.voltageViolationPu.map((x) => x.toFixed(3)).join('–')} pu; unbalance: {METRIC_NAME[metric]} ≤ {l.unbalancePercent} %; neutral shift ≤ {l.neutralShiftPercent} % of nominal V_LN; transformer loading ≤ {l.loadingPercent} %.
+        {l.voltageViolationPu.map((x) => x.toFixed(3)).join('–')} pu; unbalance, each definition against its own limit: {UNBALANCE_METRICS.map((m) => `${METRIC_NAME[m]} ≤ ${l.unbalanceLimits?.[m] ?? l.unbalancePercent} %`).join(', ')}; neutral shift ≤ {l.neutralShiftPercent} % of nominal V_LN; transformer loading ≤ {l.loadingPercent} %.
       </p>
-      <UnbalanceList result={result} metricValue={metricValue} />
+      <UnbalanceSummary result={result} />
       {flags.length === 0 ? (
         <p className="mt-1 text-[12px] text-ok">
           <span aria-hidden="true">✓ </span>No flags: every bus and element is within the limit set.
@@ -49,33 +48,6 @@ export function FlagsSection({ result }: { result: CircuitResult }) {
 
 /** How many flags show before "Show all" (a 300-element study can raise a hundred). */
 const FLAGS_SHOWN = 12;
-
-/** Unbalance per bus against the active limit: every bus on a small study, on a large one the buses over the limit and the worst within. */
-function UnbalanceList({ result, metricValue }: { result: CircuitResult; metricValue: (b: CircuitResult['buses'][number]) => number | undefined }) {
-  const limit = result.limits.unbalancePercent;
-  const rows = result.buses.filter((b) => metricValue(b) !== undefined).map((b) => ({ bus: b.bus, v: metricValue(b)! }));
-  const over = rows.filter((r) => r.v > limit);
-  const within = rows.filter((r) => r.v <= limit);
-  const small = rows.length <= 8;
-  const shown = small ? rows : over;
-  const worstWithin = within.reduce<(typeof rows)[number] | undefined>((w, r) => (!w || r.v > w.v ? r : w), undefined);
-  return (
-    <div className="mt-1 text-[12px]">
-      <ul aria-label="Unbalance against the limit">
-        {shown.map((r) => (
-          <li key={r.bus} className="num">
-            {r.bus}: {r.v.toFixed(2)} % {r.v > limit ? <span className="font-semibold text-caution">over {limit} %</span> : <span className="text-ok">within {limit} %</span>}
-          </li>
-        ))}
-      </ul>
-      {!small && within.length > 0 ? (
-        <p className="text-ok">
-          {within.length} of {rows.length} buses within {limit} %{worstWithin ? ` (highest ${worstWithin.v.toFixed(2)} % at ${worstWithin.bus})` : ''}.
-        </p>
-      ) : null}
-    </div>
-  );
-}
 
 function FlagRow({ flag }: { flag: Flag }) {
   const s = SEVERITY[flag.severity];
@@ -163,6 +135,12 @@ export function TransformerSection({ result }: { result: CircuitResult }) {
                 <>
                   {' '}
                   · {e.phaseShift.vectorGroup}, low side lags high side by <span className="num">{e.phaseShift.lvLagsHvDeg}°</span> ({e.phaseShift.convention === 'iec' ? 'IEC clock number' : 'North American rule'})
+                </>
+              ) : null}
+              {e.tapPercent !== undefined ? (
+                <>
+                  {' '}
+                  · tap <span className="num">{e.tapPercent > 0 ? '+' : e.tapPercent < 0 ? '−' : ''}{Math.abs(e.tapPercent)} %</span> on the HV winding
                 </>
               ) : null}
               {e.losses ? (

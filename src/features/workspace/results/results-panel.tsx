@@ -10,6 +10,8 @@ import type { LiveSolveError } from '../solve/solve-protocol.ts';
 import type { LiveSolveStatus } from '../solve/use-live-solve.ts';
 import { BusTable } from './bus-table.tsx';
 import { ElementTable } from './element-table.tsx';
+import { LoadTable } from './load-table.tsx';
+import { SequenceCurrentTable, SequenceVoltageTable } from './sequence-tables.tsx';
 import { formatMagnitude } from './format.ts';
 import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
 import { PhasorDiagram } from './phasor-diagram.tsx';
@@ -170,6 +172,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
           <FloatingNotices result={result} />
           <FlagsSection result={result} />
           <BusTable result={result} standard={standard} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+          <LoadTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           {bus ? (
             <Section title={`Phasors at bus ${bus.bus}`}>
               <label htmlFor={selectId} className="mr-1 text-[12px]">
@@ -209,6 +212,8 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
             <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
           </Section>
           <ElementTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+          <SequenceVoltageTable result={result} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+          <SequenceCurrentTable result={result} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <TransformerSection result={result} />
           <FaultSection result={result} standard={standard} />
           <PowerSummary result={result} />

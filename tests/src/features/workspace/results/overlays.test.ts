@@ -12,7 +12,7 @@ describe('diagramOverlays', () => {
     expect(o.buses.HOUSE.neutralShiftV).toBe(house.neutralToEarth!.mag);
     expect(o.buses.HOUSE.neutralShiftPercent).toBe(house.neutralShiftPercent);
     expect(o.buses.HOUSE.vln.c).toBe(house.lineToNeutral.c.mag);
-    expect(o.buses.HOUSE.flags).toHaveLength(4); // 3 voltage violations + the neutral-shift warning
+    expect(o.buses.HOUSE.flags).toHaveLength(5); // 3 voltage violations + phase-voltage unbalance + the neutral-shift warning (load flags sit on the loads)
     expect(o.buses.HOUSE.worstFlag?.severity).toBe('violation');
     expect(o.buses.PAD.flags).toHaveLength(0);
     expect(o.buses.PAD.worstFlag).toBeUndefined();

@@ -23,7 +23,7 @@ describe('private names of generated buses and switches', () => {
     expect(publicBus(result, 'KITCHEN~bus', undefined)).toBe('KITCHEN~bus');
   });
 
-  it('hides private buses and elements from the lists, keeping flags and totals', () => {
+  it('hides private buses and elements from the lists, and their names from every flag, keeping totals', () => {
     const shown = hidePrivate(result, '~');
     expect(shown.buses.map((b) => b.bus).sort()).toEqual(['HOUSE', 'PAD']);
     expect(Object.keys(shown.elements)).not.toContain('KITCHEN~bus-sw');
@@ -31,6 +31,10 @@ describe('private names of generated buses and switches', () => {
     expect(shown.flags.map((f) => f.code)).toEqual(result.flags.map((f) => f.code));
     expect(result.flags.some((f) => f.message.includes('~'))).toBe(true);
     for (const f of shown.flags) expect(f.message).not.toContain('~');
+    // KITCHEN's own terminal voltage flags it, and the load names the drawn bus
+    expect(shown.flags.some((f) => f.elementId === 'KITCHEN')).toBe(true);
+    expect(shown.loads.find((l) => l.id === 'KITCHEN')!.bus).toBe('HOUSE');
+    expect(shown.totals).toBe(result.totals);
     expect(hidePrivate(result, undefined)).toBe(result);
   });
 
