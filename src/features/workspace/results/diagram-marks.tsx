@@ -70,7 +70,8 @@ export function LoadVoltageNote({ overlay, standard }: { overlay: ElementOverlay
         const s = STATUS_TEXT[b.status];
         const bad = b.status !== 'ok' && b.status !== 'unrated';
         return (
-          <div key={b.branch} className={bad ? s.cls : 'text-ink'} title={`${branchLabel(b, standard)}: ${s.words}`}>
+          // Wraps after "V =" so the note stays clear of the next element on the diagram.
+          <div key={b.branch} className={`max-w-[78px] ${bad ? s.cls : 'text-ink'}`} title={`${branchLabel(b, standard)}: ${s.words}`}>
             {branches.length > 1 ? `${branchLabel(b, standard)} ` : ''}
             {fmt(b.voltage.mag)} V{b.pu !== undefined ? ` = ${formatPu(b.pu)} pu` : ''}
             {bad ? (

@@ -87,7 +87,7 @@ export function NeutralHazardAlert({ result, privateMarker }: { result: CircuitR
   const hazards = useMemo(() => (result ? neutralHazards(result, privateMarker) : []), [result, privateMarker]);
   if (hazards.length === 0) return null;
   return (
-    <div role="alert" aria-label="Neutral lost" className="absolute left-2 top-2 z-10 max-w-[460px] rounded-[3px] border-2 border-danger bg-danger-soft px-2 py-1.5 text-[12px] leading-snug text-ink shadow-sm">
+    <div role="alert" aria-label="Neutral lost" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[460px] rounded-[3px] border-2 border-danger bg-danger-soft px-2 py-1.5 text-[12px] leading-snug text-ink shadow-sm">
       {hazards.map((h) => (
         <div key={h.bus} className="mb-1">
           <p className="font-semibold text-danger">

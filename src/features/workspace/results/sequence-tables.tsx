@@ -16,14 +16,16 @@ const KEYS: [keyof SequenceResult, string][] = [
   ['negative', '2'],
 ];
 
-function seqColumns<Row>(prefix: string, unit: 'V' | 'A', what: string, get: (r: Row) => SequenceResult | undefined): ResultColumn<Row>[] {
+function seqColumns<Row>(prefix: string, symbol: 'V' | 'I', what: string, get: (r: Row) => SequenceResult | undefined): ResultColumn<Row>[] {
+  const unit = symbol === 'V' ? 'V' : 'A';
+  const name = (n: string) => `${symbol}${n}${what ? ` ${what}` : ''}`;
   return KEYS.map(([k, n]) => ({
     id: `${prefix}-${k}`,
-    header: `${unit}${n} ${what} (${unit}∠°)`,
+    header: `${name(n)} (${unit}∠°)`,
     numeric: true,
     sortValue: (r: Row) => get(r)?.[k].mag,
     render: (r: Row) => <PhasorCell p={get(r)?.[k]} />,
-    tsvHeader: [`${unit}${n} ${what} |${unit}| (${unit})`, `${unit}${n} ${what} angle (°)`],
+    tsvHeader: [`${name(n)} |${symbol}| (${unit})`, `${name(n)} angle (°)`],
     tsv: (r: Row) => {
       const p = get(r)?.[k];
       return p ? [String(p.mag), String(p.angleDeg)] : ['', ''];
@@ -79,7 +81,7 @@ export function SequenceCurrentTable({ result, selectedId, onSelect }: { result:
     () => [
       { id: 'el', header: 'Element', sortValue: (r) => r.element.id, render: (r) => <span className="font-semibold">{r.element.id}</span>, tsvHeader: ['Element'], tsv: (r) => [r.element.id] },
       { id: 'side', header: 'At', sortValue: (r) => r.side, render: (r) => r.side, tsvHeader: ['At'], tsv: (r) => [r.side] },
-      ...seqColumns<PortRow>('i', 'A', '', (r) => r.port.sequence).map((c) => ({ ...c, header: c.header.replace('  (', ' ('), tsvHeader: c.tsvHeader.map((h) => h.replace('  ', ' ')) })),
+      ...seqColumns<PortRow>('i', 'I', '', (r) => r.port.sequence),
     ],
     [],
   );

@@ -131,6 +131,7 @@ describe('sequence components', () => {
     const r = solveCircuit(demo('delta-wye-bank'));
     render(<ResultsPanel status="ok" result={r} />);
     const seq = screen.getByRole('table', { name: 'Sequence currents' });
+    expect(within(seq).getByRole('columnheader', { name: /^I0 \(A∠°\)/ })).toBeInTheDocument();
     const bank = Object.values(r.elements).find((e) => e.type === 'transformer')!;
     const rows = within(seq).getAllByRole('row', { name: new RegExp(bank.id) });
     expect(rows.map((x) => within(x).getAllByRole('cell')[1].textContent)).toEqual([`HV side (${bank.ports![0].bus})`, `LV side (${bank.ports![1].bus})`]);

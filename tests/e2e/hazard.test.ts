@@ -1,0 +1,108 @@
+/**
+ * The lost-neutral hazard as a user meets it (issue 8, point 4): on the open-neutral demo study an
+ * engineer closes the service neutral (no alert, every load within), opens it again with one
+ * click on the connection's button, and sees the alert on the diagram naming the loads over and
+ * under voltage, each load's own terminal voltage beside it and in the load table with its flag.
+ * Figures are compared with the engine's solve of the same demo circuit (C); the engine's own
+ * figures are checked against Millman's theorem in tests/shared/engine/results/.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
+import path from 'node:path';
+import { ARTIFACTS, launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+
+/** Clicks the middle of a wire, as a person selects a connection. */
+async function clickWire(page: Page, label: string) {
+  const pt = await page.locator(`[aria-label="${label}"] path.react-flow__edge-interaction`).evaluate((p: SVGPathElement) => {
+    const q = p.getPointAtLength(p.getTotalLength() / 2);
+    const m = p.getScreenCTM()!;
+    return { x: q.x * m.a + q.y * m.c + m.e, y: q.x * m.b + q.y * m.d + m.f };
+  });
+  await page.mouse.click(pt.x, pt.y);
+}
+
+describe('lost-neutral hazard in a real browser', () => {
+  let product: RunningProduct;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    product = await startProduct();
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await product?.stop();
+  });
+
+  it('opening the service neutral raises the alert naming the over-voltage loads; the load table shows each load’s terminal voltage and flag', async () => {
+    const engine = solveCircuit(demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit);
+    const volts = (id: string) => engine.loads.find((l) => l.id === id)!.branches[0];
+    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(String(e)));
+    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
+    await page.waitForURL(`${product.baseUrl}/`);
+    await page.getByRole('link', { name: 'Open neutral on a 208Y/120 V service' }).click();
+    await page.waitForURL(/\/studies\//);
+    const diagram = page.getByLabel('Diagram', { exact: true });
+    const alert = diagram.getByRole('alert');
+    const loadTable = page.getByRole('region', { name: 'Results' }).getByRole('table', { name: 'Load voltages' });
+    await loadTable.waitFor({ timeout: 20_000 });
+
+    // Close the neutral of the service drop: no alert, every load within its limits.
+    await clickWire(page, 'Connection DROP to bus PAD');
+    await page.getByRole('button', { name: 'Close neutral' }).click();
+    await expect.poll(() => loadTable.getByText('within limits').count(), { timeout: 15_000 }).toBe(3);
+    expect(await alert.count()).toBe(0);
+    await screenshot(page, 'hazard-neutral-closed');
+
+    // One click opens it again.
+    await page.getByRole('button', { name: 'Open neutral' }).click();
+    await alert.waitFor({ timeout: 15_000 });
+    const text = (await alert.textContent())!;
+    expect(text).toContain('Neutral lost at bus HOUSE: the neutral is open on DROP.');
+    // volts above 10 V are shown to one decimal
+    const f = (x: number) => x.toFixed(1);
+    const e = volts('ELECTRONICS');
+    const k = volts('KITCHEN');
+    const h = volts('HEATER');
+    // (C) the engine's figures for the same circuit, to the digits shown
+    expect(text).toContain(`Over voltage: ELECTRONICS ${f(e.voltage.mag)} V = ${e.pu!.toFixed(2)} pu, KITCHEN ${f(k.voltage.mag)} V = ${k.pu!.toFixed(2)} pu.`);
+    expect(text).toContain(`Under voltage: HEATER ${f(h.voltage.mag)} V = ${h.pu!.toFixed(2)} pu.`);
+    expect(text).toMatch(/dangerous voltages on equipment and people/);
+    expect(e.pu!).toBeGreaterThan(1.38);
+
+    // Beside the load on the diagram: "167.3 V = 1.39 pu ✖".
+    const note = page.getByLabel('Load ELECTRONICS', { exact: true }).getByTestId('load-voltage-ELECTRONICS');
+    expect(await note.textContent()).toMatch(new RegExp(`^${f(e.voltage.mag).replace('.', '\\.')} V = ${e.pu!.toFixed(2).replace('.', '\\.')} pu ✖`));
+    // Both the high and the low phases of HOUSE are marked.
+    const house = page.getByLabel('Bus HOUSE', { exact: true });
+    expect(await house.locator('[data-phase-mark="high"]').count()).toBe(2);
+    expect(await house.locator('[data-phase-mark="low"]').count()).toBe(1);
+
+    // The load table: each load's own terminal voltage and flag.
+    await expect.poll(() => loadTable.getByRole('row', { name: /ELECTRONICS/ }).textContent(), { timeout: 15_000 }).toMatch(/Violation: over voltage/);
+    const row = (await loadTable.getByRole('row', { name: /ELECTRONICS/ }).textContent())!;
+    expect(row).toContain(`${f(e.voltage.mag)}∠`);
+    expect(row).toContain(e.pu!.toFixed(2));
+    expect(await loadTable.getByRole('row', { name: /HEATER/ }).textContent()).toMatch(/Violation: under voltage/);
+    expect(await loadTable.getByRole('row', { name: /KITCHEN/ }).textContent()).toMatch(/Violation: over voltage/);
+
+    // Unbalance: the bus is out of limits by the phase-voltage definition though line voltages are balanced.
+    const unbalance = page.getByRole('list', { name: 'Unbalance against the limits' });
+    expect(await unbalance.getByRole('listitem').filter({ hasText: /^HOUSE/ }).textContent()).toMatch(/out of limits.*phase-voltage \(IEEE\) \d+\.\d\d % over 3 %/);
+
+    // Nothing internal on the page: no generated names, no format type names.
+    const shown = (await page.locator('main').innerText()) + (await diagram.innerText());
+    expect(shown).not.toMatch(/~/);
+    expect(shown).not.toMatch(/\b(switch3|splitPhaseTransformer|capacitorBank|zipLoad|admittanceMatrix|coupledBranch|voltageSource|currentSource)\b/);
+    await screenshot(page, 'hazard-neutral-open');
+    await alert.screenshot({ path: path.join(ARTIFACTS, 'hazard-alert.png') });
+    await diagram.screenshot({ path: path.join(ARTIFACTS, 'hazard-diagram.png') });
+    await page.getByRole('region', { name: 'Results' }).screenshot({ path: path.join(ARTIFACTS, 'hazard-results.png') });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
