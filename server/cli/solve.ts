@@ -51,6 +51,7 @@ export function formatReport(r: CircuitResult): string {
     const extra: string[] = [];
     if (b.neutralToEarth) extra.push(`n-earth ${fmt(b.neutralToEarth)} V${b.neutralShiftPercent !== undefined ? ` (${b.neutralShiftPercent.toFixed(1)} % of nominal)` : ''}`);
     if (b.sequence) extra.push(`V0 ${fmt(b.sequence.zero)} V1 ${fmt(b.sequence.positive)} V2 ${fmt(b.sequence.negative)} V`);
+    if (b.sequenceToNeutral) extra.push(`to n: V0 ${fmt(b.sequenceToNeutral.zero)} V1 ${fmt(b.sequenceToNeutral.positive)} V2 ${fmt(b.sequenceToNeutral.negative)} V`);
     if (b.iecUnbalancePercent !== undefined) extra.push(`unbalance IEC ${b.iecUnbalancePercent.toFixed(2)} % NEMA ${b.nemaUnbalancePercent!.toFixed(2)} % IEEE ${b.ieeeUnbalancePercent!.toFixed(2)} %`);
     if (b.floating) extra.push('FLOATING (no path to earth)');
     if (extra.length) out.push(`  ${pad('', 12)} ${extra.join('; ')}`);
@@ -69,6 +70,14 @@ export function formatReport(r: CircuitResult): string {
     if (e.phaseShift) extra.push(`shift ${e.phaseShift.vectorGroup} (${e.phaseShift.convention}): LV lags HV by ${e.phaseShift.lvLagsHvDeg}° in ABC`);
     if (e.earthCurrent) extra.push(`earth ${fmt(e.earthCurrent)} A`);
     out.push(`  ${pad('', 12)} ${extra.join('; ')}`);
+  }
+  if (r.loads.length) {
+    out.push('');
+    out.push('Loads (voltage across their own terminals, per unit of their rating)');
+    for (const l of r.loads) {
+      const parts = l.branches.map((b) => `${b.fromConductor}-${b.toConductor} ${fmt(b.voltage)} V${b.pu !== undefined ? ` = ${b.pu.toFixed(3)} pu` : ''}${b.status === 'ok' ? '' : ` ${b.status.toUpperCase()}`}`);
+      out.push(`  ${pad(l.id, 12)} ${parts.join('  ')}`);
+    }
   }
   if (r.faults.length) {
     out.push('');
@@ -106,7 +115,7 @@ export function jsonResult(r: CircuitResult, full = false) {
     conventions: r.conventions,
     nodes: r.nodes,
     elements,
-    ...(full ? { buses: r.buses } : {}),
+    ...(full ? { buses: r.buses, loads: r.loads } : {}),
     faults: r.faults,
     totals: r.totals,
     floating: r.floating,

@@ -40,6 +40,14 @@ export interface ResultsPanelProps {
   privateMarker?: string;
 }
 
+/** Why the neutral shifted, in a few words, by cause (a fault's shift is not a lost neutral). */
+const NEUTRAL_CAUSE_SHORT: Record<NonNullable<CircuitResult['buses'][number]['neutralCause']>, (openAt: string[]) => string> = {
+  'open-neutral': (openAt) => `the neutral is open upstream${openAt.length ? ` (${openAt.join(', ')})` : ''}`,
+  'floating-neutral': () => 'a floating neutral (not joined to any source neutral)',
+  fault: () => "the fault in this study shifts it (the fault's effect, not a lost neutral)",
+  unbalance: () => 'unbalanced load current through the intact neutral',
+};
+
 const CODE_WORDS: Record<string, string> = {
   'invalid-circuit': 'The circuit has a problem to fix',
   'ill-posed-network': 'The network has no unique solution',
@@ -191,6 +199,9 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
                   {bus.neutralToEarth ? `${formatMagnitude(bus.neutralToEarth.mag)} V` : 'no neutral'}
                 </strong>
                 {bus.neutralShiftPercent !== undefined ? <span className="num"> ({bus.neutralShiftPercent.toFixed(1)} % of nominal V_LN)</span> : null}
+                {bus.neutralCause && bus.neutralShiftPercent !== undefined && bus.neutralShiftPercent > result.limits.neutralShiftPercent ? (
+                  <span data-testid="selected-neutral-cause">: {NEUTRAL_CAUSE_SHORT[bus.neutralCause](bus.neutralOpenAt ?? [])}</span>
+                ) : null}
               </p>
               <PhasorDiagram bus={bus} standard={standard} />
             </Section>

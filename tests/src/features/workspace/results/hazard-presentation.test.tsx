@@ -145,3 +145,17 @@ describe('sequence components', () => {
     expect(sides[0]).toHaveTextContent('Transformer bank');
   });
 });
+
+describe('neutral shift worded by its cause', () => {
+  it('a fault study says the fault shifts the neutral, not that it is lost', () => {
+    const r = solveCircuit(demo('feeder-earth-fault'));
+    render(<ResultsPanel status="ok" result={r} selection="END" />);
+    expect(screen.getByTestId('selected-neutral-cause')).toHaveTextContent("the fault in this study shifts it (the fault's effect, not a lost neutral)");
+    const flags = within(screen.getByRole('list', { name: 'Flags' })).getAllByRole('listitem');
+    expect(flags.some((f) => /lost or high-impedance|check for a lost/.test(f.textContent!))).toBe(false);
+  });
+  it('the open-neutral demo says the neutral is open upstream, naming the line', () => {
+    render(<ResultsPanel status="ok" result={result} selection="HOUSE" />);
+    expect(screen.getByTestId('selected-neutral-cause')).toHaveTextContent('the neutral is open upstream (DROP)');
+  });
+});
