@@ -9,7 +9,7 @@ import { useMemo } from 'react';
 import type { CircuitResult, LoadBranchResult } from '../../../../shared/engine/index.ts';
 import { formatMagnitude } from './format.ts';
 import { formatPu } from './load-table.tsx';
-import { generatedNameWords, hidePrivate } from './private-names.ts';
+import { generatedNameWords, publicBus } from './private-names.ts';
 
 /** A load branch named in the alert. */
 export interface HazardLoad {
@@ -22,8 +22,9 @@ export interface HazardLoad {
 
 /** One bus with a lost or floating neutral. */
 export interface NeutralHazard {
-  bus: string;
   cause: 'open-neutral' | 'floating-neutral';
+  /** "bus HOUSE", or "the connection of LOAD1 on bus B1" for an element's own opened connection. */
+  bus: string;
   /** Where the neutral is open, in words (lines and switches the user drew; a connection). */
   openAt: string[];
   neutralVolts: number;
@@ -35,28 +36,34 @@ export interface NeutralHazard {
 const isOver = (s: LoadBranchResult['status']) => s === 'violation-high' || s === 'warning-high';
 const isUnder = (s: LoadBranchResult['status']) => s === 'violation-low' || s === 'warning-low';
 
-/** Buses (as the user drew them) whose neutral shift is over the limit with an open or floating neutral. */
+/**
+ * Buses whose neutral shift is over the limit with an open or floating neutral: the buses the user
+ * drew, and the terminal of an element whose own neutral connection was opened on the canvas (a
+ * generated bus, named as "the connection of LOAD1" at the bus it was drawn on).
+ */
 export function neutralHazards(full: CircuitResult, privateMarker: string | undefined): NeutralHazard[] {
-  const result = hidePrivate(full, privateMarker);
   const out: NeutralHazard[] = [];
-  for (const b of result.buses) {
+  const limit = full.limits.neutralShiftPercent;
+  for (const b of full.buses) {
     if (b.floating || !b.neutralToEarth || (b.neutralCause !== 'open-neutral' && b.neutralCause !== 'floating-neutral')) continue;
-    if (b.neutralShiftPercent === undefined || !(b.neutralShiftPercent > result.limits.neutralShiftPercent)) continue;
+    if (b.neutralShiftPercent === undefined || !(b.neutralShiftPercent > limit)) continue;
+    const generated = !!privateMarker && b.bus.includes(privateMarker);
+    const drawn = generated ? publicBus(full, b.bus, privateMarker) : b.bus;
     const over: HazardLoad[] = [];
     const under: HazardLoad[] = [];
-    for (const l of result.loads ?? []) {
+    for (const l of full.loads ?? []) {
       if (l.bus !== b.bus) continue;
-      // Worst first: the highest branch among the high ones, the lowest among the low ones.
       for (const br of l.branches) {
         const item = { id: l.id, ...(l.branches.length > 1 ? { branch: br.branch } : {}), volts: br.voltage.mag, ...(br.pu !== undefined ? { pu: br.pu } : {}) };
         if (isOver(br.status)) over.push(item);
         else if (isUnder(br.status)) under.push(item);
       }
     }
+    // Worst first: the highest among the high ones, the lowest among the low ones.
     over.sort((x, y) => (y.pu ?? 0) - (x.pu ?? 0));
     under.sort((x, y) => (x.pu ?? 0) - (y.pu ?? 0));
     out.push({
-      bus: b.bus,
+      bus: generated ? `${generatedNameWords(b.bus, privateMarker)}${drawn ? ` on bus ${drawn}` : ''}` : `bus ${b.bus}`,
       cause: b.neutralCause,
       openAt: (b.neutralOpenAt ?? []).map((id) => generatedNameWords(id, privateMarker)),
       neutralVolts: b.neutralToEarth.mag,
@@ -79,7 +86,10 @@ function whereOpen(openAt: string[]): string {
 
 /** One sentence per hazard, as the alert reads (also used by tests). */
 export function hazardHeadline(h: NeutralHazard): string {
-  return h.cause === 'open-neutral' ? `Neutral lost at bus ${h.bus}: the neutral is open ${whereOpen(h.openAt)}.` : `Floating neutral at bus ${h.bus}: its neutral is not joined to any source neutral.`;
+  if (h.cause === 'floating-neutral') return `Floating neutral at ${h.bus}: its neutral is not joined to any source neutral.`;
+  // An element's own opened connection: where it is open is where it is.
+  if (h.openAt.length === 1 && h.bus.startsWith(h.openAt[0])) return `Neutral lost at ${h.bus}: its neutral is open.`;
+  return `Neutral lost at ${h.bus}: the neutral is open ${whereOpen(h.openAt)}.`;
 }
 
 /** The alert over the diagram; nothing when no bus has a lost or floating neutral over its limit. */

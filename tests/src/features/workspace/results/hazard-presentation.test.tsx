@@ -78,6 +78,30 @@ describe('lost-neutral alert on the diagram', () => {
     expect(alert).toHaveTextContent('Neutral lost at bus PAD: the neutral is open at the connection of XFMR-SEC.');
     expect(alert).toHaveTextContent(/Neutral lost at bus HOUSE/);
   });
+
+  it('a three-phase load whose own neutral connection is opened: its star point floats, and the alert names it and its branches', () => {
+    const c: CircuitInput = {
+      format: 'wyeward-circuit',
+      version: 1,
+      frequencyHz: 60,
+      elements: [
+        { type: 'source', id: 'SRC1', bus: 'B1', kvLL: 0.208 },
+        { type: 'load', id: 'SHOP', bus: 'SHOP~bus', connection: 'wye', phases: { a: { kw: 1 }, b: { kw: 3 }, c: { kw: 6 } } },
+        { type: 'switch3', id: 'SHOP~bus~sw', from: 'B1', to: 'SHOP~bus', open: ['n'] },
+      ],
+    };
+    const r = solveCircuit(c);
+    const hazards = neutralHazards(r, '~');
+    expect(hazards.map((h) => h.bus)).toEqual(['the connection of SHOP on bus B1']);
+    // the lightest branch (a) rises most, the heaviest (c) sags (P: Millman; the engine's values checked in tests/shared)
+    expect(hazards[0].over[0]).toMatchObject({ id: 'SHOP', branch: 'a' });
+    expect(hazards[0].under.map((u) => u.branch)).toContain('c');
+    render(<NeutralHazardAlert result={r} privateMarker="~" />);
+    const alert = screen.getByRole('alert');
+    expect(alert).toHaveTextContent('Neutral lost at the connection of SHOP on bus B1: its neutral is open.');
+    expect(alert).toHaveTextContent(/Over voltage: SHOP \(a\) \d+\.\d V = 1\.\d\d pu/);
+    expect(alert.textContent).not.toMatch(/~/);
+  });
 });
 
 describe('diagram marks', () => {
