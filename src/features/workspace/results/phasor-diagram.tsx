@@ -160,6 +160,16 @@ export function PhasorDiagram({ bus, standard, size = 300 }: { bus: BusResult; s
                 <LegendRow key={v.id} style={{ ...vectorStyle(v, standard, ref), label: SEQ_STYLE[v.key].name }} value={formatPhasor(v.value, 'V')} />
               ))}
             </ul>
+            {bus.sequenceToNeutral ? (
+              <>
+                <p className="mt-1 text-[11px] text-ink-muted">Of the line-to-neutral voltages (relative to the bus neutral N):</p>
+                <ul aria-label={`Sequence components to neutral, bus ${bus.bus}`} className="mt-0.5 space-y-0.5">
+                  {sequenceVectors(bus.sequenceToNeutral).map((v) => (
+                    <LegendRow key={v.id} style={{ ...vectorStyle(v, standard, ref), label: SEQ_STYLE[v.key].name }} value={formatPhasor(v.value, 'V')} />
+                  ))}
+                </ul>
+              </>
+            ) : null}
           </div>
         ) : null}
       </div>

@@ -151,6 +151,12 @@ describe('sequence components', () => {
     expect(cells[4]).toMatch(new RegExp(`^${h.sequenceToNeutral!.zero.mag.toFixed(1)}∠`)); // V0 to neutral ≈ 56.9 V
   });
 
+  it('the phasor view lists the line-to-neutral set beside the set to earth', () => {
+    render(<ResultsPanel status="ok" result={result} selection="HOUSE" />);
+    const h = result.buses.find((b) => b.bus === 'HOUSE')!;
+    expect(screen.getByRole('list', { name: 'Sequence components to neutral, bus HOUSE' })).toHaveTextContent(`V0 zero${h.sequenceToNeutral!.zero.mag.toFixed(1)} V∠`);
+  });
+
   it('gives current sequence components per element, on both sides of a transformer bank, and both sides in the currents table', () => {
     const r = solveCircuit(demo('delta-wye-bank'));
     render(<ResultsPanel status="ok" result={r} />);
