@@ -105,4 +105,55 @@ describe('lost-neutral hazard in a real browser', () => {
     expect(errors).toEqual([]);
     await page.close();
   });
+
+  it('a bank shows both sides in the currents table, and its HV tap raises the LV voltage as the engine says', async () => {
+    const demo = demoCircuits.find((d) => d.key === 'delta-wye-bank')!.circuit;
+    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
+    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
+    await page.waitForURL(`${product.baseUrl}/`);
+    await page.getByRole('link', { name: /delta.wye/i }).first().click();
+    await page.waitForURL(/\/studies\//);
+    const results = page.getByRole('region', { name: 'Results' });
+    const currents = results.getByRole('table', { name: 'Element currents' });
+    await currents.waitFor({ timeout: 20_000 });
+    const sides = currents.getByRole('row', { name: /PM-BANK/ });
+    await expect.poll(() => sides.count(), { timeout: 15_000 }).toBe(2);
+    expect(await sides.nth(0).textContent()).toContain('HV side (PMT)');
+    expect(await sides.nth(1).textContent()).toContain('LV side (PM208)');
+    const seq = results.getByRole('table', { name: 'Sequence currents' }).getByRole('row', { name: /PM-BANK/ });
+    expect(await seq.count()).toBe(2);
+
+    // Tap −2 steps of 2.5 % on the HV winding: the ratio falls 5 %, the LV voltage rises.
+    await page.getByLabel('Transformer bank PM-BANK', { exact: true }).locator('svg').first().click();
+    const tap = page.getByRole('region', { name: 'Properties' }).getByRole('textbox', { name: /Tap position, HV winding/ });
+    await tap.fill('-2');
+    await tap.press('Enter');
+    const tapped = solveCircuit({ ...demo, elements: demo.elements.map((e) => (e.id === 'PM-BANK' ? { ...e, tap: { steps: -2 } } : e)) } as typeof demo);
+    const offices = tapped.loads.find((l) => l.id === 'OFFICES')!.branches[0];
+    const before = solveCircuit(demo).loads.find((l) => l.id === 'OFFICES')!.branches[0];
+    expect(offices.voltage.mag / before.voltage.mag).toBeGreaterThan(1.04); // (C) about 1/0.95 under load
+    const row = results.getByRole('table', { name: 'Load voltages' }).getByRole('row', { name: /OFFICES/ }).first();
+    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toContain(`${offices.voltage.mag.toFixed(1)}∠`);
+    expect(await results.getByRole('region', { name: 'Transformers' }).textContent()).toMatch(/tap −5 % on the HV winding/);
+    await screenshot(page, 'hazard-bank-tap');
+    await page.close();
+  });
+
+  it('the fault study: no lost-neutral alert, and its neutral shift is worded as the fault’s effect', async () => {
+    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
+    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
+    await page.waitForURL(`${product.baseUrl}/`);
+    await page.getByRole('link', { name: /line-to-earth fault/i }).first().click();
+    await page.waitForURL(/\/studies\//);
+    const flags = page.getByRole('list', { name: 'Flags' });
+    await flags.waitFor({ timeout: 20_000 });
+    await page.getByRole('button', { name: /^Show all \d+ flags$/ }).click();
+    const text = (await flags.textContent())!;
+    // The panel's own line for the bus with the largest shift says the same.
+    expect(await page.getByTestId('selected-neutral-cause').textContent()).toContain("the fault in this study shifts it (the fault's effect, not a lost neutral)");
+    expect(text).toMatch(/neutral-to-earth voltage .* this is the fault's effect, not a lost neutral/);
+    expect(text).not.toMatch(/check for a lost/);
+    expect(await page.getByLabel('Diagram', { exact: true }).getByRole('alert').count()).toBe(0);
+    await page.close();
+  });
 });
