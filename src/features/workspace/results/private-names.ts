@@ -21,11 +21,32 @@ export function generatedNameWords(name: string, marker: string | undefined): st
   return `the connection of ${owner}${conductor ? ` (${conductor})` : ''}`;
 }
 
-/** A message with every generated name (anything containing `marker`) put in words. */
+const INTERNAL_POINTS: Record<string, string> = { star: 'the star point', hvStar: 'the HV star point', lvStar: 'the LV star point', f: 'the fault point', a: 'the internal EMF terminal a', b: 'the internal EMF terminal b', c: 'the internal EMF terminal c' };
+
+/**
+ * An element's internal node in words: "PM-BANK#lvStar" → "the LV star point of PM-BANK",
+ * "LD#star" → "the star point of LD" (the engine names the points a block adds with "#").
+ */
+export function internalPointWords(node: string): string {
+  const i = node.lastIndexOf('#');
+  if (i <= 0) return node;
+  const owner = node.slice(0, i);
+  return `${INTERNAL_POINTS[node.slice(i + 1)] ?? 'an internal point'} of ${owner}`;
+}
+
+/** A message with every generated name (anything containing `marker`) and internal point ("#") put in words. */
 export function publicText(text: string, marker: string | undefined): string {
-  if (!marker || !text.includes(marker)) return text;
-  const token = new RegExp(`[^\\s,;:()]*${escapeRe(marker)}[^\\s,;:()]*`, 'g');
-  return text.replace(token, (t) => generatedNameWords(t, marker));
+  let out = text;
+  if (marker && out.includes(marker)) {
+    const token = new RegExp(`[^\\s,;:()]*${escapeRe(marker)}[^\\s,;:()]*`, 'g');
+    out = out.replace(token, (t) => generatedNameWords(t, marker));
+  }
+  return out.includes('#') ? out.replace(/[^\s,;:()#]+#[A-Za-z]+/g, (t) => internalPointWords(t)) : out;
+}
+
+/** A node name as users read it: generated and internal names in words, bus nodes ("B1.n") as they are. */
+export function nodeWords(node: string, marker: string | undefined): string {
+  return internalPointWords(generatedNameWords(node, marker));
 }
 
 /**
