@@ -38,7 +38,7 @@ export { type Phasor, toPhasor, polar, cx } from './phasor.ts';
 export { sequenceComponents, phasesFromSequence, type SequenceComponents } from './metrics/sequence.ts';
 export { iecUnbalancePercent, maxDeviationUnbalancePercent, iecUnbalanceFromLineMagnitudesPercent } from './metrics/unbalance.ts';
 export { ANSI_C84_1, IEC_EN, resolveLimits, UNBALANCE_METRICS, type LimitSet, type UnbalanceMetric } from './limits/limit-sets.ts';
-export { UNBALANCE_NAMES, unbalanceOf, neutralCauseWords } from './limits/flags.ts';
+export { UNBALANCE_NAMES, unbalanceOf } from './limits/flags.ts';
 export { carsonPrimitiveMatrix, kronReduce, type CarsonConductor } from './blocks/carson.ts';
 export { busNode } from './blocks/expansion.ts';
 export { demoCircuits, type DemoCircuit } from './examples/index.ts';

@@ -4,9 +4,7 @@
  * neutral can leave the line voltages balanced (NEMA well within) while the phase voltages are
  * far apart (IEEE far over).
  */
-import { UNBALANCE_METRICS, unbalanceOf, type BusResult, type CircuitResult, type UnbalanceMetric } from '../../../../shared/engine/index.ts';
-
-const SHORT: Record<UnbalanceMetric, string> = { iec: 'IEC |V2|/|V1|', nema: 'line-voltage (NEMA)', ieee: 'phase-voltage (IEEE)' };
+import { UNBALANCE_METRICS, UNBALANCE_NAMES as SHORT, unbalanceOf, type BusResult, type CircuitResult, type UnbalanceMetric } from '../../../../shared/engine/index.ts';
 
 interface Row {
   bus: string;
