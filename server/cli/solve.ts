@@ -53,6 +53,7 @@ export function formatReport(r: CircuitResult): string {
     if (b.sequence) extra.push(`V0 ${fmt(b.sequence.zero)} V1 ${fmt(b.sequence.positive)} V2 ${fmt(b.sequence.negative)} V`);
     if (b.sequenceToNeutral) extra.push(`to n: V0 ${fmt(b.sequenceToNeutral.zero)} V1 ${fmt(b.sequenceToNeutral.positive)} V2 ${fmt(b.sequenceToNeutral.negative)} V`);
     if (b.iecUnbalancePercent !== undefined) extra.push(`unbalance IEC ${b.iecUnbalancePercent.toFixed(2)} % NEMA ${b.nemaUnbalancePercent!.toFixed(2)} % IEEE ${b.ieeeUnbalancePercent!.toFixed(2)} %`);
+    if (b.neutralOpenAt?.length) extra.push(`neutral open at ${b.neutralOpenAt.join(', ')}`);
     if (b.floating) extra.push('FLOATING (no path to earth)');
     if (extra.length) out.push(`  ${pad('', 12)} ${extra.join('; ')}`);
   }

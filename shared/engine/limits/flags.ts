@@ -11,11 +11,15 @@ export function unbalanceOf(bus: BusResult, metric: UnbalanceMetric): number | u
   return metric === 'iec' ? bus.iecUnbalancePercent : metric === 'nema' ? bus.nemaUnbalancePercent : bus.ieeeUnbalancePercent;
 }
 
-/** What a neutral shift means, by its cause (see results/neutral-cause.ts). */
-export function neutralCauseWords(cause: NeutralCause | undefined, openAt: readonly string[] = []): string {
+/**
+ * What a neutral shift means, by its cause (see results/neutral-cause.ts). The opened lines and
+ * switches are in `BusResult.neutralOpenAt`, not in the words: a switch may carry a name its
+ * author generated, and screens name it their own way.
+ */
+export function neutralCauseWords(cause: NeutralCause | undefined): string {
   switch (cause) {
     case 'open-neutral':
-      return `the neutral is open upstream (${openAt.join(', ')}): the loads' star point has moved, so some loads see far more than their rating and others far less`;
+      return "the neutral is open upstream (an opened neutral conductor cuts this bus off from the source neutral): the loads' star point has moved, so some loads see far more than their rating and others far less";
     case 'floating-neutral':
       return "this bus's neutral is not joined to any source neutral (a floating neutral): the loads' star point is free to move";
     case 'fault':
@@ -151,7 +155,7 @@ export function computeFlags(buses: BusResult[], elements: ElementResult[], floa
         value: bus.neutralShiftPercent,
         limit: limits.neutralShiftPercent,
         unit: '%',
-        message: `bus ${bus.bus}: neutral-to-earth voltage ${f1(bus.neutralToEarth!.mag)} V is ${bus.neutralShiftPercent.toFixed(1)} % of nominal (limit ${limits.neutralShiftPercent} %): ${neutralCauseWords(bus.neutralCause, bus.neutralOpenAt)}`,
+        message: `bus ${bus.bus}: neutral-to-earth voltage ${f1(bus.neutralToEarth!.mag)} V is ${bus.neutralShiftPercent.toFixed(1)} % of nominal (limit ${limits.neutralShiftPercent} %): ${neutralCauseWords(bus.neutralCause)}`,
       });
     }
   }

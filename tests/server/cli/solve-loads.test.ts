@@ -10,7 +10,7 @@ describe('solve report: loads', () => {
     const e = r.loads.find((l) => l.id === 'ELECTRONICS')!.branches[0];
     expect(text).toMatch(new RegExp(`ELECTRONICS +c-n 167\\.3∠${e.voltage.angleDeg.toFixed(1)}° V = ${e.pu!.toFixed(3)} pu VIOLATION-HIGH`));
     expect(text).toMatch(/HEATER +b-n 68\.78∠-?\d+\.\d° V = 0\.573 pu VIOLATION-LOW/);
-    expect(text).toMatch(/HOUSE .*\n.*to n: V0 56\.85∠/);
+    expect(text).toMatch(/HOUSE .*\n.*to n: V0 56\.85∠.*neutral open at DROP/);
   });
   it('--full JSON carries the loads; the lean JSON does not', () => {
     expect(jsonResult(r, true).loads).toBe(r.loads);
