@@ -49,7 +49,7 @@ export function randomCircuit(seed: number): CircuitInput {
   const useIec = r() < 0.6;
   const group = useIec ? pick(GROUPS) : pick(NA);
   const lvKv = pick([0.48, 0.416, 0.208]);
-  els.push({ type: 'transformer', id: 'TX', from: 'B1', to: 'B2', kva: pick([150, 500, 1000]), kvHigh: kv, kvLow: lvKv, ...(useIec ? { vectorGroup: group } : { connection: group }), percentR: between(0.5, 2), percentX: between(3, 7) });
+  els.push({ type: 'transformer', id: 'TX', from: 'B1', to: 'B2', kva: pick([150, 500, 1000]), kvHigh: kv, kvLow: lvKv, ...(useIec ? { vectorGroup: group } : { connection: group }), percentR: between(0.5, 2), percentX: between(3, 7), ...(seed % 2 === 0 ? { tap: { steps: (seed % 5) - 2, stepPercent: 2.5 } } : {}) }); // a tap on every other seed, drawn without the generator so the circuits stay as they were
   const lvDelta = /d\d+$/.test(group) || group.endsWith('-D');
   if (lvDelta) els.push({ type: 'earthing', id: 'E2', node: 'B2.a', ohms: 1000 }); // a high-resistance earth on the delta side
   els.push({ type: 'line', id: 'L2', from: 'B2', to: 'B3', length: between(20, 200), lengthUnit: 'm', impedance: { kind: 'perConductor', ohmsPerLength: { a: 3e-4, b: 3e-4, c: 3e-4, n: 3e-4 } }, open: r() < 0.3 ? [pick(['n', 'b'])] : [] });
