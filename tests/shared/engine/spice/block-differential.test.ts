@@ -156,6 +156,8 @@ describe('block-level differential tests against ngspice', () => {
       /centre-tapped transformer on b-n/,
       /centre-tapped transformer on a-c/,
       /capacitor bank/,
+      /tap \{"steps":2,"stepPercent":2.5\}/,
+      /tap \{"steps":-3,"stepPercent":1.25\}/,
       /HV "unearthed"/,
       /LV "unearthed"/,
       /LV \{"ohms"/,

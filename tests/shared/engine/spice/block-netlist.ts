@@ -175,7 +175,9 @@ function writeBlock(b: SpiceBuilder, el: El, seq: 'ABC' | 'ACB', off: number[], 
     }
     case 'transformer': {
       const g = parseGroup(el);
-      const vH = g.hv === 'Y' ? (el.kvHigh * 1000) / Math.sqrt(3) : el.kvHigh * 1000;
+      // an HV tap: the HV winding has (1 + steps·stepPercent/100) times its rated turns (P)
+      const tap = el.tap ? 1 + ((el.tap.steps ?? 0) * (el.tap.stepPercent ?? 2.5)) / 100 : 1;
+      const vH = ((g.hv === 'Y' ? (el.kvHigh * 1000) / Math.sqrt(3) : el.kvHigh * 1000)) * tap;
       const vL = g.lv === 'Y' ? (el.kvLow * 1000) / Math.sqrt(3) : el.kvLow * 1000;
       const sUnit = (el.kva * 1000) / 3;
       const zpu = leakagePu(el);

@@ -135,7 +135,10 @@ export function randomBlockCircuit(seed: number, group: (typeof ALL_GROUPS)[numb
   const earthings = ['solid', 'unearthed', { ohms: cz(between(1, 10), between(0, 3)) }];
   if (hvWye && chance(0.5)) tx.hvEarthing = pick(earthings);
   if (lvWye && chance(0.5)) tx.lvEarthing = pick(earthings);
-  features.push(`bank ${name}${tx.hvEarthing ? ` HV ${JSON.stringify(tx.hvEarthing)}` : ''}${tx.lvEarthing ? ` LV ${JSON.stringify(tx.lvEarthing)}` : ''}`);
+  // An HV tap on seeds ≡ 1, 2 (mod 3), chosen from the seed so the generator's draws (and so every circuit) stay as they were.
+  if (seed % 3 !== 0) tx.tap = { steps: seed % 3 === 1 ? 2 : -3, stepPercent: seed % 3 === 1 ? 2.5 : 1.25 };
+  const tapText = tx.tap ? ` tap ${JSON.stringify(tx.tap)}` : '';
+  features.push(`bank ${name}${tx.hvEarthing ? ` HV ${JSON.stringify(tx.hvEarthing)}` : ''}${tx.lvEarthing ? ` LV ${JSON.stringify(tx.lvEarthing)}` : ''}${tapText}`);
   els.push(tx);
 
   // --- LV feeder and loads
