@@ -44,11 +44,6 @@ export function publicText(text: string, marker: string | undefined): string {
   return out.includes('#') ? out.replace(/[^\s,;:()#]+#[A-Za-z]+/g, (t) => internalPointWords(t)) : out;
 }
 
-/** A node name as users read it: generated and internal names in words, bus nodes ("B1.n") as they are. */
-export function nodeWords(node: string, marker: string | undefined): string {
-  return internalPointWords(generatedNameWords(node, marker));
-}
-
 /**
  * The result without buses and elements whose names contain `marker` (totals unchanged); flag
  * messages that name a private bus or switch are put in the words of the diagram
