@@ -53,13 +53,13 @@ describe('lost-neutral hazard in a real browser', () => {
 
     // Close the neutral of the service drop: no alert, every load within its limits.
     await clickWire(page, 'Connection DROP to bus PAD');
-    await page.getByRole('button', { name: 'Close neutral' }).click();
+    await page.getByRole('button', { name: 'Close neutral', exact: true }).click();
     await expect.poll(() => loadTable.getByText('within limits').count(), { timeout: 15_000 }).toBe(3);
     expect(await alert.count()).toBe(0);
     await screenshot(page, 'hazard-neutral-closed');
 
     // One click opens it again.
-    await page.getByRole('button', { name: 'Open neutral' }).click();
+    await page.getByRole('button', { name: 'Open neutral', exact: true }).click();
     await alert.waitFor({ timeout: 15_000 });
     const text = (await alert.textContent())!;
     expect(text).toContain('Neutral lost at bus HOUSE: the neutral is open on DROP.');
