@@ -6,7 +6,7 @@ import express, { type Express } from 'express';
 export function serveClient(dist: string): (app: Express) => void {
   return (app) => {
     app.use(express.static(dist, { index: false }));
-    // Express 5 path syntax (STACK.md E4): '/{*splat}' also matches '/'.
+    // Express 5 path syntax (path-to-regexp 8: a bare '*' is no longer a wildcard): '/{*splat}' also matches '/'.
     app.get('/{*splat}', (_req, res) => {
       res.sendFile(path.join(dist, 'index.html'));
     });

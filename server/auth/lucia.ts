@@ -8,7 +8,7 @@ import { sessions, users } from '../db/schema.ts';
 export const SESSION_COOKIE = 'wyeward_session';
 
 /**
- * Creates the lucia instance. `secure: false` over plain http, or cookie jars drop the cookie (STACK.md E8).
+ * Creates the lucia instance. `secure: false` over plain http, or cookie jars drop the cookie.
  * Idle expiry: a session lasts `idleHours` from its last renewal; lucia renews it (and the cookie)
  * on a request in the second half of that span, so an unused session ends after between half and
  * all of `idleHours`. The absolute maximum (`createdAt` + SESSION_MAX_DAYS) is enforced by the

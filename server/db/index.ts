@@ -26,7 +26,7 @@ export const POSTGRES_SETTINGS = [
 ];
 
 /**
- * Opens PGlite at `dataDir` (a directory; created with its parents, STACK.md E5), or in memory when
+ * Opens PGlite at `dataDir` (a directory; created with its parents: PGlite needs the parent directory to exist), or in memory when
  * absent; `loadDataDir` starts from a dumped data directory (used by tests). Applies pending migrations.
  */
 export async function openDb({ dataDir, loadDataDir }: { dataDir?: string; loadDataDir?: Blob | File } = {}) {

@@ -1,4 +1,4 @@
-/** The safety caution every signed-in page carries (BRIEF.md, "Safety"). */
+/** The safety caution every signed-in page carries (same words as the README caution). */
 export function SafetyNote() {
   return (
     <aside aria-label="Safety caution" className="border-t border-rule bg-sunken/60 px-6 py-2.5 text-[12px] text-ink-muted">

@@ -1,6 +1,6 @@
 /**
  * Builds one migrated in-memory PGlite once per run and dumps it to a tar.gz; each API test file
- * starts from that copy (about 2 s instead of a fresh initdb of 6–8 s; STACK.md §6).
+ * starts from that copy (about 2 s instead of a fresh initdb of 6–8 s).
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';

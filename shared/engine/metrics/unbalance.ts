@@ -1,5 +1,5 @@
 /**
- * Voltage-unbalance measures (definitions in docs/circuit-format.md, sources as in REFERENCES.md):
+ * Voltage-unbalance measures (definitions in docs/circuit-format.md, sources in the README checks table):
  * - IEC factor |V2|/|V1| × 100 % (IEC TR 61000-3-13; measured per IEC 61000-4-30);
  * - line-voltage unbalance (NEMA MG 1): max deviation of a line voltage from the average of the
  *   three, over that average, × 100 %;

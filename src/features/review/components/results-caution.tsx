@@ -1,4 +1,4 @@
-/** The short safety caution shown wherever revision results appear (BRIEF.md, "Safety"). */
+/** The short safety caution shown wherever revision results appear (same words as the README caution). */
 export function ResultsCaution() {
   return (
     <p className="rounded-[3px] border border-caution/40 bg-caution-soft px-3 py-1.5 text-[12px] text-ink">

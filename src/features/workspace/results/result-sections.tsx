@@ -217,7 +217,7 @@ export function FloatingNotices({ result }: { result: CircuitResult }) {
   );
 }
 
-/** The safety caution every results view carries (BRIEF.md, "Safety"). */
+/** The safety caution every results view carries (same words as the README caution). */
 export function ResultsCaution() {
   return (
     <p role="note" aria-label="Results caution" className="border-t border-rule pt-2 text-[11px] text-ink-muted">
