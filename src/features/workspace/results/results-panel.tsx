@@ -6,6 +6,7 @@
  */
 import { memo, useCallback, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
+import { circuitIssueWords } from '../../../../shared/review/circuit-issues.ts';
 import type { LiveSolveError } from '../solve/solve-protocol.ts';
 import type { LiveSolveStatus } from '../solve/use-live-solve.ts';
 import { BusTable } from './bus-table.tsx';
@@ -15,7 +16,7 @@ import { SequenceCurrentTable, SequenceVoltageTable } from './sequence-tables.ts
 import { formatMagnitude } from './format.ts';
 import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
 import { PhasorDiagram } from './phasor-diagram.tsx';
-import { hidePrivate, publicBus } from './private-names.ts';
+import { generatedNameWords, hidePrivate, publicBus, publicText } from './private-names.ts';
 import { FaultSection, FlagsSection, FloatingNotices, PowerSummary, ResultsCaution, TransformerSection } from './result-sections.tsx';
 import { WaveformChart, type WaveSignal } from './waveform-chart.tsx';
 
@@ -95,21 +96,28 @@ function StatusLine({ status, ms, stale }: { status: LiveSolveStatus; ms?: numbe
   );
 }
 
-function ErrorNotice({ error }: { error: LiveSolveError }) {
+/**
+ * The engine's objection in the words of the diagram: element names as drawn (a generated name
+ * becomes "the connection of …"), each problem as a form error ("element HEATER: every phase ›
+ * P (kW) must be a number"), never a schema path.
+ */
+function ErrorNotice({ error, privateMarker }: { error: LiveSolveError; privateMarker: string }) {
+  const names = [...new Set(error.elementIds.map((id) => generatedNameWords(id, privateMarker)))];
+  const issues = (error.issues ?? []).map((i) => publicText(i.text ?? circuitIssueWords(null, i), privateMarker));
+  // An invalid circuit's message repeats its first issue as a path; the list below says it in words.
+  const message = issues.length > 0 ? null : publicText(error.message, privateMarker);
   return (
     <div role="alert" className="rounded-[3px] border border-danger/50 bg-danger-soft px-2 py-1.5 text-[12px]">
       <p className="font-semibold">
         <span aria-hidden="true">✕ </span>
         {CODE_WORDS[error.code] ?? CODE_WORDS.internal}
-        {error.elementIds.length > 0 ? ` (${error.elementIds.join(', ')})` : ''}
+        {names.length > 0 ? ` (${names.join(', ')})` : ''}
       </p>
-      <p>{error.message}</p>
-      {error.issues && error.issues.length > 0 ? (
+      {message ? <p>{message}</p> : null}
+      {issues.length > 0 ? (
         <ul className="mt-0.5 list-disc pl-4">
-          {error.issues.slice(0, 8).map((i, k) => (
-            <li key={k}>
-              <span className="num text-ink-muted">{i.path}</span>: {i.message}
-            </li>
+          {issues.slice(0, 8).map((text, k) => (
+            <li key={k}>{text}</li>
           ))}
         </ul>
       ) : null}
@@ -171,7 +179,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
         <h2 className="text-[14px] font-semibold">Results</h2>
         <StatusLine status={status} ms={ms} stale={stale} />
       </div>
-      {status === 'error' && error ? <ErrorNotice error={error} /> : null}
+      {status === 'error' && error ? <ErrorNotice error={error} privateMarker={privateMarker} /> : null}
       {result ? (
         <div className={`space-y-4 ${stale ? 'opacity-70' : ''}`}>
           <p className="text-[11px] text-ink-muted">

@@ -6,6 +6,7 @@
 import { EngineError, InvalidCircuitError, createNetwork, prepareCircuit, resolveLimits, type Network } from '../../../../shared/engine/index.ts';
 // Not part of the engine's index: the result builder is what `solveCircuit` runs after the solver.
 import { buildResults } from '../../../../shared/engine/results/build-results.ts';
+import { circuitIssueFields } from '../../../../shared/review/circuit-issues.ts';
 import type { LiveSolveError, SolveRequest, SolveResponse } from './solve-protocol.ts';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
@@ -54,7 +55,13 @@ export function createSolveHandler(): (req: SolveRequest) => SolveResponse {
       // A failed update may leave the cached network unusable: start afresh next time.
       network = null;
       const error = toLiveSolveError(e);
-      if (error.elementIds.length === 0 && error.issues) error.elementIds = elementIdsFromIssues(req.circuit, error.issues);
+      if (error.issues) {
+        if (error.elementIds.length === 0) error.elementIds = elementIdsFromIssues(req.circuit, error.issues);
+        // Worded here, where the circuit is at hand: the element a path points into is named as drawn,
+        // and a number typed as text is reported as such (not as the union the validator tried).
+        const byPath = new Map(error.issues.map((i) => [i.path, i.message]));
+        error.issues = Object.entries(circuitIssueFields(req.circuit, error.issues)).map(([path, text]) => ({ path, message: byPath.get(path) ?? text, text }));
+      }
       return { id: req.id, ok: false, error, ms: now() - t0 };
     }
   };

@@ -17,7 +17,8 @@ export interface LiveSolveError {
   message: string;
   elementIds: string[];
   nodes: string[];
-  issues?: { path: string; message: string }[];
+  /** Schema problems: `path` in the circuit file, the validator's `message`, and `text`, the problem as a form error naming the element as drawn. */
+  issues?: { path: string; message: string; text?: string }[];
 }
 
 /** `ms`: the whole request in the worker (validate, expand, solve, build results); `timings`: the solver's part (analysis is 0 ms when the topology was reused). */

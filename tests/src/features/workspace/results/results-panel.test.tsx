@@ -104,12 +104,14 @@ describe('ResultsPanel on other results', () => {
         status="error"
         stale
         result={result}
-        error={{ code: 'invalid-circuit', message: 'switch SW9: node "NOWHERE.a" is not connected to anything else (check the node name)', elementIds: ['SW9'], nodes: ['NOWHERE.a'], issues: [{ path: 'elements[6].to', message: 'node "NOWHERE.a" is not used by any other element' }] }}
+        error={{ code: 'invalid-circuit', message: 'switch SW9: node "NOWHERE.a" is not connected to anything else (check the node name)', elementIds: ['SW9'], nodes: ['NOWHERE.a'], issues: [{ path: 'elements[6].to', message: 'node "NOWHERE.a" is not used by any other element', text: 'element SW9: to: node "NOWHERE.a" is not used by any other element' }] }}
       />,
     );
     const alert = screen.getByRole('alert');
     expect(alert).toHaveTextContent('The circuit has a problem to fix (SW9)');
-    expect(alert).toHaveTextContent('elements[6].to');
+    // The problem as a form error naming the element (worded by the solve worker, which has the circuit), never its path.
+    expect(alert).toHaveTextContent('element SW9: to: node "NOWHERE.a" is not used by any other element');
+    expect(alert).not.toHaveTextContent('elements[6]');
     expect(screen.getByText(/showing the last good solution/)).toBeInTheDocument();
     expect(screen.getByRole('table', { name: 'Bus voltages' })).toBeInTheDocument();
   });

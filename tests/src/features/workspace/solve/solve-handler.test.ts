@@ -57,6 +57,10 @@ describe('solve worker handler', () => {
     expect(cloned.error.issues?.length).toBeGreaterThan(0);
     expect(cloned.error.issues!.some((i) => i.path.startsWith('elements[2]'))).toBe(true);
     expect(cloned.error.elementIds).toEqual(['KITCHEN']); // taken from the issue path, for the canvas
+    // Each issue also as a form error naming the element as drawn, never a file path.
+    const texts = cloned.error.issues!.map((i) => i.text ?? '');
+    expect(texts.some((t) => t.startsWith('element KITCHEN: '))).toBe(true);
+    expect(texts.join(' ')).not.toMatch(/elements\[/);
   });
 
   it('names the element of an engine error (a switch to a node nothing else uses), then solves the next good request', () => {
