@@ -3,10 +3,11 @@
  * opened in the workspace, and the results area compares the base and both cases, the values
  * being the engine's for each case and the worst case marked.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { applyCase, demoCircuits, solveCircuit, type CircuitInput } from '../../shared/engine/index.ts';
-import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
 const base = { ...demo, name: 'Lane 14 with cases', elements: demo.elements.map((e) => (e.id === 'DROP' ? { ...e, open: [] } : e)) } as CircuitInput;
@@ -22,14 +23,9 @@ describe('study cases in a real browser', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('the workspace compares the base and two cases of the open-neutral demo', async () => {

@@ -6,11 +6,12 @@
  * Figures are compared with the engine's solve of the same demo circuit (C); the engine's own
  * figures are checked against Millman's theorem in tests/shared/engine/results/.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
 import path from 'node:path';
-import { ARTIFACTS, launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { ARTIFACTS, screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 /** Clicks the middle of a wire, as a person selects a connection. */
 async function clickWire(page: Page, label: string) {
@@ -26,14 +27,9 @@ describe('lost-neutral hazard in a real browser', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('opening the service neutral raises the alert naming the over-voltage loads; the load table shows each load’s terminal voltage and flag', async () => {

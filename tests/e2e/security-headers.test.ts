@@ -4,21 +4,17 @@
  * its Web Worker, results) and the sign-up page raise no CSP violation.
  */
 import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { describe, expect, it } from 'vitest';
+import { signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 describe('Content-Security-Policy in a real browser', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('serves index.html without inline script, under a strict CSP', async () => {

@@ -1,19 +1,15 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 describe('walking skeleton in a real browser', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('the demo engineer signs in and sees the demo studies', async () => {

@@ -5,10 +5,11 @@
  * and new elements land apart and in view; an unsolvable edit marks the diagram's values as stale;
  * the phasor bus choice survives an undo and a neutral toggle; a neutral opens with one click.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
-import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 async function wire(page: Page, from: string, to: string) {
   const a = await page.getByLabel(from, { exact: true }).boundingBox();
@@ -59,14 +60,9 @@ describe('the workspace shows exactly what is solved', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('a line’s length unit changes its length, never its impedance: the far bus stays at the engine’s 7.2 kV', async () => {

@@ -3,10 +3,11 @@
  * empty study through the UI and check the neutral shift shown against the engine; open the
  * delta–wye demo and check the 30° shift shown; a viewer gets the workspace read-only.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { demoCircuits, solveCircuit, type CircuitInput } from '../../shared/engine/index.ts';
-import { launchBrowser, screenshot, signIn, startProduct, type RunningProduct } from './harness.ts';
+import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
 
 /** Drags from one handle to another with the mouse, as a person wires the diagram. */
 async function wire(page: Page, from: string, to: string) {
@@ -46,14 +47,9 @@ describe('study workspace in a real browser', () => {
   let product: RunningProduct;
   let browser: Browser;
 
-  beforeAll(async () => {
-    product = await startProduct();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await product?.stop();
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
   });
 
   it('an engineer builds the open-neutral 208Y/120 V case from an empty study and sees the engine’s neutral shift', async () => {
