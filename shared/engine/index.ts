@@ -52,3 +52,4 @@ export {
   type SolverOptions,
   type SolveTimings,
 } from './solver/index.ts';
+export * from './balancing/index.ts';
