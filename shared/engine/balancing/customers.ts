@@ -130,7 +130,11 @@ export function customersFromRecords(records: Record<string, string | undefined>
     for (const [key, v] of Object.entries(rec)) cells[key.trim().toLowerCase()] = v;
     // a blank optional cell means "not given"
     for (const c of ['kvar', 'pf', 'fixed', 'model', 'phases']) if (cells[c] !== undefined && cells[c]!.trim() === '') delete cells[c];
+    const name = (cells.customer ?? '').trim();
+    const first = name ? seen.get(name) : undefined;
+    if (name && first === undefined) seen.set(name, row);
     const parsed = customerRowSchema.safeParse(cells);
+    if (first !== undefined) issues.push({ row, column: 'customer', message: `"${name}" is already the customer of row ${first}; each customer appears once` });
     if (!parsed.success) {
       for (const i of parsed.error.issues) {
         const column = typeof i.path[0] === 'string' ? i.path[0] : undefined;
@@ -139,13 +143,8 @@ export function customersFromRecords(records: Record<string, string | undefined>
       }
       return;
     }
+    if (first !== undefined) return;
     const r = parsed.data;
-    const first = seen.get(r.customer);
-    if (first !== undefined) {
-      issues.push({ row, column: 'customer', message: `"${r.customer}" is already the customer of row ${first}; each customer appears once` });
-      return;
-    }
-    seen.set(r.customer, row);
     const kvar = r.kvar ?? r.kw * Math.tan(Math.acos(r.pf!));
     out.push({
       customer: r.customer,
