@@ -41,7 +41,7 @@ export { ANSI_C84_1, IEC_EN, resolveLimits, UNBALANCE_METRICS, type LimitSet, ty
 export { UNBALANCE_NAMES, unbalanceOf } from './limits/flags.ts';
 export { carsonPrimitiveMatrix, kronReduce, type CarsonConductor } from './blocks/carson.ts';
 export { busNode } from './blocks/expansion.ts';
-export { demoCircuits, type DemoCircuit } from './examples/index.ts';
+export { demoCircuits, balancingFeeder, balancingCustomersCsv, type DemoCircuit } from './examples/index.ts';
 export {
   solvePrimitives,
   createNetwork,

@@ -20,9 +20,9 @@ export interface BalanceOptions {
   bus?: string;
   /** Most customers that may change phase (default: no limit). */
   maxMoves?: number;
-  /** HiGHS time limit, s (default 3). */
+  /** HiGHS time for all MILP rounds together, s (default 4; the first round may take half). */
   milpTimeLimitS?: number;
-  /** Linearise-and-solve rounds at most (default 3): each re-linearises about the last MILP answer. */
+  /** Linearise-and-solve rounds at most (default 3): each re-linearises about the last MILP answer. The gap reported is the last round's. */
   relinearise?: number;
   /** Exact solves the local search may spend (default 400). */
   maxEvaluations?: number;
@@ -92,15 +92,19 @@ export function balancePhases(highs: HighsRuntime, feederInput: unknown, custome
   let milp: MilpResult | undefined;
   const seen = new Set<string>();
   const key = (a: Assignment) => customers.map((c) => a[c.customer]).join('');
-  for (let round = 0; round < (options.relinearise ?? 3); round++) {
+  const rounds = options.relinearise ?? 3;
+  let milpTime = options.milpTimeLimitS ?? 4;
+  for (let round = 0; round < rounds; round++) {
     progress('linearising', solves);
     const built = buildLinearModel(feeder, customers, base.assignment, base.result, point, options.shouldStop);
     model = built.model;
     solves += model.solves;
     progress('milp', solves);
-    const m = solveMilp(highs, feeder, customers, model, built.anchor, spec, maxMoves, options.milpTimeLimitS ?? 3, original);
-    milp ??= m;
-    if (round === 0 || m.status === 'optimal') milp = m;
+    const share = round === rounds - 1 ? milpTime : Math.max(milpTime / 2, 0.05);
+    const started = Date.now();
+    const m = solveMilp(highs, feeder, customers, model, built.anchor, spec, maxMoves, share, original);
+    milpTime = Math.max(0.05, milpTime - (Date.now() - started) / 1000);
+    milp = m;
     const k = key(m.assignment);
     if (seen.has(k) || k === key(base.assignment)) break;
     seen.add(k);

@@ -11,7 +11,7 @@ import { abs, add, sub } from '../phasor.ts';
 import type { CircuitResult } from '../results/types.ts';
 import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/unbalance.ts';
 import { solveCircuit } from '../solve-circuit.ts';
-import type { BalancePhase, Customer } from './customers.ts';
+import { CustomerListError, type BalancePhase, type Customer } from './customers.ts';
 import { withCustomers, type Assignment, type BalanceFeeder, type FeederEdge } from './feeder.ts';
 
 /** The figures of one assignment (the keys of the CLI's `before` / `after` / `rotatingRule`). */
@@ -49,11 +49,11 @@ const hasNeutral = (r: CircuitResult, id: string, port: number) => r.elements[id
  */
 export function neutralPoint(feeder: BalanceFeeder, base: CircuitResult, bus?: string): NeutralPoint {
   if (bus !== undefined && bus !== feeder.sourceBus) {
-    if (!feeder.order.includes(bus)) throw new Error(`the feeder has no bus "${bus}"`);
+    if (!feeder.order.includes(bus)) throw new CustomerListError([{ message: `the feeder has no bus "${bus}" to measure the neutral current at` }]);
     let parent: FeederEdge | undefined;
     for (const list of feeder.children.values()) parent ??= list.find((e) => e.downstream === bus);
     const port = 1 - parent!.upstreamPort;
-    if (!hasNeutral(base, parent!.id, port)) throw new Error(`the connection into bus ${bus} has no neutral conductor`);
+    if (!hasNeutral(base, parent!.id, port)) throw new CustomerListError([{ message: `the connection into bus ${bus} has no neutral conductor to measure` }]);
     return { bus, direction: 'in', edges: [{ id: parent!.id, port }] };
   }
   let at = feeder.sourceBus;
@@ -61,7 +61,7 @@ export function neutralPoint(feeder: BalanceFeeder, base: CircuitResult, bus?: s
     const out = feeder.children.get(at) ?? [];
     const withN = out.filter((e) => hasNeutral(base, e.id, e.upstreamPort));
     if (withN.length) return { bus: at, direction: 'out', edges: withN.map((e) => ({ id: e.id, port: e.upstreamPort })) };
-    if (out.length !== 1) throw new Error(`no neutral conductor leaves the source bus ${feeder.sourceBus}`);
+    if (out.length !== 1) throw new CustomerListError([{ message: `no neutral conductor leaves the source bus ${feeder.sourceBus}; give --bus` }]);
     at = out[0].downstream;
   }
 }

@@ -9,8 +9,8 @@
  * here over the network's linearised response instead of per-phase sums). Every quantity is an
  * affine function of x (an auxiliary column y tied to it by one equality row); the objectives,
  * all convex in y, enter as epigraphs:
- * - a magnitude |z| (neutral current, negative-sequence voltage) by the 32-sided outer polygon
- *   t ≥ Re(z·e^{−jθₖ}): under-estimates |z| by at most 1 − cos(π/32) ≈ 0.5 % (P);
+ * - a magnitude |z| (neutral current, negative-sequence voltage) by the 24-sided outer polygon
+ *   t ≥ Re(z·e^{−jθₖ}): under-estimates |z| by at most 1 − cos(π/24) ≈ 0.9 % (P);
  * - a voltage magnitude |V| ≈ Re(V·conj(V⁰))/|V⁰| (tangent at the operating point) (P);
  * - line/phase-voltage unbalance: t ≥ ±100·(mₖ − mean m)/mean m⁰ (mean fixed at its operating value);
  * - losses Σ r·|I|²: each square by tangent cuts s ≥ 2a·y − a² on a grid over y's reachable range;
@@ -45,6 +45,8 @@ export interface MilpResult {
   status: string;
   /** Relative gap HiGHS proves between its solution and its bound, %. */
   gapPercent: number;
+  /** The same gap in the objective's own units (A, %, kW, pu; a mix: none). */
+  absoluteGap: number;
   objective: number;
   bound: number;
   columns: number;
@@ -52,9 +54,28 @@ export interface MilpResult {
 }
 
 const STATUS: Record<number, string> = { 7: 'optimal', 8: 'infeasible', 13: 'time-limit', 14: 'iteration-limit', 15: 'interrupted' };
-const DIRECTIONS = 32;
+const DIRECTIONS = 24;
 const BIG_M = 2;
 const GRID = 12;
+
+/**
+ * The absolute gap at which the MILP may stop: differences below what any reading could tell
+ * apart (0.05 A, 0.001 % unbalance, 1 W, 0.0001 pu); a mix is dimensionless (P).
+ */
+function absoluteTolerance(spec: ObjectiveSpec): number {
+  switch (spec.objective) {
+    case 'neutral':
+      return 0.05;
+    case 'unbalance':
+      return 0.001;
+    case 'losses':
+      return 0.001;
+    case 'voltage':
+      return 1e-4;
+    default:
+      return 1e-4;
+  }
+}
 
 class Lp {
   lo: number[] = [];
@@ -254,7 +275,7 @@ export function solveMilp(
   const numRows = lp.rowLo.length;
   const m = highs.createModel();
   try {
-    m.options.set({ output_flag: false, time_limit: timeLimitS, mip_rel_gap: 1e-6 });
+    m.options.set({ output_flag: false, time_limit: timeLimitS, mip_rel_gap: 1e-6, mip_abs_gap: absoluteTolerance(spec) });
     m.passModel({
       numCols,
       numRows,
@@ -292,9 +313,11 @@ export function solveMilp(
     return {
       assignment,
       status,
-      gapPercent: solved ? 100 * (Number.isFinite(gap) ? Math.max(0, gap) : 0) : NaN,
+      // NaN (null in JSON) when HiGHS proved no bound
+      gapPercent: solved && Number.isFinite(gap) && Number.isFinite(num('mip_dual_bound')) ? 100 * Math.max(0, gap) : NaN,
       objective: solved ? m.getObjectiveValue() : NaN,
       bound: num('mip_dual_bound'),
+      absoluteGap: solved && Number.isFinite(num('mip_dual_bound')) ? Math.abs(m.getObjectiveValue() - num('mip_dual_bound')) : NaN,
       columns: numCols,
       rows: numRows,
     };

@@ -21,3 +21,4 @@ export const demoCircuits: DemoCircuit[] = [
 ];
 
 export { deltaWyeBank, feederEarthFault, openNeutralService, splitPhaseService };
+export { balancingFeeder, balancingCustomersCsv } from './balancing-feeder.ts';

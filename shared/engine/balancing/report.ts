@@ -1,0 +1,47 @@
+/**
+ * What a balancing result says to people: the move list as CSV for the crew (with the caution in
+ * it, since phase moves are work on live equipment) and the figures' labels.
+ */
+import type { BalanceMove, BalanceResult } from './balance.ts';
+import type { BalanceFigures } from './figures.ts';
+
+/** The caution printed with every move list (and in its CSV). */
+export const MOVES_CAUTION =
+  'CAUTION: an engineering aid; results are only as good as the model. Phase moves are work on live equipment: follow local codes and licensed practice. A lost or open neutral puts dangerous voltages on equipment and people.';
+
+const cell = (s: string) => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+
+/** CSV of the moves: customer,bus,from,to, then the caution as a last line starting with '#'. */
+export function movesCsv(moves: BalanceMove[]): string {
+  const rows = ['customer,bus,from,to', ...moves.map((m) => [m.customer, m.bus, m.from, m.to].map(cell).join(','))];
+  rows.push(cell(`# ${MOVES_CAUTION}`));
+  return `${rows.join('\n')}\n`;
+}
+
+/** The rows of a before/after table: label, unit and how to read each figure. */
+export const FIGURE_ROWS: { label: string; unit: string; get: (f: BalanceFigures) => number; digits: number }[] = [
+  { label: 'Neutral current', unit: 'A', get: (f) => f.neutralCurrentA, digits: 1 },
+  { label: 'Worst unbalance, IEC |V2|/|V1|', unit: '%', get: (f) => f.maxUnbalancePercent.iec, digits: 3 },
+  { label: 'Worst unbalance, line voltages (NEMA)', unit: '%', get: (f) => f.maxUnbalancePercent.nema, digits: 3 },
+  { label: 'Worst unbalance, phase voltages (IEEE)', unit: '%', get: (f) => f.maxUnbalancePercent.ieee, digits: 3 },
+  { label: 'Losses', unit: 'kW', get: (f) => f.lossesKw, digits: 3 },
+  { label: 'Lowest customer voltage', unit: 'pu', get: (f) => f.minCustomerVoltagePu, digits: 4 },
+  { label: 'Highest customer voltage', unit: 'pu', get: (f) => f.maxCustomerVoltagePu, digits: 4 },
+];
+
+/** The objective in words. */
+export function objectiveWords(r: Pick<BalanceResult, 'objective' | 'neutralMeasuredAt'>): string {
+  const o = r.objective;
+  switch (o.objective) {
+    case 'neutral':
+      return `neutral current ${r.neutralMeasuredAt.direction === 'out' ? 'leaving' : 'arriving at'} bus ${r.neutralMeasuredAt.bus}`;
+    case 'unbalance':
+      return `worst voltage unbalance along the feeder (${{ iec: 'IEC |V2|/|V1|', nema: 'line voltages, NEMA', ieee: 'phase voltages, IEEE' }[o.definition ?? 'iec']})`;
+    case 'losses':
+      return 'losses';
+    case 'voltage':
+      return 'lowest customer voltage';
+    case 'mix':
+      return `weighted mix (${Object.entries(o.weights ?? {}).filter(([, w]) => w).map(([k, w]) => `${k} ${w}`).join(', ')})`;
+  }
+}
