@@ -1,6 +1,7 @@
 /**
  * Fast start for the CLIs: `launch('solve')` (server/cli/solve-launcher.mjs, `npm run solve`) runs
- * server/cli/solve.ts, `launch('sweep')` (sweep-launcher.mjs) server/cli/sweep.ts, each from its own
+ * server/cli/solve.ts, `launch('sweep')` (sweep-launcher.mjs) server/cli/sweep.ts, `launch('balance')`
+ * (balance-launcher.mjs) server/cli/balance.ts, each from its own
  * prebuilt single-file CommonJS bundle, rebuilt on demand with
  * esbuild (vite's own dependency) when any of its sources changed — like server/client-build.ts does
  * for the client — and loaded with V8's code cache (see loadBundle).
@@ -101,7 +102,7 @@ async function build({ entry, bundlePath, codeCachePath, metaPath }) {
  * run included); later runs skip parsing and compiling ~1 MB of JavaScript. V8 rejects a cache
  * that does not match the source or the V8 version, and a new one is written.
  */
-function loadBundle({ bundlePath, codeCachePath }) {
+function loadBundle({ entry, bundlePath, codeCachePath }) {
   const code = readFileSync(bundlePath, 'utf8');
   let cachedData;
   try {
@@ -111,7 +112,9 @@ function loadBundle({ bundlePath, codeCachePath }) {
   }
   const script = new vm.Script(`(function (exports, require, module, __filename, __dirname) {${code}\n})`, { filename: bundlePath, cachedData });
   const mod = { exports: {} };
-  script.runInThisContext().call(mod.exports, mod.exports, createRequire(bundlePath), mod, bundlePath, path.dirname(bundlePath));
+  // `require` resolves from the CLI's source file, so packages loaded at run time (HiGHS for
+  // balance) are found in the project's node_modules wherever the cache folder is
+  script.runInThisContext().call(mod.exports, mod.exports, createRequire(entry), mod, bundlePath, path.dirname(bundlePath));
   const storeCache = () => {
     if (cachedData !== undefined && !script.cachedDataRejected) return;
     try {
