@@ -32,6 +32,7 @@ export interface HighsModel {
   readonly options: { set(options: Record<string, unknown>): unknown };
   readonly info: { get(name: string): number | bigint };
   passModel(model: never): unknown;
+  setSolution(solution: never): unknown;
   run(): unknown;
   getModelStatus(): number;
   getSolution(): { colValue: Float64Array };
@@ -56,7 +57,7 @@ export interface MilpResult {
 const STATUS: Record<number, string> = { 7: 'optimal', 8: 'infeasible', 13: 'time-limit', 14: 'iteration-limit', 15: 'interrupted' };
 const DIRECTIONS = 24;
 const BIG_M = 2;
-const GRID = 12;
+const GRID = 6;
 
 /**
  * The absolute gap at which the MILP may stop: differences below what any reading could tell
@@ -76,6 +77,8 @@ function absoluteTolerance(spec: ObjectiveSpec): number {
       return 1e-4;
   }
 }
+
+const movesFrom = (a: Assignment, original: Assignment, movable: Customer[]) => movable.filter((c) => a[c.customer] !== original[c.customer]).length;
 
 class Lp {
   lo: number[] = [];
@@ -288,6 +291,18 @@ export function solveMilp(
       matrix: { format: 'csr', numRows, numCols, starts: Int32Array.from(lp.starts), indices: Int32Array.from(lp.idx), values: Float64Array.from(lp.val) },
       integrality: Int32Array.from(lp.int),
     } as never);
+    // the present connection as the first incumbent (HiGHS completes the continuous columns), so
+    // a time-limited run still returns a solution and a gap
+    const start: number[] = [];
+    const startValues: number[] = [];
+    for (const c of movable) for (const [p, j] of x.get(c.customer)!) (start.push(j), startValues.push(p === anchor.assignment[c.customer] ? 1 : 0));
+    if (start.length && movesFrom(anchor.assignment, original, movable) <= maxMoves) {
+      try {
+        m.setSolution({ indices: Int32Array.from(start), values: Float64Array.from(startValues) } as never);
+      } catch {
+        // a start HiGHS cannot use only costs speed
+      }
+    }
     m.run();
     const code = m.getModelStatus();
     const status = STATUS[code] ?? `status ${code}`;
