@@ -18,6 +18,7 @@ import { mailRoutes } from './routes/mail.ts';
 import { notificationRoutes, templateRoutes } from './routes/notifications.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { studyRoutes } from './routes/studies.ts';
+import { balancingRoutes } from './routes/balancing.ts';
 import { inviteRoutes, teamRoutes } from './routes/team.ts';
 
 export interface AppDeps {
@@ -67,6 +68,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false }: AppD
   api.use('/auth', authRoutes(ctx));
   api.use('/studies', reviewRoutes(ctx));
   api.use('/studies', studyRoutes(ctx));
+  api.use('/studies', balancingRoutes(ctx));
   api.use('/templates', templateRoutes(ctx));
   api.use('/notifications', notificationRoutes(ctx));
   api.use('/team', teamRoutes(ctx));

@@ -31,7 +31,7 @@ import {
   type Customer,
   type ObjectiveSpec,
 } from '../../shared/engine/index.ts';
-import { highsRuntime } from './highs-node.ts';
+import { highsRuntime } from '../work/highs.ts';
 
 const USAGE = 'usage: balance <customers.csv> --feeder <f.json> [--objective neutral|unbalance|losses|voltage] [--definition iec|nema|ieee] [--bus <name>] [--max-moves N] [--moves-csv <file>] [--json]';
 

@@ -12,6 +12,7 @@ import { Piscina } from 'piscina';
 import type { RevisionDiff, DiffSide } from '../../shared/review/diff.ts';
 import { AppError } from '../errors.ts';
 import { prepare, runTask, type Prepared, type Task } from './tasks.ts';
+import type { BalanceOutcome, BalanceTask } from './balance-task.ts';
 
 /** Jobs on circuits with fewer elements than this run inline (they take well under a millisecond). */
 export const INLINE_ELEMENTS = 60;
@@ -28,6 +29,8 @@ export interface WorkPoolOptions {
 export interface WorkPool {
   prepare(circuit: unknown): Promise<Prepared>;
   diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
+  /** Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped). */
+  balance(task: BalanceTask, signal?: AbortSignal): Promise<BalanceOutcome>;
   close(): Promise<void>;
 }
 
@@ -48,14 +51,16 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       maxQueue,
     }));
 
-  async function run<T>(task: Task): Promise<T> {
+  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal): Promise<T> {
     const p = getPool();
     if (p.queueSize >= maxQueue) {
       throw new AppError(503, 'unavailable', 'The server is busy with other large studies; try again in a moment.', { retryAfterSeconds: 5 });
     }
     try {
-      return (await p.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as T;
+      const signal = cancel ? AbortSignal.any([AbortSignal.timeout(timeoutMs), cancel]) : AbortSignal.timeout(timeoutMs);
+      return (await p.run(task, { signal })) as T;
     } catch (err) {
+      if (cancel?.aborted) throw new AppError(503, 'unavailable', 'The balancing was cancelled.');
       if (err instanceof Error && (err.name === 'AbortError' || /aborted/i.test(err.message))) {
         throw new AppError(
           503,
@@ -72,6 +77,9 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
     async prepare(circuit) {
       if (elementCount(circuit) < INLINE_ELEMENTS) return prepare(circuit);
       return run<Prepared>({ kind: 'prepare', circuit });
+    },
+    async balance(task, signal) {
+      return run<BalanceOutcome>(task, signal);
     },
     async diff(from, to) {
       const size = Math.max(elementCount((from.content as { circuit?: unknown }).circuit), elementCount((to.content as { circuit?: unknown }).circuit));

@@ -13,7 +13,7 @@
  */
 import { execSync } from 'node:child_process';
 import { balancePhases, type BalanceProgress, type CircuitInput, type Customer, type ObjectiveSpec } from '../../shared/engine/index.ts';
-import { highsRuntime } from '../../server/cli/highs-node.ts';
+import { highsRuntime } from '../../server/work/highs.ts';
 
 /** Seeded uniform numbers in [0, 1) (mulberry32). */
 function random(seed: number): () => number {

@@ -158,6 +158,11 @@ const rows: Row[] = [
     expect: m(201, 201, 403, 403, 404),
     send: (a) => a.post(`/api/studies/${studyA}/clone`).send({}),
   },
+  {
+    name: 'POST /api/studies/:id/balance',
+    expect: m(200, 200, 200, 200, 404),
+    send: (a) => a.post(`/api/studies/${studyR}/balance`).send({ objective: 'unbalance', maxMoves: 1 }),
+  },
   { name: 'GET /api/team', expect: m(200, 200, 200, 200, 200), send: (a) => a.get('/api/team') },
   {
     name: 'POST /api/team/invites',
@@ -313,6 +318,7 @@ describe('another team', () => {
       (a: TestAgent) => a.patch('/api/studies/not-a-uuid').send({ version: 1 }),
       (a: TestAgent) => a.delete('/api/studies/not-a-uuid'),
       (a: TestAgent) => a.post('/api/studies/not-a-uuid/clone').send({}),
+      (a: TestAgent) => a.post('/api/studies/not-a-uuid/balance').send({}),
       (a: TestAgent) => a.get('/api/studies/not-a-uuid/revisions'),
       (a: TestAgent) => a.get('/api/studies/not-a-uuid/diff'),
       (a: TestAgent) => a.post('/api/studies/not-a-uuid/review').send({ action: 'approve' }),

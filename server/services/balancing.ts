@@ -1,0 +1,25 @@
+/** Phase balancing of a study: its circuit and a customer list (or its own loads) to the worker pool. */
+import type { BalanceResponse } from '../../shared/api/balancing.ts';
+import type { CircuitInput } from '../../shared/engine/index.ts';
+import type { Db } from '../db/index.ts';
+import { AppError } from '../errors.ts';
+import type { Actor } from '../auth/index.ts';
+import { getStudy } from './studies.ts';
+import { work } from '../work/index.ts';
+
+export interface BalanceInput {
+  customersCsv?: string;
+  objective: 'neutral' | 'unbalance' | 'losses' | 'voltage';
+  definition?: 'iec' | 'nema' | 'ieee';
+  bus?: string;
+  maxMoves?: number;
+}
+
+/** Balance the latest content of a study of the actor's team (404 otherwise); 400 names what is wrong in the input. */
+export async function balanceStudy(db: Db, actor: Actor, id: string, input: BalanceInput, signal?: AbortSignal): Promise<BalanceResponse> {
+  const study = await getStudy(db, actor, id);
+  if (input.definition && input.objective !== 'unbalance') throw new AppError(400, 'validation', 'A definition of unbalance goes with the unbalance objective.', { fields: { definition: 'only with the unbalance objective' } });
+  const outcome = await work().balance({ kind: 'balance', circuit: study.content.circuit as unknown as CircuitInput, ...input }, signal);
+  if (!outcome.ok) throw new AppError(400, 'validation', outcome.message, outcome.field ? { fields: { [outcome.field]: outcome.message } } : {});
+  return outcome.response;
+}

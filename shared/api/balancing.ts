@@ -1,0 +1,45 @@
+/** Phase balancing of a study (`POST /api/studies/:id/balance`): request and answer. */
+import { z } from 'zod';
+
+/** Largest customer CSV accepted (about 5 000 customers). */
+export const MAX_CUSTOMERS_CSV_CHARS = 500_000;
+
+export const balanceRequestSchema = z.object({
+  /** The customer list as CSV text; without it the study's own single-phase loads are balanced. */
+  customersCsv: z.string().max(MAX_CUSTOMERS_CSV_CHARS, 'The customer list is too long (at most about 5 000 customers)').optional(),
+  objective: z.enum(['neutral', 'unbalance', 'losses', 'voltage']).default('neutral'),
+  definition: z.enum(['iec', 'nema', 'ieee']).optional(),
+  /** Bus where the neutral current is measured (default: the source). */
+  bus: z.string().trim().min(1).max(200).optional(),
+  maxMoves: z.number().int('The number of moves must be a whole number').min(0, 'The number of moves cannot be negative').max(5000).optional(),
+});
+export type BalanceRequest = z.input<typeof balanceRequestSchema>;
+
+const figuresSchema = z.object({
+  neutralCurrentA: z.number(),
+  maxUnbalancePercent: z.object({ iec: z.number(), nema: z.number(), ieee: z.number() }),
+  lossesKw: z.number(),
+  minCustomerVoltagePu: z.number(),
+  maxCustomerVoltagePu: z.number(),
+});
+const voltageSchema = z.object({ customer: z.string(), bus: z.string(), phase: z.string(), volts: z.number(), pu: z.number() });
+
+export const balanceResponseSchema = z.object({
+  /** The objective in words ("neutral current leaving bus WC0"). */
+  objective: z.string(),
+  assignment: z.record(z.string(), z.enum(['A', 'B', 'C'])),
+  moves: z.array(z.object({ customer: z.string(), bus: z.string(), from: z.string(), to: z.string() })),
+  before: figuresSchema,
+  after: figuresSchema,
+  rotatingRule: figuresSchema,
+  /** Gap HiGHS proved on the linearised MILP, % (null when it proved none). */
+  gapPercent: z.number().nullable(),
+  milpStatus: z.string(),
+  solves: z.number(),
+  maxMoves: z.number(),
+  voltages: z.object({ before: z.array(voltageSchema), after: z.array(voltageSchema) }),
+  /** Whether the customers are the study's own loads (so the assignment can be applied as a revision). */
+  fromStudy: z.boolean(),
+  caution: z.string(),
+});
+export type BalanceResponse = z.infer<typeof balanceResponseSchema>;

@@ -1,0 +1,89 @@
+/**
+ * POST /api/studies/:id/balance: balancing a study's own single-phase loads or an uploaded customer
+ * list in the worker pool, errors in words, the team boundary, and "Apply" as a new revision
+ * through the ordinary save (PATCH) with the engine's applyAssignment.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type TestAgent from 'supertest/lib/agent.js';
+import { analyseFeeder, applyAssignment, withCustomers, type CircuitInput } from '../../shared/engine/index.ts';
+import { balanceResponseSchema } from '../../shared/api/balancing.ts';
+import type { Db } from '../../server/db/index.ts';
+import { closeWork, configureWork } from '../../server/work/index.ts';
+import { makeApp, makeTeam, makeUser, signedIn } from './helpers.ts';
+import { openTestDb } from './test-db.ts';
+import { smallCustomers, smallFeeder } from '../shared/engine/balancing/small-feeder.ts';
+
+let db: Db;
+let engineer: TestAgent;
+let viewer: TestAgent;
+let stranger: TestAgent;
+let feederStudy: string;
+let loadsStudy: { id: string; version: number };
+
+// the study whose own loads are balanced: the small feeder with its customers drawn as loads
+const withLoads = withCustomers(analyseFeeder(smallFeeder), smallCustomers, Object.fromEntries(smallCustomers.map((c) => [c.customer, c.phase]))) as CircuitInput;
+
+beforeAll(async () => {
+  db = await openTestDb();
+  const t = makeApp(db);
+  configureWork({ threads: 1, timeoutMs: 120_000 });
+  const team = await makeTeam(db);
+  engineer = await signedIn(t.app, (await makeUser(db, team, 'engineer')).email);
+  viewer = await signedIn(t.app, (await makeUser(db, team, 'viewer')).email);
+  stranger = await signedIn(t.app, (await makeUser(db, await makeTeam(db), 'owner')).email);
+  feederStudy = (await engineer.post('/api/studies').send({ name: 'Lane feeder', content: { circuit: smallFeeder } })).body.id;
+  loadsStudy = (await engineer.post('/api/studies').send({ name: 'Lane houses', content: { circuit: withLoads } })).body;
+});
+afterAll(() => closeWork());
+
+const CSV = 'customer,bus,phase,kw,kvar\nH1,P1,A,4.2,1.0\nH2,P1,A,2.5,0.6\nH3,P2,A,6.0,1.5\nH5,P3,A,3.4,0.9\nH7,P3,C,0.8,0.2\n';
+
+describe('balancing a study', () => {
+  it('balances an uploaded customer list (any team member may run it), with the caution and exact figures', async () => {
+    const res = await viewer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'neutral', maxMoves: 2 });
+    expect(res.status).toBe(200);
+    const body = balanceResponseSchema.parse(res.body);
+    expect(body.moves.length).toBeGreaterThan(0);
+    expect(body.moves.length).toBeLessThanOrEqual(2);
+    expect(body.after.neutralCurrentA).toBeLessThan(body.before.neutralCurrentA);
+    expect(body.caution).toMatch(/live equipment/);
+    expect(body.fromStudy).toBe(false);
+    expect(body.objective).toBe('neutral current leaving bus S');
+  });
+
+  it('names the row and column of a bad customer list (400)', async () => {
+    const res = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: 'customer,bus,phase,kw,kvar\nH1,P1,A,two,0\nH2,P9,B,1,0\n' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toContain('row 2, column kw: kW must be a number (found "two")');
+    expect(res.body.error.fields.customersCsv).toBeDefined();
+    const bus = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: 'customer,bus,phase,kw,kvar\nH2,P9,B,1,0\n' });
+    expect(bus.status).toBe(400);
+    expect(bus.body.error.message).toContain('row 2, column bus: the feeder has no three-phase bus "P9"');
+    const none = await engineer.post(`/api/studies/${feederStudy}/balance`).send({});
+    expect(none.status).toBe(400);
+    expect(none.body.error.message).toMatch(/no single-phase kW loads between a phase and the neutral/);
+    const objective = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'cost' });
+    expect(objective.status).toBe(400);
+  });
+
+  it('is 404 for another team', async () => {
+    const res = await stranger.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV });
+    expect(res.status).toBe(404);
+  });
+
+  it("balances the study's own loads and applies the moves as a new revision", async () => {
+    const res = await engineer.post(`/api/studies/${loadsStudy.id}/balance`).send({ objective: 'losses', maxMoves: 3 });
+    expect(res.status).toBe(200);
+    const body = balanceResponseSchema.parse(res.body);
+    expect(body.fromStudy).toBe(true);
+    expect(body.moves.length).toBeGreaterThan(0);
+    expect(body.moves.length).toBeLessThanOrEqual(3);
+    const content = { circuit: applyAssignment(withLoads, body.assignment) };
+    const saved = await engineer.patch(`/api/studies/${loadsStudy.id}`).send({ version: loadsStudy.version, content, message: `Phase balancing: ${body.moves.length} moves` });
+    expect(saved.status).toBe(200);
+    expect(saved.body.revision).toBe(2);
+    const moved = body.moves[0];
+    const load = (saved.body.content.circuit.elements as { id: string; between?: string[] }[]).find((e) => e.id === moved.customer)!;
+    expect(load.between).toEqual([moved.to.toLowerCase(), 'n']);
+  });
+});
