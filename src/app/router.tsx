@@ -55,6 +55,8 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
         },
         // Review and reuse (issue 5): history, revisions, diffs, templates, notifications, audit.
         { path: 'studies/:id/history', lazy: () => import('./routes/study-history.tsx'), errorElement: <RouteError /> },
+        // Phase balancing (issue 11).
+        { path: 'studies/:id/balance', lazy: () => import('./routes/study-balance.tsx'), errorElement: <RouteError /> },
         { path: 'studies/:id/revisions/:n', lazy: () => import('./routes/study-revision.tsx'), errorElement: <RouteError /> },
         { path: 'studies/:id/diff', lazy: () => import('./routes/study-diff.tsx'), errorElement: <RouteError /> },
         { path: 'templates', lazy: () => import('./routes/templates.tsx'), errorElement: <RouteError /> },

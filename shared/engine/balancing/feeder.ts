@@ -114,16 +114,21 @@ export function currentAssignment(customers: Customer[]): Assignment {
 
 const MODEL: Record<Customer['model'], 'impedance' | 'current' | 'power'> = { z: 'impedance', i: 'current', p: 'power' };
 
-/** A copy of the feeder circuit with each customer as a single-phase load between its assigned phase and the bus neutral. */
-export function withCustomers(feeder: BalanceFeeder, customers: Customer[], assignment: Assignment): CircuitInput {
-  const loads = customers.map((c) => ({
+/** A customer as a single-phase load (named as the customer) between a phase and its bus neutral. */
+export function customerLoad(c: Customer, phase: BalancePhase) {
+  return {
     type: 'load' as const,
     id: c.customer,
     bus: c.bus,
     connection: 'single' as const,
-    between: [(assignment[c.customer] ?? c.phase).toLowerCase() as 'a' | 'b' | 'c', 'n' as const] as ['a', 'n'],
+    between: [phase.toLowerCase() as 'a' | 'b' | 'c', 'n' as const] as ['a', 'n'],
     each: { kw: c.kw, kvar: c.kvar, model: MODEL[c.model] },
-  }));
+  };
+}
+
+/** A copy of the feeder circuit with each customer as a single-phase load between its assigned phase and the bus neutral. */
+export function withCustomers(feeder: BalanceFeeder, customers: Customer[], assignment: Assignment): CircuitInput {
+  const loads = customers.map((c) => customerLoad(c, assignment[c.customer] ?? c.phase));
   return { ...feeder.circuit, elements: [...feeder.circuit.elements, ...loads] };
 }
 

@@ -5,7 +5,7 @@
  */
 import type { CircuitInput } from '../schema/circuit.ts';
 import { CustomerListError, type BalancePhase, type Customer } from './customers.ts';
-import type { Assignment } from './feeder.ts';
+import { customerLoad, type Assignment } from './feeder.ts';
 
 type RawLoad = { type: string; id: string; bus?: string; connection?: string; between?: string[]; generation?: boolean; each?: { kw?: number; kvar?: number; model?: unknown } };
 
@@ -43,4 +43,15 @@ export function applyAssignment<C extends CircuitInput>(circuit: C, assignment: 
       return { ...e, between: [phase.toLowerCase(), 'n'] };
     }),
   };
+}
+
+/**
+ * The circuit after balancing an uploaded customer list: customers that are already loads of the
+ * circuit (same name) move to their phase; the others are added as single-phase loads on theirs.
+ */
+export function applyCustomers<C extends CircuitInput>(circuit: C, customers: Customer[], assignment: Assignment): C {
+  const ids = new Set(circuit.elements.map((e) => (e as { id: string }).id));
+  const moved = applyAssignment(circuit, assignment);
+  const added = customers.filter((c) => !ids.has(c.customer)).map((c) => customerLoad(c, assignment[c.customer] ?? c.phase));
+  return { ...moved, elements: [...moved.elements, ...added] };
 }

@@ -307,6 +307,9 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           <Link to={`/studies/${study.id}/details`} className="text-[13px] text-accent hover:underline">
             Details and record
           </Link>
+          <Link to={`/studies/${study.id}/balance`} className="text-[13px] text-accent hover:underline">
+            Phase balancing
+          </Link>
           {readOnly ? <span className="rounded-[2px] bg-sunken px-1.5 text-[12px] font-semibold text-ink-muted">Read-only ({role})</span> : null}
           {dirty ? <span className="text-[12px] font-semibold text-caution">● Unsaved changes</span> : null}
         </div>
