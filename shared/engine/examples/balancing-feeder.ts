@@ -7,6 +7,8 @@
  * Cable data are round invented values of the order of 95 mm² and 35 mm² aluminium cable (P).
  */
 import type { CircuitInput } from '../schema/circuit.ts';
+import { parseCustomersCsv } from '../balancing/customers.ts';
+import { customerLoad } from '../balancing/feeder.ts';
 
 const MAIN = { kind: 'sequence' as const, z1PerLength: { re: 0.32, im: 0.075 }, z0PerLength: { re: 1.28, im: 0.3 }, neutralOhmsPerLength: { re: 0.32, im: 0.08 } };
 const SPUR = { kind: 'sequence' as const, z1PerLength: { re: 0.87, im: 0.08 }, z0PerLength: { re: 3.5, im: 0.32 }, neutralOhmsPerLength: { re: 0.87, im: 0.09 } };
@@ -84,3 +86,13 @@ No 34,LN1,B,0.4,0.98,
 No 35,LN1,A,1.4,0.97,
 No 36,LN1,A,0.9,0.97,
 `;
+
+/**
+ * The feeder with the houses drawn as single-phase loads on their present phases: the demo study
+ * seeded for every team, so the balancing page can run on it at once.
+ */
+export const balancingStudy: CircuitInput = {
+  ...balancingFeeder,
+  name: 'Wrenfold Close LV feeder with its houses',
+  elements: [...balancingFeeder.elements, ...parseCustomersCsv(balancingCustomersCsv).map((c) => customerLoad(c, c.phase))],
+};

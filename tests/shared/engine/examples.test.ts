@@ -5,7 +5,7 @@ import { solveChecked } from './solve-checked.ts';
 
 describe('demo circuits', () => {
   it('have stable, distinct keys', () => {
-    expect(demoCircuits.map((d) => d.key)).toEqual(['open-neutral-208y120', 'split-phase-120-240', 'delta-wye-bank', 'feeder-earth-fault']);
+    expect(demoCircuits.map((d) => d.key)).toEqual(['open-neutral-208y120', 'split-phase-120-240', 'delta-wye-bank', 'feeder-earth-fault', 'wrenfold-close-balancing']);
   });
   for (const d of demoCircuits) {
     it(`${d.key} solves with KCL, power balance and rotation invariance`, () => {
