@@ -193,6 +193,7 @@ describe('no internal name on any page or e-mail', () => {
       `/studies/${studyId}`,
       `/studies/${studyId}/details`,
       `/studies/${studyId}/history`,
+      `/studies/${studyId}/balance`,
       `/studies/${studyId}/revisions/1`,
       `/studies/${studyId}/revisions/2`,
       `/studies/${studyId}/diff`,
@@ -212,7 +213,7 @@ describe('no internal name on any page or e-mail', () => {
         }
       }
     }
-    expect(visited).toBe(4 * 12 + 3);
+    expect(visited).toBe(4 * 13 + 3);
     // Pages that must show the opened connections did so in words.
     const diff = await visit(pages.reviewer, `/studies/${studyId}/diff?from=1&to=2`);
     expect(diff).toContain('opened conductors of the connection KITCHEN–HOUSE');
