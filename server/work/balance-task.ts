@@ -69,6 +69,7 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
         solves: r.solves,
         maxMoves: r.maxMoves,
         voltages: { before: r.voltages.before, after: r.voltages.after },
+        currents: { at: r.neutralMeasuredAt.direction === 'out' ? `leaving bus ${r.neutralMeasuredAt.bus}` : `arriving at bus ${r.neutralMeasuredAt.bus}`, before: r.currents.before, after: r.currents.after },
         fromStudy: task.customersCsv === undefined,
         caution: MOVES_CAUTION,
       },

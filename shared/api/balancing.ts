@@ -22,6 +22,8 @@ const figuresSchema = z.object({
   minCustomerVoltagePu: z.number(),
   maxCustomerVoltagePu: z.number(),
 });
+const cx = z.object({ re: z.number(), im: z.number() });
+const currentsSchema = z.object({ a: cx, b: cx, c: cx, n: cx });
 const voltageSchema = z.object({ customer: z.string(), bus: z.string(), phase: z.string(), volts: z.number(), pu: z.number() });
 
 export const balanceResponseSchema = z.object({
@@ -38,6 +40,8 @@ export const balanceResponseSchema = z.object({
   solves: z.number(),
   maxMoves: z.number(),
   voltages: z.object({ before: z.array(voltageSchema), after: z.array(voltageSchema) }),
+  /** Phase and neutral currents where the neutral is measured, before and after, A (complex). */
+  currents: z.object({ at: z.string(), before: currentsSchema, after: currentsSchema }),
   /** Whether the customers are the study's own loads (so the assignment can be applied as a revision). */
   fromStudy: z.boolean(),
   caution: z.string(),

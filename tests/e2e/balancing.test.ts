@@ -60,6 +60,11 @@ describe('phase balancing in a real browser', () => {
     const table = page.getByRole('table', { name: 'Before and after' });
     const neutral = (await table.getByRole('row', { name: /^Neutral current/ }).getByRole('cell').allTextContents()).map((t) => t.trim());
     expect(Number(neutral[2])).toBeLessThan(Number(neutral[1])); // after < before
+    // phasor diagrams of the currents at the board, before and after, with the neutral written out
+    const after = page.getByRole('img', { name: /^Currents leaving bus WC0, after: A .* N \d+\.\d A/ });
+    await after.waitFor();
+    const neutralAfter = Number(/N (\d+\.\d) A/.exec((await after.getAttribute('aria-label'))!)![1]);
+    expect(neutralAfter).toBeCloseTo(Number(neutral[2]), 0);
     await screenshot(page, 'balancing-result');
 
     await page.getByRole('button', { name: 'Apply as a new revision' }).click();

@@ -8,7 +8,8 @@
  */
 import type { Customer } from './customers.ts';
 import { analyseFeeder, checkCustomers, currentAssignment, rotatingRule, allowedPhases, type Assignment } from './feeder.ts';
-import { exactFigures, neutralPoint, type BalanceFigures, type CustomerVoltage } from './figures.ts';
+import { exactFigures, neutralPoint, pointCurrents, type BalanceFigures, type CustomerVoltage } from './figures.ts';
+import type { Cx } from '../types.ts';
 import { buildLinearModel, type LinearModel } from './linear-model.ts';
 import { exactState, localSearch, type SearchState } from './local-search.ts';
 import { solveMilp, type HighsRuntime, type MilpResult } from './milp.ts';
@@ -58,6 +59,8 @@ export interface BalanceResult {
   milp: Omit<MilpResult, 'assignment'>;
   voltages: { before: CustomerVoltage[]; after: CustomerVoltage[]; rotatingRule: CustomerVoltage[] };
   neutralMeasuredAt: { bus: string; direction: 'out' | 'in' };
+  /** Phase and neutral currents at the measuring point before and after (for phasor diagrams), A. */
+  currents: { before: Record<'a' | 'b' | 'c' | 'n', Cx>; after: Record<'a' | 'b' | 'c' | 'n', Cx> };
   /** Exact solves spent. */
   solves: number;
   maxMoves: number;
@@ -157,6 +160,7 @@ export function balancePhases(highs: HighsRuntime, feederInput: unknown, custome
       rotatingRule: exactFigures(rotating.result, customers, point).voltages,
     },
     neutralMeasuredAt: { bus: point.bus, direction: point.direction },
+    currents: { before: pointCurrents(before.result, point), after: pointCurrents(after.result, point) },
     solves,
     maxMoves,
   };

@@ -76,6 +76,18 @@ export function neutralCurrent(r: CircuitResult, point: NeutralPoint): Cx {
   return sum;
 }
 
+/** The phase and neutral currents at the measuring point (summed over its edges), A, complex. */
+export function pointCurrents(r: CircuitResult, point: NeutralPoint): Record<'a' | 'b' | 'c' | 'n', Cx> {
+  const out: Record<'a' | 'b' | 'c' | 'n', Cx> = { a: { re: 0, im: 0 }, b: { re: 0, im: 0 }, c: { re: 0, im: 0 }, n: { re: 0, im: 0 } };
+  for (const e of point.edges) {
+    const port = r.elements[e.id].ports![e.port];
+    port.conductors.forEach((k, i) => {
+      if (k in out) out[k as keyof typeof out] = add(out[k as keyof typeof out], port.currents[i]);
+    });
+  }
+  return out;
+}
+
 /** Figures of a solved circuit holding these customers (exact: the engine's own results). */
 export function exactFigures(r: CircuitResult, customers: Customer[], point: NeutralPoint): { figures: BalanceFigures; voltages: CustomerVoltage[] } {
   const worst = { iec: 0, nema: 0, ieee: 0 };

@@ -2,8 +2,8 @@
  * Phase balancing of a study: the customers are the study's own single-phase loads or an uploaded
  * customer list (CSV, read with papaparse and checked here, checked again by the server); the
  * planner picks the objective and the move limit, runs it on the server (Cancel stops it), reads
- * the move list with the caution, the before / after / rotating-rule table and each customer's
- * voltage, downloads the moves as CSV, and applies them as a new revision (which goes to review
+ * the move list with the caution, the before / after / rotating-rule table, phasor diagrams of the
+ * currents where the neutral is measured and each customer's voltage, downloads the moves as CSV, and applies them as a new revision (which goes to review
  * like any change).
  */
 import { useRef, useState, type FormEvent } from 'react';
@@ -16,6 +16,7 @@ import { SelectField, TextField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { useRunBalance } from '../api/run-balance.ts';
 import { readCustomersCsv, type ReadCustomers } from '../utils/read-customers.ts';
+import { CurrentPhasors } from './current-phasors.tsx';
 
 const OBJECTIVES = [
   ['neutral', 'Neutral current'],
@@ -278,6 +279,9 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
             Gap proved by the assignment problem on the linearised feeder: {r.gapPercent === null ? 'none' : `${r.gapPercent.toFixed(2)} %`}
             {r.milpStatus === 'optimal' ? '' : ' (stopped at its time limit)'}; {r.solves} exact solves. The figures are exact solves whatever the gap.
           </p>
+
+          <h2 className="text-base">Phasors</h2>
+          <CurrentPhasors currents={r.currents} />
 
           <h2 className="text-base">Customer voltages</h2>
           <table className="w-full max-w-3xl text-sm" aria-label="Customer voltages">
