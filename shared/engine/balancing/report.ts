@@ -7,7 +7,7 @@ import type { BalanceFigures } from './figures.ts';
 
 /** The caution printed with every move list (and in its CSV). */
 export const MOVES_CAUTION =
-  'CAUTION: an engineering aid; results are only as good as the model. Phase moves are work on live equipment: follow local codes and licensed practice. A lost or open neutral puts dangerous voltages on equipment and people.';
+  'CAUTION: Wyeward is an engineering aid; results are only as good as the model. Phase moves are work on live equipment: follow local codes and licensed practice. A lost or open neutral puts dangerous voltages on equipment and people.';
 
 const cell = (s: string) => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
 
