@@ -49,6 +49,9 @@ describe('Content-Security-Policy in a real browser', () => {
     await page.waitForURL(/\/studies\/[0-9a-f-]{36}/);
     await page.getByRole('region', { name: 'Results' }).waitFor({ timeout: 30_000 });
     await page.getByText(/engineering aid/i).first().waitFor();
+    // the phase-balancing page (its own lazy chunk, papaparse included)
+    await page.getByRole('link', { name: 'Phase balancing' }).click();
+    await page.getByRole('heading', { name: 'Phase balancing' }).waitFor();
     await page.goto(`${product.baseUrl}/sign-up`);
     await page.waitForLoadState('networkidle');
     expect(violations).toEqual([]);
