@@ -16,6 +16,7 @@ import { authRoutes } from './routes/auth.ts';
 import type { RouteContext } from './routes/context.ts';
 import { mailRoutes } from './routes/mail.ts';
 import { notificationRoutes, templateRoutes } from './routes/notifications.ts';
+import { reportRoutes } from './routes/report.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { studyRoutes } from './routes/studies.ts';
 import { balancingRoutes } from './routes/balancing.ts';
@@ -66,6 +67,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false }: AppD
     res.json({ ok: true });
   });
   api.use('/auth', authRoutes(ctx));
+  api.use('/studies', reportRoutes(ctx));
   api.use('/studies', reviewRoutes(ctx));
   api.use('/studies', studyRoutes(ctx));
   api.use('/studies', balancingRoutes(ctx));

@@ -2,6 +2,7 @@
  * The whole test suite: `npm test`.
  *
  * 1. Makes sure the Debian packages the tests need are present (chromium for the browser tests,
+ *    poppler-utils for reading back the PDF report,
  *    ngspice for the engine's differential tests). Running as root with apt-get available, it
  *    installs the missing ones; otherwise it names exactly what is missing and fails. It never
  *    skips those tests silently.
@@ -18,6 +19,7 @@ const root = path.resolve(import.meta.dirname, '..');
 const required: { bin: string; pkg: string; why: string }[] = [
   { bin: '/usr/bin/chromium', pkg: 'chromium', why: 'browser tests (tests/e2e)' },
   { bin: '/usr/bin/ngspice', pkg: 'ngspice', why: 'engine differential tests against ngspice' },
+  { bin: '/usr/bin/pdftotext', pkg: 'poppler-utils', why: 'study report tests (PDF read back with pdftotext, page 1 drawn with pdftoppm)' },
 ];
 
 function missing() {

@@ -11,6 +11,8 @@
 import { Piscina } from 'piscina';
 import type { RevisionDiff, DiffSide } from '../../shared/review/diff.ts';
 import { AppError } from '../errors.ts';
+import type { CsvInput } from '../report/csv.ts';
+import type { ReportInput } from '../report/pdf.ts';
 import { prepare, runTask, type Prepared, type Task } from './tasks.ts';
 import type { BalanceOutcome, BalanceTask } from './balance-task.ts';
 
@@ -31,6 +33,10 @@ export interface WorkPool {
   diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
   /** Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped). */
   balance(task: BalanceTask, signal?: AbortSignal): Promise<BalanceOutcome>;
+  /** The PDF report of a revision (server/report/pdf.ts). */
+  report(input: ReportInput): Promise<Uint8Array>;
+  /** One results table as CSV (server/report/csv.ts). */
+  csv(input: CsvInput): Promise<{ ok: true; csv: string } | { ok: false; message: string }>;
   close(): Promise<void>;
 }
 
@@ -85,6 +91,15 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       const size = Math.max(elementCount((from.content as { circuit?: unknown }).circuit), elementCount((to.content as { circuit?: unknown }).circuit));
       if (size < INLINE_ELEMENTS) return runTask({ kind: 'diff', from, to }) as RevisionDiff;
       return run<RevisionDiff>({ kind: 'diff', from, to });
+    },
+    async report(input) {
+      // A report lays out pages and embeds fonts besides solving: only the smallest studies run inline.
+      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await runTask({ kind: 'report', input })) as Uint8Array;
+      return run<Uint8Array>({ kind: 'report', input });
+    },
+    async csv(input) {
+      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await runTask({ kind: 'csv', input })) as Awaited<ReturnType<WorkPool['csv']>>;
+      return run({ kind: 'csv', input });
     },
     async close() {
       const p = pool;

@@ -1,28 +1,14 @@
 /** Number formatting of the results: RMS magnitude∠degrees, powers in kW/kvar/kVA, always with units. */
 import type { Phasor } from '../../../../shared/engine/index.ts';
 
-/** A magnitude with a tenth above 10 (141.6, 7199.6), then three or four significant figures (no exponent for the ranges a study sees). */
-export function formatMagnitude(x: number): string {
-  const a = Math.abs(x);
-  if (!Number.isFinite(x)) return String(x);
-  // Below a microvolt / microampere is rounding noise of the solve, not a value.
-  if (a < 1e-6) return '0';
-  if (a >= 100000) return x.toFixed(0);
-  if (a >= 10) return x.toFixed(1);
-  if (a >= 1) return x.toFixed(2);
-  return x.toFixed(3);
-}
+import { formatAngle, formatMagnitude } from '../../../../shared/report/format.ts';
+
+// The same numbers as the report and the CSV (shared/report/format.ts).
+export { formatAngle, formatMagnitude };
 
 /** An axis tick: the shortest exact form of a round number (50, 2.5, 0.25, 8000). */
 export function formatTick(x: number): string {
   return String(Number(x.toPrecision(6)));
-}
-
-/** An angle in degrees with one decimal, using a true minus sign ("−2.1°"); 0.0° for a zero phasor. */
-export function formatAngle(deg: number): string {
-  const r = Math.round(deg * 10) / 10;
-  const v = Object.is(r, -0) || r === 0 ? 0 : r;
-  return `${v < 0 ? '−' : ''}${Math.abs(v).toFixed(1)}°`;
 }
 
 /** RMS magnitude∠degrees with a unit: "141.6 V∠−2.1°". */

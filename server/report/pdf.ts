@@ -1,0 +1,225 @@
+/**
+ * The study report as a PDF (pdfmake on pdfkit, IBM Plex embedded), in the order a reviewer reads
+ * it: title block (study, team, revision, author, date, review status; approver and date when
+ * approved, else a "DRAFT — not reviewed" watermark), scope and assumptions, the one-line diagram
+ * (vector) and an input table per element type, results (bus voltages, load terminal voltages,
+ * element currents, power and losses, fault currents), phasor diagrams of the buses that carry
+ * flags (vector), every flag with its limit and where the limit comes from, the caution; page
+ * numbers and the revision on every page.
+ * Pure data in, bytes out: it runs inline or in a worker thread (server/work).
+ */
+import pdfmake from 'pdfmake';
+import { applyCase, BASE_CASE_ID, circuitCases, EngineError, solveCircuit, type CircuitResult } from '../../shared/engine/index.ts';
+import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
+import { complexText, parameterWords, valueWords } from '../../shared/review/parameter-words.ts';
+import { circuitNames, drawnElements, typeWord } from '../../shared/review/user-names.ts';
+import { oneLineSvg } from '../../shared/report/one-line.ts';
+import { phasorSvg } from '../../shared/report/phasor-svg.ts';
+import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
+import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../shared/report/tables.ts';
+import { FONT_FILES, pdfText, REPORT_FONTS } from './fonts.ts';
+
+pdfmake.setUrlAccessPolicy(() => false);
+pdfmake.setLocalAccessPolicy((p) => FONT_FILES.has(p));
+pdfmake.addFonts(REPORT_FONTS);
+
+/** What the report is of: everything is plain data (it crosses a thread boundary). */
+export interface ReportInput {
+  study: { name: string; team: string };
+  revision: { number: number; author: string; createdAt: string; message: string };
+  review: { status: string; approved: boolean; approver?: string; approvedAt?: string };
+  /** A study case id (absent: the base circuit). */
+  caseId?: string;
+  units: ResultUnits;
+  content: { circuit: unknown; layout?: unknown; settings?: unknown };
+  /** When the report is made (ISO), printed in the title block. */
+  madeAt: string;
+}
+
+type Node = Record<string, unknown> | string;
+
+const day = (iso: string) => iso.slice(0, 10);
+
+function tableNode(t: ResultTable, opts: { fontSize?: number; columns?: number[]; widths?: (number | string)[] } = {}): Node[] {
+  const cols = opts.columns ?? t.columns.map((_, i) => i);
+  const body = [cols.map((i) => ({ text: pdfText(t.columns[i]), bold: true })), ...t.rows.map((r) => cols.map((i) => pdfText(r[i] ?? '')))];
+  const out: Node[] = [{ text: pdfText(t.title), style: 'h3' }];
+  if (t.rows.length === 0) out.push({ text: 'None.', style: 'small' });
+  else out.push({ table: { headerRows: 1, dontBreakRows: true, widths: opts.widths ?? cols.map(() => '*'), body }, layout: 'lightHorizontalLines', fontSize: opts.fontSize ?? 7, margin: [0, 2, 0, 2] });
+  if (t.note) out.push({ text: pdfText(t.note), style: 'small', margin: [0, 0, 0, 8] });
+  return out;
+}
+
+/** Leaf parameters of a drawn element, in words ("P (kW): 1.5"). */
+function parameterLines(e: Record<string, unknown>, names: ReturnType<typeof circuitNames>): string {
+  const out: string[] = [];
+  const walk = (v: unknown, path: string) => {
+    if (v !== null && typeof v === 'object' && !Array.isArray(v) && complexText(v) === null && !path.endsWith('opened')) {
+      for (const [k, x] of Object.entries(v as Record<string, unknown>)) walk(x, path ? `${path}.${k}` : k);
+      return;
+    }
+    if (path.endsWith('opened') && v && typeof v === 'object') {
+      for (const [field, cs] of Object.entries(v as Record<string, unknown>)) out.push(`${parameterWords(`opened.${field}`)}: ${valueWords(`opened.${field}`, cs, names)}`);
+      return;
+    }
+    out.push(`${parameterWords(path)}: ${valueWords(path, v, names)}`);
+  };
+  for (const [k, v] of Object.entries(e)) if (k !== 'id' && k !== 'type') walk(v, k);
+  return out.join('; ');
+}
+
+function inputTables(circuit: unknown): Node[] {
+  const names = circuitNames(circuit);
+  const byType = new Map<string, [string, string][]>();
+  for (const [id, e] of drawnElements(circuit)) {
+    const word = typeWord(e.type);
+    byType.set(word, [...(byType.get(word) ?? []), [id, parameterLines(e, names)]]);
+  }
+  const out: Node[] = [];
+  for (const [word, rows] of byType) {
+    out.push({ text: pdfText(`${word[0].toUpperCase()}${word.slice(1)}s`), style: 'h3' });
+    out.push({
+      table: { headerRows: 1, dontBreakRows: true, widths: [90, '*'], body: [[{ text: 'Name', bold: true }, { text: 'Parameters', bold: true }], ...rows.map(([id, p]) => [pdfText(id), pdfText(p)])] },
+      layout: 'lightHorizontalLines',
+      fontSize: 7.5,
+      margin: [0, 2, 0, 6],
+    });
+  }
+  return out;
+}
+
+function scope(circuit: Record<string, unknown>, result: CircuitResult | null, caseWords: string): Node[] {
+  const loads = [...drawnElements(circuit).values()].filter((e) => e.type === 'load');
+  const models = new Set<string>();
+  for (const l of loads) {
+    const specs = [l.each, l.total, ...Object.values((l.phases as Record<string, unknown>) ?? {})].filter(Boolean) as Record<string, unknown>[];
+    for (const s of specs) {
+      if ('ohms' in s || 'rOhms' in s) models.add('fixed impedance');
+      else if ('kw' in s) {
+        const m = s.model;
+        models.add(typeof m === 'string' ? `P and Q at rated voltage, constant ${m}` : m && typeof m === 'object' ? 'P and Q at rated voltage, a ZIP mix' : 'P and Q at rated voltage, constant impedance');
+      }
+    }
+  }
+  const lines = [
+    `Circuit: ${caseWords}.`,
+    `Frequency ${String(circuit.frequencyHz)} Hz; phase sequence ${result?.conventions.sequence ?? String(circuit.sequence ?? 'ABC')}.`,
+    'Phasors are RMS, magnitude and angle in degrees; earth is the reference node.',
+    'Complex power S = V·I*, load convention: Q > 0 is lagging. Sequence components with a = 1 at 120°.',
+    'Transformer banks: the LV side lags the HV side by the clock number × 30° (IEC) or by 30° for delta–wye and wye–delta banks (North American rule), as each bank is set; a tap is on the HV winding.',
+    result ? `Limit set: ${result.limits.name}. Neutral shift above ${result.limits.neutralShiftPercent} % of nominal and loading above ${result.limits.loadingPercent} % are warnings (common practice).` : '',
+    `Loads: ${models.size ? [...models].join('; ') : 'none'}. Each load is judged on the voltage across its own terminals against its own rating.`,
+    'The solve is a complex nodal solution of the whole unbalanced network; no balance is assumed.',
+  ].filter(Boolean);
+  return [{ text: 'Scope and assumptions', style: 'h2' }, { ul: lines.map(pdfText), fontSize: 9 }];
+}
+
+/** Builds the report of one revision (and case) and returns the PDF bytes. */
+export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
+  const base = input.content.circuit as Record<string, unknown>;
+  const caseName = input.caseId && input.caseId !== BASE_CASE_ID ? (circuitCases(base).find((c) => c.id === input.caseId)?.name ?? input.caseId) : null;
+  const circuit = (input.caseId && input.caseId !== BASE_CASE_ID ? applyCase(base, input.caseId) : base) as Record<string, unknown>;
+  const names = circuitNames(circuit);
+  let result: CircuitResult | null = null;
+  let failure: string | null = null;
+  try {
+    result = solveCircuit(circuit);
+  } catch (err) {
+    if (!(err instanceof EngineError)) throw err;
+    failure = names.text(err.message);
+  }
+  const perUnit = readPerUnitSettings(input.content.settings);
+  const revisionWords = `Revision ${input.revision.number}${caseName ? `, case "${caseName}"` : ''}`;
+  const title = input.study.name;
+
+  const content: Node[] = [
+    { text: pdfText(title), style: 'h1' },
+    {
+      table: {
+        widths: [110, '*'],
+        body: [
+          ['Team', input.study.team],
+          ['Revision', String(input.revision.number) + (input.revision.message ? ` — ${input.revision.message}` : '')],
+          ...(caseName ? [['Study case', caseName]] : []),
+          ['Author', input.revision.author],
+          ['Revision date', day(input.revision.createdAt)],
+          ['Review status', input.review.status],
+          ...(input.review.approved ? [['Approved by', `${input.review.approver ?? ''}${input.review.approvedAt ? ` on ${day(input.review.approvedAt)}` : ''}`]] : []),
+          ['Units', input.units === 'pu' ? `per unit. ${'(bases below)'}` : 'volts, amperes, kW and kvar'],
+          ['Report made', day(input.madeAt)],
+        ].map(([k, v]) => [{ text: pdfText(k), bold: true }, pdfText(v)]),
+      },
+      layout: 'noBorders',
+      fontSize: 9,
+      margin: [0, 0, 0, 8],
+    },
+    { text: pdfText(`Caution. ${SAFETY_CAUTION}`), style: 'caution' },
+    ...scope(circuit, result, caseName ? `the base circuit with the changes of case "${caseName}"` : 'the base circuit as drawn'),
+  ];
+
+  const diagram = oneLineSvg(circuit, input.content.layout, 'Plex');
+  content.push({ text: 'One-line diagram', style: 'h2', pageBreak: 'before' });
+  content.push({ svg: diagram.svg, fit: [515, 560] });
+  content.push({ text: 'Circuit inputs', style: 'h2', pageBreak: 'before' });
+  content.push(...inputTables(circuit));
+
+  content.push({ text: 'Results', style: 'h2', pageBreak: 'before' });
+  if (!result) {
+    content.push({ text: pdfText(`This revision cannot be solved: ${failure ?? ''}`), style: 'caution' });
+  } else {
+    const ctx = tableContext(circuit, result, input.units, perUnit);
+    if (input.units === 'pu') content.push({ text: pdfText(basesWords(ctx)), style: 'small', margin: [0, 0, 0, 6] });
+    const buses = busTable(ctx);
+    const lnCols = buses.columns.map((c, i) => ({ c, i })).filter(({ c, i }) => i < 2 || /–N|Neutral shift/.test(c)).map(({ i }) => i);
+    const llCols = [0, ...buses.columns.map((c, i) => ({ c, i })).filter(({ c }) => /^[A-C12]–[A-C12] /.test(c)).map(({ i }) => i)];
+    const restCols = [0, ...buses.columns.map((_, i) => i).filter((i) => !lnCols.includes(i) && !llCols.includes(i))];
+    content.push(...tableNode({ ...buses, title: 'Bus voltages: line to neutral and neutral shift', note: undefined }, { columns: lnCols }));
+    content.push(...tableNode({ ...buses, title: 'Bus voltages: line to line', note: undefined }, { columns: llCols }));
+    content.push(...tableNode({ ...buses, title: 'Bus voltages: sequence components and unbalance' }, { columns: restCols }));
+    content.push(...tableNode(loadTable(ctx)));
+    content.push(...tableNode(elementTable(ctx)));
+    content.push(...tableNode(powerTable(ctx)));
+    if (result.faults.length) content.push(...tableNode(faultTable(ctx)));
+
+    const flaggedBuses = [...new Set(result.flags.map((f) => f.bus && names.drawnBus(f.bus)).filter((b): b is string => !!b))];
+    const diagrams = flaggedBuses.map((b) => result!.buses.find((x) => x.bus === b)).filter((b) => b !== undefined);
+    if (diagrams.length) {
+      content.push({ text: 'Phasor diagrams of the flagged buses', style: 'h2', pageBreak: 'before' });
+      content.push({ text: 'Voltages to earth from the origin (solid); line-to-neutral voltages from the neutral point (dashed).', style: 'small' });
+      for (let i = 0; i < diagrams.length; i += 2) {
+        content.push({ columns: diagrams.slice(i, i + 2).map((b) => ({ svg: phasorSvg(b, 'Plex'), width: 250 })), margin: [0, 6, 0, 6] });
+      }
+    }
+    content.push({ text: 'Flags', style: 'h2', pageBreak: diagrams.length ? undefined : 'before' });
+    content.push(...tableNode(flagTable(ctx), { fontSize: 7.5, widths: [42, 55, '*', 32, 32, 22, 75] }));
+  }
+  content.push({ text: 'Caution', style: 'h2' });
+  content.push({ text: pdfText(SAFETY_CAUTION), style: 'caution' });
+
+  const doc: Record<string, unknown> = {
+    pageSize: 'A4',
+    pageMargins: [40, 40, 40, 50],
+    info: { title: pdfText(`${title} — ${revisionWords}`), creator: 'Wyeward', producer: 'Wyeward' },
+    defaultStyle: { font: 'Plex', fontSize: 9 },
+    styles: {
+      h1: { fontSize: 18, bold: true, margin: [0, 0, 0, 8] },
+      h2: { fontSize: 13, bold: true, margin: [0, 10, 0, 4] },
+      h3: { fontSize: 10, bold: true, margin: [0, 6, 0, 2] },
+      small: { fontSize: 7, color: '#4b5563' },
+      caution: { fontSize: 9, bold: true, color: '#7a1f00', margin: [0, 4, 0, 8] },
+    },
+    content,
+    footer: (page: number, pages: number) => ({
+      columns: [
+        { text: pdfText(`${title} — ${revisionWords}`), alignment: 'left' },
+        { text: `Page ${page} of ${pages}`, alignment: 'right', width: 80 },
+      ],
+      fontSize: 7,
+      color: '#4b5563',
+      margin: [40, 15, 40, 0],
+    }),
+    ...(input.review.approved ? {} : { watermark: { text: 'DRAFT — not reviewed', color: '#9ca3af', opacity: 0.18, bold: true, fontSize: 48 } }),
+  };
+  const buffer = await pdfmake.createPdf(doc).getBuffer();
+  return new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength);
+}
