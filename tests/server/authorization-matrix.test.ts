@@ -255,6 +255,8 @@ const rows: Row[] = [
     },
   },
   { name: 'GET /api/studies/:id/export', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/export`) },
+  { name: 'GET /api/studies/:id/report.pdf', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/report.pdf`) },
+  { name: 'GET /api/studies/:id/results.csv', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/results.csv?table=buses`) },
   {
     name: 'POST /api/studies/import',
     expect: m(201, 201, 403, 403, 201),
@@ -327,6 +329,8 @@ describe('another team', () => {
       (a: TestAgent) => a.get(`/api/studies/${studyR}/attachments/not-a-uuid`),
       (a: TestAgent) => a.post('/api/studies/not-a-uuid/attachments').attach('file', PDF, 'x.pdf'),
       (a: TestAgent) => a.get('/api/studies/not-a-uuid/export'),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/report.pdf'),
+      (a: TestAgent) => a.get('/api/studies/not-a-uuid/results.csv?table=flags'),
     ]) {
       const res = await send(agents.owner);
       expect(res.status).toBe(404);
