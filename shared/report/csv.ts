@@ -13,8 +13,13 @@ function field(s: string): string {
   return /[",\r\n]/.test(guarded) ? `"${guarded.replace(/"/g, '""')}"` : guarded;
 }
 
+/** CSV text of a header and rows, caution first (and an optional second comment line). */
+export function csvText(header: readonly string[], rows: readonly (readonly string[])[], extraComment?: string): string {
+  const lines = [`# Caution: ${SAFETY_CAUTION}`, ...(extraComment ? [`# ${extraComment}`] : []), header.map(field).join(','), ...rows.map((r) => r.map(field).join(','))];
+  return `${lines.join('\r\n')}\r\n`;
+}
+
 /** The CSV text of a table, caution first. */
 export function toCsv(table: ResultTable, extraComment?: string): string {
-  const lines = [`# Caution: ${SAFETY_CAUTION}`, ...(extraComment ? [`# ${extraComment}`] : []), table.columns.map(field).join(','), ...table.rows.map((r) => r.map(field).join(','))];
-  return `${lines.join('\r\n')}\r\n`;
+  return csvText(table.columns, table.rows, extraComment);
 }

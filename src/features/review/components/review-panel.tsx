@@ -9,6 +9,7 @@ import { formatDateTime } from '../../../lib/format.ts';
 import { useLiveReview } from '../api/use-live-review.ts';
 import { useRevisions } from '../api/get-revisions.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
+import { reportUrl } from '../api/report.ts';
 import { exportUrl } from '../api/transfer.ts';
 import { canRequestReview, canWrite, decisionBlocker, reviewDiffHref } from '../utils/permissions.ts';
 import { DecisionDialog } from './decision-dialog.tsx';
@@ -121,6 +122,16 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
         <a href={exportUrl(studyId)} download className="font-semibold text-accent hover:underline">
           Export study file
         </a>
+        {latest !== null ? (
+          <>
+            <a href={reportUrl(studyId, { revision: latest })} download className="font-semibold text-accent hover:underline">
+              Report (PDF)
+            </a>
+            <a href={reportUrl(studyId, { revision: latest, units: 'pu' })} download className="font-semibold text-accent hover:underline">
+              Report in per unit (PDF)
+            </a>
+          </>
+        ) : null}
       </div>
 
       <div className="border-t border-rule pt-2">

@@ -1,5 +1,7 @@
 /** The "Bus voltages" table: line-to-neutral and line-to-line phasors, neutral shift, unbalance, flags per bus. */
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
+import { formatPu } from '../../../../shared/report/format.ts';
+import { busBase, readPerUnitSettings, type PerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import type { BusResult, CircuitResult, Phasor } from '../../../../shared/engine/index.ts';
 import { formatAngle, formatMagnitude, formatValue } from './format.ts';
 import { FlagMark } from './flag-mark.tsx';
@@ -10,29 +12,36 @@ import { ResultsTable, type ResultColumn } from './results-table.tsx';
 const LN_ORDER = ['a', 'b', 'c', '1', '2'];
 const LL_ORDER = ['ab', 'bc', 'ca', '12'];
 
-/** "141.6∠−2.1°" (the unit is in the header); "—" when absent. */
-export function PhasorCell({ p }: { p?: Phasor }) {
+/** "141.6∠−2.1°" (the unit is in the header); with `base`, the magnitude in per unit of it ("1.179∠23.1°"); "—" when absent. */
+export function PhasorCell({ p, base }: { p?: Phasor; base?: number }) {
   if (!p) return <span className="text-ink-faint">—</span>;
   if (p.mag < 1e-6) return <span>0</span>;
   return (
     <span>
-      {formatMagnitude(p.mag)}
+      {base ? formatPu(p.mag / base) : formatMagnitude(p.mag)}
       <span className="text-ink-muted">∠{formatAngle(p.angleDeg)}</span>
     </span>
   );
 }
 
-function phasorColumn<Row extends object>(id: string, header: string, unit: string, get: (r: Row) => Phasor | undefined): ResultColumn<Row> {
+/** A phasor column; with `base` (per row), magnitudes in per unit of it. */
+function phasorColumn<Row extends object>(id: string, header: string, unit: string, get: (r: Row) => Phasor | undefined, base?: (r: Row) => number | undefined): ResultColumn<Row> {
+  const shown = (r: Row) => {
+    const p = get(r);
+    const b = base?.(r);
+    return p === undefined ? undefined : base ? (b ? p.mag / b : undefined) : p.mag;
+  };
   return {
     id,
     header: `${header} (${unit}∠°)`,
     numeric: true,
-    sortValue: (r) => get(r)?.mag,
-    render: (r) => <PhasorCell p={get(r)} />,
+    sortValue: (r) => shown(r),
+    render: (r) => (base && !base(r) ? <span className="text-ink-faint">—</span> : <PhasorCell p={get(r)} base={base?.(r)} />),
     tsvHeader: [`${header} |${unit}| (${unit})`, `${header} angle (°)`],
     tsv: (r) => {
       const p = get(r);
-      return p ? [String(p.mag), String(p.angleDeg)] : ['', ''];
+      const m = shown(r);
+      return p && m !== undefined ? [String(m), String(p.angleDeg)] : ['', ''];
     },
   };
 }
@@ -44,7 +53,11 @@ export function formatNeutralShift(b: BusResult): string {
   return `${formatMagnitude(b.neutralToEarth.mag)} V${pct}`;
 }
 
-function busColumns(result: CircuitResult, standard: WiringStandard): ResultColumn<BusResult>[] {
+function busColumns(result: CircuitResult, standard: WiringStandard, units: ResultUnits, perUnit: PerUnitSettings): ResultColumn<BusResult>[] {
+  const pu = units === 'pu';
+  const lnBase = pu ? (b: BusResult) => busBase(perUnit, b)?.vLN : undefined;
+  const llBase = pu ? (b: BusResult) => busBase(perUnit, b)?.vLL : undefined;
+  const u = pu ? 'pu' : 'V';
   const lnPresent = LN_ORDER.filter((p) => result.buses.some((b) => b.lineToNeutral[p]));
   const llPresent = LL_ORDER.filter((p) => result.buses.some((b) => b.lineToLine[p]));
   const flagsOf = (b: BusResult) => result.flags.filter((f) => f.bus === b.bus && !f.elementId);
@@ -81,8 +94,8 @@ function busColumns(result: CircuitResult, standard: WiringStandard): ResultColu
       tsv: (b) => [b.nominalVLN?.toString() ?? ''],
     },
     // A bus with no neutral reports phase-to-earth in lineToNeutral; the Bus column's reference note says so in the phasor view.
-    ...lnPresent.map((p) => phasorColumn<BusResult>(`ln-${p}`, lnLabel(p, standard), 'V', (b) => b.lineToNeutral[p])),
-    ...llPresent.map((p) => phasorColumn<BusResult>(`ll-${p}`, phaseStyle(p, standard).label, 'V', (b) => b.lineToLine[p])),
+    ...lnPresent.map((p) => phasorColumn<BusResult>(`ln-${p}`, lnLabel(p, standard), u, (b) => b.lineToNeutral[p], lnBase)),
+    ...llPresent.map((p) => phasorColumn<BusResult>(`ll-${p}`, phaseStyle(p, standard).label, u, (b) => b.lineToLine[p], llBase)),
     {
       id: 'shift',
       header: 'Neutral shift (V, %)',
@@ -106,11 +119,32 @@ function busColumns(result: CircuitResult, standard: WiringStandard): ResultColu
   ];
 }
 
-/** Bus voltages of a result; `selectedBus` highlights the canvas selection. */
-export function BusTable({ result, standard, selectedBus, onSelectBus }: { result: CircuitResult; standard: WiringStandard; selectedBus?: string | null; onSelectBus?: (bus: string) => void }) {
-  const columns = useMemo(() => busColumns(result, standard), [result, standard]);
+/**
+ * Bus voltages of a result; `selectedBus` highlights the canvas selection. A V/pu switch shows the
+ * voltage magnitudes in per unit of each bus's base (the study's bases, `perUnit`, by default the
+ * nominal voltages).
+ */
+export function BusTable({ result, standard, selectedBus, onSelectBus, perUnit }: { result: CircuitResult; standard: WiringStandard; selectedBus?: string | null; onSelectBus?: (bus: string) => void; perUnit?: PerUnitSettings }) {
+  const [units, setUnits] = useState<ResultUnits>('si');
+  const bases = useMemo(() => perUnit ?? readPerUnitSettings(undefined), [perUnit]);
+  const columns = useMemo(() => busColumns(result, standard, units, bases), [result, standard, units, bases]);
   return (
     <div>
+      <div role="group" aria-label="Bus voltage units" className="mb-1 flex items-center gap-1 text-[11px] print:hidden">
+        <span className="text-ink-muted">Voltages in</span>
+        {(['si', 'pu'] as const).map((k) => (
+          <button
+            key={k}
+            type="button"
+            aria-pressed={units === k}
+            onClick={() => setUnits(k)}
+            className={`h-5 rounded-[3px] border px-1.5 font-semibold ${units === k ? 'border-accent bg-accent-soft text-ink' : 'border-rule-strong bg-panel text-ink-muted hover:bg-sunken'}`}
+          >
+            {k === 'si' ? 'V' : 'pu'}
+          </button>
+        ))}
+        {units === 'pu' ? <span className="text-ink-muted">of each bus's base: {bases.baseMva} MVA, base kV per level from the nominal voltages unless the study sets it.</span> : null}
+      </div>
       <ResultsTable label="Bus voltages" rows={result.buses} columns={columns} rowId={(b) => b.bus} selectedId={selectedBus} onRowSelect={onSelectBus} />
       <p className="mt-1 text-[11px] text-ink-muted">
         RMS, magnitude∠degrees. Line-to-neutral columns are to earth at a bus without a neutral. Neutral shift: neutral-to-earth voltage, V and % of nominal V_LN.

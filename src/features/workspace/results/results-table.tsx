@@ -5,7 +5,8 @@
  */
 import { createColumnHelper, createSortedRowModel, rowSortingFeature, tableFeatures, useTable, type SortingState } from '@tanstack/react-table';
 import { useMemo, useState, type ReactNode } from 'react';
-import { copyText, toTsv } from './tsv.ts';
+import { csvText } from '../../../../shared/report/csv.ts';
+import { copyText, downloadText, toTsv } from './tsv.ts';
 
 const features = tableFeatures({ rowSortingFeature, sortedRowModel: createSortedRowModel() });
 
@@ -77,6 +78,14 @@ export function ResultsTable<Row extends object>({ label, rows, columns, rowId, 
     setCopyState(ok ? `Copied ${body.length} ${body.length === 1 ? 'row' : 'rows'} as tab-separated text.` : 'The browser refused the clipboard; select the table and copy it instead.');
   };
 
+  const onDownload = () => {
+    const header = columns.flatMap((c) => c.tsvHeader);
+    const body = shownRows.map((r) => columns.flatMap((c) => c.tsv(r.original)));
+    const name = `${label.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}.csv`;
+    const ok = downloadText(csvText(header, body), name);
+    setCopyState(ok ? `Saved ${body.length} ${body.length === 1 ? 'row' : 'rows'} as ${name} (the caution on its first line).` : 'The browser could not save the file.');
+  };
+
   return (
     <div className="min-w-0">
       <div className="mb-1 flex items-center justify-between gap-2">
@@ -87,6 +96,9 @@ export function ResultsTable<Row extends object>({ label, rows, columns, rowId, 
           </span>
           <button type="button" onClick={onCopy} aria-label={`Copy ${label} as tab-separated text`} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-2 text-[12px] font-semibold hover:bg-sunken">
             Copy TSV
+          </button>
+          <button type="button" onClick={onDownload} aria-label={`Download ${label} as CSV`} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-2 text-[12px] font-semibold hover:bg-sunken">
+            CSV
           </button>
         </div>
       </div>

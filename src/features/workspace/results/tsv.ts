@@ -16,3 +16,17 @@ export async function copyText(text: string): Promise<boolean> {
     return false;
   }
 }
+
+/** Offers `text` as a file download (a CSV of a results table); false when the browser cannot. */
+export function downloadText(text: string, fileName: string, type = 'text/csv;charset=utf-8'): boolean {
+  if (typeof document === 'undefined' || typeof URL.createObjectURL !== 'function') return false;
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = fileName;
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  return true;
+}
