@@ -98,7 +98,7 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       return run<Uint8Array>({ kind: 'report', input });
     },
     async csv(input) {
-      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await runTask({ kind: 'csv', input })) as Awaited<ReturnType<WorkPool['csv']>>;
+      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return runTask({ kind: 'csv', input }) as Awaited<ReturnType<WorkPool['csv']>>;
       return run({ kind: 'csv', input });
     },
     async close() {

@@ -7,8 +7,8 @@
 import { InvalidCircuitError, parseCircuit } from '../../shared/engine/index.ts';
 import { diffRevisions, type DiffSide, type RevisionDiff } from '../../shared/review/diff.ts';
 import { summarizeCircuit, type ResultsSummary } from '../../shared/review/summary.ts';
-import type { CsvInput } from '../report/csv.ts';
-import type { ReportInput } from '../report/pdf.ts';
+import { resultsCsv, type CsvInput } from '../report/csv.ts';
+import { renderReportPdf, type ReportInput } from '../report/pdf.ts';
 
 export interface CircuitIssue {
   /** Path inside the circuit (`elements.3.r`), or "(root)". */
@@ -38,16 +38,16 @@ export function prepare(circuit: unknown): Prepared {
   return { ok: true, summary: summarizeCircuit(circuit) };
 }
 
-/** Runs one task (the report modules load on first use: pdfmake is not needed for the others). */
-export function runTask(task: Task): Prepared | RevisionDiff | Promise<unknown> {
+/** Runs one task. */
+export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof resultsCsv> | Promise<Uint8Array> {
   switch (task.kind) {
     case 'prepare':
       return prepare(task.circuit);
     case 'diff':
       return diffRevisions(task.from, task.to);
     case 'report':
-      return import('../report/pdf.ts').then((m) => m.renderReportPdf(task.input));
+      return renderReportPdf(task.input);
     case 'csv':
-      return import('../report/csv.ts').then((m) => m.resultsCsv(task.input));
+      return resultsCsv(task.input);
   }
 }

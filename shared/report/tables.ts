@@ -156,29 +156,42 @@ export function loadTable(ctx: TableContext): ResultTable {
   };
 }
 
-/** Element currents: per conductor at each connection, earth current, both sides of banks. */
+const CONDUCTOR_ORDER = ['a', 'b', 'c', 'n', '1', '2'];
+
+/** Element currents: one row per connection of each element (both sides of banks), a column pair per conductor, and the earth current. */
 export function elementTable(ctx: TableContext): ResultTable {
   const byBus = new Map(ctx.result.buses.map((b) => [b.bus, b] as const));
   const u = unitOf(ctx, 'A');
+  const shown = Object.values(ctx.result.elements).filter((e) => !ctx.names.isHidden(e.id) && !isPrivateName(e.id));
+  const present = CONDUCTOR_ORDER.filter((c) => shown.some((e) => (e.ports ?? []).some((p) => p.conductors.includes(c))));
+  const hasEarth = shown.some((e) => e.earthCurrent);
   const rows: string[][] = [];
-  for (const e of Object.values(ctx.result.elements)) {
-    if (ctx.names.isHidden(e.id) || isPrivateName(e.id)) continue;
-    for (const p of e.ports ?? []) {
+  for (const e of shown) {
+    const ports = (e.ports ?? []).filter((p) => p.conductors.some((c) => present.includes(c)));
+    ports.forEach((p, k) => {
       const bus = p.bus ? ctx.names.drawnBus(p.bus) : '';
       const base = busBase(ctx.perUnit, byBus.get(bus) ?? {});
-      p.conductors.forEach((c, i) => {
-        if (!/^[abcn12]$/.test(c)) return;
-        rows.push([e.id, typeWord(e.type), bus, c === 'n' ? 'neutral' : conductorName(c), inUnits(ctx, p.currents[i]?.mag, base?.amps), ang(p.currents[i])]);
-      });
-    }
-    if (e.earthCurrent) rows.push([e.id, typeWord(e.type), '', 'earth', ctx.units === 'si' ? formatMagnitude(e.earthCurrent.mag) : '', ang(e.earthCurrent)]);
+      const earth = k === 0 && e.earthCurrent ? e.earthCurrent : undefined;
+      rows.push([
+        e.id,
+        typeWord(e.type),
+        bus,
+        ...present.flatMap((c) => {
+          const i = p.conductors.indexOf(c);
+          return i < 0 ? ['', ''] : [inUnits(ctx, p.currents[i]?.mag, base?.amps), ang(p.currents[i])];
+        }),
+        ...(hasEarth ? [earth ? formatMagnitude(earth.mag) : ''] : []),
+      ]);
+    });
+    if (ports.length === 0 && e.earthCurrent && hasEarth) rows.push([e.id, typeWord(e.type), '', ...present.flatMap(() => ['', '']), formatMagnitude(e.earthCurrent.mag)]);
   }
+  const name = (c: string) => (c === 'n' ? 'N' : conductorName(c).replace('leg ', 'Leg '));
   return {
     id: 'elements',
     title: 'Element currents',
-    columns: ['Element', 'Kind', 'Bus', 'Conductor', `Current (${u})`, 'Angle (°)'],
+    columns: ['Element', 'Kind', 'Bus', ...present.flatMap((c) => [`${name(c)} (${u})`, `${name(c)} angle (°)`]), ...(hasEarth ? ['Earth (A)'] : [])],
     rows,
-    note: 'RMS, into the element at each of its connections. Earth: from the element into earth.' + (ctx.units === 'pu' ? ' Per unit of the base current of the bus level (earth currents in A only).' : ''),
+    note: 'RMS, into the element at each of its connections (a bank: one row per side). Earth: from the element into earth.' + (ctx.units === 'pu' ? ' Per unit of the base current of the bus level (earth currents in A).' : ''),
   };
 }
 
