@@ -6,7 +6,7 @@ import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-u
 import { basesWords, csvTable, tableContext, type CsvTable } from '../../shared/report/tables.ts';
 
 export interface CsvInput {
-  content: { circuit: unknown; settings?: unknown };
+  content: { circuit: unknown; layout?: unknown };
   caseId?: string;
   units: ResultUnits;
   table: CsvTable;
@@ -18,7 +18,7 @@ export function resultsCsv(input: CsvInput): { ok: true; csv: string } | { ok: f
   const circuit = input.caseId && input.caseId !== BASE_CASE_ID ? applyCase(base, input.caseId) : base;
   try {
     const result = solveCircuit(circuit);
-    const ctx = tableContext(circuit, result, input.units, readPerUnitSettings(input.content.settings));
+    const ctx = tableContext(circuit, result, input.units, readPerUnitSettings(input.content.layout));
     return { ok: true, csv: toCsv(csvTable(ctx, input.table), input.units === 'pu' ? basesWords(ctx) : undefined) };
   } catch (err) {
     if (!(err instanceof EngineError)) throw err;

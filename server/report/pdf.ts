@@ -128,7 +128,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     if (!(err instanceof EngineError)) throw err;
     failure = names.text(err.message);
   }
-  const perUnit = readPerUnitSettings(input.content.settings);
+  const perUnit = readPerUnitSettings(input.content.layout);
   const revisionWords = `Revision ${input.revision.number}${caseName ? `, case "${caseName}"` : ''}`;
   const title = input.study.name;
 

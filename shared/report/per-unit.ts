@@ -6,7 +6,8 @@
  *   V_base(line to neutral) = V_base(line to line) · V_LN,nom / V_LL,nom (1/√3 on a three-phase bus,
  *   1/2 on a split-phase bus), and an impedance given on one base moves to another by
  *   Z_new = Z_old · (kV_old / kV_new)² · (MVA_new / MVA_old).
- * The bases live in the study's settings (`content.settings.perUnit`), kept verbatim by the server.
+ * The bases live in the study's layout beside the circuit (`content.layout.perUnit`, set in the
+ * workspace's study settings), kept verbatim by the server.
  * Pure TypeScript: shared by the server (report, CSV) and the browser (tables, property panel).
  */
 import { z } from 'zod';
@@ -30,9 +31,9 @@ export function levelKey(nominalVLL: number): string {
   return String(Number((nominalVLL / 1000).toPrecision(6)));
 }
 
-/** Reads the per-unit settings of a study's settings object (defaults when absent or malformed). */
-export function readPerUnitSettings(settings: unknown): PerUnitSettings {
-  const raw = settings && typeof settings === 'object' ? (settings as { perUnit?: unknown }).perUnit : undefined;
+/** Reads the per-unit settings of a study's stored layout (defaults when absent or malformed). */
+export function readPerUnitSettings(layout: unknown): PerUnitSettings {
+  const raw = layout && typeof layout === 'object' ? (layout as { perUnit?: unknown }).perUnit : undefined;
   const parsed = perUnitSettingsSchema.safeParse(raw ?? {});
   return parsed.success ? parsed.data : perUnitSettingsSchema.parse({});
 }

@@ -211,8 +211,8 @@ describe('GET /api/studies/:id/results.csv', () => {
     expect(pu.rows.find((r) => r[0] === 'HOUSE')![6]).toBe('1.393');
   });
 
-  it('takes the study base from the settings (base kV per level, MVA)', async () => {
-    const s = await engineer.post('/api/studies').send({ name: 'Own bases', content: { circuit: openNeutral, settings: { perUnit: { baseMva: 0.5, baseKv: { '0.208': 0.24 } } } } });
+  it('takes the study bases from its settings (base kV per level, MVA)', async () => {
+    const s = await engineer.post('/api/studies').send({ name: 'Own bases', content: { circuit: openNeutral, layout: { kind: 'wyeward-layout', version: 1, perUnit: { baseMva: 0.5, baseKv: { '0.208': 0.24 } } } } });
     const lines = (await viewer.get(`/api/studies/${s.body.id}/results.csv?table=buses&units=pu`)).text.split('\r\n');
     expect(lines[1]).toContain('Bases: 0.5 MVA; 0.208 kV level: 240.0 V line to line, 138.6 V line to neutral');
     const house = lines.find((l) => l.startsWith('HOUSE,'))!.split(',');

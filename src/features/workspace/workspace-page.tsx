@@ -406,7 +406,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
         </div>
 
         <div className="overflow-auto">
-          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} />
+          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
           <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
         </div>
       </div>

@@ -171,6 +171,7 @@ export function circuitToCanvas(circuit: CircuitInput, layout?: WorkspaceLayout 
     ...(circuit.description ? { description: circuit.description } : {}),
     ...(circuit.cases ? { cases: circuit.cases } : {}),
     ...(layout ? { shiftConvention: layout.shiftConvention, wiringStandard: layout.wiringStandard } : inferConvention(elements)),
+    ...(layout?.perUnit ? { perUnit: layout.perUnit } : {}),
   };
   return { nodes: positioned, edges, settings };
 }
@@ -198,5 +199,6 @@ export function canvasLayout(nodes: WorkspaceNode[], edges: WorkspaceEdge[], set
     ...(viewport ? { viewport } : {}),
     shiftConvention: settings.shiftConvention,
     wiringStandard: settings.wiringStandard,
+    ...(settings.perUnit ? { perUnit: settings.perUnit } : {}),
   };
 }

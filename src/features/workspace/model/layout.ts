@@ -5,6 +5,7 @@
  * The circuit stays the source of truth for the network; the layout only places it.
  */
 import { z } from 'zod';
+import { perUnitSettingsSchema, type PerUnitSettings } from '../../../../shared/report/per-unit.ts';
 
 export const WIRING_STANDARDS = ['iec-60445', 'north-american'] as const;
 export type WiringStandard = (typeof WIRING_STANDARDS)[number];
@@ -26,6 +27,8 @@ export const workspaceLayoutSchema = z.object({
   shiftConvention: z.enum(SHIFT_CONVENTIONS).default('north-american'),
   /** Phase colours on the canvas and in results. */
   wiringStandard: z.enum(WIRING_STANDARDS).default('north-american'),
+  /** Per-unit bases of the results (system MVA, base kV per voltage level); absent: 1 MVA and the nominal voltages. */
+  perUnit: perUnitSettingsSchema.optional(),
 });
 export type WorkspaceLayout = z.infer<typeof workspaceLayoutSchema>;
 
@@ -45,6 +48,8 @@ export interface StudySettings {
   description?: string;
   shiftConvention: ShiftConvention;
   wiringStandard: WiringStandard;
+  /** Per-unit bases (absent: the defaults of shared/report/per-unit.ts). */
+  perUnit?: PerUnitSettings;
   /** The circuit's study cases, carried through the canvas unchanged (edited elsewhere). */
   cases?: unknown[];
 }

@@ -1,6 +1,7 @@
 /**
  * Study settings: frequency, phase sequence, nominal voltages of the buses, limit set, which
- * transformer-shift convention is stated, and the wiring-colour standard of the diagram and results.
+ * transformer-shift convention is stated, the wiring-colour standard of the diagram and results,
+ * and the per-unit bases (system MVA; base kV per voltage level, blank: the level's nominal).
  */
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMemo } from 'react';
@@ -8,6 +9,7 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { Button } from '../../../components/button.tsx';
 import { Dialog } from '../../../components/dialog.tsx';
+import { DEFAULT_BASE_MVA, levelKey } from '../../../../shared/report/per-unit.ts';
 import type { StudySettings } from '../model/layout.ts';
 import { formatQuantity, parseQuantity } from './unit-input.ts';
 
@@ -38,10 +40,21 @@ const schema = z.object({
   shiftConvention: z.enum(['north-american', 'iec']),
   wiringStandard: z.enum(['north-american', 'iec-60445']),
   buses: z.array(z.object({ id: z.string(), name: z.string(), kv: kvText })),
+  baseMva: z.string().superRefine((s, ctx) => {
+    const r = parseQuantity(s, 'apparent', 'MVA');
+    if (!r.ok) ctx.addIssue({ code: 'custom', message: r.message });
+    else if (!(r.value > 0) || r.value > 1e6) ctx.addIssue({ code: 'custom', message: 'The base power must be above zero (at most 1 000 000 MVA).' });
+  }),
+  levels: z.array(z.object({ key: z.string(), kv: kvText })),
 });
 type Values = z.infer<typeof schema>;
 
 export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApply }: { open: boolean; settings: StudySettings; buses: BusVoltage[]; readOnly: boolean; onClose: () => void; onApply: (s: StudySettings, kv: Record<string, number | undefined>) => void }) {
+  // Voltage levels: the distinct nominal voltages the buses are given (and any level already based).
+  const levels = useMemo(
+    () => [...new Set([...buses.flatMap((b) => (b.kvLL !== undefined ? [levelKey(b.kvLL * 1000)] : [])), ...Object.keys(settings.perUnit?.baseKv ?? {})])].sort((a, b) => Number(a) - Number(b)),
+    [buses, settings.perUnit],
+  );
   const values = useMemo<Values>(
     () => ({
       frequency: `${settings.frequencyHz} Hz`,
@@ -50,8 +63,10 @@ export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApp
       shiftConvention: settings.shiftConvention,
       wiringStandard: settings.wiringStandard,
       buses: buses.map((b) => ({ id: b.id, name: b.name, kv: b.kvLL !== undefined ? formatQuantity(b.kvLL, 'kV') : '' })),
+      baseMva: formatQuantity(settings.perUnit?.baseMva ?? DEFAULT_BASE_MVA, 'MVA'),
+      levels: levels.map((key) => ({ key, kv: settings.perUnit?.baseKv[key] !== undefined ? formatQuantity(settings.perUnit.baseKv[key], 'kV') : '' })),
     }),
-    [settings, buses],
+    [settings, buses, levels],
   );
   const form = useForm<Values>({ resolver: zodResolver(schema), values });
   const err = form.formState.errors;
@@ -59,6 +74,10 @@ export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApp
     const hz = (parseQuantity(v.frequency, 'frequency', 'Hz') as { ok: true; value: number }).value;
     const kv: Record<string, number | undefined> = {};
     for (const b of v.buses) kv[b.id] = b.kv.trim() === '' ? undefined : (parseQuantity(b.kv, 'voltage', 'kV') as { ok: true; value: number }).value;
+    const baseKv: Record<string, number> = {};
+    for (const l of v.levels) if (l.kv.trim() !== '') baseKv[l.key] = (parseQuantity(l.kv, 'voltage', 'kV') as { ok: true; value: number }).value;
+    const baseMva = (parseQuantity(v.baseMva, 'apparent', 'MVA') as { ok: true; value: number }).value;
+    const perUnit = baseMva === DEFAULT_BASE_MVA && Object.keys(baseKv).length === 0 ? undefined : { baseMva, baseKv };
     onApply(
       {
         ...settings,
@@ -67,6 +86,7 @@ export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApp
         limits: { ...(settings.limits ?? {}), set: v.limitSet },
         shiftConvention: v.shiftConvention,
         wiringStandard: v.wiringStandard,
+        perUnit,
       },
       kv,
     );
@@ -132,6 +152,28 @@ export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApp
                 </div>
               ))}
             </div>
+          </div>
+          <div className="col-span-2">
+            <h3 className="font-semibold">Per-unit bases (results, report and CSV in pu)</h3>
+            <div className="mt-1 grid grid-cols-2 gap-x-4 gap-y-1">
+              <div className="flex items-center gap-2">
+                <label htmlFor="st-base-mva" className="w-24">
+                  System base (MVA)
+                </label>
+                <input id="st-base-mva" className={INPUT} aria-invalid={err.baseMva ? true : undefined} {...form.register('baseMva')} />
+              </div>
+              {levels.map((key, i) => (
+                <div key={key} className="flex items-center gap-2">
+                  <label htmlFor={`st-level-${i}`} className="num w-24">
+                    Base kV, {key} kV level
+                  </label>
+                  <input id={`st-level-${i}`} placeholder={`${key} kV`} className={INPUT} aria-invalid={err.levels?.[i]?.kv ? true : undefined} {...form.register(`levels.${i}.kv`)} />
+                  {err.levels?.[i]?.kv ? <p className="text-[12px] text-danger">{err.levels[i]?.kv?.message}</p> : null}
+                </div>
+              ))}
+            </div>
+            {err.baseMva ? <p className="text-[12px] text-danger">{err.baseMva.message}</p> : null}
+            <p className="text-[12px] text-ink-muted">Z_base = kV² / MVA, I_base = MVA / (√3 kV); a level left blank is based on its nominal voltage.</p>
           </div>
         </fieldset>
         <p className="mt-3 text-[12px] text-ink-muted">Phasors are RMS, magnitude∠degrees; S = V·I* in load convention (Q &gt; 0 lagging); earth is the reference node.</p>

@@ -6,6 +6,7 @@
  */
 import { memo, useCallback, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
+import type { PerUnitSettings } from '../../../../shared/report/per-unit.ts';
 import { circuitIssueWords } from '../../../../shared/review/circuit-issues.ts';
 import type { LiveSolveError } from '../solve/solve-protocol.ts';
 import type { LiveSolveStatus } from '../solve/use-live-solve.ts';
@@ -39,6 +40,8 @@ export interface ResultsPanelProps {
    * canvas's PRIVATE_SEP (model/canvas-to-circuit.ts); "" shows every name.
    */
   privateMarker?: string;
+  /** Per-unit bases of the study (the bus table's pu view); default 1 MVA and the nominal voltages. */
+  perUnit?: PerUnitSettings;
 }
 
 /** Why the neutral shifted, in a few words, by cause (a fault's shift is not a lost neutral). */
@@ -137,7 +140,7 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker = '~' }: ResultsPanelProps) {
+function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker = '~', perUnit }: ResultsPanelProps) {
   const result = useMemo(() => (fullResult ? hidePrivate(fullResult, privateMarker) : undefined), [fullResult, privateMarker]);
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);
@@ -187,7 +190,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
           </p>
           <FloatingNotices result={result} />
           <FlagsSection result={result} />
-          <BusTable result={result} standard={standard} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+          <BusTable result={result} standard={standard} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
           <LoadTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           {bus ? (
             <Section title={`Phasors at bus ${bus.bus}`}>
