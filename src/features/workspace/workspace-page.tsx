@@ -398,6 +398,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
             selection={selection}
             readOnly={readOnly}
             wiringStandard={doc.settings.wiringStandard}
+            perUnit={doc.settings.perUnit}
             busNames={busNames}
             onElement={updateElement}
             onBus={updateBus}

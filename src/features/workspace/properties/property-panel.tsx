@@ -12,7 +12,9 @@ import type { WiringStandard } from '../model/layout.ts';
 import { isBundleHandle } from '../model/ports.ts';
 import { busConductors, type BusNodeData, type Conductor, type WorkspaceEdge } from '../model/types.ts';
 import { ELEMENT_WORDS } from '../canvas/symbols.tsx';
+import type { PerUnitSettings } from '../../../../shared/report/per-unit.ts';
 import { ElementForm } from './element-form.tsx';
+import { PerUnitReadout } from './per-unit-readout.tsx';
 import { formatQuantity, parseQuantity } from './unit-input.ts';
 
 const INPUT = 'num h-7 w-full rounded-[3px] border border-rule-strong bg-panel px-1.5 text-[13px] disabled:border-rule disabled:bg-sunken disabled:text-ink-muted aria-[invalid=true]:border-danger';
@@ -31,6 +33,8 @@ interface Props {
   onElement: (id: string, next: CircuitElementInput) => void;
   onBus: (id: string, next: BusNodeData) => void;
   onToggleOpen: (edgeId: string, conductor: Conductor) => void;
+  /** Per-unit bases of the study (sources, lines and banks show their impedance in pu on them). */
+  perUnit?: PerUnitSettings;
 }
 
 /** Words for a conductor in a button name: "neutral", "phase A", "leg 1". */
@@ -39,7 +43,7 @@ export function conductorWords(c: Conductor): string {
 }
 
 /** Memoised: the workspace re-renders on every frame of a drag, the panel only when its props change. */
-export const PropertyPanel = memo(function PropertyPanel({ selection, readOnly, wiringStandard, busNames, onElement, onBus, onToggleOpen }: Props) {
+export const PropertyPanel = memo(function PropertyPanel({ selection, readOnly, wiringStandard, busNames, onElement, onBus, onToggleOpen, perUnit }: Props) {
   return (
     <section aria-label="Properties" className="flex w-[250px] shrink-0 flex-col gap-2 overflow-y-auto border-l border-rule bg-panel p-2.5">
       {selection === null ? (
@@ -50,6 +54,7 @@ export const PropertyPanel = memo(function PropertyPanel({ selection, readOnly, 
             {ELEMENT_WORDS[selection.element.type] ?? selection.element.type} <span className="num">{selection.id}</span>
           </h2>
           <ElementForm key={selection.id} element={selection.element} readOnly={readOnly} onApply={(next) => onElement(selection.id, next)} />
+          <PerUnitReadout element={selection.element} perUnit={perUnit} />
         </>
       ) : selection.kind === 'bus' ? (
         <BusForm key={selection.id} data={selection.data} readOnly={readOnly} taken={busNames.filter((n) => n !== selection.data.name)} onApply={(d) => onBus(selection.id, d)} />
