@@ -1,5 +1,6 @@
 /** The CSV of one results table of a revision (or case): solved here, written by shared/report. */
-import { applyCase, BASE_CASE_ID, EngineError, solveCircuit } from '../../shared/engine/index.ts';
+import { EngineError, solveCircuit } from '../../shared/engine/index.ts';
+import { reportedCircuit } from '../../shared/report/document.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
 import { toCsv } from '../../shared/report/csv.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
@@ -14,8 +15,7 @@ export interface CsvInput {
 
 /** The CSV text, or why the circuit does not solve (in the words of the diagram). */
 export function resultsCsv(input: CsvInput): { ok: true; csv: string } | { ok: false; message: string } {
-  const base = input.content.circuit as Record<string, unknown>;
-  const circuit = input.caseId && input.caseId !== BASE_CASE_ID ? applyCase(base, input.caseId) : base;
+  const { circuit } = reportedCircuit(input.content.circuit, input.caseId);
   try {
     const result = solveCircuit(circuit);
     const ctx = tableContext(circuit, result, input.units, readPerUnitSettings(input.content.layout));

@@ -9,10 +9,10 @@
  * Pure data in, bytes out: it runs inline or in a worker thread (server/work).
  */
 import pdfmake from 'pdfmake';
-import { applyCase, BASE_CASE_ID, circuitCases, EngineError, solveCircuit, type CircuitResult } from '../../shared/engine/index.ts';
+import { EngineError, solveCircuit, type CircuitResult } from '../../shared/engine/index.ts';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
-import { complexText, parameterWords, valueWords } from '../../shared/review/parameter-words.ts';
-import { circuitNames, drawnElements, typeWord } from '../../shared/review/user-names.ts';
+import { circuitNames } from '../../shared/review/user-names.ts';
+import { busColumnGroups, flaggedBuses, inputGroups, reportedCircuit, scopeLines } from '../../shared/report/document.ts';
 import { oneLineSvg } from '../../shared/report/one-line.ts';
 import { phasorSvg } from '../../shared/report/phasor-svg.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
@@ -50,75 +50,21 @@ function tableNode(t: ResultTable, opts: { fontSize?: number; columns?: number[]
   return out;
 }
 
-/** Leaf parameters of a drawn element, in words ("P (kW): 1.5"). */
-function parameterLines(e: Record<string, unknown>, names: ReturnType<typeof circuitNames>): string {
-  const out: string[] = [];
-  const walk = (v: unknown, path: string) => {
-    if (v !== null && typeof v === 'object' && !Array.isArray(v) && complexText(v) === null && !path.endsWith('opened')) {
-      for (const [k, x] of Object.entries(v as Record<string, unknown>)) walk(x, path ? `${path}.${k}` : k);
-      return;
-    }
-    if (path.endsWith('opened') && v && typeof v === 'object') {
-      for (const [field, cs] of Object.entries(v as Record<string, unknown>)) out.push(`${parameterWords(`opened.${field}`)}: ${valueWords(`opened.${field}`, cs, names)}`);
-      return;
-    }
-    out.push(`${parameterWords(path)}: ${valueWords(path, v, names)}`);
-  };
-  for (const [k, v] of Object.entries(e)) if (k !== 'id' && k !== 'type') walk(v, k);
-  return out.join('; ');
-}
-
 function inputTables(circuit: unknown): Node[] {
-  const names = circuitNames(circuit);
-  const byType = new Map<string, [string, string][]>();
-  for (const [id, e] of drawnElements(circuit)) {
-    const word = typeWord(e.type);
-    byType.set(word, [...(byType.get(word) ?? []), [id, parameterLines(e, names)]]);
-  }
-  const out: Node[] = [];
-  for (const [word, rows] of byType) {
-    out.push({ text: pdfText(`${word[0].toUpperCase()}${word.slice(1)}s`), style: 'h3' });
-    out.push({
+  return inputGroups(circuit).flatMap(({ title, rows }) => [
+    { text: pdfText(title), style: 'h3' },
+    {
       table: { headerRows: 1, dontBreakRows: true, widths: [90, '*'], body: [[{ text: 'Name', bold: true }, { text: 'Parameters', bold: true }], ...rows.map(([id, p]) => [pdfText(id), pdfText(p)])] },
       layout: 'lightHorizontalLines',
       fontSize: 7.5,
       margin: [0, 2, 0, 6],
-    });
-  }
-  return out;
-}
-
-function scope(circuit: Record<string, unknown>, result: CircuitResult | null, caseWords: string): Node[] {
-  const loads = [...drawnElements(circuit).values()].filter((e) => e.type === 'load');
-  const models = new Set<string>();
-  for (const l of loads) {
-    const specs = [l.each, l.total, ...Object.values((l.phases as Record<string, unknown>) ?? {})].filter(Boolean) as Record<string, unknown>[];
-    for (const s of specs) {
-      if ('ohms' in s || 'rOhms' in s) models.add('fixed impedance');
-      else if ('kw' in s) {
-        const m = s.model;
-        models.add(typeof m === 'string' ? `P and Q at rated voltage, constant ${m}` : m && typeof m === 'object' ? 'P and Q at rated voltage, a ZIP mix' : 'P and Q at rated voltage, constant impedance');
-      }
-    }
-  }
-  const lines = [
-    `Circuit: ${caseWords}.`,
-    `Frequency ${String(circuit.frequencyHz)} Hz; phase sequence ${result?.conventions.sequence ?? String(circuit.sequence ?? 'ABC')}.`,
-    'Phasors are RMS, magnitude and angle in degrees; earth is the reference node.',
-    'Complex power S = V·I*, load convention: Q > 0 is lagging. Sequence components with a = 1 at 120°.',
-    'Transformer banks: the LV side lags the HV side by the clock number × 30° (IEC) or by 30° for delta–wye and wye–delta banks (North American rule), as each bank is set; a tap is on the HV winding.',
-    result ? `Limit set: ${result.limits.name}. Neutral shift above ${result.limits.neutralShiftPercent} % of nominal and loading above ${result.limits.loadingPercent} % are warnings (common practice).` : '',
-    `Loads: ${models.size ? [...models].join('; ') : 'none'}. Each load is judged on the voltage across its own terminals against its own rating.`,
-    'The solve is a complex nodal solution of the whole unbalanced network; no balance is assumed.',
-  ].filter(Boolean);
-  return [{ text: 'Scope and assumptions', style: 'h2' }, { ul: lines.map(pdfText), fontSize: 9 }];
+    },
+  ]);
 }
 
 /** Builds the report of one revision (and case) and returns the PDF bytes. */
 export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
-  const base = input.content.circuit as Record<string, unknown>;
-  const caseName = input.caseId && input.caseId !== BASE_CASE_ID ? (circuitCases(base).find((c) => c.id === input.caseId)?.name ?? input.caseId) : null;
-  const circuit = (input.caseId && input.caseId !== BASE_CASE_ID ? applyCase(base, input.caseId) : base) as Record<string, unknown>;
+  const { circuit, caseName } = reportedCircuit(input.content.circuit, input.caseId);
   const names = circuitNames(circuit);
   let result: CircuitResult | null = null;
   let failure: string | null = null;
@@ -154,7 +100,8 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
       margin: [0, 0, 0, 8],
     },
     { text: pdfText(`Caution. ${SAFETY_CAUTION}`), style: 'caution' },
-    ...scope(circuit, result, caseName ? `the base circuit with the changes of case "${caseName}"` : 'the base circuit as drawn'),
+    { text: 'Scope and assumptions', style: 'h2' },
+    { ul: scopeLines(circuit, result, caseName).map(pdfText), fontSize: 9 },
   ];
 
   const diagram = oneLineSvg(circuit, input.content.layout, 'Plex');
@@ -170,19 +117,13 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     const ctx = tableContext(circuit, result, input.units, perUnit);
     if (input.units === 'pu') content.push({ text: pdfText(basesWords(ctx)), style: 'small', margin: [0, 0, 0, 6] });
     const buses = busTable(ctx);
-    const lnCols = buses.columns.map((c, i) => ({ c, i })).filter(({ c, i }) => i < 2 || /–N|Neutral shift/.test(c)).map(({ i }) => i);
-    const llCols = [0, ...buses.columns.map((c, i) => ({ c, i })).filter(({ c }) => /^[A-C12]–[A-C12] /.test(c)).map(({ i }) => i)];
-    const restCols = [0, ...buses.columns.map((_, i) => i).filter((i) => !lnCols.includes(i) && !llCols.includes(i))];
-    content.push(...tableNode({ ...buses, title: 'Bus voltages: line to neutral and neutral shift', note: undefined }, { columns: lnCols }));
-    content.push(...tableNode({ ...buses, title: 'Bus voltages: line to line', note: undefined }, { columns: llCols }));
-    content.push(...tableNode({ ...buses, title: 'Bus voltages: sequence components and unbalance' }, { columns: restCols }));
+    busColumnGroups(buses.columns).forEach((g, i, all) => content.push(...tableNode({ ...buses, title: g.title, note: i === all.length - 1 ? buses.note : undefined }, { columns: g.columns })));
     content.push(...tableNode(loadTable(ctx)));
     content.push(...tableNode(elementTable(ctx)));
     content.push(...tableNode(powerTable(ctx)));
     if (result.faults.length) content.push(...tableNode(faultTable(ctx)));
 
-    const flaggedBuses = [...new Set(result.flags.map((f) => f.bus && names.drawnBus(f.bus)).filter((b): b is string => !!b))];
-    const diagrams = flaggedBuses.map((b) => result!.buses.find((x) => x.bus === b)).filter((b) => b !== undefined);
+    const diagrams = flaggedBuses(result, names);
     if (diagrams.length) {
       content.push({ text: 'Phasor diagrams of the flagged buses', style: 'h2', pageBreak: 'before' });
       content.push({ text: 'Voltages to earth from the origin (solid); line-to-neutral voltages from the neutral point (dashed).', style: 'small' });
