@@ -13,7 +13,8 @@ const label = (c: string) => (c === 'n' ? 'N' : c.toUpperCase());
 
 /** The phasor diagram of one bus as SVG text (size × size units). */
 export function phasorSvg(bus: BusResult, fontFamily: string, size = 220): string {
-  const r = size / 2 - 30;
+  // Room at the edges for the labels ("C–N 167.3 V").
+  const r = size / 2 - 50;
   const cx = size / 2;
   const cy = size / 2;
   const phases = Object.keys(bus.toEarth).filter((c) => c !== 'n');

@@ -59,6 +59,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
         { path: 'studies/:id/balance', lazy: () => import('./routes/study-balance.tsx'), errorElement: <RouteError /> },
         { path: 'studies/:id/revisions/:n', lazy: () => import('./routes/study-revision.tsx'), errorElement: <RouteError /> },
         { path: 'studies/:id/diff', lazy: () => import('./routes/study-diff.tsx'), errorElement: <RouteError /> },
+        { path: 'studies/:id/print/:n', lazy: () => import('./routes/study-print.tsx'), errorElement: <RouteError /> },
         { path: 'templates', lazy: () => import('./routes/templates.tsx'), errorElement: <RouteError /> },
         { path: 'notifications', lazy: () => import('./routes/notifications.tsx'), errorElement: <RouteError /> },
         { path: 'audit', lazy: () => import('./routes/audit.tsx'), errorElement: <RouteError /> },

@@ -72,6 +72,28 @@ describe('study report and per-unit view in a real browser', () => {
     expect(csv[0]).toBe(`# Caution: ${SAFETY_CAUTION}`);
     expect(csv[1]).toContain('(pu)');
     await screenshot(page, 'bus-table-pu');
+
+    // The print view: the same content as a page, printed by the browser to A4 with numbered pages.
+    await page.getByRole('link', { name: 'Print view' }).click();
+    const report = page.getByRole('article', { name: 'Study report' });
+    await report.getByRole('table', { name: 'Flags' }).waitFor({ timeout: 30_000 });
+    const shown = (await report.textContent())!.replace(/\s+/g, ' ');
+    for (const words of ['Lane 14 report', 'Draft — not reviewed', 'Scope and assumptions', 'One-line diagram', 'Circuit inputs', 'Load terminal voltages', 'Element currents', 'Phasor diagrams of the flagged buses', SAFETY_CAUTION, 'Lane 14 report — Revision 1']) {
+      expect(shown).toContain(words);
+    }
+    expect(shown).toContain(house.lineToNeutral.c.mag.toFixed(1));
+    expect(shown).not.toMatch(/~|switch3|[{}]/);
+    await page.emulateMedia({ media: 'print' });
+    expect(await page.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
+    expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
+    await screenshot(page, 'report-print-view');
+    const printed = path.join(dir, 'printed.pdf');
+    await page.pdf({ path: printed, format: 'A4' });
+    const printedText = execFileSync('pdftotext', ['-raw', '-enc', 'UTF-8', printed, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+    const pages = Number(/Page 1 of (\d+)/.exec(printedText)?.[1]);
+    expect(pages).toBeGreaterThan(1);
+    expect(printedText).toContain(`Page ${pages} of ${pages}`);
+    expect(printedText.split('Lane 14 report — Revision 1').length - 1).toBeGreaterThanOrEqual(pages);
     expect(errors).toEqual([]);
   });
 });

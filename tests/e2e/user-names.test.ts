@@ -198,6 +198,7 @@ describe('no internal name on any page or e-mail', () => {
       `/studies/${studyId}/revisions/2`,
       `/studies/${studyId}/diff`,
       `/studies/${studyId}/diff?from=2&to=1`,
+      `/studies/${studyId}/print/2`,
       `/studies/${copyId}`,
       `/studies/${copyId}/details`,
       ...(role === 'owner' ? ['/team', '/team/mail', '/audit'] : []),

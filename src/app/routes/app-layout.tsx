@@ -56,7 +56,7 @@ export function AppLayout() {
 
   return (
     <div className="flex min-h-screen flex-col bg-paper">
-      <header className="bg-console text-console-ink">
+      <header className="bg-console text-console-ink print:hidden">
         <div className="flex flex-wrap items-center gap-x-6 gap-y-2 px-6 py-2">
           <Link to="/" className="text-base font-semibold tracking-wide text-white">
             Wyeward
@@ -107,7 +107,7 @@ export function AppLayout() {
           </div>
         </div>
       </header>
-      <main className="flex-1 px-6 py-5">
+      <main className="flex-1 px-6 py-5 print:p-0">
         <Outlet />
       </main>
       <SafetyNote />

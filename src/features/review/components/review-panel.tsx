@@ -130,6 +130,9 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
             <a href={reportUrl(studyId, { revision: latest, units: 'pu' })} download className="font-semibold text-accent hover:underline">
               Report in per unit (PDF)
             </a>
+            <Link to={`/studies/${studyId}/print/${latest}`} className="font-semibold text-accent hover:underline">
+              Print view
+            </Link>
           </>
         ) : null}
       </div>
