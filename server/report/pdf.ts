@@ -14,7 +14,7 @@ import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
 import { busColumnGroups, flaggedBuses, inputGroups, reportedCircuit, scopeLines } from '../../shared/report/document.ts';
 import { oneLineSvg } from '../../shared/report/one-line.ts';
-import { phasorSvg } from '../../shared/report/phasor-svg.ts';
+import { phasorLegend, phasorSvg } from '../../shared/report/phasor-svg.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
 import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../shared/report/tables.ts';
 import { FONT_FILES, pdfText, REPORT_FONTS } from './fonts.ts';
@@ -128,7 +128,18 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
       content.push({ text: 'Phasor diagrams of the flagged buses', style: 'h2', pageBreak: 'before' });
       content.push({ text: 'Voltages to earth from the origin (solid); line-to-neutral voltages from the neutral point (dashed).', style: 'small' });
       for (let i = 0; i < diagrams.length; i += 2) {
-        content.push({ columns: diagrams.slice(i, i + 2).map((b) => ({ svg: phasorSvg(b, 'Plex'), width: 250 })), margin: [0, 6, 0, 6] });
+        content.push({
+          columns: diagrams.slice(i, i + 2).map((b) => ({
+            width: 250,
+            stack: [
+              { text: pdfText(b.bus), bold: true },
+              { svg: phasorSvg(b, 'Plex', 200, { labels: false }), width: 200 },
+              { text: phasorLegend(b).flatMap((l, k) => [...(k ? ['   '] : []), { text: pdfText(l.text), color: l.colour }]), fontSize: 8 },
+            ],
+          })),
+          margin: [0, 6, 0, 6],
+          unbreakable: true,
+        });
       }
     }
     content.push({ text: 'Flags', style: 'h2', pageBreak: diagrams.length ? undefined : 'before' });

@@ -11,10 +11,22 @@ const COLOURS: Record<string, string> = { a: '#9b2c2c', b: '#1f2937', c: '#1d4ed
 
 const label = (c: string) => (c === 'n' ? 'N' : c.toUpperCase());
 
-/** The phasor diagram of one bus as SVG text (size × size units). */
-export function phasorSvg(bus: BusResult, fontFamily: string, size = 220): string {
+/** The legend of a bus's diagram: each phase's line-to-neutral magnitude and the neutral shift, with its colour. */
+export function phasorLegend(bus: BusResult): { text: string; colour: string }[] {
+  const out = Object.keys(bus.toEarth)
+    .filter((c) => c !== 'n')
+    .map((c) => ({ text: `${label(c)}–N ${bus.lineToNeutral[c] ? formatMagnitude(bus.lineToNeutral[c].mag) : ''} V`, colour: COLOURS[c] ?? '#000' }));
+  if (bus.toEarth.n) out.push({ text: `N–E ${formatMagnitude(bus.toEarth.n.mag)} V`, colour: COLOURS.n });
+  return out;
+}
+
+/**
+ * The phasor diagram of one bus as SVG text (size × size units). Without `labels` the drawing has
+ * no text (the PDF sets the bus name and `phasorLegend` as its own text: SVG text is slow to embed).
+ */
+export function phasorSvg(bus: BusResult, fontFamily: string, size = 220, { labels = true }: { labels?: boolean } = {}): string {
   // Room at the edges for the labels ("C–N 167.3 V").
-  const r = size / 2 - 50;
+  const r = size / 2 - (labels ? 50 : 12);
   const cx = size / 2;
   const cy = size / 2;
   const phases = Object.keys(bus.toEarth).filter((c) => c !== 'n');
@@ -44,13 +56,13 @@ export function phasorSvg(bus: BusResult, fontFamily: string, size = 220): strin
     if (n) parts.push(arrow(p, COLOURS[c] ?? '#000', true, pt(n)));
     const t = pt(p);
     const ln = bus.lineToNeutral[c];
-    parts.push(`<text x="${t.x + (t.x >= cx ? 4 : -4)}" y="${t.y + (t.y >= cy ? 10 : -4)}" font-size="8" text-anchor="${t.x >= cx ? 'start' : 'end'}" fill="${COLOURS[c] ?? '#000'}" ${font}>${label(c)}–N ${ln ? formatMagnitude(ln.mag) : ''} V</text>`);
+    if (labels) parts.push(`<text x="${t.x + (t.x >= cx ? 4 : -4)}" y="${t.y + (t.y >= cy ? 10 : -4)}" font-size="8" text-anchor="${t.x >= cx ? 'start' : 'end'}" fill="${COLOURS[c] ?? '#000'}" ${font}>${label(c)}–N ${ln ? formatMagnitude(ln.mag) : ''} V</text>`);
   }
   if (n) {
     parts.push(arrow(n, COLOURS.n, false));
     const t = pt(n);
-    parts.push(`<text x="${t.x + 4}" y="${t.y + 10}" font-size="8" fill="${COLOURS.n}" ${font}>N–E ${formatMagnitude(n.mag)} V</text>`);
+    if (labels) parts.push(`<text x="${t.x + 4}" y="${t.y + 10}" font-size="8" fill="${COLOURS.n}" ${font}>N–E ${formatMagnitude(n.mag)} V</text>`);
   }
-  parts.push(`<text x="4" y="12" font-size="9" font-weight="bold" ${font}>${bus.bus.replace(/[<>&"']/g, '')}</text>`);
+  if (labels) parts.push(`<text x="4" y="12" font-size="9" font-weight="bold" ${font}>${bus.bus.replace(/[<>&"']/g, '')}</text>`);
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${size}" height="${size}" viewBox="0 0 ${size} ${size}">${parts.join('')}</svg>`;
 }
