@@ -57,13 +57,13 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       maxQueue,
     }));
 
-  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal): Promise<T> {
+  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal, limitMs = timeoutMs): Promise<T> {
     const p = getPool();
     if (p.queueSize >= maxQueue) {
       throw new AppError(503, 'unavailable', 'The server is busy with other large studies; try again in a moment.', { retryAfterSeconds: 5 });
     }
     try {
-      const signal = cancel ? AbortSignal.any([AbortSignal.timeout(timeoutMs), cancel]) : AbortSignal.timeout(timeoutMs);
+      const signal = cancel ? AbortSignal.any([AbortSignal.timeout(limitMs), cancel]) : AbortSignal.timeout(limitMs);
       return (await p.run(task, { signal })) as T;
     } catch (err) {
       if (cancel?.aborted) throw new AppError(503, 'unavailable', 'The balancing was cancelled.');
@@ -71,7 +71,7 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
         throw new AppError(
           503,
           'unavailable',
-          `This study took longer than ${Math.round(timeoutMs / 1000)} s to check and solve, so it was stopped. Split it into smaller studies, or try again when the server is less busy.`,
+          `This study took longer than ${Math.round(limitMs / 1000)} s to ${task.kind === 'report' ? 'lay out as a report' : 'check and solve'}, so it was stopped. Split it into smaller studies, or try again when the server is less busy.`,
           { retryAfterSeconds: 30 },
         );
       }
@@ -95,7 +95,8 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
     async report(input) {
       // A report lays out pages and embeds fonts besides solving: only the smallest studies run inline.
       if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await runTask({ kind: 'report', input })) as Uint8Array;
-      return run<Uint8Array>({ kind: 'report', input });
+      // A report lays out dozens of pages besides solving: three times the time limit of a check.
+      return run<Uint8Array>({ kind: 'report', input }, undefined, timeoutMs * 3);
     },
     async csv(input) {
       if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return runTask({ kind: 'csv', input }) as Awaited<ReturnType<WorkPool['csv']>>;

@@ -4,6 +4,7 @@ import { demoCircuits } from '../../../shared/engine/index.ts';
 import { AppError } from '../../../server/errors.ts';
 import { createWorkPool, INLINE_ELEMENTS } from '../../../server/work/pool.ts';
 import { prepare } from '../../../server/work/tasks.ts';
+import { resultsCsv } from '../../../server/report/csv.ts';
 
 /** A valid circuit with `n` single-phase loads on the split-phase demo's first bus (large enough for a thread). */
 function bigCircuit(n: number) {
@@ -30,6 +31,24 @@ describe('work pool', () => {
     const res = await pool.prepare(circuit);
     expect(res.ok).toBe(false);
     if (!res.ok) expect(res.issues.map((i) => i.path).join(' ')).toMatch(/elements.3/);
+  });
+
+  it('makes the report and the CSV of a large study in the thread (the CSV the same as inline)', async () => {
+    const content = { circuit: bigCircuit(INLINE_ELEMENTS + 10) };
+    const csv = await pool.csv({ content, units: 'si', table: 'loads' });
+    expect(csv).toEqual(resultsCsv({ content, units: 'si', table: 'loads' }));
+    expect(csv.ok && csv.csv.split('\r\n').length).toBeGreaterThan(INLINE_ELEMENTS);
+    const pdf = await pool.report({
+      study: { name: 'Large', team: 'Team' },
+      revision: { number: 1, author: 'A', createdAt: '2026-12-02T00:00:00.000Z', message: '' },
+      review: { status: 'Draft — not reviewed', approved: false },
+      units: 'si',
+      content,
+      madeAt: '2026-12-02T00:00:00.000Z',
+    });
+    expect(pdf).toBeInstanceOf(Uint8Array);
+    expect(Buffer.from(pdf.subarray(0, 5)).toString()).toBe('%PDF-');
+    expect(pdf.byteLength).toBeGreaterThan(10_000);
   });
 
   it('stops a job past its time limit and answers 503 with a plain message', async () => {
