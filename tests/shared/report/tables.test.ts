@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit } from '../../../shared/engine/index.ts';
-import { toCsv } from '../../../shared/report/csv.ts';
+import { csvText, toCsv } from '../../../shared/report/csv.ts';
 import { formatPu } from '../../../shared/report/format.ts';
 import { readPerUnitSettings } from '../../../shared/report/per-unit.ts';
 import { oneLineSvg } from '../../../shared/report/one-line.ts';
@@ -53,5 +53,10 @@ describe('report tables', () => {
     const csv = toCsv(flagTable(tableContext(openNeutral, result, 'si', readPerUnitSettings(undefined))));
     expect(csv.split('\r\n')[0]).toBe(`# Caution: ${SAFETY_CAUTION}`);
     expect(csv).toContain('"');
+  });
+
+  it('quote what needs quoting and keep spreadsheets from running a name as a formula', () => {
+    const lines = csvText(['Name', 'Value (V)'], [['=SUM(A1)', '-4.70'], ['a, "b"', '−2.1°'], ['-x', '+1']]).split('\r\n');
+    expect(lines.slice(1, 5)).toEqual(['Name,Value (V)', "'=SUM(A1),-4.70", '"a, ""b""",−2.1°', "'-x,'+1"]);
   });
 });
