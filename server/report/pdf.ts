@@ -23,6 +23,9 @@ pdfmake.setUrlAccessPolicy(() => false);
 pdfmake.setLocalAccessPolicy((p) => FONT_FILES.has(p));
 pdfmake.addFonts(REPORT_FONTS);
 
+/** Where the one-line diagram's page starts drawing, pt from the top (below its heading). */
+const DIAGRAM_TOP = 72;
+
 /** What the report is of: everything is plain data (it crosses a thread boundary). */
 export interface ReportInput {
   study: { name: string; team: string };
@@ -104,9 +107,18 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     { ul: scopeLines(circuit, result, caseName).map(pdfText), fontSize: 9 },
   ];
 
-  const diagram = oneLineSvg(circuit, input.content.layout, 'Plex');
+  // The drawing and its labels are placed at the same absolute spot of their own page (the labels as
+  // PDF text: SVG text is slow to embed); IBM Plex's ascent is 1.025 em, so a label's top is its
+  // baseline less that.
+  const diagram = oneLineSvg(circuit, input.content.layout, 'Plex', { labels: false });
+  const k = Math.min(515 / diagram.width, 680 / diagram.height, 1.5);
+  const at = (x: number, y: number) => ({ x: 40 + (x - diagram.minX) * k, y: DIAGRAM_TOP + (y - diagram.minY) * k });
   content.push({ text: 'One-line diagram', style: 'h2', pageBreak: 'before' });
-  content.push({ svg: diagram.svg, fit: [515, 560] });
+  content.push({ svg: diagram.svg, width: diagram.width * k, height: diagram.height * k, absolutePosition: at(diagram.minX, diagram.minY) });
+  for (const l of diagram.labels) {
+    const p = at(l.x, l.y);
+    content.push({ text: pdfText(l.text), fontSize: l.size * k, bold: l.bold ?? false, color: l.colour ?? '#000000', lineHeight: 1, absolutePosition: { x: p.x, y: p.y - 1.025 * l.size * k } });
+  }
   content.push({ text: 'Circuit inputs', style: 'h2', pageBreak: 'before' });
   content.push(...inputTables(circuit));
 

@@ -118,8 +118,22 @@ function symbol(type: string, p: XY): string {
   }
 }
 
-/** The one-line diagram of a stored circuit and layout as SVG text, with its size in SVG units. */
-export function oneLineSvg(circuit: unknown, layout: unknown, fontFamily: string): { svg: string; width: number; height: number } {
+/** A label of the diagram: text at a baseline point in SVG units. */
+export interface DiagramLabel {
+  x: number;
+  y: number;
+  text: string;
+  size: number;
+  bold?: boolean;
+  colour?: string;
+}
+
+/**
+ * The one-line diagram of a stored circuit and layout as SVG text, with its size and origin in SVG
+ * units. Without `labels` the SVG has no text and the labels come back separately (the PDF sets
+ * them as its own text: SVG text is slow to embed).
+ */
+export function oneLineSvg(circuit: unknown, layout: unknown, fontFamily: string, { labels: inSvg = true }: { labels?: boolean } = {}): { svg: string; width: number; height: number; minX: number; minY: number; labels: DiagramLabel[] } {
   const elements = elementsOf(circuit);
   const rawPositions = layout && typeof layout === 'object' ? (layout as { positions?: unknown }).positions : undefined;
   const stored: Record<string, XY> = {};
@@ -132,6 +146,11 @@ export function oneLineSvg(circuit: unknown, layout: unknown, fontFamily: string
   const { buses, elements: at } = place(elements, stored);
   const parts: string[] = [];
   const font = `font-family="${escapeXml(fontFamily)}"`;
+  const labels: DiagramLabel[] = [];
+  const label = (l: DiagramLabel) => {
+    labels.push(l);
+    if (inSvg) parts.push(`<text x="${l.x}" y="${l.y}" font-size="${l.size}"${l.bold ? ' font-weight="bold"' : ''}${l.colour ? ` fill="${l.colour}"` : ''} ${font}>${escapeXml(l.text)}</text>`);
+  };
   // Wires first, then buses, then symbols and labels on top.
   for (const e of elements) {
     const p = at.get(e.id)!;
@@ -143,13 +162,13 @@ export function oneLineSvg(circuit: unknown, layout: unknown, fontFamily: string
   for (const [name, q] of buses) {
     const half = Math.max(40, SLOT * 0.6);
     parts.push(`<line x1="${q.x - half}" y1="${q.y}" x2="${q.x + half}" y2="${q.y}" stroke="black" stroke-width="4"/>`);
-    parts.push(`<text x="${q.x - half}" y="${q.y - 6}" font-size="10" font-weight="bold" ${font}>${escapeXml(name)}</text>`);
+    label({ x: q.x - half, y: q.y - 6, text: name, size: 10, bold: true });
   }
   for (const e of elements) {
     const p = at.get(e.id)!;
     parts.push(symbol(e.type, p));
-    parts.push(`<text x="${p.x + 16}" y="${p.y + 3}" font-size="9" ${font}>${escapeXml(e.id)}</text>`);
-    if (e.opened.length) parts.push(`<text x="${p.x + 16}" y="${p.y + 14}" font-size="8" fill="#b00020" ${font}>${escapeXml(`${conductorWords(e.opened)} open`)}</text>`);
+    label({ x: p.x + 16, y: p.y + 3, text: e.id, size: 9 });
+    if (e.opened.length) label({ x: p.x + 16, y: p.y + 14, text: `${conductorWords(e.opened)} open`, size: 8, colour: '#b00020' });
   }
   const xs = [...buses.values(), ...at.values()].map((p) => p.x);
   const ys = [...buses.values(), ...at.values()].map((p) => p.y);
@@ -158,5 +177,5 @@ export function oneLineSvg(circuit: unknown, layout: unknown, fontFamily: string
   const width = Math.max(...xs, 0) - minX + 160;
   const height = Math.max(...ys, 0) - minY + 40;
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="${minX} ${minY} ${width} ${height}">${parts.join('')}</svg>`;
-  return { svg, width, height };
+  return { svg, width, height, minX, minY, labels };
 }
