@@ -30,7 +30,7 @@ describe('Content-Security-Policy in a real browser', () => {
     }
   });
 
-  it('the app runs with no CSP violation: sign-in, studies, a workspace with its solve worker, sign-up', async () => {
+  it('the app runs with no CSP violation: sign-in, studies, a workspace with its solve worker, the report print view, sign-up', async () => {
     const page = await browser.newPage({ viewport: { width: 1360, height: 860 } });
     const violations: string[] = [];
     page.on('console', (m) => {
@@ -49,6 +49,11 @@ describe('Content-Security-Policy in a real browser', () => {
     await page.waitForURL(/\/studies\/[0-9a-f-]{36}/);
     await page.getByRole('region', { name: 'Results' }).waitFor({ timeout: 30_000 });
     await page.getByText(/engineering aid/i).first().waitFor();
+    // The print view of the report draws its diagrams as inline SVG.
+    await page.getByRole('link', { name: 'Print view' }).click();
+    await page.getByRole('img', { name: 'One-line diagram' }).waitFor({ timeout: 30_000 });
+    await page.goBack();
+    await page.getByRole('region', { name: 'Results' }).waitFor({ timeout: 30_000 });
     // the phase-balancing page (its own lazy chunk, papaparse included)
     await page.getByRole('link', { name: 'Phase balancing' }).click();
     await page.getByRole('heading', { name: 'Phase balancing' }).waitFor();
