@@ -9,7 +9,7 @@ import { formatDateTime } from '../../../lib/format.ts';
 import { useLiveReview } from '../api/use-live-review.ts';
 import { useRevisions } from '../api/get-revisions.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
-import { reportUrl } from '../api/report.ts';
+import { reportUrl, resultsCsvUrl } from '../api/report.ts';
 import { exportUrl } from '../api/transfer.ts';
 import { canRequestReview, canWrite, decisionBlocker, reviewDiffHref } from '../utils/permissions.ts';
 import { DecisionDialog } from './decision-dialog.tsx';
@@ -133,6 +133,17 @@ export function ReviewPanel({ studyId, role, userId }: { studyId: string; role: 
             <Link to={`/studies/${studyId}/print/${latest}`} className="font-semibold text-accent hover:underline">
               Print view
             </Link>
+            <span className="text-ink-muted">
+              Saved results as CSV:{' '}
+              {(['buses', 'loads', 'elements', 'flags'] as const).map((t, i) => (
+                <span key={t}>
+                  {i ? ', ' : ''}
+                  <a href={resultsCsvUrl(studyId, t, { revision: latest })} download aria-label={`Saved ${t} results as CSV`} className="font-semibold text-accent hover:underline">
+                    {t}
+                  </a>
+                </span>
+              ))}
+            </span>
           </>
         ) : null}
       </div>

@@ -163,3 +163,14 @@ describe('review actions by role and state', () => {
     expect(patches).toEqual([{ version: 5, isTemplate: true }]);
   });
 });
+
+describe('report links', () => {
+  it('offer the report of the latest revision in V and pu, its print view and the saved results as CSV', async () => {
+    setup('viewer', reviewState());
+    const p = await panel();
+    expect(await within(p).findByRole('link', { name: 'Report (PDF)' })).toHaveAttribute('href', `/api/studies/${STUDY_ID}/report.pdf?revision=2`);
+    expect(within(p).getByRole('link', { name: 'Report in per unit (PDF)' })).toHaveAttribute('href', `/api/studies/${STUDY_ID}/report.pdf?revision=2&units=pu`);
+    expect(within(p).getByRole('link', { name: 'Print view' })).toHaveAttribute('href', `/studies/${STUDY_ID}/print/2`);
+    expect(within(p).getByRole('link', { name: 'Saved flags results as CSV' })).toHaveAttribute('href', `/api/studies/${STUDY_ID}/results.csv?table=flags&revision=2`);
+  });
+});
