@@ -30,8 +30,12 @@ export function splitBusNode(node: string): { bus: string; conductor: string } |
   return { bus, conductor };
 }
 
-/** Per-bus results of every bus named by a port or by a node "BUS.c" (also used by the CLI's printed-only path). */
-export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: PrimitiveSolution, floatingNodes: Set<string>): BusResult[] {
+/**
+ * Per-bus results of every bus named by a port or by a node "BUS.c" (also used by the CLI's
+ * printed-only path). `forFlags`: only what computeFlags reads (no voltages to earth and no
+ * sequence phasors; the unbalance figures are still computed, from the same numbers).
+ */
+export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: { nodeVolts: { keys(): Iterable<string>; get(node: string): Cx | undefined } }, floatingNodes: Set<string>, forFlags = false): BusResult[] {
   const buses = new Map<string, Set<string>>();
   const order: string[] = [];
   const note = (bus: string) => {
@@ -60,7 +64,7 @@ export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: Pri
     const nom = ctx.nominal.get(bus);
     const hasN = present.has('n');
     const toEarth: Record<string, Phasor> = {};
-    for (const c of conductors) toEarth[c] = toPhasor(V(bus, c));
+    if (!forFlags) for (const c of conductors) toEarth[c] = toPhasor(V(bus, c));
     const vn = hasN ? V(bus, 'n') : ZERO;
     const phases = (split ? ['1', '2'] : ['a', 'b', 'c']).filter((c) => present.has(c));
     const lineToNeutral: Record<string, Phasor> = {};
@@ -86,11 +90,11 @@ export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: Pri
     }
     if (!split && phases.length === 3) {
       const s = sequenceComponents(V(bus, 'a'), V(bus, 'b'), V(bus, 'c'), ctx.sequence);
-      r.sequence = seqPhasors(s);
+      if (!forFlags) r.sequence = seqPhasors(s);
       r.iecUnbalancePercent = iecUnbalancePercent(s.positive, s.negative);
       r.nemaUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToLine).map((v) => v.mag));
       r.ieeeUnbalancePercent = maxDeviationUnbalancePercent(Object.values(lineToNeutral).map((v) => v.mag));
-      if (hasN) r.sequenceToNeutral = seqPhasors(sequenceComponents(sub(V(bus, 'a'), vn), sub(V(bus, 'b'), vn), sub(V(bus, 'c'), vn), ctx.sequence));
+      if (hasN && !forFlags) r.sequenceToNeutral = seqPhasors(sequenceComponents(sub(V(bus, 'a'), vn), sub(V(bus, 'b'), vn), sub(V(bus, 'c'), vn), ctx.sequence));
     }
     out.push(r);
   }

@@ -9,6 +9,8 @@
 export {
   createNetwork,
   solvePrimitives,
+  solutionArrays,
+  type SolutionArrays,
   DEFAULT_LOW_VOLTAGE_PU,
   DEFAULT_MAX_ITERATIONS,
   DEFAULT_TOLERANCE,

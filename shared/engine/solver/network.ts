@@ -100,6 +100,29 @@ export const DEFAULT_MAX_ITERATIONS = 100;
 /** Default low-voltage threshold (per unit) of the constant-current and constant-power parts. */
 export const DEFAULT_LOW_VOLTAGE_PU = 0.7;
 
+/**
+ * The typed arrays behind a solution's Maps (node voltages by node number, currents flat per
+ * element), for readers that walk every value once in order (the CLI's printed-only output):
+ * they skip building the Maps' ~10⁵ small objects. Read-only; the same numbers as the Maps.
+ */
+export interface SolutionArrays {
+  /** Node names by node number (earth first), and the inverse. */
+  nodeNames: readonly string[];
+  nodeIndex: ReadonlyMap<string, number>;
+  vRe: Float64Array;
+  vIm: Float64Array;
+  /** Primitive ids in solver order; the currents of primitive k are at currentOffset[k] … currentOffset[k + 1] − 1. */
+  elementIds: readonly string[];
+  currentOffset: Int32Array;
+  cRe: Float64Array;
+  cIm: Float64Array;
+}
+
+const SOLUTION_ARRAYS = new WeakMap<PrimitiveSolution, SolutionArrays>();
+
+/** The arrays behind a solution returned by this solver (undefined for any other object). */
+export const solutionArrays = (sol: PrimitiveSolution): SolutionArrays | undefined => SOLUTION_ARRAYS.get(sol);
+
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /** Solve a network of primitives once (conventions in types.ts). Throws the typed errors of errors.ts. */
@@ -1182,8 +1205,10 @@ function solveTopology(t: Topology, options: SolverOptions, analyzeMs: number): 
   const floating: FloatingIsland[] = t.islands.map((i) => ({ nodes: i.island.nodes.slice(), referenceNode: i.island.referenceNode }));
   floating.push(...numericIslands(t, lu));
   const tEnd = now();
+  const solution: PrimitiveSolution = { nodeVolts, elementCurrents: currents, floating, iterations, maxKclResidualAmps: maxKcl, lowVoltageLoads: lowVoltage };
+  SOLUTION_ARRAYS.set(solution, { nodeNames, nodeIndex: t.nodeIndex, vRe, vIm, elementIds: ids, currentOffset: off, cRe, cIm });
   return {
-    solution: { nodeVolts, elementCurrents: currents, floating, iterations, maxKclResidualAmps: maxKcl, lowVoltageLoads: lowVoltage },
+    solution,
     timings: {
       analyzeMs,
       assembleMs: tAsm - tStart,
