@@ -150,7 +150,17 @@ function mergeSolidEarthBonds(expansions: Expansion[]): void {
 
 /** Expand every element; checks that the generated primitive ids are unique. */
 export function expandCircuit(circuit: Circuit, ctx: ExpandContext = expandContext(circuit)): { expansions: Expansion[]; primitives: Primitive[] } {
-  const expansions = circuit.elements.map((el) => expandElement(el, ctx));
+  const { elements } = circuit;
+  const expansions = new Array<Expansion>(elements.length);
+  // primitive-only circuits (big generated files) skip the bond merge and the id check below:
+  // a bare primitive carries its element's id, and element ids are unique (parseCircuit), and
+  // only blocks generate solid earth bonds
+  let bare = true;
+  for (let k = 0; k < elements.length; k++) {
+    const e = (expansions[k] = expandElement(elements[k], ctx));
+    if (bare && (e.primitives.length !== 1 || e.primitives[0].prim.id !== e.id || e.primitives[0].role === 'earth')) bare = false;
+  }
+  if (bare) return { expansions, primitives: expansions.map((e) => e.primitives[0].prim) };
   mergeSolidEarthBonds(expansions);
   const primitives = expansions.flatMap((e) => e.primitives.filter((t) => t.mergedInto === undefined).map((t) => t.prim));
   const seen = new Map<string, string>();
