@@ -146,7 +146,7 @@ if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
 const port = await freePort();
 const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
   cwd: root,
-  env: { ...process.env, PORT: String(port), DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist },
+  env: { ...process.env, PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist },
   stdio: ['ignore', 'pipe', 'pipe'],
 });
 let log = '';
@@ -173,7 +173,10 @@ try {
   await page.getByLabel(/e-?mail/i).fill('engineer@wyeward.test');
   await page.getByLabel(/password/i).fill('wyeward-demo');
   await page.getByRole('button', { name: /sign in/i }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  // generous: on a loaded machine the first sign-in (password hash, first queries) can take long
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 180_000 }).catch(async (e) => {
+    throw new Error(`sign-in did not finish: ${(await page.locator('body').innerText()).slice(0, 400)}`, { cause: e });
+  });
   const created = await page.evaluate(async (circuit) => {
     const res = await fetch('/api/studies', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: 'Bench: 300-element feeder', content: { circuit } }) });
     return { status: res.status, body: await res.json() };

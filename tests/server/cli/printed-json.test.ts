@@ -76,6 +76,13 @@ describe('primitive-only --json fast path: same bytes as the general path', () =
     expect(r.fast).not.toBeNull();
     expect(r.fast).toBe(r.general);
   });
+  it('on seeded random primitive-only feeders of several sizes', () => {
+    for (const [buses, seed] of [[5, 1], [40, 2], [97, 3], [150, 4], [220, 5], [333, 6]] as const) {
+      const r = both(primitiveFeeder(buses, seed));
+      expect(r.fast, `${buses} buses, seed ${seed}`).not.toBeNull();
+      expect(r.fast, `${buses} buses, seed ${seed}`).toBe(r.general);
+    }
+  });
   for (const sequence of ['ABC', 'ACB'] as const) {
     it(`on every primitive kind with flags and a floating island (${sequence})`, () => {
       const r = both(everyKind(sequence));

@@ -1,5 +1,7 @@
 /**
- * `useLiveSolve(circuit)`: re-solves in a Web Worker on every change of `circuit` (debounced),
+ * `useLiveSolve(circuit)`: re-solves in a Web Worker on every change of `circuit`: a change after a
+ * quiet spell goes out at once (no delay before the first frame of a single edit), changes that
+ * follow one another within the debounce time are coalesced into one request for the last one,
  * drops answers to requests that a newer edit has overtaken, and keeps the last good result on
  * screen while the next one is computed or when the edit failed (`stale` then says so).
  */
@@ -23,7 +25,10 @@ export interface LiveSolveState {
 }
 
 export interface LiveSolveOptions {
-  /** Quiet time after the last change before solving, ms (default 50). */
+  /**
+   * Debounce, ms (default 50): a change less than this after the previous one waits until the
+   * changes stop for this long; a change after a longer quiet spell is sent at once.
+   */
   debounceMs?: number;
   /** Limit-set overrides applied over the circuit's own. */
   limits?: LimitsInput;
@@ -37,6 +42,8 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   const [state, setState] = useState<LiveSolveState>({ status: 'idle' });
   const portRef = useRef<SolvePort | null>(null);
   const latestId = useRef(0);
+  /** When the circuit last changed (performance.now()), to tell a single edit from a burst. */
+  const lastChange = useRef(-Infinity);
   const createPortRef = useRef(createPort);
   // Limits compared by value, so an inline object literal does not re-solve on every render.
   const limitsKey = JSON.stringify(limits ?? null);
@@ -67,7 +74,15 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     // The id is taken at edit time, so an answer to an older edit that lands during the debounce is dropped too.
     const id = ++latestId.current;
     setState((s) => ({ ...s, status: 'solving', stale: s.result !== undefined }));
-    const timer = setTimeout(() => portRef.current?.post({ id, circuit, limits: stableLimits }), debounceMs);
+    const send = () => portRef.current?.post({ id, circuit, limits: stableLimits });
+    const t = performance.now();
+    const quiet = t - lastChange.current;
+    lastChange.current = t;
+    if (quiet >= debounceMs) {
+      send();
+      return;
+    }
+    const timer = setTimeout(send, debounceMs);
     return () => clearTimeout(timer);
   }, [circuit, stableLimits, debounceMs]);
 

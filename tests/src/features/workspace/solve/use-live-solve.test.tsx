@@ -30,14 +30,31 @@ describe('useLiveSolve', () => {
     expect(result.current.ms).toBeGreaterThanOrEqual(0);
   });
 
-  it('debounces a burst of edits into one request for the last one', async () => {
+  it('sends a change after a quiet spell at once, and holds a burst of edits until it stops', async () => {
+    const posted: SolveRequest[] = [];
+    const answered: SolveResponse[] = [];
+    const port = (onResponse: PortListener) => countingPort(posted)((res) => (answered.push(res), onResponse(res)));
+    // a long debounce, so the three edits below are certainly within it of one another
+    const { result, rerender } = renderHook(({ c }) => useLiveSolve(c, { createPort: port, debounceMs: 60_000 }), { initialProps: { c: withHeater(1) } });
+    expect(posted).toHaveLength(1); // the first change: no wait
+    rerender({ c: withHeater(2) });
+    rerender({ c: withHeater(3) });
+    rerender({ c: withHeater(7) });
+    await waitFor(() => expect(answered).toHaveLength(1));
+    expect(posted).toHaveLength(1); // the burst waits for quiet
+    expect(result.current.status).toBe('solving'); // the answer to the first change is dropped: a newer edit is pending
+    expect(result.current.result).toBeUndefined();
+  });
+
+  it('a burst ends in one request for its last edit', async () => {
     const posted: SolveRequest[] = [];
     const { result, rerender } = renderHook(({ c }) => useLiveSolve(c, { createPort: countingPort(posted), debounceMs: 30 }), { initialProps: { c: withHeater(1) } });
     rerender({ c: withHeater(2) });
     rerender({ c: withHeater(3) });
     rerender({ c: withHeater(7) });
     await waitFor(() => expect(result.current.status).toBe('ok'));
-    expect(posted).toHaveLength(1);
+    expect(posted).toHaveLength(2); // the first change at once, then the burst's last edit
+    expect(posted[1].circuit).toEqual(withHeater(7));
     expect(result.current.result!.buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(withHeater(7)), 9);
   });
 
