@@ -10,52 +10,86 @@
  * approximate-minimum-degree quotient graph would only pay off on large meshed grids.
  */
 
-/** Minimum-degree order of an n-vertex graph given as CSC pattern (diagonal ignored); perm[k] = vertex eliminated k-th. */
+/**
+ * Minimum-degree order of an n-vertex graph given as CSC pattern (diagonal ignored); perm[k] = vertex eliminated k-th.
+ * The adjacency lists live in one Int32Array pool (a vertex whose list outgrows its slot moves to
+ * the end of the pool), not in an array object per vertex: the same lists in the same order as a
+ * list-per-vertex version, so the same order results (tests/shared/engine/solver/ordering.test.ts
+ * keeps that version as the reference), at a fraction of the allocation.
+ */
 export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32Array): Int32Array {
-  const adj: number[][] = new Array(n);
+  const start = new Int32Array(n);
+  const len = new Int32Array(n);
+  const cap = new Int32Array(n);
+  let pool = new Int32Array(Math.max(16, 2 * rowIdx.length));
+  let top = 0;
   for (let j = 0; j < n; j++) {
-    const list: number[] = [];
+    start[j] = top;
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const i = rowIdx[p];
-      if (i !== j) list.push(i);
+      if (i !== j) pool[top++] = i;
     }
-    adj[j] = list;
+    len[j] = top - start[j];
+    // room to grow in place: fill adds a few neighbours on distribution networks
+    const room = len[j] + 4;
+    cap[j] = room;
+    top = start[j] + room;
+    if (top + 64 > pool.length) {
+      const bigger = new Int32Array(pool.length * 2 + 64);
+      bigger.set(pool.subarray(0, top));
+      pool = bigger;
+    }
   }
   const eliminated = new Uint8Array(n);
   const mark = new Int32Array(n).fill(-1);
   const heap = new MinHeap(n);
-  for (let j = 0; j < n; j++) heap.push(adj[j].length, j);
+  for (let j = 0; j < n; j++) heap.push(len[j], j);
   const perm = new Int32Array(n);
   let step = 0;
   while (step < n) {
-    const v = heap.pop(adj, eliminated);
+    const v = heap.pop(len, eliminated);
     perm[step] = v;
     eliminated[v] = 1;
-    const nb = adj[v];
+    const nbLen = len[v];
     // The neighbours of v become a clique (the fill of eliminating v), and v leaves their lists.
-    for (let a = 0; a < nb.length; a++) {
-      const u = nb[a];
-      // in place (no allocation): drop v and eliminated vertices, then add the missing members of nb
-      const list = adj[u];
+    for (let a = 0; a < nbLen; a++) {
+      const u = pool[start[v] + a];
+      // in place: drop v and eliminated vertices, then add the missing members of v's list
+      let s = start[u];
+      const l = len[u];
       mark[u] = step;
       let m = 0;
-      for (let b = 0; b < list.length; b++) {
-        const w = list[b];
+      for (let b = 0; b < l; b++) {
+        const w = pool[s + b];
         if (w === v || eliminated[w] || mark[w] === step) continue;
         mark[w] = step;
-        list[m++] = w;
+        pool[s + m++] = w;
       }
-      list.length = m;
-      for (let b = 0; b < nb.length; b++) {
-        const w = nb[b];
-        if (mark[w] !== step) list.push(w);
+      if (m + nbLen > cap[u]) {
+        // move u's list to the end of the pool with room to grow
+        const room = 2 * (m + nbLen) + 4;
+        if (top + room > pool.length) {
+          const bigger = new Int32Array(Math.max(pool.length * 2, top + room));
+          bigger.set(pool.subarray(0, top));
+          pool = bigger;
+        }
+        pool.copyWithin(top, s, s + m);
+        s = start[u] = top;
+        cap[u] = room;
+        top += room;
       }
+      const sv = start[v];
+      for (let b = 0; b < nbLen; b++) {
+        const w = pool[sv + b];
+        if (mark[w] !== step) pool[s + m++] = w;
+      }
+      len[u] = m;
       // reset the marks for the next neighbour's pass
       mark[u] = -1;
-      for (let b = 0; b < list.length; b++) mark[list[b]] = -1;
-      heap.push(list.length, u);
+      for (let b = 0; b < m; b++) mark[pool[s + b]] = -1;
+      heap.push(m, u);
     }
-    adj[v] = [];
+    len[v] = 0;
     step++;
   }
   return perm;
@@ -96,13 +130,13 @@ class MinHeap {
     vtx[i] = v;
   }
   /** Pop the live vertex of least degree (entries whose degree no longer matches are stale). */
-  pop(adj: number[][], eliminated: Uint8Array): number {
+  pop(degree: Int32Array, eliminated: Uint8Array): number {
     for (;;) {
       if (this.size === 0) throw new Error('minimum degree ordering: heap empty');
       const d = this.deg[0];
       const v = this.vtx[0];
       this.removeTop();
-      if (!eliminated[v] && adj[v].length === d) return v;
+      if (!eliminated[v] && degree[v] === d) return v;
     }
   }
   private removeTop(): void {
