@@ -35,13 +35,19 @@ const uptime = () => {
 
 const TIME = '/usr/bin/time';
 const hasTime = existsSync(TIME);
+const TIMEOUT = '/usr/bin/timeout';
+const hasTimeout = existsSync(TIMEOUT);
 
 /** One run of a command: wall time, and CPU time (user + system, via /usr/bin/time when present). */
 function once(cmd: string, args: string[], timeoutMs?: number): { wall: number; cpu?: number; stderr: string; ok: boolean; stopped: boolean } {
+  // The time limit is put on the command itself with timeout(1): killing only the /usr/bin/time
+  // wrapper left a stopped ngspice running on, orphaned, for as long as it liked.
+  const limited = timeoutMs !== undefined && hasTimeout ? [TIMEOUT, '-s', 'KILL', String(Math.ceil(timeoutMs / 1000)), cmd, ...args] : [cmd, ...args];
+  const backstop = timeoutMs === undefined ? undefined : timeoutMs + 30_000;
   const t0 = performance.now();
   const res = hasTime
-    ? spawnSync(TIME, ['-f', 'cpu-seconds %U %S', cmd, ...args], { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: timeoutMs, killSignal: 'SIGKILL' })
-    : spawnSync(cmd, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: timeoutMs, killSignal: 'SIGKILL' });
+    ? spawnSync(TIME, ['-f', 'cpu-seconds %U %S', ...limited], { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: backstop, killSignal: 'SIGKILL' })
+    : spawnSync(limited[0], limited.slice(1), { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', maxBuffer: 1 << 26, timeout: backstop, killSignal: 'SIGKILL' });
   const wall = performance.now() - t0;
   let stderr = res.stderr ?? '';
   let cpu: number | undefined;
@@ -50,7 +56,7 @@ function once(cmd: string, args: string[], timeoutMs?: number): { wall: number; 
     cpu = (Number(m[1]) + Number(m[2])) * 1000;
     stderr = stderr.slice(0, m.index);
   }
-  return { wall, cpu, stderr, ok: res.status === 0 && !/singular|aborted/i.test(stderr), stopped: res.signal === 'SIGKILL' };
+  return { wall, cpu, stderr, ok: res.status === 0 && !/singular|aborted/i.test(stderr), stopped: res.signal === 'SIGKILL' || (limited[0] === TIMEOUT && (res.status === 124 || res.status === 137)) };
 }
 
 /** Best (least disturbed) of `runs` runs, by wall time; CPU time of that run. */
