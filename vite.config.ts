@@ -31,6 +31,20 @@ export default defineConfig({
         },
       },
       {
+        // The server tests that open a database, run again against a real PostgreSQL server (a
+        // throwaway cluster started by the global setup; DATABASE_URL mode). The CLI, work-pool and
+        // pure service tests touch no database and run once, in project server.
+        extends: true,
+        test: {
+          name: 'server-pg',
+          environment: 'node',
+          include: ['tests/server/*.test.ts'],
+          globalSetup: ['tests/server/pg-global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
         extends: true,
         test: {
           name: 'client',

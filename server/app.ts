@@ -5,9 +5,10 @@ import { originCheck, sessionMiddleware } from './auth/index.ts';
 import { createLucia } from './auth/lucia.ts';
 import { createSignInLimiter } from './auth/rate-limit.ts';
 import type { Config } from './config.ts';
-import type { Db } from './db/index.ts';
+import { pingDb, type Db } from './db/index.ts';
 import { errorHandler } from './error-handler.ts';
 import { guardBody, guardUrl } from './input-guard.ts';
+import { healthRoutes, type HealthCheck } from './health.ts';
 import { securityHeaders } from './security-headers.ts';
 import { AppError } from './errors.ts';
 import type { Mailer } from './mail/index.ts';
@@ -30,12 +31,14 @@ export interface AppDeps {
   mountClient?: (app: Express) => void;
   /** Development (vite middleware with hot reload): the CSP allows its inline scripts and websocket. */
   dev?: boolean;
+  /** More probes for `/api/health` besides the database's (e.g. `bucket` for the object store). */
+  healthChecks?: Record<string, HealthCheck>;
 }
 
 /** Largest accepted JSON body; a study's circuit and layout fit easily. */
 export const JSON_LIMIT = '2mb';
 
-export function createApp({ db, config, mailer, mountClient, dev = false }: AppDeps): Express {
+export function createApp({ db, config, mailer, mountClient, dev = false, healthChecks = {} }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy) {
@@ -63,9 +66,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false }: AppD
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
   api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays, idleHours: config.sessionIdleHours }));
-  api.get('/health', (_req, res) => {
-    res.json({ ok: true });
-  });
+  api.use('/health', healthRoutes({ database: () => pingDb(db), ...healthChecks }));
   api.use('/auth', authRoutes(ctx));
   api.use('/studies', reportRoutes(ctx));
   api.use('/studies', reviewRoutes(ctx));

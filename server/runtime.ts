@@ -6,19 +6,32 @@ import type { Express } from 'express';
 import { createApp } from './app.ts';
 import type { Config } from './config.ts';
 import { DEMO_ACCOUNTS } from './db/demo-accounts.ts';
-import { closeDb, openDb } from './db/index.ts';
+import { closeDb, dbKind, describeConnection, openDb } from './db/index.ts';
 import { sessions } from './db/schema.ts';
 import { seedDemo } from './db/seed.ts';
 import { createMailer } from './mail/index.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
 import { closeWork, configureWork } from './work/index.ts';
+import { drainServer, trackRequests } from './shutdown.ts';
 
 /** The project root (the directory holding package.json). */
 export const ROOT = path.resolve(import.meta.dirname, '..');
 
-/** Opens (and migrates) the database under DATA_DIR and, in demo mode, seeds the demo team into an empty one. */
+/** Where the configured database is, for messages: the server (without credentials) or the embedded directory. */
+export function databaseLabel(config: Config): string {
+  return config.databaseUrl ? `PostgreSQL at ${describeConnection(config.databaseUrl)}` : `embedded database in ${path.join(config.dataDir, 'pglite')}`;
+}
+
+/** Opens the configured database (DATABASE_URL, else PGlite under DATA_DIR) without migrating or seeding it (the export/import tools). */
+export function openConfiguredDb(config: Config, { migrate = true }: { migrate?: boolean } = {}) {
+  return openDb(
+    config.databaseUrl ? { url: config.databaseUrl, poolMax: config.databasePoolMax, migrate } : { dataDir: path.join(config.dataDir, 'pglite'), migrate },
+  );
+}
+
+/** Opens (and migrates) the configured database and, in demo mode, seeds the demo team into an empty one. */
 export async function prepareDatabase(config: Config, log: (msg: string) => void = console.log) {
-  const db = await openDb({ dataDir: path.join(config.dataDir, 'pglite') });
+  const db = await openConfiguredDb(config);
   // lucia drops an expired session when it is presented; this clears the ones never presented again.
   await db.delete(sessions).where(lt(sessions.expiresAt, new Date()));
   await clearExpiredThrottles(db);
@@ -47,6 +60,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const mail = await mailer.start();
   const app = createApp({ db, config, mailer, mountClient, dev });
 
+  trackRequests(server);
   server.on('request', app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -57,7 +71,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   });
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
-  console.log(`Wyeward is running at http://localhost:${port} (data in ${config.dataDir}; started in ${((Date.now() - started) / 1000).toFixed(1)} s)`);
+  console.log(`Wyeward is running at http://localhost:${port} (data in ${config.dataDir}; ${dbKind(db) === 'postgres' ? databaseLabel(config) : 'embedded database'}; started in ${((Date.now() - started) / 1000).toFixed(1)} s)`);
   console.log(
     mail.local
       ? `Mail goes to the local fake SMTP server at ${mail.smtp} and is stored in ${path.join(config.dataDir, 'mail')} (set SMTP_URL for real delivery).`
@@ -75,10 +89,10 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const shutdown = async (signal: string) => {
     if (closing) return;
     closing = true;
-    console.log(`${signal} received: closing…`);
-    server.close();
-    server.closeAllConnections();
+    console.log(`${signal} received: finishing requests in flight, then closing…`);
     try {
+      const cut = await drainServer(server, config.shutdownTimeoutMs);
+      if (cut > 0) console.log(`${cut} request(s) still running after ${config.shutdownTimeoutMs} ms were cut.`);
       await onClose();
       await closeWork();
       await mailer.close();

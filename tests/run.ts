@@ -3,27 +3,35 @@
  *
  * 1. Makes sure the Debian packages the tests need are present (chromium for the browser tests,
  *    poppler-utils for reading back the PDF report,
- *    ngspice for the engine's differential tests). Running as root with apt-get available, it
+ *    ngspice for the engine's differential tests, postgresql for project server-pg, whose global
+ *    setup starts a throwaway cluster from /usr/lib/postgresql/<version>/bin). Running as root with apt-get available, it
  *    installs the missing ones; otherwise it names exactly what is missing and fails. It never
  *    skips those tests silently.
- * 2. Runs every vitest project (shared, server, client, e2e) and prints the plain closing line
+ * 2. Runs every vitest project (shared, server, server-pg, client, e2e) and prints the plain closing line
  *    `N passed, N failed` that CI reads.
  *
  * Extra arguments go to vitest (`npm test -- --project shared`).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 
 const root = path.resolve(import.meta.dirname, '..');
-const required: { bin: string; pkg: string; why: string }[] = [
+/** The PostgreSQL server binaries of the Debian package, whatever its major version. */
+function hasPostgres(): boolean {
+  const base = '/usr/lib/postgresql';
+  return existsSync(base) && readdirSync(base).some((v) => existsSync(path.join(base, v, 'bin', 'initdb')) && existsSync(path.join(base, v, 'bin', 'pg_ctl')));
+}
+
+const required: { bin: string; pkg: string; why: string; present?: () => boolean }[] = [
   { bin: '/usr/bin/chromium', pkg: 'chromium', why: 'browser tests (tests/e2e)' },
   { bin: '/usr/bin/ngspice', pkg: 'ngspice', why: 'engine differential tests against ngspice' },
   { bin: '/usr/bin/pdftotext', pkg: 'poppler-utils', why: 'study report tests (PDF read back with pdftotext, page 1 drawn with pdftoppm)' },
+  { bin: '/usr/lib/postgresql/*/bin/initdb', pkg: 'postgresql', why: 'the server tests against PostgreSQL (project server-pg)', present: hasPostgres },
 ];
 
 function missing() {
-  return required.filter((r) => !existsSync(r.bin));
+  return required.filter((r) => !(r.present ? r.present() : existsSync(r.bin)));
 }
 
 let absent = missing();

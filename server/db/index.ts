@@ -1,15 +1,43 @@
-/** Opens the PGlite database (on disk or in memory), applies migrations and returns the Drizzle client. */
+/**
+ * Opens the database and returns the Drizzle client: a PostgreSQL server through node-postgres
+ * (`pg`) when a connection string is given (DATABASE_URL), else the embedded PGlite (on disk under
+ * DATA_DIR, or in memory). Both get the same schema and the same migrations, applied by one runner
+ * (`applyMigrations`); services only ever see `Db`, the query layer both drivers share.
+ */
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
-import { drizzle } from 'drizzle-orm/pglite';
-import { migrate } from 'drizzle-orm/pglite/migrator';
+import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
+import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
+import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
+import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
+import pg from 'pg';
 import * as schema from './schema.ts';
 
 /** Absolute path of the generated migrations (./drizzle at the project root). */
 export const MIGRATIONS_DIR = path.resolve(import.meta.dirname, '..', '..', 'drizzle');
 
-export type Db = Awaited<ReturnType<typeof openDb>>;
+/** The query layer every service uses, whichever database runs underneath. */
+export type Db = PgDatabase<PgQueryResultHKT, typeof schema>;
+
+/** Which database a `Db` talks to (for start-up messages, health and the export tool; never for service logic). */
+export type DbKind = 'pglite' | 'postgres';
+
+interface Handle {
+  kind: DbKind;
+  /** A plain parameterised query (`$1` …); rows as the driver's own type parsers give them. */
+  query<T>(text: string, params?: unknown[]): Promise<T[]>;
+  close(): Promise<void>;
+}
+
+const handles = new WeakMap<Db, Handle>();
+
+function handleOf(db: Db): Handle {
+  const h = handles.get(db);
+  if (!h) throw new Error('not a database opened by openDb');
+  return h;
+}
 
 /**
  * PostgreSQL settings of the embedded database (README "Database settings"). PGlite's defaults are
@@ -25,22 +53,137 @@ export const POSTGRES_SETTINGS = [
   'maintenance_work_mem = 16MB', // CREATE INDEX in migrations (default 64MB)
 ];
 
+/** Connections of one app instance to a PostgreSQL server when DATABASE_POOL_MAX is not set. */
+export const DEFAULT_POOL_MAX = 10;
+
 /**
- * Opens PGlite at `dataDir` (a directory; created with its parents: PGlite needs the parent directory to exist), or in memory when
- * absent; `loadDataDir` starts from a dumped data directory (used by tests). Applies pending migrations.
+ * Key of the session-level advisory lock held while migrations run on a PostgreSQL server, so that
+ * instances starting at once apply them one after the other (the later ones then find nothing to do).
+ * Any fixed 64-bit number unlikely to be used by another application on the same database.
  */
-export async function openDb({ dataDir, loadDataDir }: { dataDir?: string; loadDataDir?: Blob | File } = {}) {
-  if (dataDir) mkdirSync(dataDir, { recursive: true });
-  const client = new PGlite({ dataDir, loadDataDir, postgresqlconf: POSTGRES_SETTINGS });
-  await client.waitReady;
-  const db = drizzle({ client, schema });
-  await migrate(db, { migrationsFolder: MIGRATIONS_DIR });
+export const MIGRATION_LOCK_KEY = 7_356_012_441;
+
+export interface OpenDbOptions {
+  /** A PostgreSQL connection string (DATABASE_URL). When set, `dataDir` and `loadDataDir` are ignored. */
+  url?: string;
+  /** Most connections in the pool (DATABASE_POOL_MAX; PostgreSQL only). */
+  poolMax?: number;
+  /** PGlite: a directory (created with its parents), or in memory when absent. */
+  dataDir?: string;
+  /** PGlite: start from a dumped data directory (used by tests). */
+  loadDataDir?: Blob | File;
+  /** Apply pending migrations (default true). */
+  migrate?: boolean;
+}
+
+/** Opens the database described by `options` and applies pending migrations. */
+export async function openDb(options: OpenDbOptions = {}): Promise<Db> {
+  const db = options.url ? await openPostgres(options.url, options.poolMax ?? DEFAULT_POOL_MAX) : await openPglite(options);
+  if (options.migrate !== false) {
+    try {
+      await applyMigrations(db);
+    } catch (err) {
+      await closeDb(db);
+      throw err;
+    }
+  }
   return db;
 }
 
-/** Closes the database cleanly (call on shutdown). */
+async function openPglite({ dataDir, loadDataDir }: OpenDbOptions): Promise<Db> {
+  if (dataDir) mkdirSync(dataDir, { recursive: true });
+  const client = new PGlite({ dataDir, loadDataDir, postgresqlconf: POSTGRES_SETTINGS });
+  await client.waitReady;
+  const db = drizzlePglite({ client, schema });
+  handles.set(db, {
+    kind: 'pglite',
+    query: async <T>(text: string, params?: unknown[]) => (await client.query<T>(text, params)).rows,
+    close: () => client.close(),
+  });
+  return db;
+}
+
+async function openPostgres(url: string, max: number): Promise<Db> {
+  const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: 10_000, idleTimeoutMillis: 30_000 });
+  // An idle connection dropped by the server (restart, failover) is reported here; without a
+  // listener it would crash the process. The pool replaces it on the next query.
+  pool.on('error', (err) => console.error(`Database connection lost (${(err as { code?: string }).code ?? err.name}); the pool will reconnect.`));
+  // Fail at start, with the server's own words, when the URL is wrong or the server is down.
+  const probe = await pool.connect().catch(async (err: unknown) => {
+    await pool.end();
+    throw new Error(`Cannot connect to the PostgreSQL server of DATABASE_URL (${describeConnection(url)}): ${(err as Error).message}`);
+  });
+  probe.release();
+  const db = drizzlePg({ client: pool, schema });
+  handles.set(db, {
+    kind: 'postgres',
+    query: async <T>(text: string, params?: unknown[]) => (await pool.query(text, params)).rows as T[],
+    close: () => pool.end(),
+  });
+  return db;
+}
+
+/** `host:port/database` of a connection string, without user or password (for messages). */
+export function describeConnection(url: string): string {
+  try {
+    const u = new URL(url);
+    return `${u.hostname}:${u.port || '5432'}${u.pathname}`;
+  } catch {
+    return 'an unreadable connection string';
+  }
+}
+
+/**
+ * Applies pending migrations from ./drizzle. On a PostgreSQL server it holds an advisory lock on
+ * one connection for the whole run, so several instances starting together migrate once.
+ */
+export async function applyMigrations(db: Db): Promise<void> {
+  const h = handleOf(db);
+  if (h.kind === 'pglite') {
+    await migratePglite(db as unknown as Parameters<typeof migratePglite>[0], { migrationsFolder: MIGRATIONS_DIR });
+    return;
+  }
+  const pool = (db as unknown as { $client: pg.Pool }).$client;
+  const conn = await pool.connect();
+  try {
+    await conn.query('select pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
+    try {
+      await migratePg(drizzlePg({ client: conn }), { migrationsFolder: MIGRATIONS_DIR });
+    } finally {
+      await conn.query('select pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]);
+    }
+  } finally {
+    conn.release();
+  }
+}
+
+/** Which database `db` talks to. */
+export function dbKind(db: Db): DbKind {
+  return handleOf(db).kind;
+}
+
+/**
+ * A parameterised SQL query outside the schema (tests, the export tool, health). Row values are as
+ * the driver parses them: timestamps are Dates and jsonb is parsed on both; cast counts to int.
+ */
+export function queryRows<T = Record<string, unknown>>(db: Db, text: string, params?: unknown[]): Promise<T[]> {
+  return handleOf(db).query<T>(text, params);
+}
+
+/** Answers when the database runs a trivial query (the health check). */
+export async function pingDb(db: Db): Promise<void> {
+  await handleOf(db).query('select 1');
+}
+
+/** Closes the database cleanly: PGlite's files, or every connection of the pool (call on shutdown). */
 export async function closeDb(db: Db): Promise<void> {
-  await db.$client.close();
+  await handleOf(db).close();
+}
+
+/** The PGlite client under `db` (tests dump it as a template); throws on a PostgreSQL server. */
+export function pgliteOf(db: Db): PGlite {
+  if (handleOf(db).kind !== 'pglite') throw new Error('not an embedded database');
+  return (db as unknown as { $client: PGlite }).$client;
 }
 
 export { schema };

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { backoffSeconds, FREE_FAILURES, MAX_WAIT_SECONDS } from '../../server/auth/rate-limit.ts';
 import { eq } from 'drizzle-orm';
 import { readConfig } from '../../server/config.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { sessions } from '../../server/db/schema.ts';
 import { accountMail, makeApp, makeTeam, makeUser, PASSWORD, signedIn, signUpNewTeam, APP_URL, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
@@ -20,7 +20,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 describe('sign-up, sign-in, sign-out', () => {

@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { invites } from '../../server/db/schema.ts';
 import { hashInviteToken } from '../../server/services/invites-token.ts';
 import { demoCircuits } from '../../shared/engine/index.ts';
@@ -73,7 +73,7 @@ afterAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 /** One row of the matrix: how to make the request, and the status per caller. */

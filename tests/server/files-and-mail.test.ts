@@ -10,7 +10,7 @@ import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ATTACHMENT_MAX_BYTES } from '../../shared/api/attachments.ts';
 import { demoCircuits } from '../../shared/engine/index.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { createMailer } from '../../server/mail/index.ts';
 import { startMailSink } from '../../server/mail/sink.ts';
 import { TEAM_HEADER } from '../../server/mail/store.ts';
@@ -46,7 +46,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 const upload = (agent: TestAgent, bytes: Buffer, name: string) => agent.post(`/api/studies/${studyId}/attachments`).attach('file', bytes, name);

@@ -11,7 +11,7 @@ import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../shared/engine/index.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { users } from '../../server/db/schema.ts';
 import { APP_URL, makeApp, makeStudy, makeTeam, makeUser, PASSWORD, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
@@ -61,7 +61,7 @@ beforeAll(async () => {
 afterAll(async () => {
   log?.restore();
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 type Method = 'get' | 'post' | 'patch' | 'delete';

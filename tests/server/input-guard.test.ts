@@ -7,7 +7,7 @@ import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../shared/engine/index.ts';
 import { INT32_MAX, JSON_MAX_DEPTH } from '../../shared/api/limits.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { accountMail, APP_URL, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 import { deep, toJson } from './fuzz/fuzz-kit.ts';
@@ -31,7 +31,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 const json = (agent: TestAgent, method: 'post' | 'patch', url: string, body: string) =>

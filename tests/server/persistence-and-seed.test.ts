@@ -8,14 +8,14 @@ import { demoCircuits } from '../../shared/engine/index.ts';
 import { STAMP_FILE, staleReason } from '../../server/client-build.ts';
 import { readConfig } from '../../server/config.ts';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/demo-accounts.ts';
-import { openDb } from '../../server/db/index.ts';
+import { closeDb, queryRows } from '../../server/db/index.ts';
 import { DEMO_TEAM_NAME } from '../../server/db/seed.ts';
 import { createMailer } from '../../server/mail/index.ts';
 import { prepareDatabase } from '../../server/runtime.ts';
 import { createApp } from '../../server/app.ts';
 import { serveClient } from '../../server/static-client.ts';
 import { APP_URL, makeApp, signedIn } from './helpers.ts';
-import { openTestDb, templateBlob } from './test-db.ts';
+import { freshStoreEnv, openTestDb } from './test-db.ts';
 
 const dirs: string[] = [];
 function tempDir(prefix: string) {
@@ -29,16 +29,12 @@ afterAll(() => {
 const quiet = () => {};
 
 describe('restart', () => {
-  it('keeps studies, accounts and sessions in the data directory across close and reopen', async () => {
+  it('keeps studies, accounts and sessions in the database (data directory or server) across close and reopen', async () => {
     const dataDir = tempDir('wyeward-restart-');
-    const config = readConfig({ DATA_DIR: dataDir, DEMO: '1', APP_URL: 'http://localhost:3000' });
-    const pgDir = path.join(dataDir, 'pglite');
-    mkdirSync(pgDir, { recursive: true });
-    // Start the on-disk directory from the migrated template (a fresh initdb costs ~8 s).
-    let db = await openDb({ dataDir: pgDir, loadDataDir: templateBlob() });
-    await db.$client.close();
+    // A migrated store: the on-disk directory started from the template (a fresh initdb costs ~8 s), or a new server database.
+    const config = readConfig({ DATA_DIR: dataDir, DEMO: '1', APP_URL: 'http://localhost:3000', ...(await freshStoreEnv(dataDir)) });
 
-    db = await prepareDatabase(config, quiet);
+    let db = await prepareDatabase(config, quiet);
     let app = makeApp(db, { DEMO: '1' }).app;
     const engineer = await signedIn(app, 'engineer@wyeward.test', DEMO_PASSWORD);
     const created = await engineer.post('/api/studies').send({ name: 'Survives restart', description: 'written before close' });
@@ -47,9 +43,9 @@ describe('restart', () => {
     expect(edited.status).toBe(200);
     const cookie = (await request(app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'owner@wyeward.test', password: DEMO_PASSWORD })).headers['set-cookie'];
     const before = (await engineer.get('/api/studies?pageSize=100')).body;
-    const ownerId = (await db.$client.query<{ id: string }>(`select id from users where email = 'owner@wyeward.test'`)).rows[0].id;
-    await db.$client.query(`insert into sessions (id, user_id, expires_at) values ('long-expired', $1, now() - interval '1 day')`, [ownerId]);
-    await db.$client.close();
+    const ownerId = (await queryRows<{ id: string }>(db, `select id from users where email = 'owner@wyeward.test'`))[0].id;
+    await queryRows(db, `insert into sessions (id, user_id, expires_at) values ('long-expired', $1, now() - interval '1 day')`, [ownerId]);
+    await closeDb(db);
 
     db = await prepareDatabase(config, quiet);
     app = makeApp(db, { DEMO: '1' }).app;
@@ -59,10 +55,10 @@ describe('restart', () => {
     const study = await request(app).get(`/api/studies/${created.body.id}`).set('Cookie', cookie);
     expect(study.body).toMatchObject({ name: 'Survives restart', description: 'edited before close', version: 2 });
     // Start-up cleared the expired session and kept the live ones.
-    const left = await db.$client.query<{ id: string }>('select id from sessions');
-    expect(left.rows.map((r) => r.id)).not.toContain('long-expired');
-    expect(left.rows.length).toBeGreaterThanOrEqual(2);
-    await db.$client.close();
+    const left = await queryRows<{ id: string }>(db, 'select id from sessions');
+    expect(left.map((r) => r.id)).not.toContain('long-expired');
+    expect(left.length).toBeGreaterThanOrEqual(2);
+    await closeDb(db);
   });
 });
 
@@ -124,27 +120,23 @@ describe('demo seed', () => {
     // A second start adds nothing.
     expect(await seedDemo(db)).toEqual({ created: false, users: 0, studies: 0 });
     expect((await engineer.get('/api/studies')).body.total).toBe(demoCircuits.length);
-    const users = await db.$client.query<{ n: number }>('select count(*)::int as n from users');
-    expect(users.rows[0].n).toBe(4);
-    await db.$client.close();
+    const users = await queryRows<{ n: number }>(db, 'select count(*)::int as n from users');
+    expect(users[0].n).toBe(4);
+    await closeDb(db);
   });
 
   it('seeds nothing and lists no demo accounts with DEMO=0', async () => {
     const dataDir = tempDir('wyeward-nodemo-');
-    const pgDir = path.join(dataDir, 'pglite');
-    mkdirSync(pgDir, { recursive: true });
-    const init = await openDb({ dataDir: pgDir, loadDataDir: templateBlob() });
-    await init.$client.close();
-    const config = readConfig({ DATA_DIR: dataDir, DEMO: '0' });
+    const config = readConfig({ DATA_DIR: dataDir, DEMO: '0', ...(await freshStoreEnv(dataDir)) });
     expect(config.demo).toBe(false);
     const db = await prepareDatabase(config, quiet);
-    const users = await db.$client.query<{ n: number }>('select count(*)::int as n from users');
-    expect(users.rows[0].n).toBe(0);
+    const users = await queryRows<{ n: number }>(db, 'select count(*)::int as n from users');
+    expect(users[0].n).toBe(0);
     const demo = await request(makeApp(db, { DEMO: '0' }).app).get('/api/auth/demo');
     expect(demo.body).toEqual({ demo: false, accounts: [] });
     const signIn = await request(makeApp(db).app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'owner@wyeward.test', password: 'wyeward-demo' });
     expect(signIn.status).toBe(401);
-    await db.$client.close();
+    await closeDb(db);
   });
 });
 
@@ -200,7 +192,7 @@ describe('serving the client', () => {
     const api = await request(app).get('/api/not-here');
     expect(api.status).toBe(404);
     expect(api.body.error.code).toBe('not-found');
-    await db.$client.close();
+    await closeDb(db);
   });
 });
 

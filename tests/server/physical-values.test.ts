@@ -4,8 +4,8 @@
  * answers 400 with the element named; the same load marked as generation is accepted.
  */
 import type TestAgent from 'supertest/lib/agent.js';
-import { beforeAll, describe, expect, it } from 'vitest';
-import type { Db } from '../../server/db/index.ts';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -22,6 +22,10 @@ beforeAll(async () => {
   t = makeApp(db);
   const team = await makeTeam(db, 'Physical team');
   engineer = await signedIn(t.app, (await makeUser(db, team, 'engineer', 'Edda Engineer')).email);
+});
+
+afterAll(async () => {
+  await closeDb(db);
 });
 
 describe('non-physical values through the API', () => {

@@ -5,7 +5,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { serveClient } from '../../server/static-client.ts';
 import { makeApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
@@ -17,7 +17,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 function directives(csp: string): Record<string, string> {

@@ -9,7 +9,7 @@ import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../shared/engine/index.ts';
 import { summarizeCircuit } from '../../shared/review/summary.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -42,7 +42,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 async function submitted(circuit: object) {

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JSON_LIMIT } from '../../server/app.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, queryRows, type Db } from '../../server/db/index.ts';
 import { circuitWith, makeApp, markApproved, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -28,7 +28,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 async function create(agent: TestAgent, body: object) {
@@ -200,9 +200,9 @@ describe('templates, clone and delete', () => {
     expect((await engineer.get(`/api/studies/${id}`)).status).toBe(404);
     expect((await engineer.patch(`/api/studies/${id}`).send({ version: 1, name: 'x' })).status).toBe(404);
     expect((await engineer.delete(`/api/studies/${id}`)).status).toBe(404);
-    const rows = await db.$client.query<{ deleted_at: Date | null }>('select deleted_at from studies where id = $1', [id]);
-    expect(rows.rows).toHaveLength(1);
-    expect(rows.rows[0].deleted_at).toBeInstanceOf(Date);
+    const rows = await queryRows<{ deleted_at: Date | null }>(db, 'select deleted_at from studies where id = $1', [id]);
+    expect(rows).toHaveLength(1);
+    expect(rows[0].deleted_at).toBeInstanceOf(Date);
   });
 });
 

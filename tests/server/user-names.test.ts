@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto';
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../shared/engine/index.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -44,7 +44,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 async function studyWithOpening() {
