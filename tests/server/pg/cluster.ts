@@ -5,7 +5,7 @@
  * missing). PostgreSQL refuses to run as root, so as root it runs as the `postgres` system user the
  * package creates (or a `wyeward-pg` user made here when there is none).
  */
-import { execFileSync, spawnSync } from 'node:child_process';
+import { execFileSync, spawn, spawnSync } from 'node:child_process';
 import { chownSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -73,6 +73,16 @@ function run(user: RunAs | null, bin: string, args: string[]): void {
   if (r.status !== 0) throw new Error(`${path.basename(bin)} failed (${r.status ?? r.signal}): ${r.stderr || r.stdout || r.error?.message}`);
 }
 
+/**
+ * A detached shell that stops the cluster and removes its directory if this process dies without
+ * doing so (killed by a timeout or a signal: vitest's teardown never runs then).
+ */
+function watchdog(owner: number, user: RunAs | null, bin: string, data: string, dir: string): void {
+  const pgCtl = `${user ? `runuser -u ${user.name} -- ` : ''}'${path.join(bin, 'pg_ctl')}' -D '${data}' -m immediate stop`;
+  const script = `while kill -0 ${owner} 2>/dev/null && [ -d '${dir}' ]; do sleep 2; done; if [ -d '${data}' ]; then ${pgCtl} >/dev/null 2>&1; rm -rf '${dir}'; fi`;
+  spawn('sh', ['-c', script], { detached: true, stdio: 'ignore', cwd: '/' }).unref();
+}
+
 /** Starts a fresh cluster tuned for throwaway use (no fsync: a crash loses it, which is fine for tests). */
 export async function startCluster({ maxConnections = 300 }: { maxConnections?: number } = {}): Promise<Cluster> {
   const bin = postgresBinDir();
@@ -112,6 +122,7 @@ export async function startCluster({ maxConnections = 300 }: { maxConnections?: 
     ].join(' ');
     run(user, path.join(bin, 'pg_ctl'), ['-D', data, '-l', path.join(dir, 'server.log'), '-w', '-t', '60', '-o', options, 'start']);
     started = true;
+    watchdog(process.pid, user, bin, data, dir);
   } catch (err) {
     stop();
     throw err;
