@@ -1,15 +1,24 @@
-/** Starts the real server (`server/index.ts`) on a free loopback port with a fresh data directory, for the server benchmarks. */
+/**
+ * Starts the real server (`server/index.ts`) on a free loopback port with a fresh data directory, for
+ * the server benchmarks. With BENCH_DATABASE=postgres it runs on a throwaway PostgreSQL cluster
+ * (tests/server/pg/cluster.ts) through DATABASE_URL instead of the embedded database.
+ */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
+import { adminQuery, startCluster, type Cluster } from '../../server/pg/cluster.ts';
 
 export const ROOT = path.resolve(import.meta.dirname, '../../..');
 
 export interface BenchServer {
   url: string;
   pid: number;
+  /** Which database the server runs on (for the printed figures). */
+  database: string;
+  /** The PostgreSQL cluster's postmaster when BENCH_DATABASE=postgres (its backends' CPU is the database's). */
+  postmasterPid?: number;
   child: ChildProcess;
   stop(): Promise<void>;
 }
@@ -28,9 +37,16 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
   const port = await freePort();
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
   const url = `http://127.0.0.1:${port}`;
+  let cluster: Cluster | undefined;
+  const dbEnv: Record<string, string> = {};
+  if (process.env.BENCH_DATABASE === 'postgres') {
+    cluster = await startCluster();
+    await adminQuery(cluster.url, 'create database wyeward_bench');
+    dbEnv.DATABASE_URL = cluster.urlOf('wyeward_bench');
+  }
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: ROOT,
-    env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...env },
+    env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...dbEnv, ...env },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   for (let i = 0; i < 600; i++) {
@@ -44,10 +60,13 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
   return {
     url,
     pid: child.pid!,
+    database: cluster ? `PostgreSQL ${cluster.version} (throwaway cluster on loopback, fsync off), DATABASE_POOL_MAX ${env.DATABASE_POOL_MAX ?? process.env.DATABASE_POOL_MAX ?? 10}` : 'embedded PGlite',
+    postmasterPid: cluster?.pid,
     child,
     async stop() {
       child.kill('SIGTERM');
       await new Promise((r) => child.once('exit', r));
+      cluster?.stop();
       rmSync(dataDir, { recursive: true, force: true });
     },
   };
@@ -91,4 +110,19 @@ export function cpuMs(pid: number): number {
 /** The machine's load line (the figures depend on it). */
 export function machineLoad(): string {
   return `load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`;
+}
+
+/** CPU time in ms of a PostgreSQL postmaster and all its backends (their CPU is the database's share of the work). */
+export function clusterCpuMs(postmasterPid: number): number {
+  let total = cpuMs(postmasterPid);
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const f = readFileSync(`/proc/${entry}/stat`, 'utf8').split(') ')[1].split(' ');
+      if (Number(f[1]) === postmasterPid) total += (Number(f[11]) + Number(f[12])) * 10;
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return total;
 }

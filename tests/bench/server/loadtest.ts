@@ -7,9 +7,11 @@
  * Prints req/s achieved, latency p50/p99, errors, the server's CPU per request (from /proc) and its
  * RSS before and after, with the machine's load. Nothing is asserted.
  * LOADTEST_RATE (req/s, default 150), LOADTEST_SECONDS (default 30, at most 900), LOADTEST_CONNECTIONS (default 16).
+ * BENCH_DATABASE=postgres runs the server on a throwaway PostgreSQL cluster (DATABASE_URL); the
+ * database server's own CPU per request is then printed too.
  */
 import { Agent, request } from 'node:http';
-import { cpuMs, machineLoad, percentile, rssMb, session, startServer } from './harness.ts';
+import { clusterCpuMs, cpuMs, machineLoad, percentile, rssMb, session, startServer } from './harness.ts';
 
 const RATE = Number(process.env.LOADTEST_RATE ?? 150);
 const SECONDS = Math.min(900, Number(process.env.LOADTEST_SECONDS ?? 30));
@@ -66,6 +68,7 @@ try {
   for (let i = 0; i < 50; i++) await one();
   const rssBefore = rssMb(server.pid);
   const cpuBefore = cpuMs(server.pid);
+  const dbCpuBefore = server.postmasterPid ? clusterCpuMs(server.postmasterPid) : 0;
   const latencies: number[] = [];
   let errors = 0;
   const statuses = new Map<number, number>();
@@ -93,10 +96,12 @@ try {
   await Promise.all(inFlight);
   const elapsed = (performance.now() - start) / 1000;
   const cpu = cpuMs(server.pid) - cpuBefore;
+  const dbCpu = server.postmasterPid ? clusterCpuMs(server.postmasterPid) - dbCpuBefore : 0;
   const rssAfter = rssMb(server.pid);
-  console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users)`);
+  console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users); database: ${server.database}`);
   console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (${JSON.stringify([...statuses])})`);
   console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests); RSS ${rssIdle.toFixed(0)} MB idle after start, ${rssBefore.toFixed(0)} MB after warm-up → ${rssAfter.toFixed(0)} MB after the run`);
+  if (server.postmasterPid) console.log(`database server CPU ${(dbCpu / total).toFixed(2)} ms per request (${(dbCpu / 1000).toFixed(1)} s)`);
   console.log(machineLoad());
 } finally {
   agent.destroy();

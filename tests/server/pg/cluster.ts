@@ -18,6 +18,10 @@ export interface Cluster {
   /** The same server, another database. */
   urlOf(database: string): string;
   port: number;
+  /** Major version of the server (the Debian package's directory name). */
+  version: string;
+  /** Process id of the postmaster. */
+  pid: number;
   /** Stops the server and removes its files. */
   stop(): void;
 }
@@ -128,7 +132,8 @@ export async function startCluster({ maxConnections = 300 }: { maxConnections?: 
     throw err;
   }
   const urlOf = (database: string) => `postgres://postgres@127.0.0.1:${port}/${database}`;
-  return { url: urlOf('postgres'), urlOf, port, stop };
+  const pid = Number(readFileSync(path.join(data, 'postmaster.pid'), 'utf8').split('\n')[0]);
+  return { url: urlOf('postgres'), urlOf, port, version: path.basename(path.dirname(bin)), pid, stop };
 }
 
 /** Runs statements on the cluster's `postgres` database with a short-lived connection (CREATE DATABASE cannot run in a pool's transaction). */
