@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type TestAgent from 'supertest/lib/agent.js';
 import { analyseFeeder, applyAssignment, withCustomers, type CircuitInput } from '../../shared/engine/index.ts';
 import { balanceResponseSchema } from '../../shared/api/balancing.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { closeWork, configureWork } from '../../server/work/index.ts';
 import { makeApp, makeTeam, makeUser, signedIn } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
@@ -34,7 +34,10 @@ beforeAll(async () => {
   feederStudy = (await engineer.post('/api/studies').send({ name: 'Lane feeder', content: { circuit: smallFeeder } })).body.id;
   loadsStudy = (await engineer.post('/api/studies').send({ name: 'Lane houses', content: { circuit: withLoads } })).body;
 });
-afterAll(() => closeWork());
+afterAll(async () => {
+  await closeWork();
+  await closeDb(db);
+});
 
 const CSV = 'customer,bus,phase,kw,kvar\nH1,P1,A,4.2,1.0\nH2,P1,A,2.5,0.6\nH3,P2,A,6.0,1.5\nH5,P3,A,3.4,0.9\nH7,P3,C,0.8,0.2\n';
 
