@@ -17,7 +17,7 @@ import type { ResultsSummary } from '../../shared/review/summary.ts';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
 import { formatMagnitude, formatPu } from '../../shared/report/format.ts';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -70,7 +70,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
-  await db.$client.close();
+  await closeDb(db);
 });
 
 describe('GET /api/studies/:id/report.pdf', () => {
