@@ -25,7 +25,7 @@ import { useCallback, useEffect, useMemo, useReducer, useRef, useState } from 'r
 import { Link } from 'react-router';
 import type { StudyDetail } from '../../../shared/api/studies.ts';
 import type { Role } from '../../../shared/api/common.ts';
-import type { CircuitElementInput } from '../../../shared/engine/index.ts';
+import { BASE_CASE_ID, type CircuitElementInput, type StudyCase } from '../../../shared/engine/index.ts';
 import { StatusBadge } from '../../components/badges.tsx';
 import { Button } from '../../components/button.tsx';
 import { can } from '../../lib/authorization.ts';
@@ -35,6 +35,10 @@ import { ElementNodeView } from './canvas/element-node.tsx';
 import { Palette } from './canvas/palette.tsx';
 import { MAX_FIT_ZOOM, fitWithLabels, reveal, visibleArea } from './canvas/view-area.ts';
 import { WireEdgeView } from './canvas/wire-edge.tsx';
+import { CaseEditor } from './cases/case-editor.tsx';
+import { casesOf, changedElements, setStudyCases } from './cases/case-model.ts';
+import { CaseOverlay } from './cases/case-overlay.tsx';
+import { StudyExplorations } from './cases/study-explorations.tsx';
 import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog } from './editing/dialogs.tsx';
 import { historyReducer, initHistory } from './editing/history.ts';
 import { useShortcuts } from './editing/use-shortcuts.ts';
@@ -119,13 +123,20 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const [dialog, setDialog] = useState<null | 'save' | 'settings' | 'help'>(null);
 
   // ---- circuit and live solve ----
-  const { conversion, circuit, live, overlays, problems, shifts, stale } = useWorkspaceSolve(doc);
+  // ---- study cases: the one shown is solved instead of the base, and the canvas is then read-only ----
+  const cases = useMemo(() => casesOf(doc.settings.cases), [doc.settings.cases]);
+  const [pickedCase, setActiveCase] = useState<string>(BASE_CASE_ID);
+  const activeCase = cases.some((c) => c.id === pickedCase) ? pickedCase : BASE_CASE_ID;
+  const shownCase = cases.find((c) => c.id === activeCase);
+  const setCases = useCallback((next: StudyCase[]) => run(setStudyCases, next), [run]);
+  const locked = readOnly || shownCase !== undefined;
+  const { conversion, circuit, live, overlays, problems, shifts, stale, shownCircuit, caseError } = useWorkspaceSolve(doc, activeCase);
 
   const toggleOpen = useCallback((edgeId: string, c: Conductor) => run(commands.toggleOpen, edgeId, c), [run]);
 
   const view = useMemo<CanvasView>(
     () => ({
-      readOnly,
+      readOnly: locked,
       shifts,
       pins: Object.fromEntries((pins ?? []).map((p) => [p.elementId, p.count])),
       wiringStandard: doc.settings.wiringStandard,
@@ -135,9 +146,9 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
       elementOf: conversion.elementOf,
       wiredOf: conversion.wiredOf,
-      toggleOpen: readOnly ? null : toggleOpen,
+      toggleOpen: locked ? null : toggleOpen,
     }),
-    [toggleOpen, readOnly, shifts, pins, doc.settings.wiringStandard, overlays, stale, problems, conversion.map, conversion.elementOf, conversion.wiredOf],
+    [toggleOpen, locked, shifts, pins, doc.settings.wiringStandard, overlays, stale, problems, conversion.map, conversion.elementOf, conversion.wiredOf],
   );
 
   // Wire names come from the current element and bus names at render time (never stored on the edge).
@@ -150,14 +161,20 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     [doc.edges, conversion.map],
   );
 
+  // The elements the shown case changes are outlined (read-only overlay; nothing is stored on the nodes).
+  const nodes = useMemo(() => {
+    const changed = changedElements(shownCase);
+    return changed.size === 0 ? doc.nodes : doc.nodes.map((n) => (changed.has(n.id) ? { ...n, className: 'rounded-[3px] outline outline-2 outline-offset-2 outline-accent' } : n));
+  }, [doc.nodes, shownCase]);
+
   // ---- canvas changes ----
   const onNodesChange = useCallback(
     (changes: NodeChange<WorkspaceNode>[]) => {
-      const editable = changes.filter((c) => c.type !== 'remove' && (!readOnly || c.type === 'select' || c.type === 'dimensions'));
+      const editable = changes.filter((c) => c.type !== 'remove' && (!locked || c.type === 'select' || c.type === 'dimensions'));
       if (editable.length === 0) return;
       dispatch({ type: 'update', fn: (cur) => ({ ...cur, nodes: applyNodeChanges(editable, cur.nodes) }) });
     },
-    [readOnly],
+    [locked],
   );
   const onEdgesChange = useCallback((changes: EdgeChange<WorkspaceEdge>[]) => {
     const selects = changes.filter((c) => c.type === 'select');
@@ -166,11 +183,11 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   }, []);
   const onConnect = useCallback(
     (c: Connection) => {
-      if (readOnly) return;
+      if (locked) return;
       const ends = commands.resolveConnection(docRef.current, c);
       if (ends) run(commands.connect, ends);
     },
-    [readOnly, run],
+    [locked, run],
   );
   const isValidConnection = useCallback((c: Connection | WorkspaceEdge) => commands.resolveConnection(docRef.current, c) !== null, []);
 
@@ -210,7 +227,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const historyMove = useRef(false);
   const redo = useCallback(() => dispatch({ type: 'redo' }), []);
 
-  useShortcuts(readOnly, {
+  useShortcuts(locked, {
     undo: () => ((historyMove.current = true), undo()),
     redo: () => ((historyMove.current = true), redo()),
     copy: () => void (clipboard.current = commands.copySelection(docRef.current)),
@@ -345,14 +362,15 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
             {doc.settings.frequencyHz} Hz · {doc.settings.sequence} · {doc.settings.shiftConvention === 'iec' ? 'IEC clock shift' : 'N. American shift (LV lags 30°)'} · {statusText}
           </span>
         </div>
+        <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
         {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
 
         <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
-          {readOnly ? null : <Palette onAdd={addItem} />}
+          {locked ? null : <Palette onAdd={addItem} />}
           {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
           <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
             <ReactFlow<WorkspaceNode, WorkspaceEdge>
-              nodes={doc.nodes}
+              nodes={nodes}
               edges={edges}
               nodeTypes={nodeTypes}
               edgeTypes={edgeTypes}
@@ -364,8 +382,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
               onNodeDragStart={onNodeDragStart}
               onNodeDragStop={onNodeDragStop}
               onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
-              nodesDraggable={!readOnly}
-              nodesConnectable={!readOnly}
+              nodesDraggable={!locked}
+              nodesConnectable={!locked}
               elementsSelectable
               deleteKeyCode={null}
               snapToGrid={snap}
@@ -388,6 +406,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
             ) : (
               <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
             )}
+            {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
             {doc.nodes.length === 0 ? (
               <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
                 {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
@@ -396,7 +415,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           </div>
           <PropertyPanel
             selection={selection}
-            readOnly={readOnly}
+            readOnly={locked}
             wiringStandard={doc.settings.wiringStandard}
             perUnit={doc.settings.perUnit}
             busNames={busNames}
@@ -409,6 +428,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
         <div className="overflow-auto">
           <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
           <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
+          <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} />
         </div>
       </div>
 

@@ -4,18 +4,28 @@
  * engine errors naming an element or bus), and each bank's stated and measured phase shift.
  */
 import { useMemo } from 'react';
+import { applyCase, BASE_CASE_ID, type CircuitInput } from '../../../../shared/engine/index.ts';
 import type { CanvasView } from '../canvas/canvas-context.tsx';
 import { convert, json } from '../model/conversion.ts';
 import type { WorkspaceDoc } from '../model/document.ts';
 import { diagramOverlays } from '../results/overlays.ts';
 import { useLiveSolve } from './use-live-solve.ts';
 
-export function useWorkspaceSolve(doc: WorkspaceDoc) {
+/** `caseId`: the study case to solve instead of the base (the circuit returned stays the base, with its cases). */
+export function useWorkspaceSolve(doc: WorkspaceDoc, caseId: string = BASE_CASE_ID) {
   const conversion = convert(doc);
   const circuitKey = json(conversion.circuit);
   // eslint-disable-next-line react-hooks/exhaustive-deps -- the key stands for the circuit's content
   const circuit = useMemo(() => conversion.circuit, [circuitKey]);
-  const live = useLiveSolve(circuit.elements.length > 0 ? circuit : null);
+  const shown = useMemo<{ circuit: CircuitInput | null; error?: string }>(() => {
+    if (caseId === BASE_CASE_ID) return { circuit };
+    try {
+      return { circuit: applyCase(circuit, caseId) };
+    } catch (e) {
+      return { circuit: null, error: (e as Error).message };
+    }
+  }, [circuit, caseId]);
+  const live = useLiveSolve(shown.circuit && shown.circuit.elements.length > 0 ? shown.circuit : null);
   const overlays = useMemo(() => (live.result ? diagramOverlays(live.result) : null), [live.result]);
 
   const problems = useMemo(() => {
@@ -54,5 +64,5 @@ export function useWorkspaceSolve(doc: WorkspaceDoc) {
 
   /** True when the diagram's values belong to an earlier edit that could be solved, not to what is drawn. */
   const stale = live.status === 'error' && !!live.stale;
-  return { conversion, circuit, live, overlays, problems, shifts, stale };
+  return { conversion, circuit, live, overlays, problems, shifts, stale, shownCircuit: shown.circuit, caseError: shown.error };
 }

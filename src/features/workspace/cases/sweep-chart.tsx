@@ -1,0 +1,213 @@
+/**
+ * Sweep charts, one per recorded output: a line (d3-shape) over one parameter, or a heat map over
+ * two, with the limit set's bands drawn (warning band amber, beyond the violation limit red) and,
+ * on a line, the first point that breaks the limit called out. A click picks the nearest point
+ * (line) or the cell (heat map), so it can be made a case.
+ */
+import { line } from 'd3-shape';
+import { memo, useMemo } from 'react';
+import { breaksLimit, type SweepOutput } from './sweep-outputs.ts';
+
+const W = 460;
+const H = 210;
+const M = { l: 56, r: 12, t: 12, b: 40 };
+const IW = W - M.l - M.r;
+const IH = H - M.t - M.b;
+
+type Scale = ((v: number) => number) & { ticks: number[] };
+
+/** A linear or log scale from a domain to a pixel range, with about five round ticks. */
+function scale(d0: number, d1: number, r0: number, r1: number, log = false): Scale {
+  if (log && d0 > 0 && d1 > 0) {
+    const a = Math.log10(d0);
+    const b = Math.log10(d1) === a ? a + 1 : Math.log10(d1);
+    const f = ((v: number) => r0 + ((Math.log10(v) - a) / (b - a)) * (r1 - r0)) as Scale;
+    f.ticks = [];
+    for (let e = Math.ceil(a); e <= Math.floor(b); e++) f.ticks.push(10 ** e);
+    if (f.ticks.length < 2) f.ticks = [d0, d1];
+    return f;
+  }
+  if (d0 === d1) [d0, d1] = [d0 - (Math.abs(d0) || 1) * 0.05, d1 + (Math.abs(d1) || 1) * 0.05];
+  const f = ((v: number) => r0 + ((v - d0) / (d1 - d0)) * (r1 - r0)) as Scale;
+  const span = d1 - d0;
+  const step0 = 10 ** Math.floor(Math.log10(span / 5));
+  const step = [1, 2, 5, 10].map((m) => m * step0).find((s) => span / s <= 6) ?? step0 * 10;
+  f.ticks = [];
+  for (let t = Math.ceil(d0 / step) * step; t <= d1 + step * 1e-9; t += step) f.ticks.push(Number(t.toPrecision(12)));
+  return f;
+}
+
+const tick = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(4))));
+
+export interface LineChartProps {
+  xLabel: string;
+  xs: number[];
+  ys: (number | null)[];
+  output: SweepOutput;
+  log?: boolean;
+  picked?: number | null;
+  onPick?: (index: number) => void;
+}
+
+export const SweepLineChart = memo(function SweepLineChart({ xLabel, xs, ys, output, log, picked, onPick }: LineChartProps) {
+  const g = useMemo(() => {
+    const vals = ys.filter((v): v is number => v !== null);
+    let lo = Math.min(...vals);
+    let hi = Math.max(...vals);
+    if (!vals.length) [lo, hi] = [0, 1];
+    // show the nearest limit lines when they are close to the data
+    const span = Math.max(hi - lo, Math.abs(hi) * 0.02, 1e-9);
+    for (const b of [...output.violation, ...(output.warning ?? [])]) if (Number.isFinite(b) && b > lo - span && b < hi + span) [lo, hi] = [Math.min(lo, b), Math.max(hi, b)];
+    const pad = (hi - lo) * 0.06 || Math.abs(hi) * 0.05 || 1;
+    const x = scale(Math.min(...xs), Math.max(...xs), M.l, M.l + IW, log);
+    const y = scale(lo - pad, hi + pad, M.t + IH, M.t);
+    const path = line<number>()
+      .defined((i) => ys[i] !== null)
+      .x((i) => x(xs[i]))
+      .y((i) => y(ys[i] as number))(xs.map((_, i) => i));
+    const first = ys.findIndex((v) => breaksLimit(output, v));
+    return { x, y, path, first, y0: lo - pad, y1: hi + pad };
+  }, [xs, ys, output, log]);
+  const { x, y } = g;
+  const band = (a: number, b: number, fill: string, key: string) => {
+    const top = Math.max(Math.min(a, b), g.y0);
+    const bot = Math.min(Math.max(a, b), g.y1);
+    if (!(bot > top)) return null;
+    return <rect key={key} x={M.l} width={IW} y={y(bot)} height={y(top) - y(bot)} fill={fill} />;
+  };
+  const [vlo, vhi] = output.violation;
+  const w = output.warning;
+  const pick = (clientX: number, svg: SVGSVGElement) => {
+    const box = svg.getBoundingClientRect();
+    const px = ((clientX - box.left) / box.width) * W;
+    let best = 0;
+    xs.forEach((v, i) => (Math.abs(x(v) - px) < Math.abs(x(xs[best]) - px) ? (best = i) : null));
+    onPick?.(best);
+  };
+  return (
+    <figure className="m-0">
+      <svg
+        role="img"
+        aria-label={`${output.label} (${output.unit}) against ${xLabel}`}
+        viewBox={`0 0 ${W} ${H}`}
+        className="w-full max-w-[460px] cursor-crosshair bg-paper"
+        onClick={(e) => pick(e.clientX, e.currentTarget)}
+      >
+        {band(-Infinity, vlo, '#f3d3cf', 'vlo')}
+        {band(vhi, Infinity, '#f3d3cf', 'vhi')}
+        {w ? band(vlo, w[0], '#f6e7c4', 'wlo') : null}
+        {w ? band(w[1], vhi, '#f6e7c4', 'whi') : null}
+        {x.ticks.map((t) => (
+          <g key={`x${t}`}>
+            <line x1={x(t)} x2={x(t)} y1={M.t} y2={M.t + IH} stroke="#e4e1d8" />
+            <text x={x(t)} y={M.t + IH + 14} textAnchor="middle" fontSize={10} fill="#5b6369">
+              {tick(t)}
+            </text>
+          </g>
+        ))}
+        {y.ticks.map((t) => (
+          <g key={`y${t}`}>
+            <line x1={M.l} x2={M.l + IW} y1={y(t)} y2={y(t)} stroke="#e4e1d8" />
+            <text x={M.l - 4} y={y(t) + 3} textAnchor="end" fontSize={10} fill="#5b6369">
+              {tick(t)}
+            </text>
+          </g>
+        ))}
+        <path d={g.path ?? ''} fill="none" stroke="#1f5f8b" strokeWidth={1.6} />
+        {g.first >= 0 ? (
+          <g>
+            <circle cx={x(xs[g.first])} cy={y(ys[g.first] as number)} r={4} fill="none" stroke="#a3261b" strokeWidth={2} />
+            <text x={Math.min(x(xs[g.first]) + 6, M.l + IW - 120)} y={M.t + 12} fontSize={10} fill="#a3261b">
+              limit first broken at {tick(xs[g.first])}
+            </text>
+          </g>
+        ) : null}
+        {picked !== null && picked !== undefined && ys[picked] !== null && ys[picked] !== undefined ? <circle cx={x(xs[picked])} cy={y(ys[picked] as number)} r={4} fill="#1f5f8b" /> : null}
+        <text x={M.l + IW / 2} y={H - 6} textAnchor="middle" fontSize={11} fill="#1c2226">
+          {xLabel}
+        </text>
+        <text transform={`translate(12 ${M.t + IH / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1c2226">
+          {output.label} ({output.unit})
+        </text>
+      </svg>
+    </figure>
+  );
+});
+
+export interface HeatMapProps {
+  xLabel: string;
+  yLabel: string;
+  /** Values of the first (slowest) parameter: rows; of the second: columns. */
+  xs: number[];
+  ys: number[];
+  /** Point k = i·ys.length + j. */
+  values: (number | null | undefined)[];
+  output: SweepOutput;
+  picked?: number | null;
+  onPick?: (index: number) => void;
+}
+
+/** Colour of a value: blue shades within the limits, red beyond them, grey when missing. */
+function colour(v: number | null | undefined, lo: number, hi: number, out: boolean): string {
+  if (v === null || v === undefined) return '#e4e1d8';
+  const t = hi > lo ? (v - lo) / (hi - lo) : 0.5;
+  const l = Math.round(88 - t * 48);
+  return out ? `hsl(6 70% ${l}%)` : `hsl(205 55% ${l}%)`;
+}
+
+export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys, values, output, picked, onPick }: HeatMapProps) {
+  const nums = values.filter((v): v is number => typeof v === 'number');
+  const lo = nums.length ? Math.min(...nums) : 0;
+  const hi = nums.length ? Math.max(...nums) : 1;
+  const cw = IW / ys.length;
+  const ch = IH / xs.length;
+  const everyX = Math.max(1, Math.ceil(xs.length / 6));
+  const everyY = Math.max(1, Math.ceil(ys.length / 6));
+  return (
+    <figure className="m-0">
+      <svg role="img" aria-label={`Heat map of ${output.label} (${output.unit}) over ${xLabel} and ${yLabel}`} viewBox={`0 0 ${W} ${H}`} className="w-full max-w-[460px] bg-paper">
+        {xs.map((_, i) =>
+          ys.map((__, j) => {
+            const k = i * ys.length + j;
+            const v = values[k];
+            return (
+              <rect
+                key={k}
+                x={M.l + j * cw}
+                y={M.t + (xs.length - 1 - i) * ch}
+                width={cw + 0.5}
+                height={ch + 0.5}
+                fill={colour(v, lo, hi, breaksLimit(output, v ?? null))}
+                stroke={picked === k ? '#1c2226' : 'none'}
+                onClick={() => onPick?.(k)}
+              />
+            );
+          }),
+        )}
+        {ys.map((v, j) =>
+          j % everyY === 0 ? (
+            <text key={`c${j}`} x={M.l + (j + 0.5) * cw} y={M.t + IH + 14} textAnchor="middle" fontSize={10} fill="#5b6369">
+              {tick(v)}
+            </text>
+          ) : null,
+        )}
+        {xs.map((v, i) =>
+          i % everyX === 0 ? (
+            <text key={`r${i}`} x={M.l - 4} y={M.t + (xs.length - 1 - i + 0.5) * ch + 3} textAnchor="end" fontSize={10} fill="#5b6369">
+              {tick(v)}
+            </text>
+          ) : null,
+        )}
+        <text x={M.l + IW / 2} y={H - 6} textAnchor="middle" fontSize={11} fill="#1c2226">
+          {yLabel}
+        </text>
+        <text transform={`translate(12 ${M.t + IH / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1c2226">
+          {xLabel}
+        </text>
+      </svg>
+      <figcaption className="text-[11px] text-ink-muted">
+        {output.label} ({output.unit}): {tick(lo)} (light) to {tick(hi)} (dark); red cells break the limit.
+      </figcaption>
+    </figure>
+  );
+});

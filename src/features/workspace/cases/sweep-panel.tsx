@@ -1,0 +1,394 @@
+/**
+ * Browser sweeps: one or two numeric values of elements as drawn, each over a range (linear or
+ * log), solved on the circuit shown (the base or the case on the canvas) in a pool of Web Workers.
+ * Progress fills in as chunks arrive and the run can be cancelled; each chosen output gets a line
+ * chart (one parameter) or a heat map (two) with its limit band; the points export as CSV with the
+ * caution; a picked point becomes a new case.
+ */
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { sweepPoints, sweepValues, type CircuitResult, type StudyCase } from '../../../../shared/engine/index.ts';
+import { parameterWords } from '../../../../shared/review/parameter-words.ts';
+import { Button } from '../../../components/button.tsx';
+import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.ts';
+import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
+import { sweepCsv } from './sweep-csv.ts';
+import { availableOutputs, type SweepOutput } from './sweep-outputs.ts';
+import { SweepPool } from './sweep-pool.ts';
+import type { PointRow } from './sweep-protocol.ts';
+
+/** Largest sweep run in the browser (about 20 s of solving on a small study on two cores). */
+export const BROWSER_MAX_POINTS = 20_000;
+/** At most this many outputs are recorded (one chart each). */
+const MAX_OUTPUTS = 6;
+/** The points table is shown for sweeps up to this size (larger ones: CSV). */
+const TABLE_MAX = 200;
+
+interface ParamForm {
+  elementId: string;
+  path: string;
+  from: string;
+  to: string;
+  steps: string;
+  log: boolean;
+}
+
+const emptyParam = (): ParamForm => ({ elementId: '', path: '', from: '', to: '', steps: '11', log: false });
+
+/** A parameter in words with its unit: "KITCHEN every phase › P (kW)", a length with the element's length unit. */
+export function parameterLabel(elementId: string, path: string, element?: Record<string, unknown>): string {
+  const words = parameterWords(path);
+  const unit = path === 'length' ? ` (${typeof element?.lengthUnit === 'string' ? element.lengthUnit : 'm'})` : '';
+  return `${elementId} ${words}${unit}`;
+}
+
+interface Run {
+  paramLabels: string[];
+  parameters: { elementId: string; path: string }[];
+  axes: number[][];
+  log: boolean[];
+  points: number[][];
+  outputs: SweepOutput[];
+  rows: (PointRow | undefined)[];
+  done: number;
+  status: 'running' | 'done' | 'cancelled' | 'failed';
+  error?: string;
+  started: number;
+  ms?: number;
+}
+
+export interface SweepPanelProps {
+  /** The circuit shown (the case applied), or null when it cannot be built. */
+  circuit: unknown;
+  /** The base circuit as drawn (for a new case) and its cases. */
+  base: unknown;
+  cases: StudyCase[];
+  /** The case the sweep runs on (null for the base). */
+  onCase: string | null;
+  /** Results of the circuit shown (which outputs exist). */
+  result?: CircuitResult;
+  onCases: ((cases: StudyCase[]) => void) | null;
+  onActivate: (id: string) => void;
+}
+
+export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onActivate }: SweepPanelProps) {
+  const elements = useMemo(() => drawnElementsOf(circuit), [circuit]);
+  const [params, setParams] = useState<ParamForm[]>([emptyParam()]);
+  const outputs = useMemo(() => (result ? availableOutputs(result) : []), [result]);
+  const [chosen, setChosen] = useState<string[] | null>(null);
+  const chosenKeys = chosen ?? outputs.filter((o) => o.spec.kind === 'load').slice(0, 3).map((o) => o.key);
+  const [run, setRun] = useState<Run | null>(null);
+  const [, repaint] = useState(0);
+  const [picked, setPicked] = useState<number | null>(null);
+  const [startError, setStartError] = useState<string | null>(null);
+  const pool = useRef<SweepPool | null>(null);
+  const running = useRef<{ cancel(): void } | null>(null);
+  const paintTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+
+  useEffect(
+    () => () => {
+      running.current?.cancel();
+      pool.current?.dispose();
+      if (paintTimer.current) clearTimeout(paintTimer.current);
+    },
+    [],
+  );
+
+  // The form's problems, in words; null when it can run.
+  const plan = useMemo(() => {
+    try {
+      const used = params.filter((p) => p.elementId && p.path);
+      if (used.length === 0) return { problem: 'Pick an element and a value to sweep.' };
+      const specs = used.map((p) => {
+        const from = Number(p.from);
+        const to = Number(p.to);
+        const steps = Number(p.steps);
+        if (p.from.trim() === '' || p.to.trim() === '' || !Number.isFinite(from) || !Number.isFinite(to)) throw new Error(`${parameterLabel(p.elementId, p.path)}: enter numbers for from and to.`);
+        if (!Number.isInteger(steps) || steps < 2) throw new Error(`${parameterLabel(p.elementId, p.path)}: the number of points must be a whole number of at least 2.`);
+        return { from, to, steps, scale: p.log ? ('log' as const) : ('linear' as const) };
+      });
+      const total = specs.reduce((n, s) => n * s.steps, 1);
+      if (total > BROWSER_MAX_POINTS) return { problem: `${total} points is more than the ${BROWSER_MAX_POINTS} a browser sweep runs; use fewer points.` };
+      const outs = outputs.filter((o) => chosenKeys.includes(o.key));
+      if (outs.length === 0) return { problem: 'Choose at least one output to record.' };
+      return { used, specs, total, outs };
+    } catch (e) {
+      return { problem: (e as Error).message };
+    }
+  }, [params, outputs, chosenKeys]);
+
+  const start = () => {
+    if (!('specs' in plan) || !plan.specs || !circuit) return;
+    let points: number[][];
+    let axes: number[][];
+    try {
+      points = sweepPoints(plan.specs);
+      axes = plan.specs.map((s) => sweepValues(s));
+    } catch (e) {
+      setStartError((e as Error).message);
+      return;
+    }
+    setStartError(null);
+    running.current?.cancel();
+    const { cases: _c, ...plain } = circuit as Record<string, unknown>;
+    pool.current ??= new SweepPool();
+    const next: Run = {
+      paramLabels: plan.used.map((p) => parameterLabel(p.elementId, p.path, elements.find((e) => e.id === p.elementId))),
+      parameters: plan.used.map((p) => ({ elementId: p.elementId, path: p.path })),
+      axes,
+      log: plan.specs.map((s) => s.scale === 'log'),
+      points,
+      outputs: plan.outs,
+      rows: new Array(points.length),
+      done: 0,
+      status: 'running',
+      started: performance.now(),
+    };
+    setPicked(null);
+    setRun(next);
+    // Rows land in the run object; the page repaints at most every 150 ms while they arrive.
+    const schedule = () => {
+      if (paintTimer.current) return;
+      paintTimer.current = setTimeout(() => {
+        paintTimer.current = null;
+        repaint((n) => n + 1);
+      }, 150);
+    };
+    performance.mark('sweep-start');
+    running.current = pool.current.run(
+      { circuit: plain, paths: plan.used.map((p) => `${p.elementId}.${p.path}`), points, outputs: plan.outs.map((o) => o.spec) },
+      {
+        onRows(at, rows, done) {
+          for (let i = 0; i < rows.length; i++) next.rows[at + i] = rows[i];
+          next.done = done;
+          schedule();
+        },
+        onDone() {
+          performance.mark('sweep-done');
+          next.status = 'done';
+          next.ms = performance.now() - next.started;
+          running.current = null;
+          setRun({ ...next });
+        },
+        onFailure(message) {
+          next.status = 'failed';
+          next.error = message;
+          running.current = null;
+          setRun({ ...next });
+        },
+      },
+    );
+  };
+
+  const cancel = () => {
+    running.current?.cancel();
+    running.current = null;
+    if (run && run.status === 'running') setRun({ ...run, status: 'cancelled', ms: performance.now() - run.started });
+  };
+
+  const csvHref = useMemo(() => (run && run.status !== 'running' ? URL.createObjectURL(new Blob([sweepCsv(run.paramLabels, run.outputs, run.points, run.rows)], { type: 'text/csv' })) : null), [run]);
+  useEffect(() => () => void (csvHref && URL.revokeObjectURL(csvHref)), [csvHref]);
+
+  const makeCase = () => {
+    if (!run || picked === null || !onCases) return;
+    const values = run.points[picked];
+    const name = `Sweep point: ${run.paramLabels.map((l, i) => `${l} = ${Number(values[i].toPrecision(6))}`).join(', ')}`;
+    const next = caseFromPoint(cases, base, onCase, run.parameters, values, name);
+    onCases(next);
+    onActivate(next[next.length - 1].id);
+  };
+
+  const setParam = (i: number, patch: Partial<ParamForm>) => setParams(params.map((p, k) => (k === i ? { ...p, ...patch } : p)));
+
+  return (
+    <section aria-labelledby="sweep-title" className="flex flex-col gap-2">
+      <h3 id="sweep-title" className="text-[13px] font-semibold">
+        Sweep {onCase ? 'on the case shown' : 'on the base'}
+      </h3>
+      {params.map((p, i) => {
+        const el = elements.find((e) => e.id === p.elementId);
+        const choices = el ? numericParameters(el) : [];
+        const n = i + 1;
+        return (
+          <fieldset key={i} className="flex flex-wrap items-center gap-1.5 text-[13px]">
+            <legend className="sr-only">Parameter {n}</legend>
+            <span className="font-semibold">Parameter {n}</span>
+            <select aria-label={`Parameter ${n} element`} className="h-7 rounded-[3px] border border-rule-strong bg-paper px-1" value={p.elementId} onChange={(e) => setParam(i, { elementId: e.target.value, path: '' })}>
+              <option value="">Element…</option>
+              {elements.map((e) => (
+                <option key={e.id as string} value={e.id as string}>
+                  {e.id as string}
+                </option>
+              ))}
+            </select>
+            <select
+              aria-label={`Parameter ${n} value`}
+              className="h-7 rounded-[3px] border border-rule-strong bg-paper px-1"
+              value={p.path}
+              disabled={!el}
+              onChange={(e) => {
+                const c = choices.find((x) => x.path === e.target.value);
+                setParam(i, { path: e.target.value, ...(c ? { from: String(c.value * 0.5), to: String(c.value * 1.5) } : {}) });
+              }}
+            >
+              <option value="">Value…</option>
+              {choices.map((c) => (
+                <option key={c.path} value={c.path}>
+                  {c.label} (now {c.value})
+                </option>
+              ))}
+            </select>
+            <label className="flex items-center gap-1">
+              from
+              <input aria-label={`Parameter ${n} from`} inputMode="decimal" className="h-7 w-20 rounded-[3px] border border-rule-strong bg-paper px-1" value={p.from} onChange={(e) => setParam(i, { from: e.target.value })} />
+            </label>
+            <label className="flex items-center gap-1">
+              to
+              <input aria-label={`Parameter ${n} to`} inputMode="decimal" className="h-7 w-20 rounded-[3px] border border-rule-strong bg-paper px-1" value={p.to} onChange={(e) => setParam(i, { to: e.target.value })} />
+            </label>
+            <label className="flex items-center gap-1">
+              points
+              <input aria-label={`Parameter ${n} points`} inputMode="numeric" className="h-7 w-16 rounded-[3px] border border-rule-strong bg-paper px-1" value={p.steps} onChange={(e) => setParam(i, { steps: e.target.value })} />
+            </label>
+            <label className="flex items-center gap-1">
+              <input type="checkbox" checked={p.log} onChange={(e) => setParam(i, { log: e.target.checked })} />
+              log spacing
+            </label>
+            {i === 1 ? (
+              <Button size="sm" variant="ghost" onClick={() => setParams(params.slice(0, 1))}>
+                Remove
+              </Button>
+            ) : null}
+          </fieldset>
+        );
+      })}
+      {params.length === 1 ? (
+        <div>
+          <Button size="sm" variant="ghost" onClick={() => setParams([...params, emptyParam()])}>
+            + Second parameter (heat map)
+          </Button>
+        </div>
+      ) : null}
+      <fieldset className="flex flex-wrap gap-x-3 gap-y-0.5 text-[12px]">
+        <legend className="mb-0.5 text-[13px] font-semibold">Outputs to record (at most {MAX_OUTPUTS})</legend>
+        {outputs.length === 0 ? <span className="text-ink-muted">Solve the circuit first: the outputs come from its results.</span> : null}
+        {outputs.map((o) => (
+          <label key={o.key} className="flex items-center gap-1">
+            <input
+              type="checkbox"
+              checked={chosenKeys.includes(o.key)}
+              disabled={!chosenKeys.includes(o.key) && chosenKeys.length >= MAX_OUTPUTS}
+              onChange={(e) => setChosen(e.target.checked ? [...chosenKeys, o.key] : chosenKeys.filter((k) => k !== o.key))}
+            />
+            {o.label} ({o.unit})
+          </label>
+        ))}
+      </fieldset>
+      <div className="flex flex-wrap items-center gap-2 text-[13px]">
+        <Button size="sm" variant="primary" onClick={start} disabled={'problem' in plan || !circuit || run?.status === 'running'}>
+          Run sweep{'total' in plan && plan.total ? ` (${plan.total} points)` : ''}
+        </Button>
+        {run?.status === 'running' ? (
+          <Button size="sm" variant="danger" onClick={cancel}>
+            Cancel sweep
+          </Button>
+        ) : null}
+        {'problem' in plan ? <span className="text-[12px] text-ink-muted">{plan.problem}</span> : null}
+        {startError ? (
+          <span role="alert" className="text-[12px] text-danger">
+            {startError}
+          </span>
+        ) : null}
+        {csvHref && run ? (
+          <a className="text-accent hover:underline" href={csvHref} download="sweep.csv">
+            Export CSV
+          </a>
+        ) : null}
+      </div>
+      {run ? <SweepResults run={run} picked={picked} onPick={setPicked} onMakeCase={onCases ? makeCase : null} /> : null}
+    </section>
+  );
+}
+
+function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
+  const total = run.points.length;
+  const failed = run.rows.filter((r) => r?.error).length;
+  const status =
+    run.status === 'running'
+      ? `Solving: ${run.done} of ${total} points`
+      : run.status === 'done'
+        ? `Done: ${total} points in ${((run.ms ?? 0) / 1000).toFixed(2)} s${failed ? `; ${failed} could not be solved (see the CSV)` : ''}`
+        : run.status === 'cancelled'
+          ? `Cancelled after ${run.done} of ${total} points`
+          : `The sweep stopped: ${run.error}`;
+  const two = run.axes.length === 2;
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="flex items-center gap-2 text-[12px]">
+        <progress aria-label="Sweep progress" max={total} value={run.done} className="w-48" />
+        <span role="status">{status}</span>
+      </div>
+      <div className="grid grid-cols-1 gap-3 lg:grid-cols-2">
+        {run.outputs.map((o, k) =>
+          two ? (
+            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} picked={picked} onPick={onPick} />
+          ) : (
+            <SweepLineChart key={o.key} xLabel={run.paramLabels[0]} xs={run.axes[0]} ys={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
+          ),
+        )}
+      </div>
+      {picked !== null ? (
+        <div className="flex flex-wrap items-center gap-2 text-[12px]">
+          <span>
+            Picked point: {run.paramLabels.map((l, i) => `${l} = ${Number(run.points[picked][i].toPrecision(6))}`).join(', ')}
+            {run.rows[picked]?.error ? ` — does not solve: ${run.rows[picked]?.error}` : ''}
+          </span>
+          {onMakeCase ? (
+            <Button size="sm" onClick={onMakeCase}>
+              Make this point a case
+            </Button>
+          ) : null}
+        </div>
+      ) : null}
+      {total <= TABLE_MAX && run.status !== 'running' ? (
+        <details>
+          <summary className="cursor-pointer text-[12px] text-accent">Sweep points as a table</summary>
+          <table aria-label="Sweep points" className="text-[12px]">
+            <thead>
+              <tr>
+                {run.paramLabels.map((l) => (
+                  <th key={l} scope="col" className="text-right">
+                    {l}
+                  </th>
+                ))}
+                {run.outputs.map((o) => (
+                  <th key={o.key} scope="col" className="text-right">
+                    {o.label} ({o.unit})
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              {run.points.map((p, i) => (
+                <tr key={i}>
+                  {p.map((v, j) => (
+                    <td key={j} className="num text-right">
+                      {Number(v.toPrecision(6))}
+                    </td>
+                  ))}
+                  {run.outputs.map((o, k) => {
+                    const v = run.rows[i]?.outputs[k];
+                    return (
+                      <td key={o.key} className="num text-right">
+                        {v === null || v === undefined ? '—' : v.toFixed(o.unit === 'pu' ? 4 : 2)}
+                      </td>
+                    );
+                  })}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </details>
+      ) : null}
+    </div>
+  );
+}

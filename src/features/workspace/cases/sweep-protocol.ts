@@ -1,0 +1,34 @@
+/** Messages between the page and the sweep workers (structured-clone safe: plain data only). */
+import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
+import type { OutputSpec } from './sweep-outputs.ts';
+
+/** A chunk of sweep points: the circuit (a case already applied), the parameter paths, the points (values per path) from `start`. */
+export interface SweepChunk {
+  kind: 'chunk';
+  job: number;
+  start: number;
+  circuit: unknown;
+  paths: string[];
+  points: number[][];
+  outputs: OutputSpec[];
+}
+
+/** One solved point: the outputs in request order, or why the point could not be solved. */
+export interface PointRow {
+  outputs: (number | null)[];
+  error?: string;
+}
+
+export interface EnvelopeRequest {
+  kind: 'envelope';
+  job: number;
+  circuit: unknown;
+  options: EnvelopeOptions;
+}
+
+export type SweepRequest = SweepChunk | EnvelopeRequest;
+
+export type SweepResponse =
+  | { kind: 'chunk'; job: number; start: number; rows: PointRow[] }
+  | { kind: 'envelope'; job: number; ok: true; envelope: LostNeutralEnvelope }
+  | { kind: 'envelope'; job: number; ok: false; error: string };

@@ -1,0 +1,80 @@
+import { describe, expect, it } from 'vitest';
+import { demoCircuits, solveCircuit, sweepCircuit, sweepPoints, type CircuitInput } from '../../../../../shared/engine/index.ts';
+import { CSV_CAUTION, sweepCsv } from '../../../../../src/features/workspace/cases/sweep-csv.ts';
+import { createSweepHandler } from '../../../../../src/features/workspace/cases/sweep-handler.ts';
+import { availableOutputs, breaksLimit, outputValue } from '../../../../../src/features/workspace/cases/sweep-outputs.ts';
+import { chunkSize, SweepPool } from '../../../../../src/features/workspace/cases/sweep-pool.ts';
+import type { PointRow } from '../../../../../src/features/workspace/cases/sweep-protocol.ts';
+
+const openNeutral = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit as CircuitInput;
+const outputs = availableOutputs(solveCircuit(openNeutral));
+
+describe('sweep worker handler', () => {
+  it('offers load, bus, shift and unbalance outputs in words with their limit bands', () => {
+    const labels = outputs.map((o) => `${o.label} (${o.unit})`);
+    expect(labels).toContain('KITCHEN terminal voltage (pu)');
+    expect(labels).toContain('HOUSE neutral shift (V)');
+    const kitchen = outputs.find((o) => o.label === 'KITCHEN terminal voltage')!;
+    // ANSI C84.1 Range B as the violation band (M; see the limit sets)
+    expect(kitchen.violation[0]).toBeCloseTo(110 / 120, 12);
+    expect(breaksLimit(kitchen, 1.2)).toBe(true);
+    expect(breaksLimit(kitchen, 1.0)).toBe(false);
+  });
+
+  it('each point equals solving the swept circuit directly; a failing point is reported in its row', () => {
+    const handle = createSweepHandler();
+    const points = sweepPoints([{ from: 0.5, to: 6, steps: 5 }]).concat([[-1e9]]);
+    const res = handle({ kind: 'chunk', job: 1, start: 0, circuit: openNeutral, paths: ['KITCHEN.each.kw'], points, outputs: outputs.map((o) => o.spec) });
+    if (res.kind !== 'chunk') throw new Error('expected rows');
+    expect(res.rows).toHaveLength(6);
+    points.slice(0, 5).forEach((p, i) => {
+      const direct = solveCircuit(sweepCircuit(openNeutral, ['KITCHEN.each.kw'], p));
+      outputs.forEach((o, k) => expect(res.rows[i].outputs[k]).toBeCloseTo(outputValue(direct, o.spec) as number, 9));
+    });
+    expect(res.rows[5].error).toBeTruthy();
+    expect(res.rows[5].outputs.every((v) => v === null)).toBe(true);
+  });
+
+  it('CSV: the caution first, units in the header, one row per point with its status', () => {
+    const csv = sweepCsv(['KITCHEN every phase › P (kW)'], outputs.slice(0, 1), [[1], [2]], [{ outputs: [0.98] }, { outputs: [null], error: 'cannot be solved' }]);
+    const lines = csv.trim().split('\n');
+    expect(lines[0]).toBe(CSV_CAUTION);
+    expect(lines[1]).toBe(`KITCHEN every phase › P (kW),${outputs[0].label} (${outputs[0].unit}),status`);
+    expect(lines[2]).toBe('1,0.98,ok');
+    expect(lines[3]).toBe('2,,does not solve: cannot be solved');
+  });
+});
+
+describe('sweep pool (in the page thread where Workers do not exist)', () => {
+  it('delivers every point once, in chunks, with the count done', async () => {
+    const pool = new SweepPool(2);
+    const points = sweepPoints([{ from: 1, to: 4, steps: 4 }, { from: 0.5, to: 2, steps: 3 }]);
+    const rows: (PointRow | undefined)[] = new Array(points.length);
+    const dones: number[] = [];
+    await new Promise<void>((resolve, reject) =>
+      pool.run(
+        { circuit: openNeutral, paths: ['HEATER.each.kw', 'KITCHEN.each.kw'], points, outputs: [outputs[0].spec] },
+        { onRows: (at, rs, done) => (rs.forEach((r, i) => (rows[at + i] = r)), dones.push(done)), onDone: resolve, onFailure: reject },
+      ),
+    );
+    expect(rows.every((r) => r && !r.error)).toBe(true);
+    expect(dones[dones.length - 1]).toBe(points.length);
+    expect(dones.length).toBe(Math.ceil(points.length / chunkSize(points.length, 2)));
+    const direct = solveCircuit(sweepCircuit(openNeutral, ['HEATER.each.kw', 'KITCHEN.each.kw'], points[7]));
+    expect(rows[7]!.outputs[0]).toBeCloseTo(outputValue(direct, outputs[0].spec) as number, 9);
+    pool.dispose();
+  });
+
+  it('cancel stops the run: no more rows and no completion', async () => {
+    const pool = new SweepPool(1);
+    const points = sweepPoints([{ from: 1, to: 4, steps: 40 }]);
+    let seen = 0;
+    let finished = false;
+    const run = pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: (_a, rs) => (seen += rs.length), onDone: () => (finished = true), onFailure: () => {} });
+    run.cancel();
+    await new Promise((r) => setTimeout(r, 50));
+    expect(seen).toBe(0);
+    expect(finished).toBe(false);
+    pool.dispose();
+  });
+});
