@@ -6,7 +6,7 @@
  */
 import { useMemo, useState } from 'react';
 import { BASE_CASE_ID, type StudyCase } from '../../../../shared/engine/index.ts';
-import { conductorName } from '../../../../shared/review/user-names.ts';
+import { conductorWords } from '../../../../shared/review/user-names.ts';
 import { Button } from '../../../components/button.tsx';
 import { addCase, caseNameProblem, deleteCase, drawnElementsOf, numericParameters, openableConductors, overrideRows, removeOverride, renameCase, setOverride } from './case-model.ts';
 
@@ -176,7 +176,7 @@ function Overrides({ c, cases, circuit, onChange }: { c: StudyCase; cases: Study
               {conductors.map((k) => (
                 <label key={k} className="flex items-center gap-0.5">
                   <input type="checkbox" checked={open.includes(k)} onChange={(e) => setOpen(e.target.checked ? [...open, k] : open.filter((x) => x !== k))} />
-                  {conductorName(k)}
+                  {conductorWords([k])}
                 </label>
               ))}
             </fieldset>

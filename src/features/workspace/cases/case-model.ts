@@ -163,7 +163,8 @@ export function overrideRows(c: StudyCase, base: unknown): OverrideRow[] {
         const was = leaves(baseEl?.[field], field, new Map());
         const parts: string[] = [];
         for (const [p, x] of now) {
-          const before = was.get(p);
+          // an absent list (no conductor open) reads as an empty one
+          const before = was.get(p) === undefined && Array.isArray(x) ? [] : was.get(p);
           if (JSON.stringify(before) === JSON.stringify(x)) continue;
           parts.push(`${parameterWords(p)} ${valueWords(p, before)} → ${valueWords(p, x)}`);
         }

@@ -1,0 +1,134 @@
+/**
+ * Case editor, sweeps and the lost-neutral envelope in a real browser, on the open-neutral demo with
+ * its drop's neutral closed: a case opening the neutral is created in the workspace and saved with
+ * the study; a small sweep of a load's kW runs on it in the Web Worker pool and its CSV is checked
+ * point by point against the engine's solve of the same circuit (the saved study, the case applied,
+ * the value written; computed here, never copied); a point becomes a case; a large sweep is
+ * cancelled; the envelope's worst load voltages are the engine's.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { applyCase, demoCircuits, lostNeutralEnvelope, solveCircuit, sweepCircuit, type CircuitInput } from '../../shared/engine/index.ts';
+import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { useProductAndBrowser } from './product-fixture.ts';
+
+const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+const base = { ...demo, name: 'Lane 14 sweeps', elements: demo.elements.map((e) => (e.id === 'DROP' ? { ...e, open: [] } : e)) } as CircuitInput;
+
+describe('cases, sweeps and the envelope in a real browser', () => {
+  let product: RunningProduct;
+  let browser: Browser;
+
+  useProductAndBrowser((p, b) => {
+    product = p;
+    browser = b;
+  });
+
+  it('creates a case, sweeps on it (CSV equal to the engine), makes a point a case, cancels a sweep, runs the envelope', async () => {
+    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(String(e)));
+    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
+    await page.waitForURL(`${product.baseUrl}/`);
+    const imported = await page.evaluate(async (body) => {
+      const res = await fetch('/api/studies/import', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+      return { status: res.status, body: await res.json() };
+    }, base);
+    expect(imported.status).toBe(201);
+    const studyId = imported.body.id as string;
+    await page.goto(`${product.baseUrl}/studies/${studyId}`);
+
+    // ---- a case from the editor: the drop's neutral opened ----
+    const editor = page.getByRole('region', { name: 'Study cases' });
+    await editor.waitFor({ timeout: 30_000 });
+    await editor.getByRole('button', { name: 'New case' }).click();
+    await editor.getByLabel('Case name').fill('Neutral lost');
+    await editor.getByRole('button', { name: 'Create case' }).click();
+    expect(await editor.getByLabel('Case shown').inputValue()).not.toBe('base');
+    await editor.getByLabel('Element to change').selectOption('DROP');
+    await editor.getByLabel('Value to change').selectOption({ label: 'open conductors' });
+    await editor.getByRole('checkbox', { name: 'neutral' }).check();
+    await editor.getByRole('button', { name: 'Set in case' }).click();
+    await expect.poll(() => editor.getByRole('list', { name: 'Changes of this case' }).textContent()).toContain('DROP: open conductors none → neutral');
+    const overlay = page.getByRole('complementary', { name: 'Case shown on the canvas' });
+    expect(await overlay.textContent()).toContain('Neutral lost');
+    expect(await overlay.textContent()).toContain('DROP: open conductors none → neutral');
+
+    // saved with the study
+    await page.getByRole('button', { name: 'Save study' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Save' }).click();
+    await expect.poll(() => page.getByText('Unsaved changes').count()).toBe(0);
+    const saved = (await (await page.request.get(`${product.baseUrl}/api/studies/${studyId}`)).json()) as { content: { circuit: CircuitInput & { cases: { id: string; name: string }[] } } };
+    const savedCases = saved.content.circuit.cases;
+    expect(savedCases.map((c) => c.name)).toEqual(['Neutral lost']);
+    const onCase = applyCase(saved.content.circuit, savedCases[0].id);
+
+    // ---- a 1-D sweep of KITCHEN's kW on the case shown ----
+    const sweep = page.getByRole('region', { name: /^Sweep on the case shown/ });
+    await sweep.getByLabel('Parameter 1 element').selectOption('KITCHEN');
+    await sweep.getByLabel('Parameter 1 value').selectOption('each.kw');
+    await sweep.getByLabel('Parameter 1 from').fill('0.5');
+    await sweep.getByLabel('Parameter 1 to').fill('6');
+    await sweep.getByLabel('Parameter 1 points').fill('12');
+    await sweep.getByRole('button', { name: 'Run sweep (12 points)' }).click();
+    await expect.poll(() => sweep.getByRole('status').first().textContent(), { timeout: 30_000 }).toMatch(/^Done: 12 points/);
+    expect(await sweep.getByRole('img', { name: /^KITCHEN terminal voltage \(pu\) against KITCHEN every phase › P \(kW\)/ }).count()).toBe(1);
+    expect(await sweep.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('value')).toBe('12');
+
+    const [download] = await Promise.all([page.waitForEvent('download'), sweep.getByRole('link', { name: 'Export CSV' }).click()]);
+    const csv = readFileSync((await download.path())!, 'utf8').trim().split('\n');
+    expect(csv[0]).toMatch(/^# Caution: .*lost neutral/i);
+    const header = csv[1].split(',');
+    expect(header[0]).toBe('KITCHEN every phase › P (kW)');
+    const col = header.indexOf('HEATER terminal voltage (pu)');
+    expect(col).toBeGreaterThan(0);
+    expect(csv).toHaveLength(2 + 12);
+    for (const line of csv.slice(2)) {
+      const cells = line.split(',');
+      const kw = Number(cells[0]);
+      // (C) the engine's solve of the saved study with the case applied and the kW written
+      const load = solveCircuit(sweepCircuit(onCase, ['KITCHEN.each.kw'], [kw])).loads.find((l) => l.id === 'HEATER')!;
+      expect(Number(cells[col])).toBeCloseTo(load.branches[0].pu!, 6);
+      expect(cells[cells.length - 1]).toBe('ok');
+    }
+    await screenshot(page, 'sweep-1d');
+
+    // ---- the picked point becomes a case ----
+    const chart = sweep.getByRole('img', { name: /^KITCHEN terminal voltage/ });
+    const box = (await chart.boundingBox())!;
+    await page.mouse.click(box.x + box.width * 0.9, box.y + box.height / 2);
+    await sweep.getByRole('button', { name: 'Make this point a case' }).click();
+    await expect.poll(() => editor.getByLabel('Case shown').locator('option').allTextContents()).toEqual(['Base (as drawn)', 'Neutral lost', expect.stringMatching(/^Sweep point: KITCHEN every phase › P \(kW\) = /)]);
+    expect(await editor.getByRole('list', { name: 'Changes of this case' }).textContent()).toContain('DROP: open conductors none → neutral');
+
+    // ---- a large sweep is cancelled ----
+    const sweep2 = page.getByRole('region', { name: /^Sweep on the case shown/ });
+    await sweep2.getByLabel('Parameter 1 element').selectOption('HEATER');
+    await sweep2.getByLabel('Parameter 1 value').selectOption('each.kw');
+    await sweep2.getByLabel('Parameter 1 points').fill('20000');
+    await sweep2.getByRole('button', { name: 'Run sweep (20000 points)' }).click();
+    await sweep2.getByRole('button', { name: 'Cancel sweep' }).click();
+    await expect.poll(() => sweep2.getByRole('status').first().textContent()).toMatch(/^Cancelled after \d+ of 20000 points/);
+
+    // ---- the envelope on the first case (neutral lost) ----
+    await editor.getByLabel('Case shown').selectOption({ label: 'Neutral lost' });
+    const env = page.getByRole('region', { name: 'Lost-neutral envelope' });
+    await env.getByRole('button', { name: /^Run envelope \(125 combinations\)/ }).click();
+    const table = env.getByRole('table', { name: 'Lost-neutral envelope per load' });
+    await table.waitFor({ timeout: 30_000 });
+    const expected = lostNeutralEnvelope(onCase, { bus: 'HOUSE' });
+    for (const l of expected.loads) {
+      const cells = await table.getByRole('row', { name: new RegExp(`^${l.id} `) }).getByRole('cell').allTextContents();
+      expect(cells[1]).toBe(`${l.minVolts.toFixed(1)} V = ${l.minPu.toFixed(3)} pu`);
+      expect(cells[2]).toBe(`${l.maxVolts.toFixed(1)} V = ${l.maxPu.toFixed(3)} pu`);
+    }
+    expect(await env.getByRole('img', { name: /^Locus of the star point at HOUSE: 125 combinations/ }).count()).toBe(1);
+    expect(await env.textContent()).toContain(`${(expected.outsideShare * 100).toFixed(1)} % of 125 combinations`);
+    expect(await env.textContent()).toContain('hazard to remove');
+    await screenshot(page, 'envelope');
+    const text = (await page.locator('body').innerText()) ?? '';
+    expect(text).not.toMatch(/~|case-\d/);
+    expect(errors).toEqual([]);
+  });
+});
