@@ -2,7 +2,8 @@
  * The cases compare table as data: one row per quantity that matters in a lost-neutral or
  * contingency review (each phase's voltage and the neutral shift per bus, voltage unbalance by each
  * definition (IEC, NEMA, IEEE),
- * each element's neutral and earth current, the number of flags), one value per case, the delta
+ * each load's terminal voltage in volts and per unit of its rating, each element's neutral and
+ * earth current, the number of flags), one value per case, the delta
  * against the base (the first case), and the worst case of each row: the largest value, or for a
  * phase voltage the furthest from the bus's nominal. Pure; labels speak of what the user drew.
  */
@@ -19,12 +20,14 @@ export interface CaseOutcome {
 export interface CompareRow {
   key: string;
   label: string;
-  unit: 'V' | 'A' | '%' | '';
+  unit: 'V' | 'A' | '%' | 'pu' | '';
   values: (number | null)[];
   /** value − base value (null when either is missing); deltas[0] is always null. */
   deltas: (number | null)[];
   /** Column of the worst case, or null when fewer than two cases have a value or all agree. */
   worst: number | null;
+  /** For voltages: the value the worst case is furthest from. */
+  nominal?: number;
 }
 
 interface RowSpec {
@@ -49,6 +52,13 @@ function quantities(r: CircuitResult, specs: Map<string, RowSpec>): Map<string, 
     if (b.nemaUnbalancePercent !== undefined) put(`unb-nema:${b.bus}`, { label: `${b.bus} unbalance (NEMA)`, unit: '%' }, b.nemaUnbalancePercent);
     if (b.ieeeUnbalancePercent !== undefined) put(`unb-ieee:${b.bus}`, { label: `${b.bus} unbalance (IEEE)`, unit: '%' }, b.ieeeUnbalancePercent);
   }
+  for (const l of r.loads) {
+    for (const b of l.branches) {
+      const where = l.branches.length > 1 ? ` (${b.fromConductor}–${b.toConductor})` : '';
+      put(`load:${l.id}:${b.branch}`, { label: `${l.id} terminal voltage${where}`, unit: 'V', nominal: b.ratedVolts }, b.voltage.mag);
+      if (b.pu !== undefined) put(`load-pu:${l.id}:${b.branch}`, { label: `${l.id} terminal voltage${where}, per unit`, unit: 'pu', nominal: 1 }, b.pu);
+    }
+  }
   for (const e of Object.values(r.elements)) {
     const port = e.ports?.find((p) => p.conductors.includes('n'));
     if (port) put(`in:${e.id}`, { label: `${e.id} neutral current${port.bus ? ` at ${port.bus}` : ''}`, unit: 'A' }, port.currents[port.conductors.indexOf('n')].mag);
@@ -58,8 +68,9 @@ function quantities(r: CircuitResult, specs: Map<string, RowSpec>): Map<string, 
   return out;
 }
 
-/** A row marks a worst case only when the cases differ by more than this (V, A, % or flags): no marks on rounding noise. */
+/** A row marks a worst case only when the cases differ by more than this (V, A, % or flags; a hundredth of it in pu): no marks on rounding noise. */
 export const WORST_THRESHOLD = 0.05;
+const thresholdOf = (unit: CompareRow['unit']) => (unit === 'pu' ? WORST_THRESHOLD / 100 : WORST_THRESHOLD);
 
 /** The rows of the compare table, in the order quantities first appear (base first). */
 export function compareCases(outcomes: readonly CaseOutcome[]): CompareRow[] {
@@ -73,10 +84,10 @@ export function compareCases(outcomes: readonly CaseOutcome[]): CompareRow[] {
     const badness = values.map((v) => (v === null ? null : spec.nominal ? Math.abs(v - spec.nominal) : v));
     let worst: number | null = null;
     const present = badness.filter((x): x is number => x !== null);
-    if (present.length >= 2 && Math.max(...present) - Math.min(...present) > WORST_THRESHOLD) {
+    if (present.length >= 2 && Math.max(...present) - Math.min(...present) > thresholdOf(spec.unit)) {
       worst = badness.indexOf(Math.max(...present));
     }
-    rows.push({ key, label: spec.label, unit: spec.unit, values, deltas, worst });
+    rows.push({ key, label: spec.label, unit: spec.unit, values, deltas, worst, ...(spec.nominal !== undefined ? { nominal: spec.nominal } : {}) });
   }
   return rows;
 }

@@ -1,12 +1,13 @@
 /**
  * Cases compare: the base circuit and each of its study cases solved side by side (in the solve
- * Web Worker, one request per case), one column per case with its delta against the base and the
+ * Web Worker, one request per case, debounced after edits), one column per case with its delta against the base and the
  * worst case of each row marked. Shows nothing when the circuit has no cases. Self-contained: give
  * it the circuit being edited.
  */
-import { memo, useEffect, useMemo, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { applyCase, BASE_CASE_ID, caseLabel, circuitCases, type CircuitResult } from '../../../../shared/engine/index.ts';
-import { createDefaultPort } from '../solve/solve-port.ts';
+import { createDefaultPort, type SolvePort } from '../solve/solve-port.ts';
+import type { SolveResponse } from '../solve/solve-protocol.ts';
 import { compareCases, type CaseOutcome, type CompareRow } from './cases-compare-model.ts';
 import { hidePrivate } from './private-names.ts';
 import { ResultsCaution } from './result-sections.tsx';
@@ -17,13 +18,34 @@ export interface CasesCompareProps {
   privateMarker?: string;
 }
 
-const fmt = (v: number | null, unit: CompareRow['unit']) => (v === null ? '—' : unit === '' ? String(v) : `${v.toFixed(unit === '%' ? 2 : 1)} ${unit}`);
+const fmt = (v: number | null, unit: CompareRow['unit']) => (v === null ? '—' : unit === '' ? String(v) : `${v.toFixed(unit === 'pu' ? 3 : unit === '%' ? 2 : 1)} ${unit}`);
 const fmtDelta = (d: number | null, unit: CompareRow['unit']) => (d === null ? '' : `${d >= 0 ? '+' : '−'}${fmt(Math.abs(d), unit)}`);
 
-/** Solve every case of `circuit` in the worker; outcomes in case order (base first), or null while running. */
+/** Quiet time after the last edit before the cases are solved again, ms (each edit would otherwise solve every case). */
+export const COMPARE_DEBOUNCE_MS = 300;
+
+/**
+ * Solve every case of `circuit` in one solve worker kept for the view's life; outcomes in case order
+ * (base first), or null while running. Edits are debounced, and answers to an overtaken round dropped.
+ */
 function useCaseOutcomes(circuit: unknown): CaseOutcome[] | null {
   const key = useMemo(() => JSON.stringify(circuit ?? null), [circuit]);
   const [outcomes, setOutcomes] = useState<CaseOutcome[] | null>(null);
+  const port = useRef<SolvePort | null>(null);
+  const onAnswer = useRef<(res: SolveResponse) => void>(() => {});
+  const onFailure = useRef<(message: string) => void>(() => {});
+  const round = useRef(0);
+  useEffect(() => {
+    const p = createDefaultPort(
+      (res) => onAnswer.current(res),
+      (message) => onFailure.current(message),
+    );
+    port.current = p;
+    return () => {
+      p.terminate();
+      port.current = null;
+    };
+  }, []);
   useEffect(() => {
     const parsed = JSON.parse(key) as unknown;
     let cases;
@@ -38,39 +60,41 @@ function useCaseOutcomes(circuit: unknown): CaseOutcome[] | null {
       return;
     }
     const list: CaseOutcome[] = [{ id: BASE_CASE_ID, label: 'Base' }, ...cases.map((c) => ({ id: c.id, label: caseLabel(c).replace(/^case "(.*)"$/, '$1') }))];
+    // request ids: round × 1024 + the case's place (answers of an earlier round are dropped)
+    const first = ++round.current * 1024;
     let pending = 0;
     const done = () => {
       if (pending === 0) setOutcomes(list.map((o) => ({ ...o })));
     };
-    const port = createDefaultPort(
-      (res) => {
-        const o = list[res.id];
-        if (!o) return;
-        if (res.ok) o.result = res.result as CircuitResult;
-        else o.error = res.error.message;
-        pending--;
-        done();
-      },
-      (message) => {
-        for (const o of list) if (!o.result && !o.error) o.error = message;
-        pending = 0;
-        done();
-      },
-    );
+    onAnswer.current = (res) => {
+      const o = res.id >= first && res.id < first + 1024 ? list[res.id - first] : undefined;
+      if (!o) return;
+      if (res.ok) o.result = res.result as CircuitResult;
+      else o.error = res.error.message;
+      pending--;
+      done();
+    };
+    onFailure.current = (message) => {
+      for (const o of list) if (!o.result && !o.error) o.error = message;
+      pending = 0;
+      done();
+    };
     setOutcomes(null);
-    list.forEach((o, i) => {
-      let edited: unknown;
-      try {
-        edited = applyCase(parsed as Record<string, unknown>, o.id);
-      } catch (e) {
-        o.error = (e as Error).message;
-        return;
-      }
-      pending++;
-      port.post({ id: i, circuit: edited });
-    });
-    done();
-    return () => port.terminate();
+    const timer = setTimeout(() => {
+      list.forEach((o, i) => {
+        let edited: unknown;
+        try {
+          edited = applyCase(parsed as Record<string, unknown>, o.id);
+        } catch (e) {
+          o.error = (e as Error).message;
+          return;
+        }
+        pending++;
+        port.current?.post({ id: first + i, circuit: edited });
+      });
+      done();
+    }, COMPARE_DEBOUNCE_MS);
+    return () => clearTimeout(timer);
   }, [key]);
   return outcomes;
 }

@@ -40,14 +40,23 @@ describe('compareCases', () => {
     for (const k of ['unb:HOUSE', 'unb-nema:HOUSE']) expect(row(k).values.every((v) => v !== null), k).toBe(true);
   });
 
+  it('per load: terminal voltage in volts and per unit of its rating, the worst furthest from it', () => {
+    const kitchen = outcomes.map((o) => o.result.loads.find((l) => l.id === 'KITCHEN')!.branches[0]);
+    expect(row('load:KITCHEN:an').label).toBe('KITCHEN terminal voltage');
+    expect(row('load:KITCHEN:an').values).toEqual(kitchen.map((b) => b.voltage.mag));
+    expect(row('load-pu:KITCHEN:an').values).toEqual(kitchen.map((b) => b.pu!));
+    const dist = kitchen.map((b) => Math.abs(b.pu! - 1));
+    expect(row('load-pu:KITCHEN:an').worst).toBe(dist.indexOf(Math.max(...dist)));
+  });
+
   it('no worst case when every case agrees, and missing values for a case that failed', () => {
     const same = compareCases([outcomes[0], { ...outcomes[0], id: 'copy' }]);
     expect(same.every((r) => r.worst === null)).toBe(true);
-    // a row marks a worst case only when the cases differ by more than 0.05 (V, A, %): no marks on noise
+    // a row marks a worst case only when the cases differ by more than 0.05 (V, A, %; 0.0005 pu): no marks on noise
     for (const r of rows) {
-      const nominal = r.key.startsWith('v:') ? outcomes[0].result.buses.find((b) => b.bus === r.key.split(':')[1])!.nominalVLN! : undefined;
+      const nominal = r.key.startsWith('v:') ? outcomes[0].result.buses.find((b) => b.bus === r.key.split(':')[1])!.nominalVLN! : r.nominal;
       const v = r.values.filter((x): x is number => x !== null).map((x) => (nominal ? Math.abs(x - nominal) : x));
-      expect(r.worst !== null, r.key).toBe(Math.max(...v) - Math.min(...v) > 0.05);
+      expect(r.worst !== null, r.key).toBe(Math.max(...v) - Math.min(...v) > (r.unit === 'pu' ? 0.0005 : 0.05));
     }
     const failed = compareCases([outcomes[0], { id: 'bad', label: 'bad', error: 'does not solve' }]);
     expect(failed[0].values[1]).toBeNull();
