@@ -56,7 +56,11 @@ function checkSwitchNodes(circuit: Circuit, expansions: Expansion[]): void {
 
 /** Validate and expand a circuit without solving it (for the CLI, benchmarks and tools). */
 export function prepareCircuit(input: unknown): PreparedCircuit {
-  const circuit = parseCircuit(input);
+  return prepareParsedCircuit(parseCircuit(input));
+}
+
+/** `prepareCircuit` of a circuit already validated by `parseCircuit` (sweeps re-validate only the elements they change). */
+export function prepareParsedCircuit(circuit: Circuit): PreparedCircuit {
   const context = expandContext(circuit);
   const { expansions, primitives } = expandCircuit(circuit, context);
   checkSwitchNodes(circuit, expansions);

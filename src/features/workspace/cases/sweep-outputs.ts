@@ -62,7 +62,7 @@ export function availableOutputs(r: CircuitResult): SweepOutput[] {
 }
 
 /** The value of one output in a result, or null when the result has no such quantity. */
-export function outputValue(r: CircuitResult, s: OutputSpec): number | null {
+export function outputValue(r: Pick<CircuitResult, 'buses' | 'loads'>, s: OutputSpec): number | null {
   if (s.kind === 'load') {
     const b = r.loads.find((l) => l.id === s.load)?.branches.find((x) => x.branch === s.branch);
     return b?.pu ?? null;
