@@ -39,6 +39,45 @@ function scale(d0: number, d1: number, r0: number, r1: number, log = false): Sca
 
 const tick = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(4))));
 
+/**
+ * The points a line needs at the chart's resolution: all of them when there are few; else, per
+ * pixel column, the first, lowest, highest and last (in order), so peaks and limit crossings stay
+ * and a 10 000-point sweep draws a path of at most ~4 points per pixel.
+ */
+export function drawn(xs: readonly number[], ys: readonly (number | null)[], x: (v: number) => number): number[] {
+  const all = xs.map((_, i) => i);
+  if (xs.length <= 2 * IW) return all;
+  const out: number[] = [];
+  let col = NaN;
+  let group: number[] = [];
+  const flush = () => {
+    if (group.length === 0) return;
+    const vals = group.filter((i) => ys[i] !== null);
+    if (vals.length === 0 || vals.length !== group.length) {
+      out.push(...group); // keep gaps (points not solved) exactly where they are
+    } else {
+      let lo = vals[0];
+      let hi = vals[0];
+      for (const i of vals) {
+        if ((ys[i] as number) < (ys[lo] as number)) lo = i;
+        if ((ys[i] as number) > (ys[hi] as number)) hi = i;
+      }
+      out.push(...[...new Set([group[0], lo, hi, group[group.length - 1]])].sort((a, b) => a - b));
+    }
+    group = [];
+  };
+  for (const i of all) {
+    const c = Math.round(x(xs[i]));
+    if (c !== col) {
+      flush();
+      col = c;
+    }
+    group.push(i);
+  }
+  flush();
+  return out;
+}
+
 export interface LineChartProps {
   xLabel: string;
   xs: number[];
@@ -64,7 +103,7 @@ export const SweepLineChart = memo(function SweepLineChart({ xLabel, xs, ys, out
     const path = line<number>()
       .defined((i) => ys[i] !== null)
       .x((i) => x(xs[i]))
-      .y((i) => y(ys[i] as number))(xs.map((_, i) => i));
+      .y((i) => y(ys[i] as number))(drawn(xs, ys, x));
     const first = ys.findIndex((v) => breaksLimit(output, v));
     return { x, y, path, first, y0: lo - pad, y1: hi + pad };
   }, [xs, ys, output, log]);

@@ -145,13 +145,13 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     };
     setPicked(null);
     setRun(next);
-    // Rows land in the run object; the page repaints at most every 150 ms while they arrive.
+    // Rows land in the run object; the page repaints at most every 250 ms while they arrive.
     const schedule = () => {
       if (paintTimer.current) return;
       paintTimer.current = setTimeout(() => {
         paintTimer.current = null;
         repaint((n) => n + 1);
-      }, 150);
+      }, 250);
     };
     performance.mark('sweep-start');
     running.current = pool.current.run(

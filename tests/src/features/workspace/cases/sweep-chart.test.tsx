@@ -1,0 +1,29 @@
+/** Sweep charts: the line keeps every peak at the chart's resolution; a chart names its output and parameter; the first limit crossing is called out. */
+import { render, screen } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { drawn, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
+import type { SweepOutput } from '../../../../../src/features/workspace/cases/sweep-outputs.ts';
+
+const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
+
+describe('sweep charts', () => {
+  it('a 10 000-point line is drawn with at most four points per pixel column, keeping the highest and lowest', () => {
+    const xs = Array.from({ length: 10_000 }, (_, i) => i);
+    const ys = xs.map((i) => Math.sin(i / 50) + (i === 7777 ? 5 : 0) - (i === 1234 ? 5 : 0));
+    const keep = drawn(xs, ys, (v) => (v / 9999) * 392);
+    expect(keep.length).toBeLessThanOrEqual(4 * 393);
+    expect(keep).toContain(7777);
+    expect(keep).toContain(1234);
+    expect(keep).toEqual([...keep].sort((a, b) => a - b));
+    expect(drawn(xs.slice(0, 50), ys.slice(0, 50), (v) => v)).toHaveLength(50);
+  });
+
+  it('names the output and the parameter, and calls out the first point that breaks the limit', () => {
+    const xs = [1, 2, 3, 4];
+    render(<SweepLineChart xLabel="K every phase › P (kW)" xs={xs} ys={[1.0, 1.02, 1.07, 1.1]} output={output} />);
+    expect(screen.getByRole('img', { name: 'K terminal voltage (pu) against K every phase › P (kW)' })).toBeTruthy();
+    expect(screen.getByText('limit first broken at 3')).toBeTruthy();
+    render(<SweepHeatMap xLabel="A" yLabel="B" xs={[1, 2]} ys={[3, 4]} values={[1, 1.01, 1.06, null]} output={output} />);
+    expect(screen.getByRole('img', { name: 'Heat map of K terminal voltage (pu) over A and B' }).querySelectorAll('rect')).toHaveLength(4);
+  });
+});
