@@ -321,8 +321,9 @@ function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: n
           ? `Cancelled after ${run.done} of ${total} points`
           : `The sweep stopped: ${run.error}`;
   const two = run.axes.length === 2;
+  // Contained: while points arrive, only this box is laid out and painted again, not the page.
   return (
-    <div className="flex flex-col gap-2">
+    <div className="flex flex-col gap-2" style={{ contain: 'content' }}>
       <div className="flex items-center gap-2 text-[12px]">
         <progress aria-label="Sweep progress" max={total} value={run.done} className="w-48" />
         <span role="status">{status}</span>
