@@ -28,6 +28,7 @@ export { casesSchema, studyCaseSchema, caseChangeSchema, BASE_CASE_ID, type Stud
 export { applyCase, circuitCases, caseLabel } from './cases/apply-case.ts';
 export { setPath, getPath, resolveParameter, type ParameterPath } from './cases/set-path.ts';
 export { sweepValues, sweepPoints, sweepCircuit, MAX_SWEEP_POINTS, type SweepParameter } from './cases/sweep-points.ts';
+export { createSweepSolver, sweepOutputValue, type SweepOutputSpec, type SweepPointRow } from './cases/sweep-solver.ts';
 export { lostNeutralEnvelope, MAX_ENVELOPE_COMBINATIONS, type EnvelopeOptions, type EnvelopeLoad, type LostNeutralEnvelope } from './cases/envelope.ts';
 export { circuitJsonSchema } from './schema/json-schema.ts';
 export * from './schema/blocks.ts';

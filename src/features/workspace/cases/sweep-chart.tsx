@@ -6,7 +6,7 @@
  */
 import { line } from 'd3-shape';
 import { memo, useMemo } from 'react';
-import { breaksLimit, type SweepOutput } from './sweep-outputs.ts';
+import { breaksLimit, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 
 const W = 460;
 const H = 210;

@@ -4,7 +4,7 @@
  * and a status column: "ok", "not run" or why the point could not be solved). Pure.
  */
 import type { PointRow } from './sweep-protocol.ts';
-import type { SweepOutput } from './sweep-outputs.ts';
+import type { SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 
 export const CSV_CAUTION =
   '# Caution: Wyeward is an engineering aid; these results are only as good as the model. Follow local codes and licensed practice. A lost neutral puts dangerous voltages on equipment.';

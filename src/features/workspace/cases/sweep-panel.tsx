@@ -12,7 +12,7 @@ import { Button } from '../../../components/button.tsx';
 import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.ts';
 import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
 import { sweepCsv } from './sweep-csv.ts';
-import { availableOutputs, type SweepOutput } from './sweep-outputs.ts';
+import { availableOutputs, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { SweepPool } from './sweep-pool.ts';
 import type { PointRow } from './sweep-protocol.ts';
 

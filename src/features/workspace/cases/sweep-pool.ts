@@ -9,7 +9,7 @@
 import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
 import { createSweepHandler } from './sweep-handler.ts';
 import type { PointRow, SweepRequest, SweepResponse } from './sweep-protocol.ts';
-import type { OutputSpec } from './sweep-outputs.ts';
+import type { OutputSpec } from '../../../../shared/review/sweep-outputs.ts';
 
 interface Slot {
   post(req: SweepRequest): void;

@@ -1,6 +1,6 @@
 /** Messages between the page and the sweep workers (structured-clone safe: plain data only). */
 import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
-import type { OutputSpec } from './sweep-outputs.ts';
+import type { OutputSpec } from '../../../../shared/review/sweep-outputs.ts';
 
 /** A chunk of sweep points: the circuit (a case already applied), the parameter paths, the points (values per path) from `start`. */
 export interface SweepChunk {

@@ -2,7 +2,7 @@
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { drawn, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
-import type { SweepOutput } from '../../../../../src/features/workspace/cases/sweep-outputs.ts';
+import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
 

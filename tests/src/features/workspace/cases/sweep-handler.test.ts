@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit, sweepCircuit, sweepPoints, type CircuitInput } from '../../../../../shared/engine/index.ts';
 import { CSV_CAUTION, sweepCsv } from '../../../../../src/features/workspace/cases/sweep-csv.ts';
 import { createSweepHandler } from '../../../../../src/features/workspace/cases/sweep-handler.ts';
-import { availableOutputs, breaksLimit, outputValue } from '../../../../../src/features/workspace/cases/sweep-outputs.ts';
+import { availableOutputs, breaksLimit, outputValue } from '../../../../../shared/review/sweep-outputs.ts';
 import { chunkSize, SweepPool } from '../../../../../src/features/workspace/cases/sweep-pool.ts';
 import type { PointRow } from '../../../../../src/features/workspace/cases/sweep-protocol.ts';
 

@@ -3,16 +3,13 @@
  * terminal voltage in pu of its rating, each bus phase's voltage, the neutral shift and the IEC
  * unbalance. Each output comes with its unit and the limit band of the limit set in force (values
  * outside `violation` break the limit; outside `warning` deserve a look). Pure; labels name what
- * the user drew (outputs of generated elements or buses are never offered).
+ * the user drew (outputs of generated elements or buses are never offered). Used by the browser's
+ * sweep panel and the server's sweep jobs.
  */
-import type { CircuitResult } from '../../../../shared/engine/index.ts';
-import { isPrivateName } from '../../../../shared/review/user-names.ts';
+import { sweepOutputValue, type CircuitResult, type SweepOutputSpec } from '../engine/index.ts';
+import { isPrivateName } from './user-names.ts';
 
-export type OutputSpec =
-  | { kind: 'load'; load: string; branch: string }
-  | { kind: 'bus'; bus: string; conductor: string }
-  | { kind: 'shift'; bus: string }
-  | { kind: 'unbalance'; bus: string };
+export type OutputSpec = SweepOutputSpec;
 
 export interface SweepOutput {
   key: string;
@@ -62,17 +59,7 @@ export function availableOutputs(r: CircuitResult): SweepOutput[] {
 }
 
 /** The value of one output in a result, or null when the result has no such quantity. */
-export function outputValue(r: Pick<CircuitResult, 'buses' | 'loads'>, s: OutputSpec): number | null {
-  if (s.kind === 'load') {
-    const b = r.loads.find((l) => l.id === s.load)?.branches.find((x) => x.branch === s.branch);
-    return b?.pu ?? null;
-  }
-  const bus = r.buses.find((b) => b.bus === s.bus);
-  if (!bus) return null;
-  if (s.kind === 'bus') return bus.lineToNeutral[s.conductor]?.mag ?? null;
-  if (s.kind === 'shift') return bus.neutralToEarth?.mag ?? null;
-  return bus.iecUnbalancePercent ?? null;
-}
+export const outputValue = (r: Pick<CircuitResult, 'buses' | 'loads'>, s: OutputSpec): number | null => sweepOutputValue(r, s);
 
 /** True when `v` is outside the output's violation band. */
 export const breaksLimit = (o: Pick<SweepOutput, 'violation'>, v: number | null): boolean => v !== null && (v < o.violation[0] || v > o.violation[1]);
