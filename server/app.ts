@@ -21,6 +21,7 @@ import { reportRoutes } from './routes/report.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { studyRoutes } from './routes/studies.ts';
 import { balancingRoutes } from './routes/balancing.ts';
+import { sweepRoutes } from './routes/sweeps.ts';
 import { inviteRoutes, teamRoutes } from './routes/team.ts';
 
 export interface AppDeps {
@@ -72,6 +73,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false, health
   api.use('/studies', reviewRoutes(ctx));
   api.use('/studies', studyRoutes(ctx));
   api.use('/studies', balancingRoutes(ctx));
+  api.use('/studies', sweepRoutes(ctx));
   api.use('/templates', templateRoutes(ctx));
   api.use('/notifications', notificationRoutes(ctx));
   api.use('/team', teamRoutes(ctx));

@@ -13,8 +13,9 @@ import type { RevisionDiff, DiffSide } from '../../shared/review/diff.ts';
 import { AppError } from '../errors.ts';
 import type { CsvInput } from '../report/csv.ts';
 import type { ReportInput } from '../report/pdf.ts';
-import { prepare, runTask, type Prepared, type Task } from './tasks.ts';
 import type { BalanceOutcome, BalanceTask } from './balance-task.ts';
+import type { SweepOutputSpec, SweepPointRow } from '../../shared/engine/index.ts';
+import { prepare, runTask, type Prepared, type SweepOutputsAnswer, type Task } from './tasks.ts';
 
 /** Jobs on circuits with fewer elements than this run inline (they take well under a millisecond). */
 export const INLINE_ELEMENTS = 60;
@@ -37,6 +38,10 @@ export interface WorkPool {
   report(input: ReportInput): Promise<Uint8Array>;
   /** One results table as CSV (server/report/csv.ts). */
   csv(input: CsvInput): Promise<{ ok: true; csv: string } | { ok: false; message: string }>;
+  /** What a sweep of the circuit may record (always in a thread: it solves the circuit). */
+  sweepOutputs(circuit: unknown): Promise<SweepOutputsAnswer>;
+  /** One batch of sweep points (always in a thread). */
+  sweep(circuit: unknown, paths: string[], points: number[][], outputs: SweepOutputSpec[]): Promise<SweepPointRow[]>;
   close(): Promise<void>;
 }
 
@@ -101,6 +106,12 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
     async csv(input) {
       if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return runTask({ kind: 'csv', input }) as Awaited<ReturnType<WorkPool['csv']>>;
       return run({ kind: 'csv', input });
+    },
+    sweepOutputs(circuit) {
+      return run<SweepOutputsAnswer>({ kind: 'sweep-outputs', circuit });
+    },
+    sweep(circuit, paths, points, outputs) {
+      return run<SweepPointRow[]>({ kind: 'sweep', circuit, paths, points, outputs });
     },
     async close() {
       const p = pool;

@@ -4,7 +4,9 @@
  * revisions. Results are plain data so they cross a thread boundary; nothing here touches the
  * database or a request.
  */
-import { InvalidCircuitError, parseCircuit } from '../../shared/engine/index.ts';
+import { createSweepSolver, InvalidCircuitError, parseCircuit, solveCircuit, type CircuitInput, type SweepOutputSpec, type SweepPointRow } from '../../shared/engine/index.ts';
+import { availableOutputs, type SweepOutput } from '../../shared/review/sweep-outputs.ts';
+import { circuitNames } from '../../shared/review/user-names.ts';
 import { diffRevisions, type DiffSide, type RevisionDiff } from '../../shared/review/diff.ts';
 import { summarizeCircuit, type ResultsSummary } from '../../shared/review/summary.ts';
 import { resultsCsv, type CsvInput } from '../report/csv.ts';
@@ -20,7 +22,12 @@ export type Task =
   | { kind: 'prepare'; circuit: unknown }
   | { kind: 'diff'; from: DiffSide; to: DiffSide }
   | { kind: 'report'; input: ReportInput }
-  | { kind: 'csv'; input: CsvInput };
+  | { kind: 'csv'; input: CsvInput }
+  | { kind: 'sweep-outputs'; circuit: unknown }
+  | { kind: 'sweep'; circuit: unknown; paths: string[]; points: number[][]; outputs: SweepOutputSpec[] };
+
+/** Answer of `sweep-outputs`: what a sweep of the circuit may record (labels and units, no bands), or why it does not solve. */
+export type SweepOutputsAnswer = { ok: true; outputs: Pick<SweepOutput, 'key' | 'label' | 'unit' | 'spec'>[] } | { ok: false; message: string };
 
 /** Answer of `prepare`: the engine's issues with the circuit, or its results summary. */
 export type Prepared = { ok: false; message: string; issues: CircuitIssue[] } | { ok: true; summary: ResultsSummary };
@@ -38,9 +45,33 @@ export function prepare(circuit: unknown): Prepared {
   return { ok: true, summary: summarizeCircuit(circuit) };
 }
 
+/** The outputs a sweep of this circuit may record (from a solve of it), messages in the user's names. */
+export function sweepOutputs(circuit: unknown): SweepOutputsAnswer {
+  try {
+    return { ok: true, outputs: availableOutputs(solveCircuit(circuit)).map(({ key, label, unit, spec }) => ({ key, label, unit, spec })) };
+  } catch (err) {
+    return { ok: false, message: circuitNames(circuit).text((err as Error).message) };
+  }
+}
+
+let sweepSolver: ReturnType<typeof createSweepSolver> | null = null;
+
+/** One batch of sweep points (the solver's network is kept by the thread between batches); refusals in the user's names. */
+export function sweepBatch(task: Extract<Task, { kind: 'sweep' }>): SweepPointRow[] {
+  sweepSolver ??= createSweepSolver();
+  const rows = sweepSolver(task.circuit as CircuitInput, task.paths, task.points, task.outputs);
+  if (!rows.some((r) => r.error)) return rows;
+  const names = circuitNames(task.circuit);
+  return rows.map((r) => (r.error ? { ...r, error: names.text(r.error) } : r));
+}
+
 /** Runs one task. */
-export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof resultsCsv> | Promise<Uint8Array> {
+export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof resultsCsv> | Promise<Uint8Array> | SweepOutputsAnswer | SweepPointRow[] {
   switch (task.kind) {
+    case 'sweep-outputs':
+      return sweepOutputs(task.circuit);
+    case 'sweep':
+      return sweepBatch(task);
     case 'prepare':
       return prepare(task.circuit);
     case 'diff':

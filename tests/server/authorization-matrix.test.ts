@@ -28,6 +28,8 @@ let mailA: string;
 /** A study of team A made through the API, with two revisions, a comment and an attachment. */
 let studyR: string;
 let attachmentR: string;
+/** A one-point sweep job on studyR, started by the engineer. */
+let sweepR: string;
 
 const circuitA = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
 const PDF = Buffer.from('%PDF-1.4\n%%EOF\n');
@@ -46,6 +48,7 @@ beforeAll(async () => {
   studyR = r.id;
   await agents.engineer.patch(`/api/studies/${studyR}`).send({ version: 1, content: { circuit: { ...circuitA, frequencyHz: 50 } } });
   attachmentR = (await agents.engineer.post(`/api/studies/${studyR}/attachments`).attach('file', PDF, 'a.pdf')).body.id;
+  sweepR = (await agents.engineer.post(`/api/studies/${studyR}/sweeps`).send({ parameters: [{ path: 'KITCHEN.each.kw', from: 1, to: 1, points: 1 }] })).body.id;
 });
 
 /** A new study of team A through the API (so it has revision 1), by the engineer. */
@@ -163,6 +166,14 @@ const rows: Row[] = [
     expect: m(200, 200, 200, 200, 404),
     send: (a) => a.post(`/api/studies/${studyR}/balance`).send({ objective: 'unbalance', maxMoves: 1 }),
   },
+  {
+    // a body refused for its size (400) once the role and the study pass: no job is started by the matrix
+    name: 'POST /api/studies/:id/sweeps',
+    expect: m(400, 400, 403, 403, 404),
+    send: (a) => a.post(`/api/studies/${studyR}/sweeps`).send({ parameters: [{ path: 'KITCHEN.each.kw', from: 1, to: 2, points: 1000 }, { path: 'HEATER.each.kw', from: 1, to: 2, points: 1000 }] }),
+  },
+  { name: 'GET /api/studies/:id/sweeps/:job', expect: m(200, 200, 200, 200, 404), send: (a) => a.get(`/api/studies/${studyR}/sweeps/${sweepR}`) },
+  { name: 'DELETE /api/studies/:id/sweeps/:job', expect: m(200, 200, 403, 403, 404), send: (a) => a.delete(`/api/studies/${studyR}/sweeps/${sweepR}`) },
   { name: 'GET /api/team', expect: m(200, 200, 200, 200, 200), send: (a) => a.get('/api/team') },
   {
     name: 'POST /api/team/invites',
