@@ -4,7 +4,8 @@
  * the study; a small sweep of a load's kW runs on it in the Web Worker pool and its CSV is checked
  * point by point against the engine's solve of the same circuit (the saved study, the case applied,
  * the value written; computed here, never copied); a point becomes a case; a large sweep is
- * cancelled; the envelope's worst load voltages are the engine's.
+ * cancelled; the envelope's worst load voltages are the engine's; a two-parameter sweep too large
+ * for the browser runs on the server and its first points are the engine's too.
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
@@ -25,7 +26,7 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     browser = b;
   });
 
-  it('creates a case, sweeps on it (CSV equal to the engine), makes a point a case, cancels a sweep, runs the envelope', async () => {
+  it('creates a case, sweeps on it (CSV equal to the engine), makes a point a case, cancels a sweep, runs the envelope, hands a large sweep to the server', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(String(e)));
@@ -127,6 +128,38 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     expect(await env.textContent()).toContain(`${(expected.outsideShare * 100).toFixed(1)} % of 125 combinations`);
     expect(await env.textContent()).toContain('hazard to remove');
     await screenshot(page, 'envelope');
+
+    // ---- a sweep too large for the browser runs on the server (saved study, the case shown): its first points are the engine's ----
+    const sweep3 = page.getByRole('region', { name: /^Sweep on the case shown/ });
+    await sweep3.getByLabel('Parameter 1 element').selectOption('KITCHEN');
+    await sweep3.getByLabel('Parameter 1 value').selectOption('each.kw');
+    await sweep3.getByLabel('Parameter 1 from').fill('0.5');
+    await sweep3.getByLabel('Parameter 1 to').fill('6');
+    await sweep3.getByLabel('Parameter 1 points').fill('201');
+    await sweep3.getByRole('button', { name: '+ Second parameter (heat map)' }).click();
+    await sweep3.getByLabel('Parameter 2 element').selectOption('HEATER');
+    await sweep3.getByLabel('Parameter 2 value').selectOption('each.kw');
+    await sweep3.getByLabel('Parameter 2 from').fill('1');
+    await sweep3.getByLabel('Parameter 2 to').fill('4');
+    await sweep3.getByLabel('Parameter 2 points').fill('100');
+    expect(await sweep3.getByRole('button', { name: 'Run sweep (20100 points)' }).isDisabled()).toBe(true);
+    await sweep3.getByRole('button', { name: /^Run on the server \(20100 points, revision 2\)/ }).click();
+    await expect.poll(async () => Number(/^Solving: (\d+) of 20100/.exec((await sweep3.getByRole('status').first().textContent()) ?? '')?.[1] ?? 0), { timeout: 120_000 }).toBeGreaterThan(0);
+    await sweep3.getByRole('button', { name: 'Cancel sweep' }).click();
+    await expect.poll(() => sweep3.getByRole('status').first().textContent()).toMatch(/^Cancelled after \d+ of 20100 points/);
+    expect(await sweep3.getByRole('img', { name: /^Heat map of KITCHEN terminal voltage \(pu\)/ }).count()).toBe(1);
+    const [download3] = await Promise.all([page.waitForEvent('download'), sweep3.getByRole('link', { name: 'Export CSV' }).click()]);
+    const csv3 = readFileSync((await download3.path())!, 'utf8').trim().split('\n');
+    const h3 = csv3[1].split(',');
+    expect(h3.slice(0, 2)).toEqual(['KITCHEN every phase › P (kW)', 'HEATER every phase › P (kW)']);
+    const heaterCol = h3.indexOf('HEATER terminal voltage (pu)');
+    for (const line of csv3.slice(2, 7)) {
+      const cells = line.split(',');
+      const values = [Number(cells[0]), Number(cells[1])];
+      // (C) the engine's solve of the saved case with both values written
+      const load = solveCircuit(sweepCircuit(onCase, ['KITCHEN.each.kw', 'HEATER.each.kw'], values)).loads.find((l) => l.id === 'HEATER')!;
+      expect(Number(cells[heaterCol])).toBeCloseTo(load.branches[0].pu!, 6);
+    }
     const text = (await page.locator('body').innerText()) ?? '';
     expect(text).not.toMatch(/~|case-\d/);
     expect(errors).toEqual([]);

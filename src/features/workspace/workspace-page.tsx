@@ -130,6 +130,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const shownCase = cases.find((c) => c.id === activeCase);
   const setCases = useCallback((next: StudyCase[]) => run(setStudyCases, next), [run]);
   const locked = readOnly || shownCase !== undefined;
+  const serverSweeps = useMemo(() => (readOnly ? null : { studyId: study.id, revision: study.revision ?? null, dirty }), [readOnly, study.id, study.revision, dirty]);
   const { conversion, circuit, live, overlays, problems, shifts, stale, shownCircuit, caseError } = useWorkspaceSolve(doc, activeCase);
 
   const toggleOpen = useCallback((edgeId: string, c: Conductor) => run(commands.toggleOpen, edgeId, c), [run]);
@@ -428,7 +429,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
         <div className="overflow-auto">
           <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
           <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
-          <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} />
+          <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} server={serverSweeps} />
         </div>
       </div>
 

@@ -17,14 +17,16 @@ export interface StudyExplorationsProps {
   result?: CircuitResult;
   onCases: ((cases: StudyCase[]) => void) | null;
   onActivate: (id: string) => void;
+  /** Large sweeps on the server (the saved study); null when the role cannot start them. */
+  server?: { studyId: string; revision: number | null; dirty: boolean } | null;
 }
 
-export const StudyExplorations = memo(function StudyExplorations({ circuit, base, cases, activeCase, result, onCases, onActivate }: StudyExplorationsProps) {
+export const StudyExplorations = memo(function StudyExplorations({ circuit, base, cases, activeCase, result, onCases, onActivate, server }: StudyExplorationsProps) {
   const els = (circuit as { elements?: unknown[] } | null)?.elements;
   if (!els || els.length === 0) return null;
   return (
     <section aria-label="Sweeps and envelope" className="mt-3 flex flex-col gap-4 border-t border-rule pt-2">
-      <SweepPanel circuit={circuit} base={base} cases={cases} onCase={activeCase === BASE_CASE_ID ? null : activeCase} result={result} onCases={onCases} onActivate={onActivate} />
+      <SweepPanel circuit={circuit} base={base} cases={cases} onCase={activeCase === BASE_CASE_ID ? null : activeCase} result={result} onCases={onCases} onActivate={onActivate} server={server} />
       <EnvelopePanel circuit={circuit} result={result} />
       <ResultsCaution />
     </section>

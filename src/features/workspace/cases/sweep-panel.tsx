@@ -7,8 +7,10 @@
  */
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { sweepPoints, sweepValues, type CircuitResult, type StudyCase } from '../../../../shared/engine/index.ts';
+import { MAX_SERVER_SWEEP_POINTS } from '../../../../shared/api/sweeps.ts';
 import { parameterWords } from '../../../../shared/review/parameter-words.ts';
 import { Button } from '../../../components/button.tsx';
+import { cancelServerSweep, getServerSweep, startServerSweep } from '../api/sweeps.ts';
 import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.ts';
 import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
 import { sweepCsv } from './sweep-csv.ts';
@@ -68,9 +70,14 @@ export interface SweepPanelProps {
   result?: CircuitResult;
   onCases: ((cases: StudyCase[]) => void) | null;
   onActivate: (id: string) => void;
+  /** Sweeps too large for the browser may run on the server, on the saved study (null: not offered, e.g. for read-only roles). */
+  server?: { studyId: string; revision: number | null; dirty: boolean } | null;
 }
 
-export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onActivate }: SweepPanelProps) {
+/** How often a running server sweep is asked for its progress and new points, ms. */
+const SERVER_POLL_MS = 1000;
+
+export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onActivate, server }: SweepPanelProps) {
   const elements = useMemo(() => drawnElementsOf(circuit), [circuit]);
   const [params, setParams] = useState<ParamForm[]>([emptyParam()]);
   const outputs = useMemo(() => (result ? availableOutputs(result) : []), [result]);
@@ -107,17 +114,28 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
         return { from, to, steps, scale: p.log ? ('log' as const) : ('linear' as const) };
       });
       const total = specs.reduce((n, s) => n * s.steps, 1);
-      if (total > BROWSER_MAX_POINTS) return { problem: `${total} points is more than the ${BROWSER_MAX_POINTS} a browser sweep runs; use fewer points.` };
       const outs = outputs.filter((o) => chosenKeys.includes(o.key));
       if (outs.length === 0) return { problem: 'Choose at least one output to record.' };
+      if (total > BROWSER_MAX_POINTS) {
+        const onServer = !!server && total <= MAX_SERVER_SWEEP_POINTS;
+        return {
+          problem: `${total} points is more than the ${BROWSER_MAX_POINTS} a browser sweep runs; ${onServer ? 'run it on the server, or use fewer points' : 'use fewer points'}.`,
+          onServer,
+          used,
+          specs,
+          total,
+          outs,
+        };
+      }
       return { used, specs, total, outs };
     } catch (e) {
       return { problem: (e as Error).message };
     }
   }, [params, outputs, chosenKeys]);
 
-  const start = () => {
+  const start = (where: 'browser' | 'server' = 'browser') => {
     if (!('specs' in plan) || !plan.specs || !circuit) return;
+    if (where === 'browser' && 'problem' in plan) return;
     let points: number[][];
     let axes: number[][];
     try {
@@ -130,7 +148,6 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     setStartError(null);
     running.current?.cancel();
     const { cases: _c, ...plain } = circuit as Record<string, unknown>;
-    pool.current ??= new SweepPool();
     const next: Run = {
       paramLabels: plan.used.map((p) => parameterLabel(p.elementId, p.path, elements.find((e) => e.id === p.elementId))),
       parameters: plan.used.map((p) => ({ elementId: p.elementId, path: p.path })),
@@ -153,6 +170,11 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
         repaint((n) => n + 1);
       }, 250);
     };
+    if (where === 'server') {
+      if (server) runOnServer(server.studyId, next, plan.used, plan.specs);
+      return;
+    }
+    pool.current ??= new SweepPool();
     performance.mark('sweep-start');
     running.current = pool.current.run(
       { circuit: plain, paths: plan.used.map((p) => `${p.elementId}.${p.path}`), points, outputs: plan.outs.map((o) => o.spec) },
@@ -175,6 +197,57 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
           running.current = null;
           setRun({ ...next });
         },
+      },
+    );
+  };
+
+  /** The same sweep as a server job on the saved study: its points are fetched as they are solved and drawn as a browser run's. */
+  const runOnServer = (studyId: string, next: Run, used: ParamForm[], specs: { from: number; to: number; steps: number; scale: 'linear' | 'log' }[]) => {
+    let stopped = false;
+    let jobId: string | null = null;
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const finish = (status: Run['status'], error?: string) => {
+      next.status = status;
+      if (error) next.error = error;
+      next.ms = performance.now() - next.started;
+      running.current = null;
+      setRun({ ...next });
+    };
+    running.current = {
+      cancel: () => {
+        stopped = true;
+        if (timer) clearTimeout(timer);
+        if (jobId) void cancelServerSweep(studyId, jobId).catch(() => {});
+      },
+    };
+    const poll = async () => {
+      if (stopped || !jobId) return;
+      try {
+        const job = await getServerSweep(studyId, jobId, next.done);
+        if (stopped) return;
+        job.points.forEach((p, i) => (next.rows[job.offset + i] = { outputs: p.outputs, ...(p.error ? { error: p.error } : {}) }));
+        next.done = job.offset + job.points.length;
+        repaint((n) => n + 1);
+        if (job.status === 'failed') return finish('failed', job.error ?? 'the server stopped the sweep');
+        if (job.status === 'cancelled') return finish('cancelled');
+        if (job.status === 'done' && next.done >= job.total) return finish('done');
+        timer = setTimeout(() => void poll(), job.status === 'done' ? 0 : SERVER_POLL_MS);
+      } catch (e) {
+        if (!stopped) finish('failed', (e as Error).message);
+      }
+    };
+    startServerSweep(studyId, {
+      parameters: used.map((p, i) => ({ path: `${p.elementId}.${p.path}`, from: specs[i].from, to: specs[i].to, points: specs[i].steps, scale: specs[i].scale })),
+      ...(onCase ? { case: onCase } : {}),
+      outputs: next.outputs.map((o) => o.key),
+    }).then(
+      (job) => {
+        jobId = job.id;
+        if (stopped) void cancelServerSweep(studyId, job.id).catch(() => {});
+        else void poll();
+      },
+      (e: Error) => {
+        if (!stopped) finish('failed', e.message);
       },
     );
   };
@@ -284,9 +357,15 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
         ))}
       </fieldset>
       <div className="flex flex-wrap items-center gap-2 text-[13px]">
-        <Button size="sm" variant="primary" onClick={start} disabled={'problem' in plan || !circuit || run?.status === 'running'}>
+        <Button size="sm" variant="primary" onClick={() => start('browser')} disabled={'problem' in plan || !circuit || run?.status === 'running'}>
           Run sweep{'total' in plan && plan.total ? ` (${plan.total} points)` : ''}
         </Button>
+        {'onServer' in plan && plan.onServer && server ? (
+          <Button size="sm" onClick={() => start('server')} disabled={run?.status === 'running'} title="Runs on the server, on the study as last saved">
+            Run on the server ({plan.total} points, {server.revision ? `revision ${server.revision}` : 'as saved'})
+          </Button>
+        ) : null}
+        {'onServer' in plan && plan.onServer && server?.dirty ? <span className="text-[12px] text-caution">The server sweeps the study as last saved: save first to include your latest edits.</span> : null}
         {run?.status === 'running' ? (
           <Button size="sm" variant="danger" onClick={cancel}>
             Cancel sweep
