@@ -65,6 +65,18 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     expect(savedCases.map((c) => c.name)).toEqual(['Neutral lost']);
     const onCase = applyCase(saved.content.circuit, savedCases[0].id);
 
+    // the case shown is what is solved: the neutral shift drawn at HOUSE is the case's, then the base's again
+    const badge = page.getByLabel('Bus HOUSE').getByTitle('Neutral-to-earth voltage (neutral shift)');
+    const shiftOf = (c: CircuitInput) => solveCircuit(c).buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag;
+    const shownShift = async () => Number(/^N–E ([\d.]+) V$/.exec((await badge.textContent()) ?? '')?.[1]);
+    // (C) the engine on the saved case and on the base; the badge rounds to the digits it shows
+    await expect.poll(async () => Math.abs((await shownShift()) - shiftOf(onCase)), { timeout: 15_000 }).toBeLessThan(0.05);
+    expect(shiftOf(onCase)).toBeGreaterThan(shiftOf(saved.content.circuit) + 10);
+    await editor.getByLabel('Case shown').selectOption('base');
+    await expect.poll(async () => Math.abs((await shownShift()) - shiftOf(saved.content.circuit)), { timeout: 15_000 }).toBeLessThan(0.05);
+    expect(await overlay.count()).toBe(0);
+    await editor.getByLabel('Case shown').selectOption({ label: 'Neutral lost' });
+
     // ---- a 1-D sweep of KITCHEN's kW on the case shown ----
     const sweep = page.getByRole('region', { name: /^Sweep on the case shown/ });
     await sweep.getByLabel('Parameter 1 element').selectOption('KITCHEN');
