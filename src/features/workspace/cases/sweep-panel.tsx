@@ -12,18 +12,15 @@ import { parameterWords } from '../../../../shared/review/parameter-words.ts';
 import { Button } from '../../../components/button.tsx';
 import { cancelServerSweep, getServerSweep, startServerSweep } from '../api/sweeps.ts';
 import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.ts';
-import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
 import { sweepCsv } from './sweep-csv.ts';
-import { availableOutputs, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
+import { availableOutputs } from '../../../../shared/review/sweep-outputs.ts';
 import { SweepPool } from './sweep-pool.ts';
-import type { PointRow } from './sweep-protocol.ts';
+import { SweepResults, type Run } from './sweep-results.tsx';
 
 /** Largest sweep run in the browser (about 20 s of solving on a small study on two cores). */
 export const BROWSER_MAX_POINTS = 20_000;
 /** At most this many outputs are recorded (one chart each). */
 const MAX_OUTPUTS = 6;
-/** The points table is shown for sweeps up to this size (larger ones: CSV). */
-const TABLE_MAX = 200;
 
 interface ParamForm {
   elementId: string;
@@ -43,20 +40,6 @@ export function parameterLabel(elementId: string, path: string, element?: Record
   return `${elementId} ${words}${unit}`;
 }
 
-interface Run {
-  paramLabels: string[];
-  parameters: { elementId: string; path: string }[];
-  axes: number[][];
-  log: boolean[];
-  points: number[][];
-  outputs: SweepOutput[];
-  rows: (PointRow | undefined)[];
-  done: number;
-  status: 'running' | 'done' | 'cancelled' | 'failed';
-  error?: string;
-  started: number;
-  ms?: number;
-}
 
 export interface SweepPanelProps {
   /** The circuit shown (the case applied), or null when it cannot be built. */
@@ -385,90 +368,5 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
       </div>
       {run ? <SweepResults run={run} picked={picked} onPick={setPicked} onMakeCase={onCases ? makeCase : null} /> : null}
     </section>
-  );
-}
-
-function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
-  const total = run.points.length;
-  const failed = run.rows.filter((r) => r?.error).length;
-  const status =
-    run.status === 'running'
-      ? `Solving: ${run.done} of ${total} points`
-      : run.status === 'done'
-        ? `Done: ${total} points in ${((run.ms ?? 0) / 1000).toFixed(2)} s${failed ? `; ${failed} could not be solved (see the CSV)` : ''}`
-        : run.status === 'cancelled'
-          ? `Cancelled after ${run.done} of ${total} points`
-          : `The sweep stopped: ${run.error}`;
-  const two = run.axes.length === 2;
-  // Contained: while points arrive, only this box is laid out and painted again, not the page.
-  return (
-    <div className="flex flex-col gap-2" style={{ contain: 'content' }}>
-      <div className="flex items-center gap-2 text-[12px]">
-        <progress aria-label="Sweep progress" max={total} value={run.done} className="w-48" />
-        <span role="status">{status}</span>
-      </div>
-      <div className="grid grid-cols-1 gap-3 lg:grid-cols-2">
-        {run.outputs.map((o, k) =>
-          two ? (
-            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} picked={picked} onPick={onPick} />
-          ) : (
-            <SweepLineChart key={o.key} xLabel={run.paramLabels[0]} xs={run.axes[0]} ys={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
-          ),
-        )}
-      </div>
-      {picked !== null ? (
-        <div className="flex flex-wrap items-center gap-2 text-[12px]">
-          <span>
-            Picked point: {run.paramLabels.map((l, i) => `${l} = ${Number(run.points[picked][i].toPrecision(6))}`).join(', ')}
-            {run.rows[picked]?.error ? ` — does not solve: ${run.rows[picked]?.error}` : ''}
-          </span>
-          {onMakeCase ? (
-            <Button size="sm" onClick={onMakeCase}>
-              Make this point a case
-            </Button>
-          ) : null}
-        </div>
-      ) : null}
-      {total <= TABLE_MAX && run.status !== 'running' ? (
-        <details>
-          <summary className="cursor-pointer text-[12px] text-accent">Sweep points as a table</summary>
-          <table aria-label="Sweep points" className="text-[12px]">
-            <thead>
-              <tr>
-                {run.paramLabels.map((l) => (
-                  <th key={l} scope="col" className="text-right">
-                    {l}
-                  </th>
-                ))}
-                {run.outputs.map((o) => (
-                  <th key={o.key} scope="col" className="text-right">
-                    {o.label} ({o.unit})
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {run.points.map((p, i) => (
-                <tr key={i}>
-                  {p.map((v, j) => (
-                    <td key={j} className="num text-right">
-                      {Number(v.toPrecision(6))}
-                    </td>
-                  ))}
-                  {run.outputs.map((o, k) => {
-                    const v = run.rows[i]?.outputs[k];
-                    return (
-                      <td key={o.key} className="num text-right">
-                        {v === null || v === undefined ? '—' : v.toFixed(o.unit === 'pu' ? 4 : 2)}
-                      </td>
-                    );
-                  })}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </details>
-      ) : null}
-    </div>
   );
 }
