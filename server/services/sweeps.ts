@@ -1,6 +1,7 @@
 /**
  * Server sweep jobs: a sweep of one or two parameters on a study's latest revision (or one of its
- * cases), run batch by batch in the work pool's threads (never on the request thread), with
+ * cases), run batch by batch in the work pool's threads (never on the request thread; each batch
+ * sized to take about 1.5 s at the pace of the last, so it stays inside the work time limit), with
  * progress, paged points and cancel. The request is checked here in words (an unknown case or
  * element, a value that is not a number, too many points → 400) before anything runs. Jobs live
  * in this process's memory with the revision they ran on (a restart forgets them); at most
@@ -41,9 +42,12 @@ const jobs = new Map<string, Job>();
 
 const bad = (message: string) => new AppError(400, 'validation', message);
 
-/** Points per batch handed to a thread: fewer on large studies, so one batch stays well inside the work time limit. */
-function batchSize(circuit: CircuitInput): number {
-  return Math.max(1, Math.min(1000, Math.floor(50_000 / Math.max(1, circuit.elements.length))));
+/** Wall time one batch should take in a thread: well inside the work time limit, even on a busy machine. */
+const BATCH_TARGET_MS = 1500;
+
+/** Points of the first batch: fewer on large studies; later batches are sized from the time the last one took. */
+function firstBatch(circuit: CircuitInput): number {
+  return Math.max(1, Math.min(200, Math.floor(10_000 / Math.max(1, circuit.elements.length))));
 }
 
 function view(job: Job, offset = 0, limit = 0): SweepJob {
@@ -86,12 +90,15 @@ async function runJob(job: Job, circuit: CircuitInput, keys: string[] | undefine
     } else outs = outs.slice(0, MAX_SWEEP_OUTPUTS);
     job.outputs = outs.map(({ key, label, unit }) => ({ key, label, unit }));
     const specs = outs.map((o) => o.spec);
-    const size = batchSize(circuit);
+    let size = firstBatch(circuit);
     for (let start = 0; start < job.points.length; start += size) {
       if (job.status !== 'running') return;
+      const t0 = performance.now();
       const rows = await work().sweep(circuit, job.paths, job.points.slice(start, start + size), specs);
       if (job.status !== 'running') return;
       job.rows.push(...rows);
+      // the next batch sized to take about BATCH_TARGET_MS at the pace of this one (at most doubling)
+      size = Math.max(1, Math.min(2 * size, 5000, Math.round((size * BATCH_TARGET_MS) / Math.max(1, performance.now() - t0))));
     }
     job.status = 'done';
   } catch (err) {
