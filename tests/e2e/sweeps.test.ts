@@ -114,6 +114,15 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     await sweep.getByRole('button', { name: 'Make this point a case' }).click();
     await expect.poll(() => editor.getByLabel('Case shown').locator('option').allTextContents()).toEqual(['Base (as drawn)', 'Neutral lost', expect.stringMatching(/^Sweep point: KITCHEN every phase › P \(kW\) = /)]);
     expect(await editor.getByRole('list', { name: 'Changes of this case' }).textContent()).toContain('DROP: open conductors none → neutral');
+    // both cases built here are compared with the base
+    const compare = page.getByRole('table', { name: 'Study cases compared' });
+    await expect.poll(async () => (await compare.getByRole('columnheader').allTextContents()).length, { timeout: 30_000 }).toBe(4);
+    expect((await compare.getByRole('columnheader').allTextContents()).slice(0, 3)).toEqual(['Quantity', 'Base', 'Neutral lost']);
+    const kitchenRow = await compare.getByRole('row', { name: /^KITCHEN terminal voltage, per unit/ }).getByRole('cell').allTextContents();
+    // (C) the engine: the load's pu on the base and on the saved case
+    const puOf = (c: CircuitInput) => solveCircuit(c).loads.find((l) => l.id === 'KITCHEN')!.branches[0].pu!;
+    expect(kitchenRow[0]).toBe(`${puOf(saved.content.circuit).toFixed(3)} pu`);
+    expect(kitchenRow[1].startsWith(`${puOf(onCase).toFixed(3)} pu`)).toBe(true);
 
     // ---- a large sweep is cancelled ----
     const sweep2 = page.getByRole('region', { name: /^Sweep on the case shown/ });
