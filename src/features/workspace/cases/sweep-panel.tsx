@@ -67,7 +67,6 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
   const [chosen, setChosen] = useState<string[] | null>(null);
   const chosenKeys = chosen ?? outputs.filter((o) => o.spec.kind === 'load').slice(0, 3).map((o) => o.key);
   const [run, setRun] = useState<Run | null>(null);
-  const [, repaint] = useState(0);
   const [picked, setPicked] = useState<number | null>(null);
   const [startError, setStartError] = useState<string | null>(null);
   const pool = useRef<SweepPool | null>(null);
@@ -145,12 +144,12 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     };
     setPicked(null);
     setRun(next);
-    // Rows land in the run object; the page repaints at most every 250 ms while they arrive.
+    // Rows land in the run object; its results box (not this panel) repaints at most every 250 ms while they arrive.
     const schedule = () => {
       if (paintTimer.current) return;
       paintTimer.current = setTimeout(() => {
         paintTimer.current = null;
-        repaint((n) => n + 1);
+        next.notify?.();
       }, 250);
     };
     if (where === 'server') {
@@ -210,7 +209,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
         if (stopped) return;
         job.points.forEach((p, i) => (next.rows[job.offset + i] = { outputs: p.outputs, ...(p.error ? { error: p.error } : {}) }));
         next.done = job.offset + job.points.length;
-        repaint((n) => n + 1);
+        next.notify?.();
         if (job.status === 'failed') return finish('failed', job.error ?? 'the server stopped the sweep');
         if (job.status === 'cancelled') return finish('cancelled');
         if (job.status === 'done' && next.done >= job.total) return finish('done');

@@ -3,10 +3,14 @@
  * parameter, a heat map over two), the picked point with "Make this point a case", and for small
  * sweeps the points as a table. The box is laid out and painted on its own while points arrive.
  */
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { Button } from '../../../components/button.tsx';
 import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
 import type { PointRow } from './sweep-protocol.ts';
+
+/** While points arrive, the charts are drawn again at most this often, ms (the progress bar more often). */
+const CHART_REDRAW_MS = 1000;
 
 /** The points table is shown for sweeps up to this size (larger ones: CSV). */
 const TABLE_MAX = 200;
@@ -25,11 +29,30 @@ export interface Run {
   error?: string;
   started: number;
   ms?: number;
+  /** Set by the results box while it shows this run: asks it to draw the rows that arrived. */
+  notify?: () => void;
 }
 
 export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
+  const [, setTick] = useState(0);
+  useEffect(() => {
+    run.notify = () => setTick((n) => n + 1);
+    return () => {
+      run.notify = undefined;
+    };
+  }, [run]);
   const total = run.points.length;
-  const failed = run.rows.filter((r) => r?.error).length;
+  const failed = run.status === 'running' ? 0 : run.rows.filter((r) => r?.error).length;
+  // The series the charts draw are rebuilt at most every CHART_REDRAW_MS while the sweep runs
+  // (each chart is memoised on them), and once more when it stops.
+  const drawn = useRef({ at: -Infinity, done: -1, status: run.status, run });
+  const now = performance.now();
+  if (drawn.current.run !== run || drawn.current.status !== run.status || (run.done !== drawn.current.done && now - drawn.current.at >= CHART_REDRAW_MS)) {
+    drawn.current = { at: now, done: run.done, status: run.status, run };
+  }
+  const { done: drawnDone } = drawn.current;
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- drawnDone and the status stand for the rows filled in place
+  const series = useMemo(() => run.outputs.map((_, k) => run.rows.map((r) => r?.outputs[k] ?? null)), [run, drawnDone, run.status]);
   const status =
     run.status === 'running'
       ? `Solving: ${run.done} of ${total} points`
@@ -49,9 +72,9 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
       <div className="grid grid-cols-1 gap-3 lg:grid-cols-2">
         {run.outputs.map((o, k) =>
           two ? (
-            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} picked={picked} onPick={onPick} />
+            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={series[k]} output={o} picked={picked} onPick={onPick} />
           ) : (
-            <SweepLineChart key={o.key} xLabel={run.paramLabels[0]} xs={run.axes[0]} ys={run.rows.map((r) => r?.outputs[k] ?? null)} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
+            <SweepLineChart key={o.key} xLabel={run.paramLabels[0]} xs={run.axes[0]} ys={series[k]} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
           ),
         )}
       </div>
