@@ -5,7 +5,7 @@
  */
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Db } from '../../server/db/index.ts';
+import { closeDb, type Db } from '../../server/db/index.ts';
 import { applyCase, demoCircuits, solveCircuit, sweepCircuit, type CircuitInput } from '../../shared/engine/index.ts';
 import { outputValue, availableOutputs } from '../../shared/review/sweep-outputs.ts';
 import type { SweepJob } from '../../shared/api/sweeps.ts';
@@ -39,7 +39,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 async function until(agent: TestAgent, job: string, done: (j: SweepJob) => boolean, query = ''): Promise<SweepJob> {
