@@ -12,6 +12,7 @@ import { healthRoutes, type HealthCheck } from './health.ts';
 import { securityHeaders } from './security-headers.ts';
 import { AppError } from './errors.ts';
 import type { Mailer } from './mail/index.ts';
+import { bucketHealthCheck, type ObjectStore } from './storage/objects.ts';
 import { auditRoutes } from './routes/audit.ts';
 import { authRoutes } from './routes/auth.ts';
 import type { RouteContext } from './routes/context.ts';
@@ -28,6 +29,8 @@ export interface AppDeps {
   db: Db;
   config: Config;
   mailer: Mailer;
+  /** The bucket of stored files. */
+  objects: ObjectStore;
   /** Adds the client (static dist/ or vite middleware) after the API and before the error handler. */
   mountClient?: (app: Express) => void;
   /** Development (vite middleware with hot reload): the CSP allows its inline scripts and websocket. */
@@ -39,7 +42,7 @@ export interface AppDeps {
 /** Largest accepted JSON body; a study's circuit and layout fit easily. */
 export const JSON_LIMIT = '2mb';
 
-export function createApp({ db, config, mailer, mountClient, dev = false, healthChecks = {} }: AppDeps): Express {
+export function createApp({ db, config, mailer, objects, mountClient, dev = false, healthChecks = {} }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy) {
@@ -47,7 +50,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false, health
     app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
   }
   const lucia = createLucia(db, { cookieSecure: config.cookieSecure, idleHours: config.sessionIdleHours });
-  const ctx: RouteContext = { db, config, mailer, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
+  const ctx: RouteContext = { db, config, mailer, objects, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
 
   app.use(securityHeaders({ dev }));
   app.use((_req, res, next) => {
@@ -67,7 +70,7 @@ export function createApp({ db, config, mailer, mountClient, dev = false, health
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
   api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays, idleHours: config.sessionIdleHours }));
-  api.use('/health', healthRoutes({ database: () => pingDb(db), ...healthChecks }));
+  api.use('/health', healthRoutes({ database: () => pingDb(db), bucket: bucketHealthCheck(objects), ...healthChecks }));
   api.use('/auth', authRoutes(ctx));
   api.use('/studies', reportRoutes(ctx));
   api.use('/studies', reviewRoutes(ctx));

@@ -28,6 +28,18 @@ export interface Config {
   signInAddressLimit: number;
   /** Sign-up requests one address may make per hour (SIGN_UP_ADDRESS_LIMIT, default 10). */
   signUpAddressLimit: number;
+  /** Endpoint of an S3-compatible store for files (S3_URL, e.g. http://minio:9000; addressed path-style). */
+  s3Url?: string;
+  /** Bucket of stored files (S3_BUCKET, default "wyeward"). */
+  s3Bucket: string;
+  /** Neither S3_URL nor S3_BUCKET set: files go to the local fake S3 server under DATA_DIR/objects. */
+  s3Local: boolean;
+  /** Port of the local fake S3 server (S3_LOCAL_PORT, default 0 = a free port). */
+  s3LocalPort: number;
+  /** Region of the bucket (AWS_REGION or AWS_DEFAULT_REGION, default us-east-1; most S3-compatible stores accept any). */
+  s3Region: string;
+  /** Keys from AWS_ACCESS_KEY_ID / AWS_SECRET_ACCESS_KEY (/ AWS_SESSION_TOKEN); unset, the SDK's own sources (profiles, instance roles). */
+  s3Credentials?: { accessKeyId: string; secretAccessKey: string; sessionToken?: string };
   /** Worker threads for heavy jobs: circuit checks and solves of large studies, diffs (WORK_THREADS, default 1). */
   workThreads: number;
   /** Time limit of one heavy job in milliseconds (WORK_TIMEOUT_MS, default 20000); past it the request gets 503. */
@@ -73,6 +85,22 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
   if (!Number.isInteger(smtpSinkPort) || smtpSinkPort < 0 || smtpSinkPort > 65535) {
     throw new Error(`SMTP_SINK_PORT must be a whole number from 0 to 65535 (got "${env.SMTP_SINK_PORT}")`);
   }
+  const s3LocalPort = env.S3_LOCAL_PORT ? Number(env.S3_LOCAL_PORT) : 0;
+  if (!Number.isInteger(s3LocalPort) || s3LocalPort < 0 || s3LocalPort > 65535) {
+    throw new Error(`S3_LOCAL_PORT must be a whole number from 0 to 65535 (got "${env.S3_LOCAL_PORT}")`);
+  }
+  const s3Url = env.S3_URL ? env.S3_URL.replace(/\/+$/, '') : undefined;
+  if (s3Url) {
+    let u: URL | null = null;
+    try {
+      u = new URL(s3Url);
+    } catch {
+      /* reported below */
+    }
+    if (!u || !['http:', 'https:'].includes(u.protocol)) throw new Error(`S3_URL must be the http(s) endpoint of an S3-compatible store, such as http://minio:9000 (got "${s3Url}")`);
+  }
+  const s3Bucket = env.S3_BUCKET || 'wyeward';
+  if (!/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/.test(s3Bucket)) throw new Error(`S3_BUCKET must be a bucket name: 3 to 63 lower-case letters, digits, dots and hyphens (got "${s3Bucket}")`);
   const appUrl = (env.APP_URL ?? `http://localhost:${port}`).replace(/\/+$/, '');
   let parsedAppUrl: URL;
   try {
@@ -97,6 +125,15 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionMaxDays: positiveNumber(env, 'SESSION_MAX_DAYS', 30, 3650),
     signInAddressLimit: Math.round(positiveNumber(env, 'SIGN_IN_ADDRESS_LIMIT', 300, 1e6)),
     signUpAddressLimit: Math.round(positiveNumber(env, 'SIGN_UP_ADDRESS_LIMIT', 10, 1e6)),
+    s3Url,
+    s3Bucket,
+    s3Local: !s3Url && !env.S3_BUCKET,
+    s3LocalPort,
+    s3Region: env.AWS_REGION || env.AWS_DEFAULT_REGION || 'us-east-1',
+    s3Credentials:
+      env.AWS_ACCESS_KEY_ID && env.AWS_SECRET_ACCESS_KEY
+        ? { accessKeyId: env.AWS_ACCESS_KEY_ID, secretAccessKey: env.AWS_SECRET_ACCESS_KEY, ...(env.AWS_SESSION_TOKEN ? { sessionToken: env.AWS_SESSION_TOKEN } : {}) }
+        : undefined,
     workThreads: Math.round(positiveNumber(env, 'WORK_THREADS', 1, 64)),
     workTimeoutMs: Math.round(positiveNumber(env, 'WORK_TIMEOUT_MS', 20_000, 600_000)),
     databaseUrl: databaseUrl(env.DATABASE_URL),

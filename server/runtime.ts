@@ -13,6 +13,8 @@ import { createMailer } from './mail/index.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
 import { closeWork, configureWork } from './work/index.ts';
 import { drainServer, trackRequests } from './shutdown.ts';
+import { moveLocalAttachments } from './storage/move-attachments.ts';
+import { objectStoreFor } from './storage/objects.ts';
 
 /** The project root (the directory holding package.json). */
 export const ROOT = path.resolve(import.meta.dirname, '..');
@@ -58,7 +60,11 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const db = await prepareDatabase(config);
   const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
   const mail = await mailer.start();
-  const app = createApp({ db, config, mailer, mountClient, dev });
+  const objects = objectStoreFor(config);
+  const bucket = await objects.start();
+  const movedFiles = await moveLocalAttachments(db, objects, config.dataDir);
+  if (movedFiles.moved + movedFiles.dropped > 0) console.log(`Moved ${movedFiles.moved} attachment files from ${path.join(config.dataDir, 'attachments')} into the bucket (${movedFiles.dropped} files of deleted attachments removed).`);
+  const app = createApp({ db, config, mailer, objects, mountClient, dev });
 
   trackRequests(server);
   server.on('request', app);
@@ -76,6 +82,11 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
     mail.local
       ? `Mail goes to the local fake SMTP server at ${mail.smtp} and is stored in ${path.join(config.dataDir, 'mail')} (set SMTP_URL for real delivery).`
       : `Mail goes to ${mail.smtp}; a copy is kept in ${path.join(config.dataDir, 'mail')}.`,
+  );
+  console.log(
+    bucket.local
+      ? `Files go to the local fake S3 server at ${bucket.endpoint}, stored in ${path.join(config.dataDir, 'objects')} (set S3_URL / S3_BUCKET for a shared bucket).`
+      : `Files go to the bucket "${bucket.bucket}" at ${bucket.endpoint}.`,
   );
   if (config.demo) {
     console.log('Demo mode is on (DEMO=0 turns it off). Demo accounts:');
@@ -96,6 +107,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
       await onClose();
       await closeWork();
       await mailer.close();
+      await objects.close();
       await closeDb(db);
       process.exit(0);
     } catch (err) {

@@ -4,11 +4,14 @@ import type { SignInLimiter } from '../auth/rate-limit.ts';
 import type { Config } from '../config.ts';
 import type { Db } from '../db/index.ts';
 import type { Mailer } from '../mail/index.ts';
+import type { ObjectStore } from '../storage/objects.ts';
 
 export interface RouteContext {
   db: Db;
   config: Config;
   mailer: Mailer;
+  /** The bucket of stored files (attachments). */
+  objects: ObjectStore;
   lucia: AuthLucia;
   limiter: SignInLimiter;
 }

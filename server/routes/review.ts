@@ -2,6 +2,7 @@
  * Review and reuse routes under /api/studies/:id (revisions, diff, review, comments, attachments,
  * export) and /api/studies/import. Thin: parse, call the service, answer.
  */
+import { pipeline } from 'node:stream/promises';
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { ATTACHMENT_MAX_BYTES } from '../../shared/api/attachments.ts';
@@ -38,7 +39,7 @@ function singleFile(): RequestHandler {
   };
 }
 
-export function reviewRoutes({ db, mailer, config }: RouteContext): Router {
+export function reviewRoutes({ db, mailer, config, objects }: RouteContext): Router {
   const r = Router();
   const write = requireRole('engineer');
   const comment = requireRole('reviewer');
@@ -116,17 +117,19 @@ export function reviewRoutes({ db, mailer, config }: RouteContext): Router {
     await getStudy(db, actorOf(res), id(req.params.id));
     next();
   }, singleFile(), async (req, res) => {
-    res.status(201).json(await addAttachment(db, config.dataDir, actorOf(res), id(req.params.id), req.file));
+    res.status(201).json(await addAttachment(db, objects, actorOf(res), id(req.params.id), req.file));
   });
   r.get('/:id/attachments/:attachmentId', requireUser, async (req, res) => {
-    const { row, bytes } = await readAttachment(db, config.dataDir, actorOf(res), id(req.params.id), param(req.params.attachmentId));
+    const { row, body } = await readAttachment(db, objects, actorOf(res), id(req.params.id), param(req.params.attachmentId));
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.attachment(row.fileName);
     res.type(row.contentType);
-    res.send(bytes);
+    res.setHeader('Content-Length', String(row.size));
+    // Streamed from the bucket; a store that fails mid-way ends the response (the client sees a short download).
+    await pipeline(body, res).catch(() => res.destroy());
   });
   r.delete('/:id/attachments/:attachmentId', comment, async (req, res) => {
-    await deleteAttachment(db, config.dataDir, actorOf(res), id(req.params.id), param(req.params.attachmentId));
+    await deleteAttachment(db, objects, actorOf(res), id(req.params.id), param(req.params.attachmentId));
     res.status(204).end();
   });
 

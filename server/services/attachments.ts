@@ -3,10 +3,10 @@
  * (magic bytes; CSV as UTF-8 text) and must agree with the file name's extension, so a renamed
  * file is refused. Checking four signatures by hand keeps this dependency-free and exact for the
  * four accepted types (file-type would add an ESM-only package for the same four checks).
- * Bytes live under DATA_DIR/attachments/<id>, metadata in the database.
+ * Bytes live in the bucket under `attachments/<id>` (server/storage), metadata in the database.
  */
-import { mkdir, readFile, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import type { Readable } from 'node:stream';
 import { and, desc, eq } from 'drizzle-orm';
 import { roleAtLeast } from '../../shared/api/common.ts';
 import { ATTACHMENT_TYPES, type Attachment, type AttachmentContentType } from '../../shared/api/attachments.ts';
@@ -14,6 +14,8 @@ import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
 import { attachments, users } from '../db/schema.ts';
 import { AppError, fieldError, isUuid, notFound } from '../errors.ts';
+import { logEvent } from '../log.ts';
+import { ObjectStoreError, type ObjectStore } from '../storage/objects.ts';
 import { recordAudit } from './audit.ts';
 import { getStudy } from './studies.ts';
 
@@ -47,8 +49,18 @@ export function cleanFileName(name: string): string {
   return clean || 'file';
 }
 
-function dirOf(dataDir: string) {
-  return path.join(dataDir, 'attachments');
+/** The bucket key of an attachment's bytes. */
+export function attachmentKey(id: string): string {
+  return `attachments/${id}`;
+}
+
+/** A store that cannot be reached becomes a 503 that says what happened to the request. */
+function unavailable(err: unknown, what: string): never {
+  if (err instanceof ObjectStoreError) {
+    logEvent('warn', { event: 'object-store-failed', error: err.message });
+    throw new AppError(503, 'unavailable', `The file store cannot be reached just now, so ${what}. Try again in a moment.`);
+  }
+  throw err;
 }
 
 type Row = typeof attachments.$inferSelect;
@@ -65,7 +77,7 @@ function toAttachment(r: Row, uploaderName: string): Attachment {
 }
 
 /** Stores an uploaded file after checking its type against its content. */
-export async function addAttachment(db: Db, dataDir: string, actor: Actor, studyId: string, file: { originalname: string; buffer: Buffer } | undefined): Promise<Attachment> {
+export async function addAttachment(db: Db, objects: ObjectStore, actor: Actor, studyId: string, file: { originalname: string; buffer: Buffer } | undefined): Promise<Attachment> {
   await getStudy(db, actor, studyId);
   if (!file) throw fieldError('file', 'Choose a file to attach (form field "file").');
   if (file.buffer.length === 0) throw fieldError('file', 'The file is empty.');
@@ -85,11 +97,10 @@ export async function addAttachment(db: Db, dataDir: string, actor: Actor, study
     .values({ studyId, teamId: actor.teamId, fileName, contentType: type, size: file.buffer.length, uploadedBy: actor.userId })
     .returning();
   try {
-    await mkdir(dirOf(dataDir), { recursive: true });
-    await writeFile(path.join(dirOf(dataDir), row.id), file.buffer);
+    await objects.put(attachmentKey(row.id), file.buffer, type);
   } catch (err) {
     await db.delete(attachments).where(eq(attachments.id, row.id));
-    throw err;
+    unavailable(err, 'the file was not attached');
   }
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'attachment.upload', studyId, detail: { attachmentId: row.id, fileName, contentType: type, size: row.size } });
   return toAttachment(row, actor.name);
@@ -119,23 +130,22 @@ async function oneAttachment(db: Db, actor: Actor, studyId: string, id: string):
   return row;
 }
 
-/** The metadata and bytes of one attachment. */
-export async function readAttachment(db: Db, dataDir: string, actor: Actor, studyId: string, id: string): Promise<{ row: Row; bytes: Buffer }> {
+/** The metadata of one attachment and its bytes as a stream from the bucket. */
+export async function readAttachment(db: Db, objects: ObjectStore, actor: Actor, studyId: string, id: string): Promise<{ row: Row; body: Readable }> {
   const row = await oneAttachment(db, actor, studyId, id);
-  try {
-    return { row, bytes: await readFile(path.join(dirOf(dataDir), row.id)) };
-  } catch {
-    throw new AppError(404, 'not-found', 'The file of this attachment is missing from the server.');
-  }
+  const stored = await objects.get(attachmentKey(row.id)).catch((err: unknown) => unavailable(err, 'the file cannot be downloaded'));
+  if (!stored) throw new AppError(404, 'not-found', 'The file of this attachment is missing from the file store.');
+  return { row, body: stored.body };
 }
 
 /** Removes an attachment (its uploader, or engineer and above). */
-export async function deleteAttachment(db: Db, dataDir: string, actor: Actor, studyId: string, id: string): Promise<void> {
+export async function deleteAttachment(db: Db, objects: ObjectStore, actor: Actor, studyId: string, id: string): Promise<void> {
   const row = await oneAttachment(db, actor, studyId, id);
   if (row.uploadedBy !== actor.userId && !roleAtLeast(actor.role, 'engineer')) {
     throw new AppError(403, 'forbidden', 'Only whoever attached this file, an engineer or an owner can remove it.');
   }
   await db.delete(attachments).where(eq(attachments.id, row.id));
-  await rm(path.join(dirOf(dataDir), row.id), { force: true });
+  // The record is gone either way; bytes the store could not remove now are only unreachable.
+  await objects.delete(attachmentKey(row.id)).catch((err: unknown) => logEvent('warn', { event: 'attachment-object-not-removed', attachmentId: row.id, error: err instanceof Error ? err.message : String(err) }));
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'attachment.delete', studyId, detail: { attachmentId: row.id, fileName: row.fileName } });
 }

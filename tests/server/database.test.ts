@@ -73,7 +73,7 @@ describe('/api/health', () => {
     expect(ok.body).toMatchObject({ ok: true, database: { ok: true } });
     expect(typeof ok.body.database.ms).toBe('number');
 
-    const withBucket = createApp({ db, config: t.config, mailer: t.mailer, healthChecks: { bucket: () => Promise.reject(new Error('no bucket')) } });
+    const withBucket = createApp({ db, config: t.config, mailer: t.mailer, objects: t.objects, healthChecks: { bucket: () => Promise.reject(new Error('no bucket')) } });
     const down = await request(withBucket).get('/api/health');
     expect(down.status).toBe(503);
     expect(down.body).toMatchObject({ ok: false, database: { ok: true }, bucket: { ok: false, error: 'unreachable' } });

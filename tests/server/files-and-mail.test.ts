@@ -46,6 +46,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.mailer.close();
+  await t.objects.close();
   await closeDb(db);
 });
 
@@ -72,7 +73,10 @@ describe('attachments', () => {
     expect(dl.headers['content-disposition']).toBe('attachment; filename="site report.pdf"');
     expect(dl.headers['x-content-type-options']).toBe('nosniff');
     expect(Buffer.compare(dl.body as Buffer, PDF)).toBe(0);
-    expect(existsSync(path.join(t.config.dataDir, 'attachments', pdf.body.id))).toBe(true);
+    // The bytes are in the bucket (the local fake S3 server under DATA_DIR/objects), not in a folder of their own.
+    expect(await t.objects.get(`attachments/${pdf.body.id}`)).not.toBeNull();
+    expect(existsSync(path.join(t.config.dataDir, 'objects'))).toBe(true);
+    expect(existsSync(path.join(t.config.dataDir, 'attachments'))).toBe(false);
     expect((await outsider.get(`/api/studies/${studyId}/attachments/${pdf.body.id}`)).status).toBe(404);
     expect((await outsider.get(`/api/studies/${studyId}/attachments`)).status).toBe(404);
   });
@@ -89,7 +93,15 @@ describe('attachments', () => {
 
   it('accepts exactly 10 MB and answers 413 to 10 MB + 1 byte', async () => {
     const atLimit = Buffer.concat([PNG_HEAD, Buffer.alloc(ATTACHMENT_MAX_BYTES - PNG_HEAD.length)]);
-    expect((await upload(engineer, atLimit, 'big.png')).status).toBe(201);
+    const big = await upload(engineer, atLimit, 'big.png');
+    expect(big.status).toBe(201);
+    const back = await viewer.get(`/api/studies/${studyId}/attachments/${big.body.id}`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(back.headers['content-length']).toBe(String(ATTACHMENT_MAX_BYTES));
+    expect(Buffer.compare(back.body as Buffer, atLimit)).toBe(0);
     const over = await upload(engineer, Buffer.concat([atLimit, Buffer.alloc(1)]), 'bigger.png');
     expect(over.status).toBe(413);
     expect(over.body.error.code).toBe('payload-too-large');
@@ -103,7 +115,7 @@ describe('attachments', () => {
     const mine = (await upload(engineer, PDF, 'engineer.pdf')).body;
     expect((await reviewer.delete(`/api/studies/${studyId}/attachments/${mine.id}`)).status).toBe(403);
     expect((await engineer.delete(`/api/studies/${studyId}/attachments/${mine.id}`)).status).toBe(204);
-    expect(existsSync(path.join(t.config.dataDir, 'attachments', mine.id))).toBe(false);
+    expect(await t.objects.get(`attachments/${mine.id}`)).toBeNull();
     expect((await engineer.get(`/api/studies/${studyId}/attachments/${mine.id}`)).status).toBe(404);
   });
 });

@@ -13,6 +13,7 @@ import { readConfig, type Config } from '../../server/config.ts';
 import type { Db } from '../../server/db/index.ts';
 import { memberships, studies, teams, users } from '../../server/db/schema.ts';
 import { createMailer, type Mailer } from '../../server/mail/index.ts';
+import { objectStoreFor, type ObjectStore } from '../../server/storage/objects.ts';
 
 export const PASSWORD = 'correct horse battery';
 export const APP_URL = 'http://localhost:3000';
@@ -21,6 +22,8 @@ export interface TestApp {
   app: ReturnType<typeof createApp>;
   db: Db;
   mailer: Mailer;
+  /** The file bucket: the local fake S3 server under the test's DATA_DIR/objects, started on first use. */
+  objects: ObjectStore;
   mailDir: string;
   config: Config;
 }
@@ -32,7 +35,8 @@ export function makeApp(db: Db, env: Record<string, string> = {}): TestApp {
   const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', SIGN_UP_ADDRESS_LIMIT: '100000', ...env });
   const mailDir = path.join(dataDir, 'mail');
   const mailer = createMailer({ dir: mailDir, from: config.mailFrom });
-  return { app: createApp({ db, config, mailer }), db, mailer, mailDir, config };
+  const objects = objectStoreFor(config);
+  return { app: createApp({ db, config, mailer, objects }), db, mailer, objects, mailDir, config };
 }
 
 let passwordHash: Promise<string> | null = null;

@@ -180,7 +180,7 @@ describe('serving the client', () => {
     writeFileSync(path.join(dist, 'assets', 'app.js'), 'console.log(1)');
     const db = await openTestDb();
     const t = makeApp(db);
-    const app = createApp({ db, config: t.config, mailer: t.mailer, mountClient: serveClient(dist) });
+    const app = createApp({ db, config: t.config, mailer: t.mailer, objects: t.objects, mountClient: serveClient(dist) });
     const asset = await request(app).get('/assets/app.js');
     expect(asset.status).toBe(200);
     expect(asset.text).toBe('console.log(1)');

@@ -29,7 +29,7 @@ describe('security headers', () => {
     const t = makeApp(db);
     const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-dist-'));
     writeFileSync(path.join(dist, 'index.html'), '<!doctype html><title>x</title><script type="module" src="/assets/app.js"></script>');
-    const app = createApp({ db, config: t.config, mailer: t.mailer, mountClient: serveClient(dist) });
+    const app = createApp({ db, config: t.config, mailer: t.mailer, objects: t.objects, mountClient: serveClient(dist) });
     const res = await request(app).get('/studies/abc');
     expect(res.status).toBe(200);
     const csp = directives(String(res.headers['content-security-policy']));
@@ -55,7 +55,7 @@ describe('security headers', () => {
 
   it('development mode allows the hot-reload client (inline script, websocket) and nothing more', async () => {
     const t = makeApp(db);
-    const app = createApp({ db, config: t.config, mailer: t.mailer, dev: true });
+    const app = createApp({ db, config: t.config, mailer: t.mailer, objects: t.objects, dev: true });
     const csp = directives(String((await request(app).get('/api/health')).headers['content-security-policy']));
     expect(csp['script-src']).toBe("'self' 'unsafe-inline'");
     expect(csp['connect-src']).toBe("'self' ws: wss:");
