@@ -40,6 +40,8 @@ export interface Config {
   s3Region: string;
   /** Keys from AWS_ACCESS_KEY_ID / AWS_SECRET_ACCESS_KEY (/ AWS_SESSION_TOKEN); unset, the SDK's own sources (profiles, instance roles). */
   s3Credentials?: { accessKeyId: string; secretAccessKey: string; sessionToken?: string };
+  /** How often an idle instance looks for background jobs queued by other instances, in ms (JOBS_POLL_MS, default 1000). */
+  jobsPollMs: number;
   /** Worker threads for heavy jobs: circuit checks and solves of large studies, diffs (WORK_THREADS, default 1). */
   workThreads: number;
   /** Time limit of one heavy job in milliseconds (WORK_TIMEOUT_MS, default 20000); past it the request gets 503. */
@@ -134,6 +136,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
       env.AWS_ACCESS_KEY_ID && env.AWS_SECRET_ACCESS_KEY
         ? { accessKeyId: env.AWS_ACCESS_KEY_ID, secretAccessKey: env.AWS_SECRET_ACCESS_KEY, ...(env.AWS_SESSION_TOKEN ? { sessionToken: env.AWS_SESSION_TOKEN } : {}) }
         : undefined,
+    jobsPollMs: Math.round(positiveNumber(env, 'JOBS_POLL_MS', 1_000, 3_600_000)),
     workThreads: Math.round(positiveNumber(env, 'WORK_THREADS', 1, 64)),
     workTimeoutMs: Math.round(positiveNumber(env, 'WORK_TIMEOUT_MS', 20_000, 600_000)),
     databaseUrl: databaseUrl(env.DATABASE_URL),

@@ -9,7 +9,9 @@ import { DEMO_ACCOUNTS } from './db/demo-accounts.ts';
 import { closeDb, dbKind, describeConnection, openDb } from './db/index.ts';
 import { sessions } from './db/schema.ts';
 import { seedDemo } from './db/seed.ts';
+import { createJobRunner } from './jobs/index.ts';
 import { createMailer } from './mail/index.ts';
+import { moveLocalMail } from './mail/store.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
 import { closeWork, configureWork } from './work/index.ts';
 import { drainServer, trackRequests } from './shutdown.ts';
@@ -58,8 +60,12 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const started = Date.now();
   configureWork({ threads: config.workThreads, timeoutMs: config.workTimeoutMs });
   const db = await prepareDatabase(config);
-  const mailer = createMailer({ dir: path.join(config.dataDir, 'mail'), from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
+  const jobs = createJobRunner(db, { pollMs: config.jobsPollMs });
+  const mailer = createMailer({ db, jobs, from: config.mailFrom, smtpUrl: config.smtpUrl, sinkPort: config.smtpSinkPort });
   const mail = await mailer.start();
+  const movedMail = await moveLocalMail(db, path.join(config.dataDir, 'mail'));
+  if (movedMail > 0) console.log(`Moved ${movedMail} kept messages from ${path.join(config.dataDir, 'mail')} into the database.`);
+  jobs.start();
   const objects = objectStoreFor(config);
   const bucket = await objects.start();
   const movedFiles = await moveLocalAttachments(db, objects, config.dataDir);
@@ -80,8 +86,8 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   console.log(`Wyeward is running at http://localhost:${port} (data in ${config.dataDir}; ${dbKind(db) === 'postgres' ? databaseLabel(config) : 'embedded database'}; started in ${((Date.now() - started) / 1000).toFixed(1)} s)`);
   console.log(
     mail.local
-      ? `Mail goes to the local fake SMTP server at ${mail.smtp} and is stored in ${path.join(config.dataDir, 'mail')} (set SMTP_URL for real delivery).`
-      : `Mail goes to ${mail.smtp}; a copy is kept in ${path.join(config.dataDir, 'mail')}.`,
+      ? `Mail goes to the local fake SMTP server at ${mail.smtp}; owners read it on the Outgoing mail page (set SMTP_URL for real delivery).`
+      : `Mail goes to ${mail.smtp}; a copy is kept in the database for the Outgoing mail page.`,
   );
   console.log(
     bucket.local
@@ -105,6 +111,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
       const cut = await drainServer(server, config.shutdownTimeoutMs);
       if (cut > 0) console.log(`${cut} request(s) still running after ${config.shutdownTimeoutMs} ms were cut.`);
       await onClose();
+      await jobs.close();
       await closeWork();
       await mailer.close();
       await objects.close();

@@ -268,7 +268,7 @@ export const notifications = pgTable(
   (t) => [index('notifications_user_idx').on(t.userId, t.createdAt)],
 );
 
-/** Files attached to a study; the bytes live under DATA_DIR/attachments/<id>. */
+/** Files attached to a study; the bytes live in the bucket under attachments/<id> (server/storage). */
 export const attachments = pgTable(
   'attachments',
   {
@@ -288,4 +288,52 @@ export const attachments = pgTable(
     createdAt: ts('created_at').notNull().defaultNow(),
   },
   (t) => [index('attachments_study_idx').on(t.studyId, t.createdAt)],
+);
+
+/**
+ * Outgoing mail: every message the app sends, as owners read it on the Outgoing mail page, with the
+ * RFC 822 text that goes over SMTP. Stored when the message is queued, so no link is lost when the
+ * SMTP server is down; `deliveredAt` is set once an SMTP server accepted it. `teamId` is '' for
+ * mail that belongs to no team (sign-up), so it is plain text rather than a reference.
+ */
+export const mailMessages = pgTable(
+  'mail_messages',
+  {
+    /** 13-digit epoch milliseconds and random hex: sorts by time (server/mail/store.ts). */
+    id: text('id').primaryKey(),
+    teamId: text('team_id').notNull(),
+    toAddress: text('to_address').notNull(),
+    fromAddress: text('from_address').notNull(),
+    subject: text('subject').notNull(),
+    bodyText: text('body_text').notNull(),
+    bodyHtml: text('body_html'),
+    raw: text('raw').notNull(),
+    createdAt: ts('created_at').notNull().defaultNow(),
+    deliveredAt: ts('delivered_at'),
+  },
+  (t) => [index('mail_messages_team_idx').on(t.teamId, t.id)],
+);
+
+/**
+ * Background jobs (server/jobs): each is claimed by one app instance at a time with
+ * `SELECT … FOR UPDATE SKIP LOCKED` and a lease (`lockedUntil`); a finished job is deleted, a
+ * failing one waits (`runAt`) with growing back-off and ends `failed` after `maxAttempts`.
+ */
+export const jobs = pgTable(
+  'jobs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    kind: text('kind').notNull(),
+    payload: jsonb('payload').notNull(),
+    status: text('status', { enum: ['queued', 'running', 'failed'] })
+      .notNull()
+      .default('queued'),
+    attempts: integer('attempts').notNull().default(0),
+    maxAttempts: integer('max_attempts').notNull().default(10),
+    runAt: ts('run_at').notNull().defaultNow(),
+    lockedUntil: ts('locked_until'),
+    lastError: text('last_error'),
+    createdAt: ts('created_at').notNull().defaultNow(),
+  },
+  (t) => [index('jobs_due_idx').on(t.status, t.runAt)],
 );

@@ -1,15 +1,17 @@
 /**
- * Outgoing mail through nodemailer over SMTP. Without SMTP_URL the mailer starts the local fake
- * SMTP server (sink.ts) on first use and sends to it; the sink stores what it receives under
- * DATA_DIR/mail, where owners read it in the app. With SMTP_URL mail goes to that server and a
- * sent copy is stored in the same folder. If sending fails, the copy is stored anyway and the
- * failure logged, so an invite link is never lost.
+ * Outgoing mail through nodemailer over SMTP, sent by a background job. `send` keeps the message
+ * in the database (the outgoing-mail page reads it there at once) and queues a `mail.deliver`
+ * job; whichever app instance claims the job sends it, once, over SMTP: to SMTP_URL, or without it
+ * to the local fake SMTP server (sink.ts), which this mailer starts on first use. A failed attempt
+ * is logged and retried with back-off (server/jobs), so an invite link is never lost and the
+ * action that caused the mail never fails because of it.
  */
-import { logEvent } from '../log.ts';
 import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import type { MailMessage, MailSummary } from '../../shared/api/mail.ts';
+import type { Db } from '../db/index.ts';
+import type { JobRunner } from '../jobs/index.ts';
 import { startMailSink, type MailSink } from './sink.ts';
-import { getMail, ID_HEADER, listMail, newMailId, storeMail, TEAM_HEADER } from './store.ts';
+import { getMail, ID_HEADER, listMail, markDelivered, newMailId, rawMail, storeMail, TEAM_HEADER } from './store.ts';
 
 export interface OutgoingMail {
   /** The team the message belongs to: only that team's owners can read it in the app. */
@@ -22,7 +24,7 @@ export interface OutgoingMail {
 }
 
 export interface Mailer {
-  /** Sends a message (and makes sure a copy is stored); returns its id. */
+  /** Keeps the message and queues its delivery; returns its id. */
   send(mail: OutgoingMail): Promise<string>;
   /** The team's messages, newest first. */
   list(teamId: string): Promise<MailSummary[]>;
@@ -35,8 +37,9 @@ export interface Mailer {
 }
 
 export interface MailerOptions {
-  /** The mail folder (DATA_DIR/mail). */
-  dir: string;
+  db: Db;
+  /** The background jobs that deliver mail (the mailer registers `mail.deliver` on it). */
+  jobs: JobRunner;
   from: string;
   /** A real SMTP server (SMTP_URL); without it the local sink is used. */
   smtpUrl?: string;
@@ -44,8 +47,11 @@ export interface MailerOptions {
   sinkPort?: number;
 }
 
-/** Creates the mailer writing under `dir`. */
-export function createMailer({ dir, from, smtpUrl, sinkPort = 0 }: MailerOptions): Mailer {
+/** The kind of the delivery job. */
+export const DELIVER_JOB = 'mail.deliver';
+
+/** Creates the mailer over `db`, delivering through `jobs`. */
+export function createMailer({ db, jobs, from, smtpUrl, sinkPort = 0 }: MailerOptions): Mailer {
   const render = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'unix' });
   let sink: Promise<MailSink> | null = null;
   let transport: Promise<Transporter> | null = null;
@@ -53,26 +59,21 @@ export function createMailer({ dir, from, smtpUrl, sinkPort = 0 }: MailerOptions
   function getTransport(): Promise<Transporter> {
     transport ??= (async () => {
       if (smtpUrl) return nodemailer.createTransport(smtpUrl);
-      sink ??= startMailSink({ dir, port: sinkPort });
+      sink ??= startMailSink({ db, port: sinkPort });
       const s = await sink;
       return nodemailer.createTransport({ host: s.host, port: s.port, secure: false, ignoreTLS: true });
     })();
     return transport;
   }
 
-  async function storeCopy(id: string, mail: OutgoingMail, message: SendMailOptions) {
-    const info = await render.sendMail(message);
-    await storeMail(dir, info.message as Buffer, {
-      id,
-      teamId: mail.teamId,
-      to: mail.to,
-      from,
-      subject: mail.subject,
-      sentAt: new Date().toISOString(),
-      text: mail.text,
-      ...(mail.html ? { html: mail.html } : {}),
-    });
-  }
+  jobs.handle(DELIVER_JOB, async (payload) => {
+    const { mailId } = payload as { mailId: string };
+    const row = await rawMail(db, mailId);
+    if (!row || row.deliveredAt) return; // already sent (the job ran before, its completion was lost)
+    await (await getTransport()).sendMail({ envelope: { from: row.fromAddress, to: row.toAddress }, raw: row.raw });
+    // The sink marks what it receives; a real server keeps nothing for us.
+    await markDelivered(db, mailId);
+  });
 
   return {
     async send(mail) {
@@ -85,18 +86,25 @@ export function createMailer({ dir, from, smtpUrl, sinkPort = 0 }: MailerOptions
         ...(mail.html ? { html: mail.html } : {}),
         headers: { [TEAM_HEADER]: mail.teamId, [ID_HEADER]: id },
       };
-      try {
-        await (await getTransport()).sendMail(message);
-        // The sink stored the message before acknowledging it; a real server keeps nothing for us.
-        if (smtpUrl) await storeCopy(id, mail, message);
-      } catch (err) {
-        logEvent('warn', { event: 'smtp-delivery-failed', mailId: id, error: err instanceof Error ? err.name : typeof err, note: 'a copy is kept under DATA_DIR/mail' });
-        await storeCopy(id, mail, message);
-      }
+      const info = await render.sendMail(message);
+      await db.transaction(async (tx) => {
+        await storeMail(tx, info.message as Buffer, {
+          id,
+          teamId: mail.teamId,
+          to: mail.to,
+          from,
+          subject: mail.subject,
+          sentAt: new Date().toISOString(),
+          text: mail.text,
+          ...(mail.html ? { html: mail.html } : {}),
+        });
+        await jobs.enqueueIn(tx, DELIVER_JOB, { mailId: id });
+      });
+      jobs.wake();
       return id;
     },
-    list: (teamId) => listMail(dir, teamId),
-    get: (teamId, id) => getMail(dir, teamId, id),
+    list: (teamId) => listMail(db, teamId),
+    get: (teamId, id) => getMail(db, teamId, id),
     async start() {
       if (smtpUrl) return { smtp: new URL(smtpUrl).host, local: false };
       await getTransport();

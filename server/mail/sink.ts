@@ -1,13 +1,15 @@
 /**
  * The local fake SMTP server (smtp-server, bound to 127.0.0.1): in demo mode and in tests the app
- * sends its mail over real SMTP to this server, which stores every message it receives in the mail
- * folder (DATA_DIR/mail) for the outgoing-mail page. It accepts any sender and recipient and never
+ * sends its mail over real SMTP to this server, which records every message it receives in the
+ * database (marking the app's kept copy delivered, or keeping a message from any other client) for
+ * the outgoing-mail page. It accepts any sender and recipient and never
  * relays anything onward. Production sets SMTP_URL instead.
  */
 import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
-import { ID_HEADER, MAIL_ID_RE, newMailId, storeMail, TEAM_HEADER } from './store.ts';
+import type { Db } from '../db/index.ts';
+import { ID_HEADER, MAIL_ID_RE, newMailId, storeDelivered, TEAM_HEADER } from './store.ts';
 
 export interface MailSink {
   host: string;
@@ -37,7 +39,7 @@ function headerText(parsed: ParsedMail, key: string, fallback: AddressObject | A
 }
 
 /** Starts the sink on `port` (0 = a free port) and resolves once it listens. */
-export async function startMailSink({ dir, port = 0 }: { dir: string; port?: number }): Promise<MailSink> {
+export async function startMailSink({ db, port = 0 }: { db: Db; port?: number }): Promise<MailSink> {
   const host = '127.0.0.1';
   const server = new SMTPServer({
     secure: false,
@@ -50,13 +52,13 @@ export async function startMailSink({ dir, port = 0 }: { dir: string; port?: num
       const chunks: Buffer[] = [];
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', () => {
-        // SMTP carries CRLF; the mail folder keeps Unix line endings like the rest of DATA_DIR.
+        // SMTP carries CRLF; kept copies have Unix line endings (as the mailer renders them).
         const raw = unixNewlines(Buffer.concat(chunks));
         void (async () => {
           const parsed = await simpleParser(raw);
           const headerId = String(parsed.headers.get(ID_HEADER.toLowerCase()) ?? '');
           const id = MAIL_ID_RE.test(headerId) ? headerId : newMailId();
-          await storeMail(dir, raw, {
+          await storeDelivered(db, raw, {
             id,
             teamId: String(parsed.headers.get(TEAM_HEADER.toLowerCase()) ?? ''),
             to: headerText(parsed, 'to', parsed.to),

@@ -1,4 +1,4 @@
-/** Outgoing mail as the owner sees it (`/api/mail`): what the local transport wrote under DATA_DIR/mail. */
+/** Outgoing mail as the owner sees it (`/api/mail`): the copies the server keeps in its database. */
 import { z } from 'zod';
 import { isoDateSchema } from './common.ts';
 

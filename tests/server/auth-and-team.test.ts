@@ -1,6 +1,4 @@
 /** Sign-up/sign-in/sign-out, the session cookie, sign-in throttling, the same-origin rule, invites by e-mail and role management. */
-import { readFileSync, readdirSync } from 'node:fs';
-import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { backoffSeconds, FREE_FAILURES, MAX_WAIT_SECONDS } from '../../server/auth/rate-limit.ts';
@@ -8,6 +6,7 @@ import { eq } from 'drizzle-orm';
 import { readConfig } from '../../server/config.ts';
 import { closeDb, type Db } from '../../server/db/index.ts';
 import { sessions } from '../../server/db/schema.ts';
+import { rawMail } from '../../server/mail/store.ts';
 import { accountMail, makeApp, makeTeam, makeUser, PASSWORD, signedIn, signUpNewTeam, APP_URL, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -315,13 +314,11 @@ describe('invites and roles', () => {
     const days = (Date.parse(inv.body.expiresAt) - Date.parse(inv.body.createdAt)) / 86_400_000;
     expect(days).toBeCloseTo(7, 2);
 
-    // The message is on disk as .eml and listed for the owner.
-    const emls = readdirSync(t.mailDir).filter((f) => f.endsWith('.eml'));
-    expect(emls.length).toBeGreaterThan(0);
+    // The message is kept in the database with its RFC 822 text and listed for the owner.
     const list = await owner.get('/api/mail');
     expect(list.body.items[0]).toMatchObject({ to: 'new.engineer@example.test', subject: 'Ines Owner invites you to Invite team on Wyeward' });
     const mail = await owner.get(`/api/mail/${list.body.items[0].id}`);
-    const eml = readFileSync(path.join(t.mailDir, `${list.body.items[0].id}.eml`), 'utf8');
+    const eml = (await rawMail(db, list.body.items[0].id))!.raw;
     expect(eml).toMatch(/^To: new\.engineer@example\.test$/m);
     const link = mail.body.text.match(/http:\/\/localhost:3000\/invite\/([A-Za-z0-9_-]+)/);
     expect(link).not.toBeNull();

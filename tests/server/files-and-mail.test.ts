@@ -13,7 +13,10 @@ import { demoCircuits } from '../../shared/engine/index.ts';
 import { closeDb, type Db } from '../../server/db/index.ts';
 import { createMailer } from '../../server/mail/index.ts';
 import { startMailSink } from '../../server/mail/sink.ts';
-import { TEAM_HEADER } from '../../server/mail/store.ts';
+import { rawMail, TEAM_HEADER } from '../../server/mail/store.ts';
+import { jobs } from '../../server/db/schema.ts';
+import { createJobRunner } from '../../server/jobs/index.ts';
+import { eq, sql } from 'drizzle-orm';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
 
@@ -182,9 +185,8 @@ describe('export and import', () => {
 });
 
 describe('mail through SMTP into the local fake server', () => {
-  it('receives a message sent over SMTP by any client and stores it for the mail page', async () => {
-    const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-sink-'));
-    const sink = await startMailSink({ dir });
+  it('receives a message sent over SMTP by any client and keeps it for the mail page', async () => {
+    const sink = await startMailSink({ db });
     try {
       const client = nodemailer.createTransport({ host: sink.host, port: sink.port, secure: false, ignoreTLS: true });
       const info = await client.sendMail({
@@ -196,41 +198,53 @@ describe('mail through SMTP into the local fake server', () => {
         headers: { [TEAM_HEADER]: 'team-1' },
       });
       expect(info.accepted).toEqual(['rhea@example.test']);
-      const reader = createMailer({ dir, from: 'x@example.test', smtpUrl: 'smtp://127.0.0.1:1' }); // reads the folder only
-      const list = await reader.list('team-1');
+      const list = await t.mailer.list('team-1');
       expect(list).toHaveLength(1);
       expect(list[0]).toMatchObject({ to: 'rhea@example.test', subject: 'Review requested: Oxley Ford farm' });
-      const m = await reader.get('team-1', list[0].id);
+      const m = await t.mailer.get('team-1', list[0].id);
       expect(m).toMatchObject({ text: 'plain <b>text</b>', html: '<p>&lt;b&gt;</p>' });
-      expect(await reader.list('team-2')).toEqual([]);
-      const raw = readFileSync(path.join(dir, `${list[0].id}.eml`), 'utf8');
-      expect(raw).toMatch(/^Subject: Review requested: Oxley Ford farm$/m);
+      expect(await t.mailer.list('team-2')).toEqual([]);
+      const row = await rawMail(db, list[0].id);
+      expect(row?.raw).toMatch(/^Subject: Review requested: Oxley Ford farm$/m);
+      expect(row?.deliveredAt).not.toBeNull();
     } finally {
       await sink.close();
     }
   });
 
-  it('the app mailer sends over SMTP to its own sink, and the message is on the mail page', async () => {
+  it('the app mailer keeps the message at once and its delivery job sends it over SMTP to its own sink', async () => {
     const where = await t.mailer.start();
     expect(where.local).toBe(true);
     expect(where.smtp).toMatch(/^127\.0\.0\.1:\d+$/);
     const id = await t.mailer.send({ teamId: 'team-x', to: 'someone@example.test', subject: 'Hello over SMTP', text: 'body' });
-    expect(readdirSync(t.mailDir)).toContain(`${id}.eml`);
     expect((await t.mailer.list('team-x')).map((m) => m.subject)).toEqual(['Hello over SMTP']);
+    await t.jobs.drain();
+    expect((await rawMail(db, id))?.deliveredAt).not.toBeNull();
+    expect(await db.select().from(jobs)).toEqual([]); // the finished job is gone
   });
 
-  it('keeps a copy and does not fail the action when the SMTP server cannot be reached', async () => {
-    const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-down-'));
-    const mailer = createMailer({ dir, from: 'x@example.test', smtpUrl: 'smtp://127.0.0.1:1' });
-    const errors: unknown[] = [];
+  it('keeps the copy, does not fail the action, and retries with back-off when the SMTP server cannot be reached', async () => {
+    const runner = createJobRunner(db, { backoffBaseMs: 60_000 });
+    const mailer = createMailer({ db, jobs: runner, from: 'x@example.test', smtpUrl: 'smtp://127.0.0.1:1' });
+    const warnings: string[] = [];
     const original = console.error;
-    console.error = (...a: unknown[]) => errors.push(a);
+    console.error = (line: unknown) => warnings.push(String(line));
     try {
-      const id = await mailer.send({ teamId: 't', to: 'a@example.test', subject: 'Invite', text: 'link' });
-      expect((await mailer.get('t', id))?.subject).toBe('Invite');
-      expect(errors).toHaveLength(1);
+      const id = await mailer.send({ teamId: 't-down', to: 'a@example.test', subject: 'Invite', text: 'link' });
+      expect((await mailer.get('t-down', id))?.subject).toBe('Invite');
+      await runner.drain();
+      const [job] = await db.select().from(jobs).where(sql`${jobs.payload}->>'mailId' = ${id}`);
+      // One attempt made; the next waits a minute (the back-off base here), counted by the database clock.
+      expect(job).toMatchObject({ kind: 'mail.deliver', status: 'queued', attempts: 1 });
+      expect(job.lastError).toMatch(/ECONNREFUSED|connect/i);
+      const [{ wait }] = (await db.execute(sql`select extract(epoch from ${job.runAt}::timestamptz - now()) as wait`)).rows as { wait: string }[];
+      expect(Number(wait)).toBeGreaterThan(50);
+      expect(warnings.some((w) => w.includes('"job-failed"'))).toBe(true);
+      expect((await rawMail(db, id))?.deliveredAt).toBeNull();
+      await db.delete(jobs).where(eq(jobs.id, job.id));
     } finally {
       console.error = original;
+      await runner.close();
     }
   });
 });

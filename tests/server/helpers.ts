@@ -12,6 +12,7 @@ import { hashPassword } from '../../server/auth/passwords.ts';
 import { readConfig, type Config } from '../../server/config.ts';
 import type { Db } from '../../server/db/index.ts';
 import { memberships, studies, teams, users } from '../../server/db/schema.ts';
+import { createJobRunner, type JobRunner } from '../../server/jobs/index.ts';
 import { createMailer, type Mailer } from '../../server/mail/index.ts';
 import { objectStoreFor, type ObjectStore } from '../../server/storage/objects.ts';
 
@@ -24,7 +25,8 @@ export interface TestApp {
   mailer: Mailer;
   /** The file bucket: the local fake S3 server under the test's DATA_DIR/objects, started on first use. */
   objects: ObjectStore;
-  mailDir: string;
+  /** The background jobs of this app (mail delivery), running; `mailer.close()` stops them too. */
+  jobs: JobRunner;
   config: Config;
 }
 
@@ -33,10 +35,17 @@ export function makeApp(db: Db, env: Record<string, string> = {}): TestApp {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-test-'));
   // Every test file's requests come from one address: sign-ups are not what most tests are about.
   const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', SIGN_UP_ADDRESS_LIMIT: '100000', ...env });
-  const mailDir = path.join(dataDir, 'mail');
-  const mailer = createMailer({ dir: mailDir, from: config.mailFrom });
+  const jobs = createJobRunner(db);
+  const mailer = createMailer({ db, jobs, from: config.mailFrom });
+  const closeMailer = mailer.close;
+  // Test files end with mailer.close() then the database's close: the job loop stops first.
+  mailer.close = async () => {
+    await jobs.close();
+    await closeMailer();
+  };
+  // No polling: each app runs the jobs it queues at once (wake()); many test files close their database without closing the app.
   const objects = objectStoreFor(config);
-  return { app: createApp({ db, config, mailer, objects }), db, mailer, objects, mailDir, config };
+  return { app: createApp({ db, config, mailer, objects }), db, mailer, objects, jobs, config };
 }
 
 let passwordHash: Promise<string> | null = null;

@@ -10,6 +10,7 @@ import { readConfig } from '../../server/config.ts';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/demo-accounts.ts';
 import { closeDb, queryRows } from '../../server/db/index.ts';
 import { DEMO_TEAM_NAME } from '../../server/db/seed.ts';
+import { createJobRunner } from '../../server/jobs/index.ts';
 import { createMailer } from '../../server/mail/index.ts';
 import { prepareDatabase } from '../../server/runtime.ts';
 import { createApp } from '../../server/app.ts';
@@ -198,7 +199,9 @@ describe('serving the client', () => {
 
 describe('mail store', () => {
   it('keeps each team to its own messages, newest first, and refuses ids that could leave the directory', async () => {
-    const mailer = createMailer({ dir: tempDir('wyeward-mail-'), from: 'Wyeward <no-reply@wyeward.test>' });
+    const db = await openTestDb();
+    // Jobs are queued, not run: this is about the kept copies.
+    const mailer = createMailer({ db, jobs: createJobRunner(db), from: 'Wyeward <no-reply@wyeward.test>' });
     const a1 = await mailer.send({ teamId: 'A', to: 'a1@example.test', subject: 'first', text: 'one' });
     const b1 = await mailer.send({ teamId: 'B', to: 'b1@example.test', subject: 'other team', text: 'two' });
     await new Promise((r) => setTimeout(r, 2)); // distinct millisecond ids, so "newest first" is decidable
@@ -208,5 +211,6 @@ describe('mail store', () => {
     expect(await mailer.get('A', a2)).toMatchObject({ to: 'a2@example.test', subject: 'second', text: 'three', html: '<p>three</p>', from: 'Wyeward <no-reply@wyeward.test>' });
     expect(await mailer.get('B', a1)).toBeNull();
     expect(await mailer.get('A', '../../etc/passwd')).toBeNull();
+    await db.$client.close();
   });
 });
