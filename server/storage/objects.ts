@@ -61,6 +61,23 @@ function isMissing(err: unknown): boolean {
   return err instanceof S3ServiceException && (err.name === 'NoSuchKey' || err.name === 'NotFound' || err.$metadata?.httpStatusCode === 404);
 }
 
+/**
+ * Path-style, the SDK addresses a bucket as "/<bucket>/" and signs that path; the fake server (and
+ * some other S3-compatible stores) check the signature against "/<bucket>". Sending and signing
+ * "/<bucket>", which S3 treats as the same resource, agrees with both.
+ */
+function bucketPathWithoutSlash(client: S3Client): S3Client {
+  client.middlewareStack.add(
+    (next) => async (args) => {
+      const req = args.request as { path?: string };
+      if (typeof req.path === 'string' && /^\/[^/]+\/$/.test(req.path)) req.path = req.path.slice(0, -1);
+      return next(args);
+    },
+    { step: 'build', name: 'bucketPathWithoutSlash' },
+  );
+  return client;
+}
+
 /** Creates the store; the local fake server starts on first use (or on start()). */
 export function createObjectStore({ s3Url, bucket = 'wyeward', local, localDir, localPort = 0, region = 'us-east-1', credentials }: ObjectStoreOptions): ObjectStore {
   let localServer: Promise<LocalS3> | null = null;
@@ -71,22 +88,12 @@ export function createObjectStore({ s3Url, bucket = 'wyeward', local, localDir, 
       const common = { maxAttempts: 3, requestHandler: { connectionTimeout: 5_000, requestTimeout: 60_000 } } as const;
       if (!local) {
         // Keys from the configuration (AWS_* variables), else the SDK's own sources (profiles, instance roles).
-        return new S3Client({ ...common, ...(s3Url ? { endpoint: s3Url, forcePathStyle: true } : {}), region, ...(credentials ? { credentials } : {}) });
+        if (!s3Url) return new S3Client({ ...common, region, ...(credentials ? { credentials } : {}) });
+        return bucketPathWithoutSlash(new S3Client({ ...common, endpoint: s3Url, forcePathStyle: true, region, ...(credentials ? { credentials } : {}) }));
       }
       localServer ??= startLocalS3({ dir: localDir, port: localPort, bucket });
       const s = await localServer;
-      const c = new S3Client({ ...common, endpoint: s.endpoint, forcePathStyle: true, region: 'us-east-1', credentials: LOCAL_S3_CREDENTIALS });
-      // The SDK addresses a bucket path-style as "/<bucket>/" and signs that path; the fake server
-      // checks the signature against "/<bucket>". Sending "/<bucket>" (same request to S3) agrees with both.
-      c.middlewareStack.add(
-        (next) => async (args) => {
-          const req = args.request as { path?: string };
-          if (typeof req.path === 'string' && /^\/[^/]+\/$/.test(req.path)) req.path = req.path.slice(0, -1);
-          return next(args);
-        },
-        { step: 'build', name: 'localS3BucketPath' },
-      );
-      return c;
+      return bucketPathWithoutSlash(new S3Client({ ...common, endpoint: s.endpoint, forcePathStyle: true, region: 'us-east-1', credentials: LOCAL_S3_CREDENTIALS }));
     })();
     return client;
   }

@@ -18,6 +18,8 @@ export interface RunningProduct {
   baseUrl: string;
   dataDir: string;
   stop(): Promise<void>;
+  /** Ends the process at once (SIGKILL: no clean shutdown) and waits for it to be gone. */
+  kill(): Promise<void>;
 }
 
 async function freePort(): Promise<number> {
@@ -64,8 +66,15 @@ export async function startProduct(env: Record<string, string> = {}): Promise<Ru
   return {
     baseUrl,
     dataDir,
+    async kill() {
+      if (child.exitCode === null && child.signalCode === null) {
+        const exited = new Promise((r) => child.once('exit', r));
+        child.kill('SIGKILL');
+        await exited;
+      }
+    },
     async stop() {
-      if (child.exitCode === null) {
+      if (child.exitCode === null && child.signalCode === null) {
         const exited = new Promise((r) => child.once('exit', r));
         child.kill('SIGTERM');
         await Promise.race([exited, new Promise((r) => setTimeout(r, 10_000))]);

@@ -3,12 +3,14 @@
  * attachment files of earlier versions moved from DATA_DIR/attachments into the bucket at start,
  * and plain answers when the store is unreachable or an object is missing.
  */
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, type Db } from '../../../server/db/index.ts';
 import { attachments } from '../../../server/db/schema.ts';
+import { LOCAL_S3_CREDENTIALS, startLocalS3 } from '../../../server/storage/local-s3.ts';
 import { moveLocalAttachments } from '../../../server/storage/move-attachments.ts';
 import { makeApp, makeStudy, makeTeam, makeUser, signedIn, type TestApp } from '../helpers.ts';
 import { openTestDb } from '../test-db.ts';
@@ -93,6 +95,36 @@ describe('attachment files of earlier versions', () => {
     const res = await agent.get(`/api/studies/${studyId}/attachments/${row.id}`);
     expect(res.status).toBe(404);
     expect(res.body.error).toEqual({ code: 'not-found', message: 'The file of this attachment is missing from the file store.' });
+  });
+});
+
+describe('a bucket named by S3_URL and S3_BUCKET', () => {
+  it('stores and serves attachments with the keys from AWS_ACCESS_KEY_ID / AWS_SECRET_ACCESS_KEY, and refuses in words with wrong keys', async () => {
+    // An S3-compatible store of its own (the same fake server, started apart from the app).
+    const store = await startLocalS3({ dir: mkdtempSync(path.join(tmpdir(), 'wyeward-s3-')), bucket: 'team-files' });
+    const env = { S3_URL: store.endpoint, S3_BUCKET: 'team-files', AWS_REGION: 'eu-west-1' };
+    const shared = makeApp(db, { ...env, AWS_ACCESS_KEY_ID: LOCAL_S3_CREDENTIALS.accessKeyId, AWS_SECRET_ACCESS_KEY: LOCAL_S3_CREDENTIALS.secretAccessKey });
+    const wrong = makeApp(db, { ...env, AWS_ACCESS_KEY_ID: LOCAL_S3_CREDENTIALS.accessKeyId, AWS_SECRET_ACCESS_KEY: 'not-the-key' });
+    try {
+      expect(shared.config.s3Local).toBe(false);
+      expect((await request(shared.app).get('/api/health')).body).toEqual({ ok: true, bucket: 'ok' });
+      const agent = await signedIn(shared.app, engineer.email);
+      const up = await agent.post(`/api/studies/${studyId}/attachments`).attach('file', PDF, 'shared.pdf');
+      expect(up.status).toBe(201);
+      const dl = await download(agent, up.body.id);
+      expect(Buffer.compare(dl.body as Buffer, PDF)).toBe(0);
+      expect(existsSync(path.join(shared.config.dataDir, 'objects'))).toBe(false); // nothing on the app's disk
+
+      const other = await signedIn(wrong.app, engineer.email);
+      expect((await other.get(`/api/studies/${studyId}/attachments/${up.body.id}`)).status).toBe(503);
+      expect((await request(wrong.app).get('/api/health')).status).toBe(503);
+    } finally {
+      await shared.objects.close();
+      await wrong.objects.close();
+      await shared.mailer.close();
+      await wrong.mailer.close();
+      await store.close();
+    }
   });
 });
 
