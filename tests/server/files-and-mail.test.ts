@@ -237,7 +237,7 @@ describe('mail through SMTP into the local fake server', () => {
       // One attempt made; the next waits a minute (the back-off base here), counted by the database clock.
       expect(job).toMatchObject({ kind: 'mail.deliver', status: 'queued', attempts: 1 });
       expect(job.lastError).toMatch(/ECONNREFUSED|connect/i);
-      const [{ wait }] = (await db.execute(sql`select extract(epoch from ${job.runAt}::timestamptz - now()) as wait`)).rows as { wait: string }[];
+      const [{ wait }] = await db.select({ wait: sql<string>`extract(epoch from ${jobs.runAt} - now())` }).from(jobs).where(eq(jobs.id, job.id));
       expect(Number(wait)).toBeGreaterThan(50);
       expect(warnings.some((w) => w.includes('"job-failed"'))).toBe(true);
       expect((await rawMail(db, id))?.deliveredAt).toBeNull();

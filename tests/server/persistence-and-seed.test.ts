@@ -211,6 +211,6 @@ describe('mail store', () => {
     expect(await mailer.get('A', a2)).toMatchObject({ to: 'a2@example.test', subject: 'second', text: 'three', html: '<p>three</p>', from: 'Wyeward <no-reply@wyeward.test>' });
     expect(await mailer.get('B', a1)).toBeNull();
     expect(await mailer.get('A', '../../etc/passwd')).toBeNull();
-    await db.$client.close();
+    await closeDb(db);
   });
 });

@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Db } from '../../../server/db/index.ts';
+import { closeDb, type Db } from '../../../server/db/index.ts';
 import { createJobRunner } from '../../../server/jobs/index.ts';
 import { createMailer } from '../../../server/mail/index.ts';
 import { moveLocalMail, rawMail } from '../../../server/mail/store.ts';
@@ -16,7 +16,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await db.$client.close();
+  await closeDb(db);
 });
 
 describe('moving the mail folder of earlier versions', () => {
