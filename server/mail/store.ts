@@ -12,7 +12,7 @@ import type { Db } from '../db/index.ts';
 import { mailMessages } from '../db/schema.ts';
 
 /** A stored message: the API's message plus the team whose owners may read it. */
-export interface StoredMail extends MailMessage {
+export interface StoredMail extends Omit<MailMessage, 'delivered'> {
   teamId: string;
 }
 
@@ -69,12 +69,12 @@ export async function rawMail(db: Db, id: string) {
 /** The team's messages, newest first (the newest 500). */
 export async function listMail(db: Db, teamId: string): Promise<MailSummary[]> {
   const rows = await db
-    .select({ id: mailMessages.id, to: mailMessages.toAddress, subject: mailMessages.subject, sentAt: mailMessages.createdAt })
+    .select({ id: mailMessages.id, to: mailMessages.toAddress, subject: mailMessages.subject, sentAt: mailMessages.createdAt, deliveredAt: mailMessages.deliveredAt })
     .from(mailMessages)
     .where(eq(mailMessages.teamId, teamId))
     .orderBy(desc(mailMessages.id))
     .limit(500);
-  return rows.map((r) => ({ ...r, sentAt: r.sentAt.toISOString() }));
+  return rows.map(({ deliveredAt, ...r }) => ({ ...r, sentAt: r.sentAt.toISOString(), delivered: deliveredAt !== null }));
 }
 
 /** One message of the team, or null. */
@@ -86,7 +86,7 @@ export async function getMail(db: Db, teamId: string, id: string): Promise<MailM
     .where(and(eq(mailMessages.id, id), eq(mailMessages.teamId, teamId)))
     .limit(1);
   if (!r) return null;
-  return { id: r.id, to: r.toAddress, from: r.fromAddress, subject: r.subject, sentAt: r.createdAt.toISOString(), text: r.bodyText, ...(r.bodyHtml !== null ? { html: r.bodyHtml } : {}) };
+  return { id: r.id, to: r.toAddress, from: r.fromAddress, subject: r.subject, sentAt: r.createdAt.toISOString(), delivered: r.deliveredAt !== null, text: r.bodyText, ...(r.bodyHtml !== null ? { html: r.bodyHtml } : {}) };
 }
 
 /**

@@ -7,6 +7,8 @@ export const mailSummarySchema = z.object({
   to: z.string(),
   subject: z.string(),
   sentAt: isoDateSchema,
+  /** An SMTP server has accepted it; false while the server is still trying to send it. */
+  delivered: z.boolean(),
 });
 export type MailSummary = z.infer<typeof mailSummarySchema>;
 

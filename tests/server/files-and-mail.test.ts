@@ -220,6 +220,7 @@ describe('mail through SMTP into the local fake server', () => {
     expect((await t.mailer.list('team-x')).map((m) => m.subject)).toEqual(['Hello over SMTP']);
     await t.jobs.drain();
     expect((await rawMail(db, id))?.deliveredAt).not.toBeNull();
+    expect((await t.mailer.list('team-x'))[0].delivered).toBe(true);
     expect(await db.select().from(jobs)).toEqual([]); // the finished job is gone
   });
 
@@ -231,7 +232,7 @@ describe('mail through SMTP into the local fake server', () => {
     console.error = (line: unknown) => warnings.push(String(line));
     try {
       const id = await mailer.send({ teamId: 't-down', to: 'a@example.test', subject: 'Invite', text: 'link' });
-      expect((await mailer.get('t-down', id))?.subject).toBe('Invite');
+      expect(await mailer.get('t-down', id)).toMatchObject({ subject: 'Invite', delivered: false });
       await runner.drain();
       const [job] = await db.select().from(jobs).where(sql`${jobs.payload}->>'mailId' = ${id}`);
       // One attempt made; the next waits a minute (the back-off base here), counted by the database clock.

@@ -35,10 +35,10 @@ describe('moving the mail folder of earlier versions', () => {
     expect(existsSync(dir)).toBe(false);
     const mailer = createMailer({ db, jobs: createJobRunner(db), from: 'x@example.test' });
     expect(await mailer.list('team-old')).toEqual([
-      { id: old[1].id, to: 'rhea@example.test', subject: 'Review requested', sentAt: '2025-12-02T04:33:21.000Z' },
-      { id: old[0].id, to: 'ines@example.test', subject: 'Invite', sentAt: '2025-12-02T04:33:20.000Z' },
+      { id: old[1].id, to: 'rhea@example.test', subject: 'Review requested', sentAt: '2025-12-02T04:33:21.000Z', delivered: true },
+      { id: old[0].id, to: 'ines@example.test', subject: 'Invite', sentAt: '2025-12-02T04:33:20.000Z', delivered: true },
     ]);
-    expect(await mailer.get('team-old', old[0].id)).toEqual({ id: old[0].id, to: 'ines@example.test', from: 'Wyeward <no-reply@wyeward.test>', subject: 'Invite', sentAt: '2025-12-02T04:33:20.000Z', text: 'join here', html: '<p>join here</p>' });
+    expect(await mailer.get('team-old', old[0].id)).toEqual({ id: old[0].id, to: 'ines@example.test', from: 'Wyeward <no-reply@wyeward.test>', subject: 'Invite', sentAt: '2025-12-02T04:33:20.000Z', delivered: true, text: 'join here', html: '<p>join here</p>' });
     expect((await rawMail(db, old[1].id))?.raw).toBe('Subject: Review requested\n\nplease review\n');
     expect(await moveLocalMail(db, dir)).toBe(0);
   });

@@ -36,7 +36,7 @@ export function MailPage() {
     <div className="mx-auto flex max-w-6xl flex-col gap-3">
       <div>
         <h1 className="text-lg">Outgoing mail</h1>
-        <p className="text-[13px] text-ink-muted">Every message this server sent, newest first. Locally they are written to disk instead of being delivered.</p>
+        <p className="text-[13px] text-ink-muted">Every message this server sent or is sending, newest first. Without a mail server set up, they go to a local stand-in that keeps them here and delivers nothing.</p>
       </div>
       <div className="grid gap-4 md:grid-cols-[22rem_1fr]">
         <section aria-labelledby="mail-list-title" className="rounded-[4px] border border-rule bg-panel">
@@ -64,6 +64,7 @@ export function MailPage() {
                     <span className="block truncate font-semibold">{m.subject}</span>
                     <span className="num block truncate text-ink-muted">to {m.to}</span>
                     <span className="num block text-[12px] text-ink-faint">{formatDateTime(m.sentAt)}</span>
+                    {m.delivered ? null : <span className="block text-[12px] text-caution">Not sent yet: the server keeps trying</span>}
                   </button>
                 </li>
               ))}
