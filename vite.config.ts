@@ -38,7 +38,7 @@ export default defineConfig({
         test: {
           name: 'server-pg',
           environment: 'node',
-          include: ['tests/server/*.test.ts'],
+          include: ['tests/server/*.test.ts', 'tests/server/{jobs,mail,storage}/**/*.test.ts'],
           globalSetup: ['tests/server/pg-global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,

@@ -68,6 +68,9 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   jobs.start();
   const objects = objectStoreFor(config);
   const bucket = await objects.start();
+  if (config.databaseUrl && bucket.local) {
+    console.warn('DATABASE_URL is set but no bucket (S3_URL / S3_BUCKET): attached files stay on this machine under DATA_DIR/objects, and other instances will not see them.');
+  }
   const movedFiles = await moveLocalAttachments(db, objects, config.dataDir);
   if (movedFiles.moved + movedFiles.dropped > 0) console.log(`Moved ${movedFiles.moved} attachment files from ${path.join(config.dataDir, 'attachments')} into the bucket (${movedFiles.dropped} files of deleted attachments removed).`);
   const app = createApp({ db, config, mailer, objects, mountClient, dev });
