@@ -19,6 +19,8 @@ export interface BenchServer {
   database: string;
   /** The PostgreSQL cluster's postmaster when BENCH_DATABASE=postgres (its backends' CPU is the database's). */
   postmasterPid?: number;
+  /** DATABASE_URL of that cluster's database (another instance may be started on it). */
+  databaseUrl?: string;
   child: ChildProcess;
   stop(): Promise<void>;
 }
@@ -39,7 +41,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
   const url = `http://127.0.0.1:${port}`;
   let cluster: Cluster | undefined;
   const dbEnv: Record<string, string> = {};
-  if (process.env.BENCH_DATABASE === 'postgres') {
+  if (process.env.BENCH_DATABASE === 'postgres' && !env.DATABASE_URL) {
     cluster = await startCluster();
     await adminQuery(cluster.url, 'create database wyeward_bench');
     dbEnv.DATABASE_URL = cluster.urlOf('wyeward_bench');
@@ -62,6 +64,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
     pid: child.pid!,
     database: cluster ? `PostgreSQL ${cluster.version} (throwaway cluster on loopback, fsync off), DATABASE_POOL_MAX ${env.DATABASE_POOL_MAX ?? process.env.DATABASE_POOL_MAX ?? 10}` : 'embedded PGlite',
     postmasterPid: cluster?.pid,
+    databaseUrl: dbEnv.DATABASE_URL,
     child,
     async stop() {
       child.kill('SIGTERM');

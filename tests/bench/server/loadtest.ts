@@ -8,23 +8,42 @@
  * RSS before and after, with the machine's load. Nothing is asserted.
  * LOADTEST_RATE (req/s, default 150), LOADTEST_SECONDS (default 30, at most 900), LOADTEST_CONNECTIONS (default 16).
  * BENCH_DATABASE=postgres runs the server on a throwaway PostgreSQL cluster (DATABASE_URL); the
- * database server's own CPU per request is then printed too.
+ * database server's own CPU per request is then printed too. LOADTEST_INSTANCES=2 (with
+ * BENCH_DATABASE=postgres) runs two instances on that one database and one shared fake S3 bucket,
+ * both told the first one's address as APP_URL (the balancer's); requests take turns between them.
  */
+import { mkdtempSync } from 'node:fs';
 import { Agent, request } from 'node:http';
-import { clusterCpuMs, cpuMs, machineLoad, percentile, rssMb, session, startServer } from './harness.ts';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { LOCAL_S3_CREDENTIALS, startLocalS3 } from '../../../server/storage/local-s3.ts';
+import { clusterCpuMs, cpuMs, machineLoad, percentile, rssMb, session, startServer, type BenchServer } from './harness.ts';
 
 const RATE = Number(process.env.LOADTEST_RATE ?? 150);
 const SECONDS = Math.min(900, Number(process.env.LOADTEST_SECONDS ?? 30));
 const CONNECTIONS = Number(process.env.LOADTEST_CONNECTIONS ?? 16);
 
-const server = await startServer();
-const base = new URL(server.url);
-if (!['127.0.0.1', 'localhost', '::1'].includes(base.hostname)) throw new Error('the load test runs on loopback only');
-const agent = new Agent({ keepAlive: true, maxSockets: CONNECTIONS });
+const INSTANCES = Number(process.env.LOADTEST_INSTANCES ?? 1);
+if (![1, 2].includes(INSTANCES)) throw new Error('LOADTEST_INSTANCES is 1 or 2');
+if (INSTANCES > 1 && process.env.BENCH_DATABASE !== 'postgres') throw new Error('two instances need one database server: set BENCH_DATABASE=postgres');
+const bucket = INSTANCES > 1 ? await startLocalS3({ dir: mkdtempSync(path.join(tmpdir(), 'wyeward-load-s3-')), bucket: 'wyeward-load' }) : null;
+const bucketEnv: Record<string, string> = bucket
+  ? { S3_URL: bucket.endpoint, S3_BUCKET: 'wyeward-load', AWS_ACCESS_KEY_ID: LOCAL_S3_CREDENTIALS.accessKeyId, AWS_SECRET_ACCESS_KEY: LOCAL_S3_CREDENTIALS.secretAccessKey }
+  : {};
+// One after the other: the first makes the database, migrates and seeds; the second joins it.
+const servers: BenchServer[] = [await startServer(bucketEnv)];
+if (INSTANCES > 1) servers.push(await startServer({ ...bucketEnv, DATABASE_URL: servers[0].databaseUrl!, APP_URL: servers[0].url }));
+const server = servers[0];
+const bases = servers.map((s) => new URL(s.url));
+if (!bases.every((b) => ['127.0.0.1', 'localhost', '::1'].includes(b.hostname))) throw new Error('the load test runs on loopback only');
+const agents = servers.map(() => new Agent({ keepAlive: true, maxSockets: Math.ceil(CONNECTIONS / servers.length) }));
+let turn = 0;
 
 function send(method: string, path: string, headers: Record<string, string>, body?: string): Promise<{ status: number; text: string }> {
+  const k = turn++ % servers.length;
+  const base = bases[k];
   return new Promise((resolve, reject) => {
-    const req = request({ host: base.hostname, port: base.port, method, path, headers: body ? { ...headers, 'Content-Length': Buffer.byteLength(body) } : headers, agent }, (res) => {
+    const req = request({ host: base.hostname, port: base.port, method, path, headers: body ? { ...headers, 'Content-Length': Buffer.byteLength(body) } : headers, agent: agents[k] }, (res) => {
       let text = '';
       res.setEncoding('utf8');
       res.on('data', (c: string) => (text += c));
@@ -38,7 +57,7 @@ function send(method: string, path: string, headers: Record<string, string>, bod
 
 try {
   await new Promise((r) => setTimeout(r, 3000));
-  const rssIdle = rssMb(server.pid);
+  const rssIdle = servers.map((s) => rssMb(s.pid));
   const users = await Promise.all(['owner', 'engineer', 'reviewer', 'viewer'].map((r) => session(server.url, `${r}@wyeward.test`)));
   const engineer = users[1];
   const list = JSON.parse((await send('GET', '/api/studies?pageSize=20', engineer)).text) as { items: { id: string }[] };
@@ -66,8 +85,9 @@ try {
 
   // Warm up.
   for (let i = 0; i < 50; i++) await one();
-  const rssBefore = rssMb(server.pid);
-  const cpuBefore = cpuMs(server.pid);
+  const rssBefore = servers.map((s) => rssMb(s.pid));
+  const appCpu = () => servers.reduce((sum, s) => sum + cpuMs(s.pid), 0);
+  const cpuBefore = appCpu();
   const dbCpuBefore = server.postmasterPid ? clusterCpuMs(server.postmasterPid) : 0;
   const latencies: number[] = [];
   let errors = 0;
@@ -95,15 +115,18 @@ try {
   }
   await Promise.all(inFlight);
   const elapsed = (performance.now() - start) / 1000;
-  const cpu = cpuMs(server.pid) - cpuBefore;
+  const cpu = appCpu() - cpuBefore;
   const dbCpu = server.postmasterPid ? clusterCpuMs(server.postmasterPid) - dbCpuBefore : 0;
-  const rssAfter = rssMb(server.pid);
-  console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users); database: ${server.database}`);
+  const rssAfter = servers.map((s) => rssMb(s.pid));
+  const mb = (xs: number[]) => xs.map((x) => x.toFixed(0)).join(' + ');
+  console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users); database: ${server.database}${servers.length > 1 ? `; ${servers.length} instances on it with one shared bucket` : ''}`);
   console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (${JSON.stringify([...statuses])})`);
-  console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests); RSS ${rssIdle.toFixed(0)} MB idle after start, ${rssBefore.toFixed(0)} MB after warm-up → ${rssAfter.toFixed(0)} MB after the run`);
+  console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests${servers.length > 1 ? ', all instances' : ''}); RSS ${mb(rssIdle)} MB idle after start, ${mb(rssBefore)} MB after warm-up → ${mb(rssAfter)} MB after the run`);
   if (server.postmasterPid) console.log(`database server CPU ${(dbCpu / total).toFixed(2)} ms per request (${(dbCpu / 1000).toFixed(1)} s)`);
   console.log(machineLoad());
 } finally {
-  agent.destroy();
-  await server.stop();
+  for (const a of agents) a.destroy();
+  // The second instance first: the first one's stop also stops the database cluster.
+  for (const s of servers.toReversed()) await s.stop();
+  await bucket?.close();
 }
