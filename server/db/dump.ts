@@ -33,6 +33,8 @@ export const TABLES_IN_ORDER: PgTable[] = [
   schema.comments,
   schema.notifications,
   schema.attachments,
+  schema.mailMessages,
+  schema.jobs,
 ];
 
 export const DUMP_FORMAT = 'wyeward-database';
