@@ -146,8 +146,10 @@ describe('two instances on one database and one bucket', () => {
     const cookie = await signIn(a, 'engineer@wyeward.test');
     const team = (await on(a, cookie).get('/api/team')).body as { members: { userId: string; email: string }[] };
     const reviewer = team.members.find((m) => m.email === 'reviewer@wyeward.test')!;
-    const list = (await on(a, cookie).get('/api/studies')).body.items as { id: string; name: string }[];
-    const study = list[2];
+    // A study of its own, never in review before (the demo studies may be).
+    const made = await on(a, cookie).post('/api/studies').send({ name: 'Quarry Lane service' });
+    expect(made.status).toBe(201);
+    const study = { id: made.body.id as string, name: 'Quarry Lane service' };
     const res = await on(b, cookie).post(`/api/studies/${study.id}/review`).send({ action: 'request', reviewers: [reviewer.userId] });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     // Wait (bounded) until no delivery job is left: both instances have had every chance to send it.
