@@ -214,7 +214,7 @@ describe('no internal name on any page or e-mail', () => {
         }
       }
     }
-    expect(visited).toBe(4 * 13 + 3);
+    expect(visited).toBe(4 * 14 + 3);
     // Pages that must show the opened connections did so in words.
     const diff = await visit(pages.reviewer, `/studies/${studyId}/diff?from=1&to=2`);
     expect(diff).toContain('opened conductors of the connection KITCHEN–HOUSE');
