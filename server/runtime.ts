@@ -1,4 +1,5 @@
 /** What `npm start` (index.ts) and `npm run dev` (dev.ts) share: open the database, seed, build the app, listen, shut down cleanly. */
+import { existsSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import path from 'node:path';
 import { lt } from 'drizzle-orm';
@@ -35,13 +36,20 @@ export function openConfiguredDb(config: Config, { migrate = true }: { migrate?:
 
 /** Opens (and migrates) the configured database and, in demo mode, seeds the demo team into an empty one. */
 export async function prepareDatabase(config: Config, log: (msg: string) => void = console.log) {
-  const db = await openConfiguredDb(config);
+  const fresh = !config.databaseUrl && !existsSync(path.join(config.dataDir, 'pglite', 'PG_VERSION'));
+  let db = await openConfiguredDb(config);
   // lucia drops an expired session when it is presented; this clears the ones never presented again.
   await db.delete(sessions).where(lt(sessions.expiresAt, new Date()));
   await clearExpiredThrottles(db);
   if (config.demo) {
     const seeded = await seedDemo(db);
     if (seeded.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);
+  }
+  if (fresh) {
+    // Creating and seeding an embedded database leaves that instance holding several hundred MB more than
+    // a reopened one (measured 20 s after a first start: about 800 MB without this, about 400 MB with it).
+    await closeDb(db);
+    db = await openConfiguredDb(config);
   }
   return db;
 }
