@@ -15,7 +15,7 @@ import {
   type CircuitInput,
   type Customer,
 } from '../../shared/engine/index.ts';
-import type { BalanceResponse } from '../../shared/api/balancing.ts';
+import type { BalanceResponse, MixWeights } from '../../shared/api/balancing.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
 import { highsRuntime } from './highs.ts';
 
@@ -23,8 +23,9 @@ export interface BalanceTask {
   kind: 'balance';
   circuit: CircuitInput;
   customersCsv?: string;
-  objective: 'neutral' | 'unbalance' | 'losses' | 'voltage';
+  objective: 'neutral' | 'unbalance' | 'losses' | 'voltage' | 'mix';
   definition?: 'iec' | 'nema' | 'ieee';
+  weights?: MixWeights;
   bus?: string;
   maxMoves?: number;
 }
@@ -48,7 +49,7 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
   const highs = await highsRuntime();
   try {
     const r = balancePhases(highs, feeder, customers, {
-      objective: { objective: task.objective, ...(task.definition ? { definition: task.definition } : {}) },
+      objective: { objective: task.objective, ...(task.definition ? { definition: task.definition } : {}), ...(task.objective === 'mix' && task.weights ? { weights: task.weights } : {}) },
       bus: task.bus,
       maxMoves: task.maxMoves,
       milpTimeLimitS: 3,

@@ -4,15 +4,53 @@ import { z } from 'zod';
 /** Largest customer CSV accepted (about 5 000 customers). */
 export const MAX_CUSTOMERS_CSV_CHARS = 500_000;
 
-export const balanceRequestSchema = z.object({
-  /** The customer list as CSV text; without it the study's own single-phase loads are balanced. */
-  customersCsv: z.string().max(MAX_CUSTOMERS_CSV_CHARS, 'The customer list is too long (at most about 5 000 customers)').optional(),
-  objective: z.enum(['neutral', 'unbalance', 'losses', 'voltage']).default('neutral'),
-  definition: z.enum(['iec', 'nema', 'ieee']).optional(),
-  /** Bus where the neutral current is measured (default: the source). */
-  bus: z.string().trim().min(1).max(200).optional(),
-  maxMoves: z.number().int('The number of moves must be a whole number').min(0, 'The number of moves cannot be negative').max(5000).optional(),
-});
+/** The terms a weighted mix may weigh, with their names in words. */
+export const MIX_TERMS = [
+  ['neutral', 'neutral current'],
+  ['unbalance', 'voltage unbalance'],
+  ['losses', 'losses'],
+  ['voltage', 'lowest customer voltage'],
+] as const;
+export type MixWeights = Partial<Record<(typeof MIX_TERMS)[number][0], number>>;
+
+const weight = (words: string) =>
+  z
+    .number({ error: `The ${words} weight must be a number` })
+    .min(0, `The ${words} weight cannot be negative`)
+    .max(1e6, `The ${words} weight must be at most 1 000 000`)
+    .optional();
+
+/** Weights of the weighted mix: each term's score relative to its value before balancing, times its weight. */
+export const mixWeightsSchema = z.strictObject(
+  { neutral: weight('neutral current'), unbalance: weight('voltage unbalance'), losses: weight('losses'), voltage: weight('lowest customer voltage') },
+  { error: 'Weights may be given only for neutral, unbalance, losses and voltage' },
+);
+
+/** What is wrong with the weights of a weighted mix, in words (null when they are fine). */
+export function mixWeightsProblem(weights: MixWeights | undefined): string | null {
+  if (!weights || !Object.values(weights).some((w) => w !== undefined && w > 0)) return 'Give the weighted mix at least one weight above zero.';
+  return null;
+}
+
+export const balanceRequestSchema = z
+  .object({
+    /** The customer list as CSV text; without it the study's own single-phase loads are balanced. */
+    customersCsv: z.string().max(MAX_CUSTOMERS_CSV_CHARS, 'The customer list is too long (at most about 5 000 customers)').optional(),
+    objective: z.enum(['neutral', 'unbalance', 'losses', 'voltage', 'mix']).default('neutral'),
+    /** Definition of unbalance, for the unbalance objective or the unbalance term of a mix (default iec). */
+    definition: z.enum(['iec', 'nema', 'ieee']).optional(),
+    /** Weights of the weighted mix (objective `mix` only). */
+    weights: mixWeightsSchema.optional(),
+    /** Bus where the neutral current is measured (default: the source). */
+    bus: z.string().trim().min(1).max(200).optional(),
+    maxMoves: z.number().int('The number of moves must be a whole number').min(0, 'The number of moves cannot be negative').max(5000).optional(),
+  })
+  .superRefine((body, ctx) => {
+    if (body.objective === 'mix') {
+      const problem = mixWeightsProblem(body.weights);
+      if (problem) ctx.addIssue({ code: 'custom', path: ['weights'], message: problem });
+    } else if (body.weights !== undefined) ctx.addIssue({ code: 'custom', path: ['weights'], message: 'Weights go with the weighted mix objective only.' });
+  });
 export type BalanceRequest = z.input<typeof balanceRequestSchema>;
 
 const figuresSchema = z.object({

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type TestAgent from 'supertest/lib/agent.js';
-import { analyseFeeder, applyAssignment, withCustomers, type CircuitInput } from '../../shared/engine/index.ts';
+import { analyseFeeder, applyAssignment, balanceScore, exactFigures, mixNormalisers, neutralPoint, parseCustomersCsv, solveAssignment, withCustomers, type CircuitInput, type ObjectiveSpec } from '../../shared/engine/index.ts';
 import { balanceResponseSchema } from '../../shared/api/balancing.ts';
 import { closeDb, type Db } from '../../server/db/index.ts';
 import { closeWork, configureWork } from '../../server/work/index.ts';
@@ -67,6 +67,58 @@ describe('balancing a study', () => {
     expect(none.body.error.message).toMatch(/no single-phase kW loads between a phase and the neutral/);
     const objective = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'cost' });
     expect(objective.status).toBe(400);
+  });
+
+  it('balances a weighted mix: exact figures, a mix score no worse than before, the objective in words', async () => {
+    const weights = { neutral: 1, unbalance: 1, losses: 2, voltage: 1 };
+    const res = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'mix', weights, definition: 'nema', maxMoves: 2 });
+    expect(res.status).toBe(200);
+    const body = balanceResponseSchema.parse(res.body);
+    expect(body.moves.length).toBeLessThanOrEqual(2);
+    // every figure is an exact solve of its assignment, solved again here (C)
+    const feeder = analyseFeeder(smallFeeder);
+    const customers = parseCustomersCsv(CSV);
+    const exact = (a: Record<string, 'A' | 'B' | 'C'>) => {
+      const r = solveAssignment(feeder, customers, a);
+      return exactFigures(r, customers, neutralPoint(feeder, r)).figures;
+    };
+    const before = exact(Object.fromEntries(customers.map((c) => [c.customer, c.phase])));
+    const after = exact(body.assignment);
+    expect(body.before.lossesKw).toBeCloseTo(before.lossesKw, 9);
+    expect(body.after.neutralCurrentA).toBeCloseTo(after.neutralCurrentA, 9);
+    expect(body.after.maxUnbalancePercent.nema).toBeCloseTo(after.maxUnbalancePercent.nema, 9);
+    expect(body.after.minCustomerVoltagePu).toBeCloseTo(after.minCustomerVoltagePu, 9);
+    // the mix score by the engine's own score function: after ≤ before
+    const spec: ObjectiveSpec = { objective: 'mix', definition: 'nema', weights };
+    const norm = mixNormalisers(before, spec);
+    expect(balanceScore(before, spec, norm)).toBeCloseTo(weights.neutral + weights.unbalance + weights.losses + weights.voltage, 9); // each term relative to itself: Σ weights (P)
+    expect(balanceScore(after, spec, norm)).toBeLessThanOrEqual(balanceScore(before, spec, norm) + 1e-9);
+    expect(body.objective).toBe(
+      'weighted mix of the neutral current leaving bus S (weight 1), the worst voltage unbalance along the feeder (line voltages, NEMA) (weight 1), the losses (weight 2) and the drop of the lowest customer voltage below 1 pu (weight 1), each relative to its value before balancing',
+    );
+  });
+
+  it('says what is wrong with the weights of a mix (400)', async () => {
+    const send = (body: object) => engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, ...body });
+    const negative = await send({ objective: 'mix', weights: { neutral: -1, losses: 1 } });
+    expect(negative.status).toBe(400);
+    expect(negative.body.error.message).toContain('The neutral current weight cannot be negative');
+    const none = await send({ objective: 'mix' });
+    expect(none.status).toBe(400);
+    expect(none.body.error.message).toContain('Give the weighted mix at least one weight above zero.');
+    const zeros = await send({ objective: 'mix', weights: { neutral: 0, losses: 0 } });
+    expect(zeros.status).toBe(400);
+    expect(zeros.body.error.fields.weights).toBe('Give the weighted mix at least one weight above zero.');
+    const text = await send({ objective: 'mix', weights: { losses: 'two' } });
+    expect(text.status).toBe(400);
+    expect(text.body.error.message).toContain('The losses weight must be a number');
+    const unknown = await send({ objective: 'mix', weights: { cost: 1 } });
+    expect(unknown.status).toBe(400);
+    const notMix = await send({ objective: 'losses', weights: { losses: 1 } });
+    expect(notMix.status).toBe(400);
+    expect(notMix.body.error.message).toContain('Weights go with the weighted mix objective only.');
+    const definition = await send({ objective: 'losses', definition: 'ieee' });
+    expect(definition.status).toBe(400);
   });
 
   it('is 404 for another team', async () => {

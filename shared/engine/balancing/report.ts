@@ -29,19 +29,33 @@ export const FIGURE_ROWS: { label: string; unit: string; get: (f: BalanceFigures
   { label: 'Highest customer voltage', unit: 'pu', get: (f) => f.maxCustomerVoltagePu, digits: 4 },
 ];
 
-/** The objective in words. */
+const DEFINITION_WORDS = { iec: 'IEC |V2|/|V1|', nema: 'line voltages, NEMA', ieee: 'phase voltages, IEEE' } as const;
+
+/** A list in words: "a", "a and b", "a, b and c". */
+const listWords = (items: string[]) => (items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`);
+
+/**
+ * The objective in words ("neutral current leaving bus S"; a mix: "weighted mix of the neutral
+ * current leaving bus S (weight 1) and the losses (weight 2), each relative to its value before
+ * balancing").
+ */
 export function objectiveWords(r: Pick<BalanceResult, 'objective' | 'neutralMeasuredAt'>): string {
   const o = r.objective;
+  const neutral = `neutral current ${r.neutralMeasuredAt.direction === 'out' ? 'leaving' : 'arriving at'} bus ${r.neutralMeasuredAt.bus}`;
+  const unbalance = `worst voltage unbalance along the feeder (${DEFINITION_WORDS[o.definition ?? 'iec']})`;
   switch (o.objective) {
     case 'neutral':
-      return `neutral current ${r.neutralMeasuredAt.direction === 'out' ? 'leaving' : 'arriving at'} bus ${r.neutralMeasuredAt.bus}`;
+      return neutral;
     case 'unbalance':
-      return `worst voltage unbalance along the feeder (${{ iec: 'IEC |V2|/|V1|', nema: 'line voltages, NEMA', ieee: 'phase voltages, IEEE' }[o.definition ?? 'iec']})`;
+      return unbalance;
     case 'losses':
       return 'losses';
     case 'voltage':
       return 'lowest customer voltage';
-    case 'mix':
-      return `weighted mix (${Object.entries(o.weights ?? {}).filter(([, w]) => w).map(([k, w]) => `${k} ${w}`).join(', ')})`;
+    case 'mix': {
+      const terms = { neutral: `the ${neutral}`, unbalance: `the ${unbalance}`, losses: 'the losses', voltage: 'the drop of the lowest customer voltage below 1 pu' } as const;
+      const parts = (['neutral', 'unbalance', 'losses', 'voltage'] as const).filter((k) => (o.weights?.[k] ?? 0) > 0).map((k) => `${terms[k]} (weight ${o.weights![k]})`);
+      return `weighted mix of ${listWords(parts)}, each relative to its value before balancing`;
+    }
   }
 }
