@@ -1,9 +1,11 @@
 /**
- * `npm run -s balance -- <customers.csv> --feeder <f.json> [--objective neutral|unbalance|losses|voltage]
- * [--definition iec|nema|ieee] [--bus <name>] [--max-moves N] [--moves-csv <file>] [--json]`:
+ * `npm run -s balance -- <customers.csv> --feeder <f.json> [--objective neutral|unbalance|losses|voltage|mix]
+ * [--weights neutral=1,unbalance=1,losses=2,voltage=1] [--definition iec|nema|ieee] [--bus <name>] [--max-moves N] [--moves-csv <file>] [--json]`:
  * phase balancing of the customers in the CSV (columns customer,bus,phase,kw,kvar|pf, optional
  * fixed, model, phases) on the feeder circuit file, each customer added as a single-phase load
- * between its phase and the neutral of its bus (see shared/engine/balancing).
+ * between its phase and the neutral of its bus (see shared/engine/balancing). The weighted mix
+ * (`--objective mix --weights …`) scores Σ weight × term / term before balancing; `--definition`
+ * chooses the unbalance of its unbalance term.
  *
  * Text by default: the move list for the crew with the caution, then before / after / rotating-rule
  * figures and the gap the MILP proved. With --json:
@@ -33,7 +35,7 @@ import {
 } from '../../shared/engine/index.ts';
 import { highsRuntime } from '../work/highs.ts';
 
-const USAGE = 'usage: balance <customers.csv> --feeder <f.json> [--objective neutral|unbalance|losses|voltage] [--definition iec|nema|ieee] [--bus <name>] [--max-moves N] [--moves-csv <file>] [--json]';
+const USAGE = 'usage: balance <customers.csv> --feeder <f.json> [--objective neutral|unbalance|losses|voltage|mix] [--weights neutral=1,unbalance=1,losses=2,voltage=1] [--definition iec|nema|ieee] [--bus <name>] [--max-moves N] [--moves-csv <file>] [--json]';
 
 function fail(code: number, message: string): never {
   process.stderr.write(`balance: ${message.split('\n')[0]}\n`);
@@ -50,12 +52,31 @@ interface Args {
   json: boolean;
 }
 
+/** `neutral=1,unbalance=1,losses=2,voltage=1` → the weights of the mix; throws an Error in words. */
+export function parseWeights(text: string): NonNullable<ObjectiveSpec['weights']> {
+  const terms = ['neutral', 'unbalance', 'losses', 'voltage'] as const;
+  const weights: NonNullable<ObjectiveSpec['weights']> = {};
+  for (const part of text.split(',')) {
+    const [name, value, ...rest] = part.split('=').map((s) => s.trim());
+    const term = terms.find((t) => t === name);
+    if (!term) throw new Error(`--weights: "${name}" is not a term of the mix (use neutral, unbalance, losses or voltage, e.g. neutral=1,losses=2)`);
+    if (value === undefined || value === '' || rest.length > 0) throw new Error(`--weights: give ${term} a number, as in ${term}=1`);
+    const w = Number(value);
+    if (!Number.isFinite(w)) throw new Error(`--weights: the ${term} weight must be a number (got "${value}")`);
+    if (w < 0) throw new Error(`--weights: the ${term} weight cannot be negative (got ${value})`);
+    if (weights[term] !== undefined) throw new Error(`--weights: ${term} is given twice`);
+    weights[term] = w;
+  }
+  if (!Object.values(weights).some((w) => w > 0)) throw new Error('--weights: give at least one weight above zero');
+  return weights;
+}
+
 /** Parse the command line; throws an Error with the message for the user. */
 export function parseArgs(argv: string[]): Args {
   const values: Record<string, string> = {};
   const positional: string[] = [];
   let json = false;
-  const named = ['--feeder', '--objective', '--definition', '--bus', '--max-moves', '--moves-csv'];
+  const named = ['--feeder', '--objective', '--weights', '--definition', '--bus', '--max-moves', '--moves-csv'];
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--json') {
@@ -73,16 +94,19 @@ export function parseArgs(argv: string[]): Args {
   if (positional.length !== 1) throw new Error(USAGE);
   if (!values['--feeder']) throw new Error(`give the feeder circuit file with --feeder (${USAGE})`);
   const objective = (values['--objective'] ?? 'neutral') as ObjectiveSpec['objective'];
-  if (!(BALANCE_OBJECTIVES as readonly string[]).includes(objective) || objective === 'mix') throw new Error(`--objective must be neutral, unbalance, losses or voltage (got "${values['--objective']}")`);
+  if (!(BALANCE_OBJECTIVES as readonly string[]).includes(objective)) throw new Error(`--objective must be neutral, unbalance, losses, voltage or mix (got "${values['--objective']}")`);
   const definition = values['--definition'] as ObjectiveSpec['definition'] | undefined;
   if (definition !== undefined && !['iec', 'nema', 'ieee'].includes(definition)) throw new Error(`--definition must be iec, nema or ieee (got "${definition}")`);
-  if (definition !== undefined && objective !== 'unbalance') throw new Error('--definition goes with --objective unbalance');
+  if (definition !== undefined && objective !== 'unbalance' && objective !== 'mix') throw new Error('--definition goes with --objective unbalance or mix');
+  if (objective === 'mix' && values['--weights'] === undefined) throw new Error('--objective mix needs --weights, e.g. --weights neutral=1,unbalance=1,losses=2,voltage=1');
+  if (objective !== 'mix' && values['--weights'] !== undefined) throw new Error('--weights goes with --objective mix');
+  const weights = objective === 'mix' ? parseWeights(values['--weights']) : undefined;
   let maxMoves: number | undefined;
   if (values['--max-moves'] !== undefined) {
     maxMoves = Number(values['--max-moves']);
     if (!Number.isInteger(maxMoves) || maxMoves < 0) throw new Error(`--max-moves must be a whole number ≥ 0 (got "${values['--max-moves']}")`);
   }
-  return { csv: positional[0], feeder: values['--feeder'], spec: { objective, ...(definition ? { definition } : {}) }, bus: values['--bus'], maxMoves, movesCsv: values['--moves-csv'], json };
+  return { csv: positional[0], feeder: values['--feeder'], spec: { objective, ...(definition ? { definition } : {}), ...(weights ? { weights } : {}) }, bus: values['--bus'], maxMoves, movesCsv: values['--moves-csv'], json };
 }
 
 /** The JSON the CLI prints (the issue's shape). */

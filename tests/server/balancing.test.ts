@@ -74,6 +74,7 @@ describe('balancing a study', () => {
     const res = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'mix', weights, definition: 'nema', maxMoves: 2 });
     expect(res.status).toBe(200);
     const body = balanceResponseSchema.parse(res.body);
+    expect(body.moves.length).toBeGreaterThan(0);
     expect(body.moves.length).toBeLessThanOrEqual(2);
     // every figure is an exact solve of its assignment, solved again here (C)
     const feeder = analyseFeeder(smallFeeder);

@@ -8,7 +8,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { analyseFeeder, exactFigures, neutralPoint, parseCustomersCsv, solveAssignment, type Assignment } from '../../../shared/engine/index.ts';
+import { analyseFeeder, balanceScore, currentAssignment, exactFigures, mixNormalisers, neutralPoint, parseCustomersCsv, solveAssignment, type Assignment, type ObjectiveSpec } from '../../../shared/engine/index.ts';
 import { smallFeeder } from '../../shared/engine/balancing/small-feeder.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
@@ -90,12 +90,52 @@ describe('balance CLI', () => {
     expect(moves.at(-1)).toMatch(/^"?# CAUTION: .*live equipment/);
   });
 
+  it('--objective mix --weights: figures of exact solves, a mix score no worse than before, the mix in words', () => {
+    const r = balance([customersFile, '--feeder', feederFile, '--objective', 'mix', '--weights', 'neutral=1,unbalance=1,losses=2,voltage=1', '--max-moves', '3', '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.objective).toBe('mix');
+    expect(j.moves.length).toBeLessThanOrEqual(3);
+    const before = figuresOf(currentAssignment(customers));
+    const after = figuresOf(j.assignment);
+    expect(j.before.neutralCurrentA).toBeCloseTo(before.neutralCurrentA, 9);
+    expect(j.after.lossesKw).toBeCloseTo(after.lossesKw, 9);
+    expect(j.after.maxUnbalancePercent.iec).toBeCloseTo(after.maxUnbalancePercent.iec, 9);
+    expect(j.after.minCustomerVoltagePu).toBeCloseTo(after.minCustomerVoltagePu, 9);
+    // the engine's own score of the mix, each term relative to its value before (default definition iec)
+    const spec: ObjectiveSpec = { objective: 'mix', weights: { neutral: 1, unbalance: 1, losses: 2, voltage: 1 } };
+    const norm = mixNormalisers(before, spec);
+    expect(balanceScore(after, spec, norm)).toBeLessThanOrEqual(balanceScore(before, spec, norm) + 1e-9);
+    const text = balance([customersFile, '--feeder', feederFile, '--objective', 'mix', '--weights', 'losses=2,neutral=1', '--definition', 'ieee']);
+    expect(text.code, text.stderr).toBe(0);
+    expect(text.stdout).toContain('minimise the weighted mix of the neutral current leaving bus S (weight 1) and the losses (weight 2), each relative to its value before balancing');
+  });
+
+  it('bad weights: exit 2 with a clear message', () => {
+    const mix = (weights: string) => balance([customersFile, '--feeder', feederFile, '--objective', 'mix', '--weights', weights]);
+    const cases: [ReturnType<typeof balance>, RegExp][] = [
+      [mix('neutral=-1,losses=1'), /the neutral weight cannot be negative/],
+      [mix('neutral=0,losses=0'), /give at least one weight above zero/],
+      [mix('cost=1'), /"cost" is not a term of the mix/],
+      [mix('losses=two'), /the losses weight must be a number \(got "two"\)/],
+      [mix('losses'), /give losses a number, as in losses=1/],
+      [mix('losses=1,losses=2'), /losses is given twice/],
+      [balance([customersFile, '--feeder', feederFile, '--objective', 'mix']), /--objective mix needs --weights/],
+      [balance([customersFile, '--feeder', feederFile, '--objective', 'losses', '--weights', 'losses=1']), /--weights goes with --objective mix/],
+    ];
+    for (const [r, message] of cases) {
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.stderr).not.toMatch(/at .*\.(ts|cjs|mjs):\d+/);
+    }
+  });
+
   it('bad input: exit 2 with a clear message', () => {
     const cases: [string[], RegExp][] = [
       [[customersFile], /give the feeder circuit file with --feeder/],
-      [[customersFile, '--feeder', feederFile, '--objective', 'cost'], /--objective must be neutral, unbalance, losses or voltage/],
+      [[customersFile, '--feeder', feederFile, '--objective', 'cost'], /--objective must be neutral, unbalance, losses, voltage or mix/],
       [[customersFile, '--feeder', feederFile, '--max-moves', '-1'], /--max-moves must be a whole number/],
-      [[customersFile, '--feeder', feederFile, '--definition', 'iec'], /--definition goes with --objective unbalance/],
+      [[customersFile, '--feeder', feederFile, '--definition', 'iec'], /--definition goes with --objective unbalance or mix/],
       [[customersFile, '--feeder', feederFile, '--colour'], /unknown option --colour/],
       [[path.join(dir, 'none.csv'), '--feeder', feederFile], /cannot read .*none\.csv: ENOENT/],
       [[customersFile, '--feeder', file('bad.json', '{ no')], /bad\.json is not valid JSON/],
