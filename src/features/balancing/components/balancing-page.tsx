@@ -1,14 +1,14 @@
 /**
  * Phase balancing of a study: the customers are the study's own single-phase loads or an uploaded
  * customer list (CSV, read with papaparse and checked here, checked again by the server); the
- * planner picks the objective and the move limit, runs it on the server (Cancel stops it), reads
+ * planner picks the objective (or a weighted mix of them with its four weights) and the move limit, runs it on the server (Cancel stops it), reads
  * the move list with the caution, the before / after / rotating-rule table, phasor diagrams of the
  * currents where the neutral is measured and each customer's voltage, downloads the moves as CSV, and applies them as a new revision (which goes to review
  * like any change).
  */
 import { useRef, useState, type FormEvent } from 'react';
 import { Link } from 'react-router';
-import type { BalanceRequest, BalanceResponse } from '../../../../shared/api/balancing.ts';
+import { MIX_TERMS, type BalanceRequest, type BalanceResponse, type MixWeights } from '../../../../shared/api/balancing.ts';
 import type { StudyContent, StudyDetail } from '../../../../shared/api/studies.ts';
 import { applyAssignment, applyCustomers, FIGURE_ROWS, movesCsv, type CircuitInput, type Customer } from '../../../../shared/engine/index.ts';
 import { Button } from '../../../components/button.tsx';
@@ -16,6 +16,7 @@ import { SelectField, TextField } from '../../../components/field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { useRunBalance } from '../api/run-balance.ts';
 import { readCustomersCsv, type ReadCustomers } from '../utils/read-customers.ts';
+import { readWeights, type WeightTexts } from '../utils/mix-weights.ts';
 import { CurrentPhasors } from './current-phasors.tsx';
 
 const OBJECTIVES = [
@@ -23,6 +24,7 @@ const OBJECTIVES = [
   ['unbalance', 'Worst voltage unbalance along the feeder'],
   ['losses', 'Losses'],
   ['voltage', 'Lowest customer voltage'],
+  ['mix', 'Weighted mix'],
 ] as const;
 
 export interface BalancingPageProps {
@@ -40,6 +42,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
   const [definition, setDefinition] = useState<'iec' | 'nema' | 'ieee'>('iec');
   const [maxMoves, setMaxMoves] = useState('8');
   const [bus, setBus] = useState('');
+  const [weightTexts, setWeightTexts] = useState<WeightTexts>({ neutral: '1', unbalance: '1', losses: '1', voltage: '1' });
   const [formError, setFormError] = useState<string | null>(null);
   const [result, setResult] = useState<{ response: BalanceResponse; customers: Customer[] | null } | null>(null);
   const [applied, setApplied] = useState<{ revision: number | null | undefined } | null>(null);
@@ -59,6 +62,12 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
     setApplyError(null);
     const moves = maxMoves.trim() === '' ? undefined : Number(maxMoves);
     if (moves !== undefined && (!Number.isInteger(moves) || moves < 0)) return setFormError('The number of moves must be a whole number, 0 or more.');
+    let weights: MixWeights | undefined;
+    if (objective === 'mix') {
+      const read = readWeights(weightTexts);
+      if (!read.ok) return setFormError(read.message);
+      weights = read.weights;
+    }
     let customers: Customer[] | null = null;
     let customersCsv: string | undefined;
     if (source === 'csv') {
@@ -72,7 +81,14 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
     setResult(null);
     run.mutate(
       {
-        body: { objective, ...(objective === 'unbalance' ? { definition } : {}), ...(moves !== undefined ? { maxMoves: moves } : {}), ...(bus.trim() ? { bus: bus.trim() } : {}), ...(customersCsv !== undefined ? { customersCsv } : {}) },
+        body: {
+          objective,
+          ...(objective === 'unbalance' || (objective === 'mix' && (weights?.unbalance ?? 0) > 0) ? { definition } : {}),
+          ...(weights ? { weights } : {}),
+          ...(moves !== undefined ? { maxMoves: moves } : {}),
+          ...(bus.trim() ? { bus: bus.trim() } : {}),
+          ...(customersCsv !== undefined ? { customersCsv } : {}),
+        },
         signal: controller.signal,
       },
       { onSuccess: (response) => setResult({ response, customers }) },
@@ -168,7 +184,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
               </option>
             ))}
           </SelectField>
-          {objective === 'unbalance' ? (
+          {objective === 'unbalance' || objective === 'mix' ? (
             <SelectField label="Unbalance definition" value={definition} onChange={(e) => setDefinition(e.target.value as 'iec' | 'nema' | 'ieee')}>
               <option value="iec">IEC |V2|/|V1|</option>
               <option value="nema">Line voltages (NEMA)</option>
@@ -176,8 +192,25 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
             </SelectField>
           ) : null}
           <TextField label="Most customers to move" inputMode="numeric" value={maxMoves} onChange={(e) => setMaxMoves(e.target.value)} hint="Empty: no limit" />
-          {objective === 'neutral' ? <TextField label="Measure the neutral at bus" value={bus} onChange={(e) => setBus(e.target.value)} hint="Empty: at the source" /> : null}
+          {objective === 'neutral' || objective === 'mix' ? <TextField label="Measure the neutral at bus" value={bus} onChange={(e) => setBus(e.target.value)} hint="Empty: at the source" /> : null}
         </div>
+        {objective === 'mix' ? (
+          <fieldset className="flex flex-col gap-1.5">
+            <legend className="text-[13px] font-semibold">Weights of the mix</legend>
+            <p className="text-[13px] text-ink-muted">Each figure counts relative to its value before balancing, times its weight; an empty box or 0 leaves it out.</p>
+            <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+              {MIX_TERMS.map(([term, words]) => (
+                <TextField
+                  key={term}
+                  label={`Weight of the ${words}`}
+                  inputMode="decimal"
+                  value={weightTexts[term]}
+                  onChange={(e) => setWeightTexts((w) => ({ ...w, [term]: e.target.value }))}
+                />
+              ))}
+            </div>
+          </fieldset>
+        ) : null}
         {formError ? (
           <p role="alert" className="text-[13px] text-danger">
             <span aria-hidden="true">✕ </span>
