@@ -51,7 +51,7 @@ export function objectiveWords(r: Pick<BalanceResult, 'objective' | 'neutralMeas
     case 'losses':
       return 'losses';
     case 'voltage':
-      return 'lowest customer voltage';
+      return 'drop of the lowest customer voltage below 1 pu';
     case 'mix': {
       const terms = { neutral: `the ${neutral}`, unbalance: `the ${unbalance}`, losses: 'the losses', voltage: 'the drop of the lowest customer voltage below 1 pu' } as const;
       const parts = (['neutral', 'unbalance', 'losses', 'voltage'] as const).filter((k) => (o.weights?.[k] ?? 0) > 0).map((k) => `${terms[k]} (weight ${o.weights![k]})`);
