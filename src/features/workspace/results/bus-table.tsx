@@ -8,6 +8,7 @@ import { FlagMark } from './flag-mark.tsx';
 import { worstFlag } from './overlays.ts';
 import { lnLabel, phaseStyle, type WiringStandard } from './phase-style.ts';
 import { ResultsTable, type ResultColumn } from './results-table.tsx';
+import { UnitsSwitch } from './units-switch.tsx';
 
 const LN_ORDER = ['a', 'b', 'c', '1', '2'];
 const LL_ORDER = ['ab', 'bc', 'ca', '12'];
@@ -25,7 +26,7 @@ export function PhasorCell({ p, base }: { p?: Phasor; base?: number }) {
 }
 
 /** A phasor column; with `base` (per row), magnitudes in per unit of it. */
-function phasorColumn<Row extends object>(id: string, header: string, unit: string, get: (r: Row) => Phasor | undefined, base?: (r: Row) => number | undefined): ResultColumn<Row> {
+export function phasorColumn<Row extends object>(id: string, header: string, unit: string, get: (r: Row) => Phasor | undefined, base?: (r: Row) => number | undefined): ResultColumn<Row> {
   const shown = (r: Row) => {
     const p = get(r);
     const b = base?.(r);
@@ -130,21 +131,14 @@ export function BusTable({ result, standard, selectedBus, onSelectBus, perUnit }
   const columns = useMemo(() => busColumns(result, standard, units, bases), [result, standard, units, bases]);
   return (
     <div>
-      <div role="group" aria-label="Bus voltage units" className="mb-1 flex items-center gap-1 text-[11px] print:hidden">
-        <span className="text-ink-muted">Voltages in</span>
-        {(['si', 'pu'] as const).map((k) => (
-          <button
-            key={k}
-            type="button"
-            aria-pressed={units === k}
-            onClick={() => setUnits(k)}
-            className={`h-5 rounded-[3px] border px-1.5 font-semibold ${units === k ? 'border-accent bg-accent-soft text-ink' : 'border-rule-strong bg-panel text-ink-muted hover:bg-sunken'}`}
-          >
-            {k === 'si' ? 'V' : 'pu'}
-          </button>
-        ))}
-        {units === 'pu' ? <span className="text-ink-muted">of each bus's base: {bases.baseMva} MVA, base kV per level from the nominal voltages unless the study sets it.</span> : null}
-      </div>
+      <UnitsSwitch
+        label="Bus voltage units"
+        lead="Voltages in"
+        siWord="V"
+        units={units}
+        onChange={setUnits}
+        note={`of each bus's base: ${bases.baseMva} MVA, base kV per level from the nominal voltages unless the study sets it.`}
+      />
       <ResultsTable label="Bus voltages" rows={result.buses} columns={columns} rowId={(b) => b.bus} selectedId={selectedBus} onRowSelect={onSelectBus} />
       <p className="mt-1 text-[11px] text-ink-muted">
         RMS, magnitude∠degrees. Line-to-neutral columns are to earth at a bus without a neutral. Neutral shift: neutral-to-earth voltage, V and % of nominal V_LN.

@@ -2,13 +2,16 @@
  * The "Element currents" table: conductor currents at each element's first connection (both sides
  * of a transformer bank, one row each), power, losses, loading, flags.
  */
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import type { CircuitResult, ElementResult, Phasor } from '../../../../shared/engine/index.ts';
+import { formatPu } from '../../../../shared/report/format.ts';
+import { busBase, readPerUnitSettings, type PerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { PhasorCell } from './bus-table.tsx';
 import { FlagMark } from './flag-mark.tsx';
 import { formatPowerFactor, formatValue } from './format.ts';
 import { phaseStyle, type WiringStandard } from './phase-style.ts';
 import { ResultsTable, type ResultColumn } from './results-table.tsx';
+import { UnitsSwitch } from './units-switch.tsx';
 
 const CONDUCTORS = ['a', 'b', 'c', 'n', '1', '2'];
 
@@ -69,7 +72,21 @@ function portCurrent(e: ElementResult, port: number, conductor: string): Phasor 
   return i >= 0 ? p.currents[i] : undefined;
 }
 
-function elementColumns(result: CircuitResult, standard: WiringStandard): ResultColumn<ElementRow>[] {
+/**
+ * Base current (A) of a row's side: I_base = S_base / (√3 · V_base,LL) of the voltage level of the
+ * bus that side connects to, as the report and the CSV take it (undefined without a nominal voltage).
+ */
+export function rowBaseAmps(result: CircuitResult, r: ElementRow, perUnit: PerUnitSettings): number | undefined {
+  const bus = r.e.ports?.[r.port]?.bus;
+  const b = bus ? result.buses.find((x) => x.bus === bus) : undefined;
+  return b ? busBase(perUnit, b)?.amps : undefined;
+}
+
+const puText = (x: number | undefined) => (x === undefined || !Number.isFinite(x) ? '—' : formatPu(x));
+
+function elementColumns(result: CircuitResult, standard: WiringStandard, units: ResultUnits, perUnit: PerUnitSettings): ResultColumn<ElementRow>[] {
+  const pu = units === 'pu';
+  const sBase = perUnit.baseMva * 1e6;
   const all = elementRows(result);
   const present = CONDUCTORS.filter((c) => all.some((r) => portCurrent(r.e, r.port, c)));
   const flagsOf = (e: ElementResult) => result.flags.filter((f) => f.elementId === e.id);
@@ -81,23 +98,34 @@ function elementColumns(result: CircuitResult, standard: WiringStandard): Result
       header: `${header} (${unit})`,
       numeric: true,
       sortValue: get,
-      render: (r) => (r.port === 0 ? formatValue(get(r), unit, digits) : ''),
+      render: (r) => (r.port === 0 ? (unit === 'pu' ? puText(get(r)) : formatValue(get(r), unit, digits)) : ''),
       tsvHeader: [`${header} (${unit})`],
       tsv: (r) => [get(r)?.toString() ?? ''],
     };
   };
-  const phasor = (id: string, header: string, get: (r: ElementRow) => Phasor | undefined): ResultColumn<ElementRow> => ({
-    id,
-    header: `${header} (A∠°)`,
-    numeric: true,
-    sortValue: (r) => get(r)?.mag,
-    render: (r) => <PhasorCell p={get(r)} />,
-    tsvHeader: [`${header} |I| (A)`, `${header} angle (°)`],
-    tsv: (r) => {
+  // In pu, a current over the base current of its side's level; `inPu` false keeps a column in A (earth currents, as in the report).
+  const phasor = (id: string, header: string, get: (r: ElementRow) => Phasor | undefined, inPu = pu): ResultColumn<ElementRow> => {
+    const u = inPu ? 'pu' : 'A';
+    const base = (r: ElementRow) => (inPu ? rowBaseAmps(result, r, perUnit) : undefined);
+    const shown = (r: ElementRow) => {
       const p = get(r);
-      return p ? [String(p.mag), String(p.angleDeg)] : ['', ''];
-    },
-  });
+      const b = base(r);
+      return p === undefined ? undefined : inPu ? (b ? p.mag / b : undefined) : p.mag;
+    };
+    return {
+      id,
+      header: `${header} (${u}∠°)`,
+      numeric: true,
+      sortValue: shown,
+      render: (r) => (inPu && get(r) && !base(r) ? <span className="text-ink-faint">—</span> : <PhasorCell p={get(r)} base={base(r)} />),
+      tsvHeader: [`${header} |I| (${u})`, `${header} angle (°)`],
+      tsv: (r) => {
+        const p = get(r);
+        const m = shown(r);
+        return p && m !== undefined ? [String(m), String(p.angleDeg)] : ['', ''];
+      },
+    };
+  };
   const first = (r: ElementRow) => r.port === 0;
   return [
     { id: 'id', header: 'Element', sortValue: (r) => r.e.id, render: (r) => <span className="font-semibold">{r.e.id}</span>, tsvHeader: ['Element'], tsv: (r) => [r.e.id] },
@@ -111,9 +139,9 @@ function elementColumns(result: CircuitResult, standard: WiringStandard): Result
       tsv: (r) => [TWO_SIDED.has(r.e.type) ? sideLabel(r.e, r.port) : buses(r.e).join(' -> ')],
     },
     ...present.map((c) => phasor(`i-${c}`, `I ${phaseStyle(c, standard).label}`, (r) => portCurrent(r.e, r.port, c))),
-    phasor('i-earth', 'I to earth', (r) => (first(r) ? r.e.earthCurrent : undefined)),
-    num('p', 'P', 'kW', (e) => e.power.re / 1000),
-    num('q', 'Q', 'kvar', (e) => e.power.im / 1000),
+    phasor('i-earth', 'I to earth', (r) => (first(r) ? r.e.earthCurrent : undefined), false),
+    pu ? num('p', 'P', 'pu', (e) => e.power.re / sBase) : num('p', 'P', 'kW', (e) => e.power.re / 1000),
+    pu ? num('q', 'Q', 'pu', (e) => e.power.im / sBase) : num('q', 'Q', 'kvar', (e) => e.power.im / 1000),
     {
       id: 'pf',
       header: 'PF',
@@ -123,7 +151,7 @@ function elementColumns(result: CircuitResult, standard: WiringStandard): Result
       tsvHeader: ['PF'],
       tsv: (r) => [first(r) ? formatPowerFactor(r.e.power) : ''],
     },
-    num('losses', 'Losses', 'kW', (e) => (e.losses ? e.losses.re / 1000 : undefined)),
+    pu ? num('losses', 'Losses', 'pu', (e) => (e.losses ? e.losses.re / sBase : undefined)) : num('losses', 'Losses', 'kW', (e) => (e.losses ? e.losses.re / 1000 : undefined)),
     num('loading', 'Loading', '%', (e) => e.loadingPercent, 1),
     {
       id: 'flags',
@@ -136,12 +164,26 @@ function elementColumns(result: CircuitResult, standard: WiringStandard): Result
   ];
 }
 
-/** Element currents of a result; `selectedId` highlights the canvas selection. */
-export function ElementTable({ result, standard, selectedId, onSelect }: { result: CircuitResult; standard: WiringStandard; selectedId?: string | null; onSelect?: (id: string) => void }) {
-  const columns = useMemo(() => elementColumns(result, standard), [result, standard]);
+/**
+ * Element currents of a result; `selectedId` highlights the canvas selection. An A/pu switch shows
+ * the conductor currents in per unit of the base current of each side's level and P, Q, losses in
+ * per unit of the system base (the study's bases, `perUnit`); earth currents stay in A, as in the report.
+ */
+export function ElementTable({ result, standard, selectedId, onSelect, perUnit }: { result: CircuitResult; standard: WiringStandard; selectedId?: string | null; onSelect?: (id: string) => void; perUnit?: PerUnitSettings }) {
+  const [units, setUnits] = useState<ResultUnits>('si');
+  const bases = useMemo(() => perUnit ?? readPerUnitSettings(undefined), [perUnit]);
+  const columns = useMemo(() => elementColumns(result, standard, units, bases), [result, standard, units, bases]);
   const rows = useMemo(() => elementRows(result), [result]);
   return (
     <div>
+      <UnitsSwitch
+        label="Element current units"
+        lead="Currents in"
+        siWord="A"
+        units={units}
+        onChange={setUnits}
+        note={`of the base current of each side's level, I_base = S_base / (√3 · V_base,LL), on ${bases.baseMva} MVA; P, Q and losses in pu of ${bases.baseMva} MVA; earth currents in A.`}
+      />
       <ResultsTable label="Element currents" rows={rows} columns={columns} rowId={(r) => r.rowId} selectedId={selectedId} onRowSelect={onSelect ? (id) => onSelect(id.split('\u0000')[0]) : undefined} />
       <p className="mt-1 text-[11px] text-ink-muted">
         Currents at each element's first connection, and at both sides of a transformer bank, RMS: into the element for loads and series elements, out of the source for sources. P and Q:

@@ -3,12 +3,14 @@
  * own terminals, its rating and that voltage in per unit of it, and its verdict against the limit
  * set. A load behind a broken neutral is judged on what it sees, not on the bus figure.
  */
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import type { CircuitResult, LoadBranchResult, LoadResult } from '../../../../shared/engine/index.ts';
+import { busBase, readPerUnitSettings, type PerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { PhasorCell } from './bus-table.tsx';
 import { formatMagnitude } from './format.ts';
 import { phaseStyle, type WiringStandard } from './phase-style.ts';
 import { ResultsTable, type ResultColumn } from './results-table.tsx';
+import { UnitsSwitch } from './units-switch.tsx';
 
 /** One row: a branch of a load. */
 export interface LoadRow {
@@ -40,7 +42,25 @@ export function loadRows(result: CircuitResult): LoadRow[] {
   return (result.loads ?? []).flatMap((load) => load.branches.map((branch, k) => ({ rowId: k === 0 ? load.id : `${load.id}\u0000${branch.branch}`, load, branch })));
 }
 
-function columns(standard: WiringStandard): ResultColumn<LoadRow>[] {
+/**
+ * Base voltage (V) of a branch in the "pu of base" view: the bus's line-to-line base across two
+ * phases, its line-to-neutral base otherwise, as the report and the CSV take it.
+ */
+export function branchBaseVolts(result: CircuitResult, r: LoadRow, perUnit: PerUnitSettings): number | undefined {
+  const b = result.buses.find((x) => x.bus === r.load.bus);
+  const base = b ? busBase(perUnit, b) : undefined;
+  const phaseToPhase = /^[abc12]$/.test(r.branch.fromConductor) && /^[abc12]$/.test(r.branch.toConductor);
+  return phaseToPhase ? base?.vLL : base?.vLN;
+}
+
+function columns(result: CircuitResult, standard: WiringStandard, units: ResultUnits, perUnit: PerUnitSettings): ResultColumn<LoadRow>[] {
+  const pu = units === 'pu';
+  const base = (r: LoadRow) => (pu ? branchBaseVolts(result, r, perUnit) : undefined);
+  const shown = (r: LoadRow) => {
+    const b = base(r);
+    return pu ? (b ? r.branch.voltage.mag / b : undefined) : r.branch.voltage.mag;
+  };
+  const u = pu ? 'pu' : 'V';
   return [
     {
       id: 'load',
@@ -54,12 +74,15 @@ function columns(standard: WiringStandard): ResultColumn<LoadRow>[] {
     { id: 'across', header: 'Across', sortValue: (r) => branchLabel(r.branch, standard), render: (r) => branchLabel(r.branch, standard), tsvHeader: ['Across'], tsv: (r) => [branchLabel(r.branch, standard)] },
     {
       id: 'v',
-      header: 'Terminal voltage (V∠°)',
+      header: pu ? 'Terminal voltage, of bus base (pu∠°)' : 'Terminal voltage (V∠°)',
       numeric: true,
-      sortValue: (r) => r.branch.voltage.mag,
-      render: (r) => <PhasorCell p={r.branch.voltage} />,
-      tsvHeader: ['Terminal voltage |V| (V)', 'Terminal voltage angle (°)'],
-      tsv: (r) => [String(r.branch.voltage.mag), String(r.branch.voltage.angleDeg)],
+      sortValue: shown,
+      render: (r) => (pu && !base(r) ? <span className="text-ink-faint">—</span> : <PhasorCell p={r.branch.voltage} base={base(r)} />),
+      tsvHeader: [pu ? 'Terminal voltage, of bus base |V| (pu)' : 'Terminal voltage |V| (V)', 'Terminal voltage angle (°)'],
+      tsv: (r) => {
+        const m = shown(r);
+        return m === undefined ? ['', ''] : [String(m), String(r.branch.voltage.angleDeg)];
+      },
     },
     {
       id: 'rated',
@@ -107,13 +130,23 @@ function columns(standard: WiringStandard): ResultColumn<LoadRow>[] {
 }
 
 /** Terminal voltages of every load; `selectedId` highlights the canvas selection. */
-export function LoadTable({ result, standard, selectedId, onSelect }: { result: CircuitResult; standard: WiringStandard; selectedId?: string | null; onSelect?: (id: string) => void }) {
-  const cols = useMemo(() => columns(standard), [standard]);
+export function LoadTable({ result, standard, selectedId, onSelect, perUnit }: { result: CircuitResult; standard: WiringStandard; selectedId?: string | null; onSelect?: (id: string) => void; perUnit?: PerUnitSettings }) {
+  const [units, setUnits] = useState<ResultUnits>('si');
+  const bases = useMemo(() => perUnit ?? readPerUnitSettings(undefined), [perUnit]);
+  const cols = useMemo(() => columns(result, standard, units, bases), [result, standard, units, bases]);
   const rows = useMemo(() => loadRows(result), [result]);
   if (rows.length === 0) return null;
   const l = result.limits;
   return (
     <div>
+      <UnitsSwitch
+        label="Load voltage units"
+        lead="Terminal voltages in"
+        siWord="V"
+        units={units}
+        onChange={setUnits}
+        note={`of the bus's base (line to line across two phases, else line to neutral) on ${bases.baseMva} MVA; the rating column and its per unit stay as they are.`}
+      />
       <ResultsTable label="Load voltages" rows={rows} columns={cols} rowId={(r) => r.rowId} selectedId={selectedId} onRowSelect={onSelect ? (id) => onSelect(id.split('\u0000')[0]) : undefined} />
       <p className="mt-1 text-[11px] text-ink-muted">
         The voltage across each load's own terminals (each branch of a three-phase load), RMS, in per unit of the load's rating (its own, else the bus nominal).

@@ -191,7 +191,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
           <FloatingNotices result={result} />
           <FlagsSection result={result} />
           <BusTable result={result} standard={standard} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
-          <LoadTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+          <LoadTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           {bus ? (
             <Section title={`Phasors at bus ${bus.bus}`}>
               <label htmlFor={selectId} className="mr-1 text-[12px]">
@@ -233,7 +233,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
             </select>
             <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
           </Section>
-          <ElementTable result={result} standard={standard} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+          <ElementTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <SequenceVoltageTable result={result} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
           <SequenceCurrentTable result={result} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <TransformerSection result={result} />
