@@ -234,8 +234,8 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
             <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
           </Section>
           <ElementTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
-          <SequenceVoltageTable result={result} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
-          <SequenceCurrentTable result={result} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+          <SequenceVoltageTable result={result} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+          <SequenceCurrentTable result={result} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <TransformerSection result={result} />
           <FaultSection result={result} standard={standard} />
           <PowerSummary result={result} />

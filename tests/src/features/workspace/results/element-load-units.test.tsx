@@ -9,6 +9,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { demoCircuits, solveCircuit } from '../../../../../shared/engine/index.ts';
 import { ElementTable } from '../../../../../src/features/workspace/results/element-table.tsx';
 import { LoadTable } from '../../../../../src/features/workspace/results/load-table.tsx';
+import { SequenceCurrentTable, SequenceVoltageTable } from '../../../../../src/features/workspace/results/sequence-tables.tsx';
 import { formatMagnitude } from '../../../../../src/features/workspace/results/format.ts';
 
 const result = solveCircuit(demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit);
@@ -91,5 +92,30 @@ describe('LoadTable units', () => {
     expect(lines[1]).toMatch(/of bus base \|V\| \(pu\)/);
     const cells = lines.find((l) => l.startsWith('ELECTRONICS,'))!.split(',').map(Number);
     expect(cells.some((x) => Math.abs(x - v.mag / house.nominalVLN!) < 1e-12)).toBe(true);
+  });
+});
+
+describe('Sequence tables units', () => {
+  it('shows sequence voltages in pu of the line-to-neutral base and sequence currents in pu of the base current', async () => {
+    render(
+      <>
+        <SequenceVoltageTable result={result} perUnit={perUnit} />
+        <SequenceCurrentTable result={result} perUnit={perUnit} />
+      </>,
+    );
+    const v2 = house.sequence!.negative.mag;
+    const drop = result.elements.DROP.ports![0];
+    const pad = result.buses.find((b) => b.bus === drop.bus)!;
+    const i1 = drop.sequence!.positive.mag;
+    const padBase = (perUnit.baseMva * 1e6) / (Math.sqrt(3) * pad.nominalVLL!);
+    const vRow = () => within(screen.getByRole('table', { name: 'Sequence voltages' })).getByRole('row', { name: /HOUSE/ });
+    const iRow = () => within(screen.getByRole('table', { name: 'Sequence currents' })).getByRole('row', { name: /DROP/ });
+    expect(vRow()).toHaveTextContent(formatMagnitude(v2));
+    await userEvent.click(within(screen.getByRole('group', { name: 'Sequence voltage units' })).getByRole('button', { name: 'pu' }));
+    expect(vRow()).toHaveTextContent((v2 / house.nominalVLN!).toFixed(3));
+    expect(vRow()).not.toHaveTextContent(formatMagnitude(v2));
+    await userEvent.click(within(screen.getByRole('group', { name: 'Sequence current units' })).getByRole('button', { name: 'pu' }));
+    expect(Number((i1 / padBase).toFixed(3))).toBeGreaterThan(0.1);
+    expect(iRow()).toHaveTextContent((i1 / padBase).toFixed(3));
   });
 });
