@@ -218,12 +218,25 @@ export function powerTable(ctx: TableContext): ResultTable {
   };
 }
 
-/** Fault currents per phase, to earth, and their sequence components. */
+/** Fault currents per phase, to earth, and their sequence components (in pu: of the base current of the faulted bus's level). */
 export function faultTable(ctx: TableContext): ResultTable {
+  const byBus = new Map(ctx.result.buses.map((b) => [b.bus, b] as const));
+  const u = unitOf(ctx, 'A');
   const rows = ctx.result.faults
     .filter((f) => !isPrivateName(f.id))
-    .map((f) => [f.id, ctx.names.drawnBus(f.bus), f.phases.map(conductorName).join(', '), ...(['a', 'b', 'c'] as const).map((c) => formatMagnitude(f.phaseCurrents[c].mag)), formatMagnitude(f.earthCurrent.mag), formatMagnitude(f.sequence.zero.mag), formatMagnitude(f.sequence.positive.mag), formatMagnitude(f.sequence.negative.mag)]);
-  return { id: 'faults', title: 'Fault currents', columns: ['Fault', 'Bus', 'Phases', 'A (A)', 'B (A)', 'C (A)', 'Earth (A)', 'I0 (A)', 'I1 (A)', 'I2 (A)'], rows };
+    .map((f) => {
+      const bus = ctx.names.drawnBus(f.bus);
+      const amps = busBase(ctx.perUnit, byBus.get(bus) ?? byBus.get(f.bus) ?? {})?.amps;
+      const i = (x: number) => inUnits(ctx, x, amps);
+      return [f.id, bus, f.phases.map(conductorName).join(', '), ...(['a', 'b', 'c'] as const).map((c) => i(f.phaseCurrents[c].mag)), i(f.earthCurrent.mag), i(f.sequence.zero.mag), i(f.sequence.positive.mag), i(f.sequence.negative.mag)];
+    });
+  return {
+    id: 'faults',
+    title: 'Fault currents',
+    columns: ['Fault', 'Bus', 'Phases', `A (${u})`, `B (${u})`, `C (${u})`, `Earth (${u})`, `I0 (${u})`, `I1 (${u})`, `I2 (${u})`],
+    rows,
+    ...(ctx.units === 'pu' ? { note: "Per unit of the base current of the faulted bus's level." } : {}),
+  };
 }
 
 const SEVERITY_WORDS: Record<Flag['severity'], string> = { violation: 'violation', warning: 'warning', info: 'note' };

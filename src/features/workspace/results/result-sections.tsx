@@ -1,9 +1,12 @@
 /** The smaller sections of the results panel: limits and flags, power balance, transformers, faults, floating parts, caution. */
-import { useState } from 'react';
-import { UNBALANCE_METRICS, type CircuitResult, type Flag } from '../../../../shared/engine/index.ts';
+import { useMemo, useState } from 'react';
+import { UNBALANCE_METRICS, type CircuitResult, type Flag, type Phasor } from '../../../../shared/engine/index.ts';
+import { formatPu } from '../../../../shared/report/format.ts';
+import { busBase, readPerUnitSettings, type PerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { UnbalanceSummary } from './unbalance-summary.tsx';
 import { SEVERITY } from './flag-mark.tsx';
-import { formatMagnitude, formatPhasor, formatValue, kvar, kW } from './format.ts';
+import { formatAngle, formatMagnitude, formatPhasor, formatValue, kvar, kW } from './format.ts';
+import { UnitsSwitch } from './units-switch.tsx';
 import { phaseStyle, type WiringStandard } from './phase-style.ts';
 
 const METRIC_NAME = { iec: 'IEC negative-sequence factor |V2|/|V1|', nema: 'NEMA line-voltage unbalance (max deviation from average)', ieee: 'IEEE phase-voltage unbalance (line-to-neutral)' } as const;
@@ -157,44 +160,68 @@ export function TransformerSection({ result }: { result: CircuitResult }) {
   );
 }
 
-/** Fault currents, when the study has a fault element. */
-export function FaultSection({ result, standard }: { result: CircuitResult; standard: WiringStandard }) {
+/** A fault current in the chosen units: A∠° as formatted, or per unit of `amps` with its angle (— without a base). */
+function faultCurrent(p: Phasor, units: ResultUnits, amps: number | undefined): string {
+  if (units === 'si') return formatPhasor(p, 'A');
+  if (!amps) return '—';
+  return p.mag < 1e-6 ? '0 pu' : `${formatPu(p.mag / amps)} pu∠${formatAngle(p.angleDeg)}`;
+}
+
+/**
+ * Fault currents, when the study has a fault element. An A/pu switch shows them in per unit of the
+ * base current of the faulted bus's level (`perUnit`, the study's bases), as the report and the CSV do.
+ */
+export function FaultSection({ result, standard, perUnit }: { result: CircuitResult; standard: WiringStandard; perUnit?: PerUnitSettings }) {
+  const [units, setUnits] = useState<ResultUnits>('si');
+  const bases = useMemo(() => perUnit ?? readPerUnitSettings(undefined), [perUnit]);
   if (result.faults.length === 0) return null;
+  const u = units === 'pu' ? 'pu' : 'A';
   return (
     <section aria-labelledby="res-faults">
       <h3 id="res-faults" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
         Faults
       </h3>
+      <UnitsSwitch
+        label="Fault current units"
+        lead="Currents in"
+        siWord="A"
+        units={units}
+        onChange={setUnits}
+        note={`of the base current of the faulted bus's level, I_base = S_base / (√3 · V_base,LL), on ${bases.baseMva} MVA.`}
+      />
       <table aria-label="Fault currents" className="text-[12px]">
         <thead className="text-ink-muted">
           <tr>
             <th scope="col" className="pr-2 text-left">Fault</th>
             {(['a', 'b', 'c'] as const).map((p) => (
               <th key={p} scope="col" className="px-2 text-right">
-                I {phaseStyle(p, standard).label} (A∠°)
+                I {phaseStyle(p, standard).label} ({u}∠°)
               </th>
             ))}
-            <th scope="col" className="px-2 text-right">I to earth (A∠°)</th>
-            <th scope="col" className="px-2 text-right">I1, I2, I0 (A)</th>
+            <th scope="col" className="px-2 text-right">I to earth ({u}∠°)</th>
+            <th scope="col" className="px-2 text-right">I1, I2, I0 ({u})</th>
           </tr>
         </thead>
         <tbody className="num">
-          {result.faults.map((f) => (
-            <tr key={f.id}>
-              <th scope="row" className="pr-2 text-left" style={{ fontFamily: 'var(--font-sans)' }}>
-                {f.id} <span className="font-normal text-ink-muted">({f.kind}, {f.phases.join('')} at {f.bus})</span>
-              </th>
-              {(['a', 'b', 'c'] as const).map((p) => (
-                <td key={p} className="px-2 text-right">
-                  {formatPhasor(f.phaseCurrents[p], 'A')}
-                </td>
-              ))}
-              <td className="px-2 text-right">{formatPhasor(f.earthCurrent, 'A')}</td>
-              <td className="px-2 text-right">
-                {[f.sequence.positive, f.sequence.negative, f.sequence.zero].map((s) => formatMagnitude(s.mag)).join(', ')}
-              </td>
-            </tr>
-          ))}
+          {result.faults.map((f) => {
+            const b = result.buses.find((x) => x.bus === f.bus);
+            const amps = b ? busBase(bases, b)?.amps : undefined;
+            const seq = (x: number) => (units === 'si' ? formatMagnitude(x) : amps ? formatPu(x / amps) : '—');
+            return (
+              <tr key={f.id}>
+                <th scope="row" className="pr-2 text-left" style={{ fontFamily: 'var(--font-sans)' }}>
+                  {f.id} <span className="font-normal text-ink-muted">({f.kind}, {f.phases.join('')} at {f.bus})</span>
+                </th>
+                {(['a', 'b', 'c'] as const).map((p) => (
+                  <td key={p} className="px-2 text-right">
+                    {faultCurrent(f.phaseCurrents[p], units, amps)}
+                  </td>
+                ))}
+                <td className="px-2 text-right">{faultCurrent(f.earthCurrent, units, amps)}</td>
+                <td className="px-2 text-right">{[f.sequence.positive, f.sequence.negative, f.sequence.zero].map((s) => seq(s.mag)).join(', ')}</td>
+              </tr>
+            );
+          })}
         </tbody>
       </table>
     </section>

@@ -237,7 +237,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
           <SequenceVoltageTable result={result} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
           <SequenceCurrentTable result={result} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <TransformerSection result={result} />
-          <FaultSection result={result} standard={standard} />
+          <FaultSection result={result} standard={standard} perUnit={perUnit} />
           <PowerSummary result={result} />
         </div>
       ) : null}
