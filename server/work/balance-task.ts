@@ -15,9 +15,16 @@ import {
   type CircuitInput,
   type Customer,
 } from '../../shared/engine/index.ts';
-import type { BalanceResponse, MixWeights } from '../../shared/api/balancing.ts';
+import type { BalanceProgress, BalanceResponse, MixWeights } from '../../shared/api/balancing.ts';
 import { circuitNames } from '../../shared/review/user-names.ts';
+import type { MessagePort } from 'node:worker_threads';
 import { highsRuntime } from './highs.ts';
+
+/** What a running balancing job reports: its stage and the exact solves made so far. */
+export type BalanceProgressMessage = BalanceProgress;
+
+/** At most one progress message per this many milliseconds (a new stage is always sent). */
+const PROGRESS_EVERY_MS = 100;
 
 export interface BalanceTask {
   kind: 'balance';
@@ -28,6 +35,8 @@ export interface BalanceTask {
   weights?: MixWeights;
   bus?: string;
   maxMoves?: number;
+  /** Where progress goes (a transferred MessagePort of a MessageChannel); absent: none is sent. */
+  progress?: MessagePort;
 }
 
 export type BalanceOutcome = { ok: true; response: BalanceResponse } | { ok: false; message: string; field?: string };
@@ -47,6 +56,17 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
     throw e;
   }
   const highs = await highsRuntime();
+  let lastStage = '';
+  let lastAt = 0;
+  const onProgress = task.progress
+    ? (p: BalanceProgressMessage) => {
+        const now = Date.now();
+        if (p.stage === lastStage && now - lastAt < PROGRESS_EVERY_MS) return;
+        lastStage = p.stage;
+        lastAt = now;
+        task.progress?.postMessage({ stage: p.stage, solves: p.solves } satisfies BalanceProgressMessage);
+      }
+    : undefined;
   try {
     const r = balancePhases(highs, feeder, customers, {
       objective: { objective: task.objective, ...(task.definition ? { definition: task.definition } : {}), ...(task.objective === 'mix' && task.weights ? { weights: task.weights } : {}) },
@@ -55,6 +75,7 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
       milpTimeLimitS: 3,
       relinearise: 2,
       maxEvaluations: 150,
+      onProgress,
     });
     return {
       ok: true,
@@ -79,5 +100,7 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
     if (e instanceof CustomerListError) return { ok: false, message: `The customers do not fit the study: ${e.issues.slice(0, 5).map(issueText).join('; ')}.`, field: e.issues.some((i) => i.row !== undefined) ? 'customersCsv' : undefined };
     if (e instanceof EngineError) return { ok: false, message: `The study cannot be balanced: ${words(e.message)}` };
     throw e;
+  } finally {
+    task.progress?.close();
   }
 }

@@ -8,12 +8,13 @@
  *
  * Workers are TypeScript files loaded through tsx (`--import tsx`, as the server itself runs).
  */
+import { MessageChannel, type TransferListItem } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { RevisionDiff, DiffSide } from '../../shared/review/diff.ts';
 import { AppError } from '../errors.ts';
 import type { CsvInput } from '../report/csv.ts';
 import type { ReportInput } from '../report/pdf.ts';
-import type { BalanceOutcome, BalanceTask } from './balance-task.ts';
+import type { BalanceOutcome, BalanceProgressMessage, BalanceTask } from './balance-task.ts';
 import type { SweepOutputSpec, SweepPointRow } from '../../shared/engine/index.ts';
 import { prepare, runTask, type Prepared, type SweepOutputsAnswer, type Task } from './tasks.ts';
 
@@ -32,8 +33,11 @@ export interface WorkPoolOptions {
 export interface WorkPool {
   prepare(circuit: unknown): Promise<Prepared>;
   diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
-  /** Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped). */
-  balance(task: BalanceTask, signal?: AbortSignal): Promise<BalanceOutcome>;
+  /**
+   * Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped);
+   * `onProgress` hears its stage and exact solves (through a MessagePort, at most every 100 ms).
+   */
+  balance(task: BalanceTask, signal?: AbortSignal, onProgress?: (p: BalanceProgressMessage) => void): Promise<BalanceOutcome>;
   /** The PDF report of a revision (server/report/pdf.ts). */
   report(input: ReportInput): Promise<Uint8Array>;
   /** One results table as CSV (server/report/csv.ts). */
@@ -62,14 +66,14 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       maxQueue,
     }));
 
-  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal, limitMs = timeoutMs): Promise<T> {
+  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal, limitMs = timeoutMs, transferList?: TransferListItem[]): Promise<T> {
     const p = getPool();
     if (p.queueSize >= maxQueue) {
       throw new AppError(503, 'unavailable', 'The server is busy with other large studies; try again in a moment.', { retryAfterSeconds: 5 });
     }
     try {
       const signal = cancel ? AbortSignal.any([AbortSignal.timeout(limitMs), cancel]) : AbortSignal.timeout(limitMs);
-      return (await p.run(task, { signal })) as T;
+      return (await p.run(task, { signal, ...(transferList ? { transferList } : {}) })) as T;
     } catch (err) {
       if (cancel?.aborted) throw new AppError(503, 'unavailable', 'The balancing was cancelled.');
       if (err instanceof Error && (err.name === 'AbortError' || /aborted/i.test(err.message))) {
@@ -89,8 +93,15 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       if (elementCount(circuit) < INLINE_ELEMENTS) return prepare(circuit);
       return run<Prepared>({ kind: 'prepare', circuit });
     },
-    async balance(task, signal) {
-      return run<BalanceOutcome>(task, signal);
+    async balance(task, signal, onProgress) {
+      if (!onProgress) return run<BalanceOutcome>(task, signal);
+      const channel = new MessageChannel();
+      channel.port1.on('message', (m: BalanceProgressMessage) => onProgress(m));
+      try {
+        return await run<BalanceOutcome>({ ...task, progress: channel.port2 }, signal, timeoutMs, [channel.port2]);
+      } finally {
+        channel.port1.close();
+      }
     },
     async diff(from, to) {
       const size = Math.max(elementCount((from.content as { circuit?: unknown }).circuit), elementCount((to.content as { circuit?: unknown }).circuit));

@@ -85,3 +85,15 @@ export const balanceResponseSchema = z.object({
   caution: z.string(),
 });
 export type BalanceResponse = z.infer<typeof balanceResponseSchema>;
+
+/** Stages a running balancing reports (the engine's balancePhases onProgress). */
+export const BALANCE_STAGES = ['solving', 'linearising', 'milp', 'local-search', 'done'] as const;
+
+/** One progress report of a running balancing: its stage and the exact solves made so far. */
+export interface BalanceProgress {
+  stage: (typeof BALANCE_STAGES)[number];
+  solves: number;
+}
+
+/** The media type of the streamed mode of POST /api/studies/:id/balance (newline-delimited JSON). */
+export const BALANCE_STREAM_TYPE = 'application/x-ndjson';

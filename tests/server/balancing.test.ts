@@ -143,3 +143,69 @@ describe('balancing a study', () => {
     expect(load.between).toEqual([moved.to.toLowerCase(), 'n']);
   });
 });
+
+describe('balancing with progress (Accept: application/x-ndjson)', () => {
+  // the whole streamed body as text (supertest does not buffer this content type by itself)
+  const ndjson = (agent: TestAgent, id: string, body: object) =>
+    agent
+      .post(`/api/studies/${id}/balance`)
+      .set('Accept', 'application/x-ndjson')
+      .buffer(true)
+      .parse((r, done) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (chunk: string) => (text += chunk));
+        r.on('end', () => done(null, text));
+      })
+      .send(body);
+
+  it('streams progress lines, then the same answer as the JSON mode', async () => {
+    const input = { customersCsv: CSV, objective: 'neutral', maxMoves: 2 };
+    const res = await ndjson(viewer, feederStudy, input);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^application\/x-ndjson/);
+    const text = res.body as string;
+    expect(text.endsWith('\n')).toBe(true);
+    const lines = text.trimEnd().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
+    const last = lines.at(-1)!;
+    expect(Object.keys(last)).toEqual(['result']);
+    const progress = lines.slice(0, -1);
+    expect(progress.length).toBeGreaterThan(0);
+    for (const l of progress) {
+      expect(Object.keys(l)).toEqual(['progress']);
+      const p = l.progress as { stage: string; solves: number };
+      expect(['solving', 'linearising', 'milp', 'local-search', 'done']).toContain(p.stage);
+      expect(Number.isInteger(p.solves) && p.solves >= 0).toBe(true);
+    }
+    // the solves counted never go down, and the job got past its first stage (P)
+    const solves = progress.map((l) => (l.progress as { solves: number }).solves);
+    expect(solves).toEqual([...solves].sort((a, b) => a - b));
+    expect(new Set(progress.map((l) => (l.progress as { stage: string }).stage)).size).toBeGreaterThan(1);
+    const streamed = balanceResponseSchema.parse(last.result);
+    const plain = await viewer.post(`/api/studies/${feederStudy}/balance`).send(input);
+    expect(plain.status).toBe(200);
+    expect(plain.headers['content-type']).toMatch(/^application\/json/);
+    const json = balanceResponseSchema.parse(plain.body);
+    expect(Object.keys(last.result as object).sort()).toEqual(Object.keys(plain.body as object).sort());
+    expect(streamed.before).toEqual(json.before);
+    expect(streamed.objective).toBe(json.objective);
+    expect(streamed.moves.length).toBeLessThanOrEqual(2);
+  });
+
+  it('still answers bad input with a 4xx JSON error before any streaming', async () => {
+    const bad = await engineer
+      .post(`/api/studies/${feederStudy}/balance`)
+      .set('Accept', 'application/x-ndjson')
+      .send({ customersCsv: 'customer,bus,phase,kw,kvar\nH1,P1,A,two,0\n' });
+    expect(bad.status).toBe(400);
+    expect(bad.headers['content-type']).toMatch(/^application\/json/);
+    expect(bad.body.error.code).toBe('validation');
+    expect(bad.body.error.message).toContain('row 2, column kw: kW must be a number (found "two")');
+    const objective = await engineer.post(`/api/studies/${feederStudy}/balance`).set('Accept', 'application/x-ndjson').send({ customersCsv: CSV, objective: 'cost' });
+    expect(objective.status).toBe(400);
+    expect(objective.body.error.code).toBe('validation');
+    const foreign = await stranger.post(`/api/studies/${feederStudy}/balance`).set('Accept', 'application/x-ndjson').send({ customersCsv: CSV });
+    expect(foreign.status).toBe(404);
+    expect(foreign.body.error.code).toBe('not-found');
+  });
+});
