@@ -101,15 +101,18 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
       body = text;
     }
   }
-  if (!res.ok) {
-    const error = readErrorBody(res.status, res.statusText, body);
-    const header = Number(res.headers.get('Retry-After'));
-    const retry = typeof error.retryAfterSeconds === 'number'
-      ? error.retryAfterSeconds
-      : Number.isFinite(header) && header > 0 ? header : undefined;
-    throw new ApiError(res.status, error, body, retry);
-  }
+  if (!res.ok) throw responseError(res, body);
   return body as T;
+}
+
+/** The ApiError of a non-2xx answer and its parsed body (for fetchers that read the response themselves). */
+export function responseError(res: Response, body: unknown): ApiError {
+  const error = readErrorBody(res.status, res.statusText, body);
+  const header = Number(res.headers.get('Retry-After'));
+  const retry = typeof error.retryAfterSeconds === 'number'
+    ? error.retryAfterSeconds
+    : Number.isFinite(header) && header > 0 ? header : undefined;
+  return new ApiError(res.status, error, body, retry);
 }
 
 /** JSON API calls; paths start with `/api`. */

@@ -1,14 +1,14 @@
 /**
  * Phase balancing of a study: the customers are the study's own single-phase loads or an uploaded
  * customer list (CSV, read with papaparse and checked here, checked again by the server); the
- * planner picks the objective (or a weighted mix of them with its four weights) and the move limit, runs it on the server (Cancel stops it), reads
+ * planner picks the objective (or a weighted mix of them with its four weights) and the move limit, runs it on the server (its progress in words beside Cancel, which stops it), reads
  * the move list with the caution, the before / after / rotating-rule table, phasor diagrams of the
  * currents where the neutral is measured and each customer's voltage, downloads the moves as CSV, and applies them as a new revision (which goes to review
  * like any change).
  */
 import { useRef, useState, type FormEvent } from 'react';
 import { Link } from 'react-router';
-import { MIX_TERMS, type BalanceRequest, type BalanceResponse, type MixWeights } from '../../../../shared/api/balancing.ts';
+import { MIX_TERMS, type BalanceProgress, type BalanceRequest, type BalanceResponse, type MixWeights } from '../../../../shared/api/balancing.ts';
 import type { StudyContent, StudyDetail } from '../../../../shared/api/studies.ts';
 import { applyAssignment, applyCustomers, FIGURE_ROWS, movesCsv, type CircuitInput, type Customer } from '../../../../shared/engine/index.ts';
 import { Button } from '../../../components/button.tsx';
@@ -17,6 +17,7 @@ import { Notice } from '../../../components/notice.tsx';
 import { useRunBalance } from '../api/run-balance.ts';
 import { readCustomersCsv, type ReadCustomers } from '../utils/read-customers.ts';
 import { readWeights, type WeightTexts } from '../utils/mix-weights.ts';
+import { progressWords } from '../utils/progress-words.ts';
 import { CurrentPhasors } from './current-phasors.tsx';
 
 const OBJECTIVES = [
@@ -50,6 +51,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
   const [applying, setApplying] = useState(false);
   const run = useRunBalance(study.id);
   const abort = useRef<AbortController | null>(null);
+  const [progress, setProgress] = useState<BalanceProgress | null>(null);
 
   async function pick(f: File | undefined) {
     setFile(f ? { name: f.name, read: readCustomersCsv(await f.text()) } : null);
@@ -79,6 +81,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
     const controller = new AbortController();
     abort.current = controller;
     setResult(null);
+    setProgress(null);
     run.mutate(
       {
         body: {
@@ -90,6 +93,9 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
           ...(customersCsv !== undefined ? { customersCsv } : {}),
         },
         signal: controller.signal,
+        onProgress: (p) => {
+          if (abort.current === controller && !controller.signal.aborted) setProgress(p);
+        },
       },
       { onSuccess: (response) => setResult({ response, customers }) },
     );
@@ -224,8 +230,8 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
           {running ? (
             <>
               <Button onClick={cancel}>Cancel</Button>
-              <span role="status" className="text-[13px] text-ink-muted">
-                Linearising the feeder, solving the assignment problem and checking the moves with exact solves on the server…
+              <span role="status" aria-live="polite" className="text-[13px] text-ink-muted">
+                {progress ? progressWords(progress) : 'Finding the best moves: starting on the server…'}
               </span>
             </>
           ) : null}

@@ -1,11 +1,13 @@
 /**
  * The balancing page's weighted mix: the objective choice offers it with four labelled weight boxes,
  * the request carries the weights typed (an empty box weighs nothing), and bad weights are form
- * errors in words that send nothing to the server.
+ * errors in words that send nothing to the server. While the server works, the page asks for the
+ * streamed mode and shows each progress line in words beside Cancel (in a live region), and an error
+ * that arrives after streaming began; the server's stream is stood in for at the fetch boundary.
  */
 import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { apiError, stubApi } from '../../helpers/fake-api.ts';
 import { me, studyDetail } from '../../helpers/fixtures.ts';
 import { renderApp } from '../../helpers/render-app.tsx';
@@ -65,5 +67,55 @@ describe('balancing page: weighted mix', () => {
     await user.click(run);
     expect(screen.getByRole('alert')).toHaveTextContent('Give the weighted mix at least one weight above zero.');
     expect(posts(api)).toHaveLength(0);
+  });
+});
+
+function setupStream() {
+  const s = studyDetail({ name: 'Lane houses' });
+  const api = stubApi({
+    'GET /api/auth/me': () => ({ body: me('engineer') }),
+    'GET /api/studies/:id': () => ({ body: s }),
+  });
+  let push!: (text: string) => void;
+  let close!: () => void;
+  const stream = new ReadableStream<Uint8Array>({
+    start(c) {
+      const bytes = new TextEncoder();
+      push = (text) => c.enqueue(bytes.encode(text));
+      close = () => c.close();
+    },
+  });
+  const balanceCalls: RequestInit[] = [];
+  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+    if (init?.method === 'POST' && String(input).endsWith('/balance')) {
+      balanceCalls.push(init);
+      return new Response(stream, { status: 200, headers: { 'Content-Type': 'application/x-ndjson; charset=utf-8' } });
+    }
+    return api.fetch(input, init);
+  });
+  renderApp(`/studies/${s.id}/balance`);
+  return { push: (t: string) => push(t), close: () => close(), balanceCalls };
+}
+
+describe('balancing page: progress while running', () => {
+  it('shows each progress line in words beside Cancel, then an error that came after streaming began', async () => {
+    const user = userEvent.setup();
+    const server = setupStream();
+    await user.click(await screen.findByRole('button', { name: 'Run balancing' }));
+    expect(await screen.findByRole('button', { name: 'Cancel' })).toBeInTheDocument();
+    expect(new Headers(server.balanceCalls[0].headers).get('Accept')).toContain('application/x-ndjson');
+    // one line split across two chunks
+    server.push('{"progress":{"stage":"linear');
+    server.push('ising","solves":12}}\n');
+    const status = await screen.findByText('Finding the best moves: linearising the feeder — 12 exact solves so far');
+    expect(status).toHaveAttribute('aria-live', 'polite');
+    expect(status).toHaveAttribute('role', 'status');
+    server.push('{"progress":{"stage":"milp","solves":13}}\n{"progress":{"stage":"local-search","solves":1}}\n');
+    expect(await screen.findByText('Finding the best moves: checking moves with exact solves — 1 exact solve so far')).toBeInTheDocument();
+    server.push('{"error":{"code":"unavailable","message":"The balancing was cancelled."}}\n');
+    server.close();
+    expect(await screen.findByText('The balancing was cancelled.')).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Cancel' })).not.toBeInTheDocument();
+    expect(screen.queryByText(/exact solves? so far/)).not.toBeInTheDocument();
   });
 });
