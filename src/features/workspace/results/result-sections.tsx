@@ -69,8 +69,12 @@ function FlagRow({ flag }: { flag: Flag }) {
 const sci = (x: number) => x.toExponential(2).replace(/-/g, '−');
 
 /** Power totals and the balance check: source = load + faults + losses, residual shown. */
-export function PowerSummary({ result }: { result: CircuitResult }) {
+export function PowerSummary({ result, perUnit }: { result: CircuitResult; perUnit?: PerUnitSettings }) {
+  const [units, setUnits] = useState<ResultUnits>('si');
+  const bases = useMemo(() => perUnit ?? readPerUnitSettings(undefined), [perUnit]);
   const t = result.totals;
+  const sBase = bases.baseMva * 1e6;
+  const puOf = (x: number) => `${formatPu(x / sBase)} pu`;
   // A residual within a millionth of the source power (or 1 mVA) is rounding (P: solver tolerance).
   const tol = Math.max(1e-3, 1e-6 * t.sourcePower.mag);
   const ok = t.powerBalanceResidual.mag <= tol;
@@ -85,12 +89,13 @@ export function PowerSummary({ result }: { result: CircuitResult }) {
       <h3 id="res-power" className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">
         Power balance
       </h3>
+      <UnitsSwitch label="Power units" lead="Power in" siWord="kW, kvar" units={units} onChange={setUnits} note={`of the system base, ${bases.baseMva} MVA.`} />
       <table aria-label="Power summary" className="text-[12px]">
         <thead>
           <tr className="text-ink-muted">
             <th scope="col" className="pr-3 text-left font-semibold" />
-            <th scope="col" className="px-2 text-right font-semibold">P (kW)</th>
-            <th scope="col" className="px-2 text-right font-semibold">Q (kvar)</th>
+            <th scope="col" className="px-2 text-right font-semibold">P ({units === 'pu' ? 'pu' : 'kW'})</th>
+            <th scope="col" className="px-2 text-right font-semibold">Q ({units === 'pu' ? 'pu' : 'kvar'})</th>
           </tr>
         </thead>
         <tbody className="num">
@@ -99,8 +104,8 @@ export function PowerSummary({ result }: { result: CircuitResult }) {
               <th scope="row" className="pr-3 text-left font-normal" style={{ fontFamily: 'var(--font-sans)' }}>
                 {label}
               </th>
-              <td className="px-2 text-right">{kW(s)}</td>
-              <td className="px-2 text-right">{kvar(s)}</td>
+              <td className="px-2 text-right">{units === 'pu' ? puOf(s.re) : kW(s)}</td>
+              <td className="px-2 text-right">{units === 'pu' ? puOf(s.im) : kvar(s)}</td>
             </tr>
           ))}
         </tbody>

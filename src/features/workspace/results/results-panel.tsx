@@ -238,7 +238,7 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
           <SequenceCurrentTable result={result} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
           <TransformerSection result={result} />
           <FaultSection result={result} standard={standard} perUnit={perUnit} />
-          <PowerSummary result={result} />
+          <PowerSummary result={result} perUnit={perUnit} />
         </div>
       ) : null}
       <ResultsCaution />

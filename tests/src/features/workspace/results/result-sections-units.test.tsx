@@ -1,5 +1,6 @@
 /**
- * The A/pu switch of the fault currents: a current shown in pu is the solved fault current over the
+ * The per-unit switches of the smaller results sections. The power summary in pu is the solved power
+ * over the system base (C: S_pu = S / S_base, the default per-unit convention (P)). The A/pu switch of the fault currents: a current shown in pu is the solved fault current over the
  * base current of the faulted bus's level, the base computed here from that bus's nominal voltage
  * (C: I_base = S_base / (√3 · V_base,LL), V_base = the nominal, the default per-unit convention (P));
  * the report's and the CSV's fault table give the same figure.
@@ -9,7 +10,7 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit } from '../../../../../shared/engine/index.ts';
 import { faultTable, tableContext } from '../../../../../shared/report/tables.ts';
-import { FaultSection } from '../../../../../src/features/workspace/results/result-sections.tsx';
+import { FaultSection, PowerSummary } from '../../../../../src/features/workspace/results/result-sections.tsx';
 import { formatMagnitude } from '../../../../../src/features/workspace/results/format.ts';
 
 const circuit = demoCircuits.find((d) => d.key === 'feeder-earth-fault')!.circuit;
@@ -44,5 +45,24 @@ describe('FaultSection units', () => {
     const si = faultTable(tableContext(circuit, result, 'si', perUnit));
     expect(si.columns[3]).toBe('A (A)');
     expect(si.rows[0][3]).toBe(formatMagnitude(ia));
+  });
+});
+
+describe('PowerSummary units', () => {
+  it('switches the power balance to pu of the system base, and back', async () => {
+    const base = { baseMva: 0.5, baseKv: {} };
+    const src = result.totals.sourcePower;
+    render(<PowerSummary result={result} perUnit={base} />);
+    const table = screen.getByRole('table', { name: 'Power summary' });
+    const row = () => within(table).getByRole('row', { name: /Delivered by sources/ });
+    expect(row()).toHaveTextContent(`${formatMagnitude(src.re / 1000)} kW`);
+    const group = screen.getByRole('group', { name: 'Power units' });
+    await userEvent.click(within(group).getByRole('button', { name: 'pu' }));
+    const expected = (src.re / (base.baseMva * 1e6)).toFixed(3);
+    expect(Number(expected)).toBeGreaterThan(0.01);
+    expect(row()).toHaveTextContent(`${expected} pu`);
+    expect(within(table).getAllByRole('columnheader')[1]).toHaveTextContent('P (pu)');
+    await userEvent.click(within(group).getByRole('button', { name: 'kW, kvar' }));
+    expect(row()).toHaveTextContent('kW');
   });
 });
