@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { applyCase, demoCircuits, solveCircuit, type CircuitInput } from '../../shared/engine/index.ts';
-import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { screenshot, signInAndImport, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
 
 const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
@@ -29,17 +29,8 @@ describe('study cases in a real browser', () => {
   });
 
   it('the workspace compares the base and two cases of the open-neutral demo', async () => {
-    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
-    await page.waitForURL(`${product.baseUrl}/`);
-    const imported = await page.evaluate(async (body) => {
-      const res = await fetch('/api/studies/import', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-      return { status: res.status, body: await res.json() };
-    }, circuit);
-    expect(imported.status).toBe(201);
-    await page.goto(`${product.baseUrl}/studies/${imported.body.id}`);
+    const { page, errors, studyId } = await signInAndImport(browser, product.baseUrl, 'engineer@wyeward.test', circuit);
+    await page.goto(`${product.baseUrl}/studies/${studyId}`);
 
     const table = page.getByRole('table', { name: 'Study cases compared' });
     await table.waitFor({ timeout: 30_000 });

@@ -120,3 +120,21 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
   await page.getByLabel(/password/i).fill(password);
   await page.getByRole('button', { name: /sign in/i }).click();
 }
+
+/**
+ * Opens a page, signs in as `email` and imports `study` through the API as that user (refusing
+ * anything but 201); errors thrown in the page are collected in `errors` for the test to check.
+ */
+export async function signInAndImport(browser: Browser, baseUrl: string, email: string, study: unknown, { acceptDownloads = false } = {}) {
+  const page = await browser.newPage({ viewport: { width: 1440, height: 1000 }, acceptDownloads });
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(String(e)));
+  await signIn(page, baseUrl, email);
+  await page.waitForURL(`${baseUrl}/`);
+  const imported = await page.evaluate(async (body) => {
+    const res = await fetch('/api/studies/import', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+    return { status: res.status, body: await res.json() };
+  }, study);
+  if (imported.status !== 201) throw new Error(`the study import was refused (${imported.status}): ${JSON.stringify(imported.body)}`);
+  return { page, errors, studyId: imported.body.id as string };
+}

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
-import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { screenshot, signInAndImport, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
 
 const circuit = { ...demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit, name: 'Lane 14 report' };
@@ -28,17 +28,8 @@ describe('study report and per-unit view in a real browser', () => {
   });
 
   it('downloads the report from the study page and switches the bus table to pu', async () => {
-    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
-    await page.waitForURL(`${product.baseUrl}/`);
-    const imported = await page.evaluate(async (body) => {
-      const res = await fetch('/api/studies/import', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-      return { status: res.status, body: await res.json() };
-    }, circuit);
-    expect(imported.status).toBe(201);
-    await page.goto(`${product.baseUrl}/studies/${imported.body.id}`);
+    const { page, errors, studyId } = await signInAndImport(browser, product.baseUrl, 'engineer@wyeward.test', circuit, { acceptDownloads: true });
+    await page.goto(`${product.baseUrl}/studies/${studyId}`);
 
     // The report, from the link on the study page.
     const link = page.getByRole('link', { name: 'Report (PDF)' });

@@ -11,7 +11,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { applyCase, demoCircuits, lostNeutralEnvelope, solveCircuit, sweepCircuit, type CircuitInput } from '../../shared/engine/index.ts';
-import { screenshot, signIn, type RunningProduct } from './harness.ts';
+import { screenshot, signInAndImport, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
 
 const demo = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
@@ -27,17 +27,7 @@ describe('cases, sweeps and the envelope in a real browser', () => {
   });
 
   it('creates a case, sweeps on it (CSV equal to the engine), makes a point a case, cancels a sweep, runs the envelope, hands a large sweep to the server', async () => {
-    const page = await browser.newPage({ viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await signIn(page, product.baseUrl, 'engineer@wyeward.test');
-    await page.waitForURL(`${product.baseUrl}/`);
-    const imported = await page.evaluate(async (body) => {
-      const res = await fetch('/api/studies/import', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-      return { status: res.status, body: await res.json() };
-    }, base);
-    expect(imported.status).toBe(201);
-    const studyId = imported.body.id as string;
+    const { page, errors, studyId } = await signInAndImport(browser, product.baseUrl, 'engineer@wyeward.test', base, { acceptDownloads: true });
     await page.goto(`${product.baseUrl}/studies/${studyId}`);
 
     // ---- a case from the editor: the drop's neutral opened ----
