@@ -25,6 +25,7 @@ export default defineConfig({
           name: 'server',
           environment: 'node',
           include: ['tests/server/**/*.test.ts'],
+          exclude: ['tests/server/pg/**'],
           globalSetup: ['tests/server/global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
@@ -38,7 +39,7 @@ export default defineConfig({
         test: {
           name: 'server-pg',
           environment: 'node',
-          include: ['tests/server/*.test.ts', 'tests/server/{jobs,mail,storage}/**/*.test.ts'],
+          include: ['tests/server/*.test.ts', 'tests/server/{jobs,mail,storage,pg}/**/*.test.ts'],
           globalSetup: ['tests/server/pg-global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,

@@ -227,10 +227,16 @@ describe('review and reuse in a real browser', () => {
     await owner.goto(`${product.baseUrl}/audit`);
     await owner.getByLabel('Action').selectOption('review.');
     await owner.getByRole('table', { name: 'Audit events' }).getByText('approved', { exact: true }).first().waitFor();
-    const actions = await owner.getByRole('table', { name: 'Audit events' }).locator('tbody tr td:nth-child(3)').allTextContents();
-    expect(actions.length).toBeGreaterThan(0);
-    // Review actions, in words.
-    expect(actions.every((a) => ['review requested', 'approved', 'changes requested', 'back to draft'].includes(a))).toBe(true);
+    // The filtered page replaces the unfiltered one when its query answers: wait for it, then
+    // every row is a review action, in words.
+    const reviewActions = ['review requested', 'approved', 'changes requested', 'back to draft'];
+    const actionCells = owner.getByRole('table', { name: 'Audit events' }).locator('tbody tr td:nth-child(3)');
+    await expect
+      .poll(async () => {
+        const actions = await actionCells.allTextContents();
+        return actions.length > 0 && actions.every((a) => reviewActions.includes(a));
+      }, { timeout: 15_000 })
+      .toBe(true);
     await screenshot(owner, 'review-11-audit');
 
     // Export through the download endpoint, import the same file on the studies list page.

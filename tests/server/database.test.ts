@@ -2,22 +2,18 @@
  * The database layer behaves the same on PGlite (project server) and on a PostgreSQL server
  * (project server-pg): values come back with the same JavaScript types, a unique-key clash is the
  * same SQLSTATE, /api/health reports the database (and any other probe) and says 503 when it is gone;
- * on a server, instances starting at once migrate once (advisory lock) and a wrong DATABASE_URL is
- * refused with a message that never repeats the password.
+ * on a server, a wrong DATABASE_URL is refused with a message that never repeats the password
+ * (instances starting at once: pg/migration-lock.test.ts).
  */
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { inject } from 'vitest';
 import { readConfig } from '../../server/config.ts';
-import { closeDb, dbKind, MIGRATIONS_DIR, openDb, queryRows, type Db } from '../../server/db/index.ts';
+import { closeDb, dbKind, openDb, queryRows, type Db } from '../../server/db/index.ts';
 import { studies, users } from '../../server/db/schema.ts';
 import { createApp } from '../../server/app.ts';
 import { isUniqueViolation } from '../../server/errors.ts';
 import { makeApp, makeStudy, makeTeam, makeUser } from './helpers.ts';
-import { adminQuery } from './pg/cluster.ts';
 import { onPostgres, openTestDb } from './test-db.ts';
 
 let db: Db;
@@ -108,19 +104,4 @@ describe('DATABASE_URL', () => {
     expect(err?.message).not.toContain('s3cret-word');
   });
 
-  it.runIf(onPostgres())('migrates an empty database once when several instances start at the same moment (advisory lock)', async () => {
-    const server = inject('pgServer');
-    const name = `empty_${Date.now().toString(36)}`;
-    await adminQuery(server, `create database ${name}`);
-    const u = new URL(server);
-    u.pathname = `/${name}`;
-    const instances = await Promise.all(Array.from({ length: 4 }, () => openDb({ url: u.toString(), poolMax: 2 })));
-    const journal = JSON.parse(readFileSync(path.join(MIGRATIONS_DIR, 'meta', '_journal.json'), 'utf8')) as { entries: unknown[] };
-    const [applied] = await queryRows<{ n: number }>(instances[0], 'select count(*)::int as n from drizzle.__drizzle_migrations');
-    expect(applied.n).toBe(journal.entries.length);
-    expect(applied.n).toBeGreaterThanOrEqual(4);
-    const [tables] = await queryRows<{ n: number }>(instances[1], `select count(*)::int as n from information_schema.tables where table_schema = 'public'`);
-    expect(tables.n).toBeGreaterThanOrEqual(14);
-    for (const i of instances) await closeDb(i);
-  });
 });
