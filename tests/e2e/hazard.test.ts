@@ -12,16 +12,7 @@ import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
 import path from 'node:path';
 import { ARTIFACTS, screenshot, signIn, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
-
-/** Clicks the middle of a wire, as a person selects a connection. */
-async function clickWire(page: Page, label: string) {
-  const pt = await page.locator(`[aria-label="${label}"] path.react-flow__edge-interaction`).evaluate((p: SVGPathElement) => {
-    const q = p.getPointAtLength(p.getTotalLength() / 2);
-    const m = p.getScreenCTM()!;
-    return { x: q.x * m.a + q.y * m.c + m.e, y: q.x * m.b + q.y * m.d + m.f };
-  });
-  await page.mouse.click(pt.x, pt.y);
-}
+import { clickWire } from './canvas.ts';
 
 describe('lost-neutral hazard in a real browser', () => {
   let product: RunningProduct;
@@ -48,7 +39,7 @@ describe('lost-neutral hazard in a real browser', () => {
     await loadTable.waitFor({ timeout: 20_000 });
 
     // Close the neutral of the service drop: no alert, every load within its limits.
-    await clickWire(page, 'Connection DROP to bus PAD');
+    await clickWire(page, 'Connection DROP to bus PAD', 0.5);
     await page.getByRole('button', { name: 'Close neutral', exact: true }).click();
     await expect.poll(() => loadTable.getByText('within limits').count(), { timeout: 15_000 }).toBe(3);
     expect(await alert.count()).toBe(0);

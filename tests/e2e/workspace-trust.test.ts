@@ -6,29 +6,11 @@
  * the phasor bus choice survives an undo and a neutral toggle; a neutral opens with one click.
  */
 import { describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { demoCircuits, solveCircuit } from '../../shared/engine/index.ts';
 import { screenshot, signIn, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
-
-async function wire(page: Page, from: string, to: string) {
-  const a = await page.getByLabel(from, { exact: true }).boundingBox();
-  const b = await page.getByLabel(to, { exact: true }).boundingBox();
-  if (!a || !b) throw new Error(`handle not on screen: ${!a ? from : to}`);
-  await page.mouse.move(a.x + a.width / 2, a.y + a.height / 2);
-  await page.mouse.down();
-  await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 6 });
-  await page.mouse.move(b.x + b.width / 2, b.y + b.height / 2, { steps: 6 });
-  await page.mouse.up();
-}
-
-async function selectNode(page: Page, label: string) {
-  await page.getByLabel(label, { exact: true }).locator('svg').first().click();
-}
-
-function props(page: Page): Locator {
-  return page.getByRole('region', { name: 'Properties' });
-}
+import { properties as props, selectNode, wire } from './canvas.ts';
 
 async function newStudy(page: Page, product: RunningProduct, name: string) {
   await signIn(page, product.baseUrl, 'engineer@wyeward.test');

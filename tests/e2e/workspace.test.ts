@@ -8,40 +8,7 @@ import type { Browser, Page } from 'playwright-core';
 import { demoCircuits, solveCircuit, type CircuitInput } from '../../shared/engine/index.ts';
 import { screenshot, signIn, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
-
-/** Drags from one handle to another with the mouse, as a person wires the diagram. */
-async function wire(page: Page, from: string, to: string) {
-  const a = await page.getByLabel(from, { exact: true }).boundingBox();
-  const b = await page.getByLabel(to, { exact: true }).boundingBox();
-  if (!a || !b) throw new Error(`handle not on screen: ${!a ? from : to}`);
-  await page.mouse.move(a.x + a.width / 2, a.y + a.height / 2);
-  await page.mouse.down();
-  await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 6 });
-  await page.mouse.move(b.x + b.width / 2, b.y + b.height / 2, { steps: 6 });
-  await page.mouse.up();
-}
-
-/** Clicks a wire a quarter of the way along (its middle carries the one-click open control), as a person selects a connection. */
-async function clickWire(page: Page, label: string) {
-  const pt = await page.locator(`[aria-label="${label}"] path.react-flow__edge-interaction`).evaluate((p: SVGPathElement) => {
-    const q = p.getPointAtLength(p.getTotalLength() / 4);
-    const m = p.getScreenCTM()!;
-    return { x: q.x * m.a + q.y * m.c + m.e, y: q.x * m.b + q.y * m.d + m.f };
-  });
-  await page.mouse.click(pt.x, pt.y);
-}
-
-/** Selects a node by clicking its symbol. */
-async function selectNode(page: Page, label: string) {
-  await page.getByLabel(label, { exact: true }).locator('svg').first().click();
-}
-
-/** Types into a property field and applies it with Enter. */
-async function setField(page: Page, label: RegExp, value: string) {
-  const input = page.getByRole('region', { name: 'Properties' }).getByRole('textbox', { name: label });
-  await input.fill(value);
-  await input.press('Enter');
-}
+import { clickWire, selectNode, setField, wire } from './canvas.ts';
 
 describe('study workspace in a real browser', () => {
   let product: RunningProduct;
