@@ -9,10 +9,8 @@
  * Pure data in, bytes out: it runs inline or in a worker thread (server/work).
  */
 import pdfmake from 'pdfmake';
-import { EngineError, solveCircuit, type CircuitResult } from '../../shared/engine/index.ts';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
-import { circuitNames } from '../../shared/review/user-names.ts';
-import { busColumnGroups, flaggedBuses, inputGroups, reportedCircuit, scopeLines } from '../../shared/report/document.ts';
+import { busColumnGroups, flaggedBuses, inputGroups, scopeLines, solveReported } from '../../shared/report/document.ts';
 import { oneLineSvg } from '../../shared/report/one-line.ts';
 import { phasorLegend, phasorSvg } from '../../shared/report/phasor-svg.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
@@ -67,16 +65,7 @@ function inputTables(circuit: unknown): Node[] {
 
 /** Builds the report of one revision (and case) and returns the PDF bytes. */
 export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
-  const { circuit, caseName } = reportedCircuit(input.content.circuit, input.caseId);
-  const names = circuitNames(circuit);
-  let result: CircuitResult | null = null;
-  let failure: string | null = null;
-  try {
-    result = solveCircuit(circuit);
-  } catch (err) {
-    if (!(err instanceof EngineError)) throw err;
-    failure = names.text(err.message);
-  }
+  const { circuit, caseName, names, result, failure } = solveReported(input.content.circuit, input.caseId);
   const perUnit = readPerUnitSettings(input.content.layout);
   const revisionWords = `Revision ${input.revision.number}${caseName ? `, case "${caseName}"` : ''}`;
   const title = input.study.name;

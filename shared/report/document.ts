@@ -4,7 +4,7 @@
  * whose phasors are drawn. The PDF (server/report/pdf.ts) and the print view in the app read the
  * same text, so both documents say the same. Pure TypeScript (shared).
  */
-import { applyCase, BASE_CASE_ID, circuitCases, type CircuitResult } from '../engine/index.ts';
+import { applyCase, BASE_CASE_ID, circuitCases, EngineError, solveCircuit, type CircuitResult } from '../engine/index.ts';
 import { complexText, parameterWords, valueWords } from '../review/parameter-words.ts';
 import { circuitNames, drawnElements, typeWord, type CircuitNames } from '../review/user-names.ts';
 
@@ -13,6 +13,27 @@ export function reportedCircuit(base: unknown, caseId?: string): { circuit: Reco
   if (!caseId || caseId === BASE_CASE_ID) return { circuit: base as Record<string, unknown>, caseName: null };
   const c = circuitCases(base).find((x) => x.id === caseId);
   return { circuit: applyCase(base as Record<string, unknown>, caseId) as unknown as Record<string, unknown>, caseName: c?.name?.trim() || caseId };
+}
+
+/** The reported circuit solved: its result, or the engine's refusal in the user's words. */
+export interface ReportedSolution {
+  circuit: Record<string, unknown>;
+  caseName: string | null;
+  names: CircuitNames;
+  result: CircuitResult | null;
+  failure: string | null;
+}
+
+/** Solves the reported circuit (base or case) for the PDF and the print view alike. */
+export function solveReported(base: unknown, caseId?: string): ReportedSolution {
+  const { circuit, caseName } = reportedCircuit(base, caseId);
+  const names = circuitNames(circuit);
+  try {
+    return { circuit, caseName, names, result: solveCircuit(circuit), failure: null };
+  } catch (err) {
+    if (!(err instanceof EngineError)) throw err;
+    return { circuit, caseName, names, result: null, failure: names.text(err.message) };
+  }
 }
 
 /** Leaf parameters of a drawn element, in words ("every phase › P (kW): 1.5"). */

@@ -9,14 +9,12 @@
  */
 import { useMemo } from 'react';
 import { Link } from 'react-router';
-import { EngineError, solveCircuit, type CircuitResult } from '../../../../shared/engine/index.ts';
-import { busColumnGroups, flaggedBuses, inputGroups, reportedCircuit, scopeLines } from '../../../../shared/report/document.ts';
+import { busColumnGroups, flaggedBuses, inputGroups, scopeLines, solveReported } from '../../../../shared/report/document.ts';
 import { oneLineSvg } from '../../../../shared/report/one-line.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { phasorSvg } from '../../../../shared/report/phasor-svg.ts';
 import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../../../shared/report/tables.ts';
 import { SAFETY_CAUTION } from '../../../../shared/review/risk.ts';
-import { circuitNames } from '../../../../shared/review/user-names.ts';
 import { Button } from '../../../components/button.tsx';
 import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
@@ -75,17 +73,7 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
 
   const solved = useMemo(() => {
     if (!revision.data) return null;
-    const { circuit, caseName } = reportedCircuit(revision.data.content.circuit, caseId);
-    const names = circuitNames(circuit);
-    let result: CircuitResult | null = null;
-    let failure: string | null = null;
-    try {
-      result = solveCircuit(circuit);
-    } catch (err) {
-      if (!(err instanceof EngineError)) throw err;
-      failure = names.text(err.message);
-    }
-    return { circuit, caseName, names, result, failure };
+    return solveReported(revision.data.content.circuit, caseId);
   }, [revision.data, caseId]);
 
   if (revision.isPending || study.isPending) return <Loading />;
