@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { RevisionDiff } from '../../../../shared/api/revisions.ts';
 import { formatDelta } from '../utils/format-values.ts';
 import { ResultsCaution } from './results-caution.tsx';
@@ -20,6 +21,33 @@ function Empty({ children }: { children: string }) {
  * What a reviewer reads first: the change in key results (words and numbers with units), flags
  * that appeared or cleared, then the model edits element by element and parameter by parameter.
  */
+type Change = RevisionDiff['circuit'][number];
+
+/** One table of changed values: what changed, its value at the older revision and at the newer one. */
+function ChangesTable({ label, first, diff, changes, children }: { label: string; first: string; diff: RevisionDiff; changes: Change[]; children?: ReactNode }) {
+  return (
+    <table aria-label={label} className={TABLE}>
+      {children}
+      <thead>
+        <tr>
+          <th scope="col">{first}</th>
+          <th scope="col">Revision {diff.from}</th>
+          <th scope="col">Revision {diff.to}</th>
+        </tr>
+      </thead>
+      <tbody>
+        {changes.map((c) => (
+          <tr key={c.path}>
+            <td>{c.label}</td>
+            <td className="num">{c.fromText}</td>
+            <td className="num">{c.toText}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
 export function DiffView({ diff }: { diff: RevisionDiff }) {
   const { elements } = diff;
   const same = diff.from === diff.to;
@@ -125,27 +153,11 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
         ) : null}
         {elements.changed.map((e) => (
           <div key={e.id} className="overflow-x-auto">
-            <table aria-label={`Changes to ${e.id}`} className={TABLE}>
+            <ChangesTable label={`Changes to ${e.id}`} first="Parameter" diff={diff} changes={e.changes}>
               <caption className="text-left text-sm font-semibold">
                 <span className="num">{e.id}</span> <span className="font-normal text-ink-muted">({e.typeLabel})</span>
               </caption>
-              <thead>
-                <tr>
-                  <th scope="col">Parameter</th>
-                  <th scope="col">Revision {diff.from}</th>
-                  <th scope="col">Revision {diff.to}</th>
-                </tr>
-              </thead>
-              <tbody>
-                {e.changes.map((c) => (
-                  <tr key={c.path}>
-                    <td>{c.label}</td>
-                    <td className="num">{c.fromText}</td>
-                    <td className="num">{c.toText}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            </ChangesTable>
           </div>
         ))}
       </section>
@@ -169,24 +181,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
             Circuit, layout and settings
           </h3>
           {diff.circuit.length > 0 ? (
-            <table aria-label="Circuit changes" className={TABLE}>
-              <thead>
-                <tr>
-                  <th scope="col">Setting</th>
-                  <th scope="col">Revision {diff.from}</th>
-                  <th scope="col">Revision {diff.to}</th>
-                </tr>
-              </thead>
-              <tbody>
-                {diff.circuit.map((c) => (
-                  <tr key={c.path}>
-                    <td>{c.label}</td>
-                    <td className="num">{c.fromText}</td>
-                    <td className="num">{c.toText}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <ChangesTable label="Circuit changes" first="Setting" diff={diff} changes={diff.circuit} />
           ) : null}
           {diff.layoutChanged ? <p className="text-[13px] text-ink-muted">The diagram layout changed.</p> : null}
           {diff.settingsChanged ? <p className="text-[13px] text-ink-muted">The workspace settings changed.</p> : null}
