@@ -35,7 +35,7 @@ export function mixWeightsProblem(weights: MixWeights | undefined): string | nul
 export const balanceRequestSchema = z
   .object({
     /** The customer list as CSV text; without it the study's own single-phase loads are balanced. */
-    customersCsv: z.string().max(MAX_CUSTOMERS_CSV_CHARS, 'The customer list is too long (at most about 5 000 customers)').optional(),
+    customersCsv: z.string().max(MAX_CUSTOMERS_CSV_CHARS, 'The customer list is too large: at most 500 000 characters (about 5 000 customers)').optional(),
     objective: z.enum(['neutral', 'unbalance', 'losses', 'voltage', 'mix']).default('neutral'),
     /** Definition of unbalance, for the unbalance objective or the unbalance term of a mix (default iec). */
     definition: z.enum(['iec', 'nema', 'ieee']).optional(),

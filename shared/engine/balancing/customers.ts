@@ -59,7 +59,9 @@ const number = (what: string) =>
     .transform((s, ctx) => {
       const x = Number(s);
       if (!Number.isFinite(x)) {
-        ctx.addIssue({ code: 'custom', message: `${what} must be a number (found "${s}")` });
+        // a spreadsheet set to a decimal comma writes 1,5: say how to write it
+        const comma = /^[+-]?\d*,\d+$/.test(s) ? `; write decimals with a point, e.g. ${s.replace(',', '.')}` : '';
+        ctx.addIssue({ code: 'custom', message: `${what} must be a number (found "${s}"${comma})` });
         return z.NEVER;
       }
       return x;

@@ -7,4 +7,5 @@ export { BalanceCancelled } from './linear-model.ts';
 export { solveMilp, type HighsRuntime, type HighsModel, type MilpResult } from './milp.ts';
 export { balancePhases, type BalanceOptions, type BalanceProgress, type BalanceMove, type BalanceResult } from './balance.ts';
 export { movesCsv, MOVES_CAUTION, FIGURE_ROWS, objectiveWords } from './report.ts';
+export { csvDelimiter, type CsvDelimiter } from './csv.ts';
 export { customersFromCircuit, applyAssignment, applyCustomers } from './study-loads.ts';

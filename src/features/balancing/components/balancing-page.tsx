@@ -53,15 +53,25 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
   const abort = useRef<AbortController | null>(null);
   const [progress, setProgress] = useState<BalanceProgress | null>(null);
 
+  /** A result, or a server error, belongs to the customers it was run on: a change of them puts it away. */
+  function forgetRun() {
+    abort.current?.abort();
+    run.reset();
+    setResult(null);
+    setApplied(null);
+    setApplyError(null);
+  }
+
   async function pick(f: File | undefined) {
+    forgetRun();
+    setFormError(null);
     setFile(f ? { name: f.name, read: readCustomersCsv(await f.text()) } : null);
   }
 
   function submit(e: FormEvent) {
     e.preventDefault();
     setFormError(null);
-    setApplied(null);
-    setApplyError(null);
+    forgetRun();
     const moves = maxMoves.trim() === '' ? undefined : Number(maxMoves);
     if (moves !== undefined && (!Number.isInteger(moves) || moves < 0)) return setFormError('The number of moves must be a whole number, 0 or more.');
     let weights: MixWeights | undefined;
@@ -156,11 +166,27 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
         <fieldset className="flex flex-col gap-1.5">
           <legend className="text-[13px] font-semibold">Customers</legend>
           <label className="flex items-center gap-2 text-sm">
-            <input type="radio" name="source" checked={source === 'study'} onChange={() => setSource('study')} />
+            <input
+              type="radio"
+              name="source"
+              checked={source === 'study'}
+              onChange={() => {
+                forgetRun();
+                setSource('study');
+              }}
+            />
             The study's single-phase loads (between a phase and the neutral)
           </label>
           <label className="flex items-center gap-2 text-sm">
-            <input type="radio" name="source" checked={source === 'csv'} onChange={() => setSource('csv')} />
+            <input
+              type="radio"
+              name="source"
+              checked={source === 'csv'}
+              onChange={() => {
+                forgetRun();
+                setSource('csv');
+              }}
+            />
             A customer list (CSV: customer, bus, phase, kw, kvar or pf; optional fixed, model, phases)
           </label>
           {source === 'csv' ? (
@@ -169,7 +195,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
                 Customer list (CSV)
               </label>
               <input id="customers-file" type="file" accept=".csv,text/csv" onChange={(e) => void pick(e.target.files?.[0])} className="text-sm" />
-              {file?.read.ok ? <p className="text-[13px] text-ink-muted">{file.name}: {file.read.customers.length} customers read.</p> : null}
+              {file?.read.ok ? <p className="text-[13px] text-ink-muted">{file.name}: {file.read.customers.length} customer{file.read.customers.length === 1 ? '' : 's'} read.</p> : null}
               {file && !file.read.ok ? (
                 <Notice tone="error" title={`${file.name} has problems`}>
                   <ul className="list-disc pl-4">

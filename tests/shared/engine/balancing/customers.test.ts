@@ -1,6 +1,6 @@
 /** The customer list: CSV columns, kvar from pf, and every problem named by row and column in words. */
 import { describe, expect, it } from 'vitest';
-import { analyseFeeder, checkCustomers, CustomerListError, parseCustomersCsv, rotatingRule, withCustomers, solveCircuit } from '../../../../shared/engine/index.ts';
+import { analyseFeeder, checkCustomers, csvDelimiter, CustomerListError, parseCustomersCsv, rotatingRule, withCustomers, solveCircuit } from '../../../../shared/engine/index.ts';
 import { smallCustomers, smallFeeder } from './small-feeder.ts';
 
 function issuesOf(f: () => unknown): string[] {
@@ -42,6 +42,32 @@ describe('parseCustomersCsv', () => {
     expect(issuesOf(() => parseCustomersCsv('customer,bus,phase,kw,kvar\nH1,P1,A,2\n'))).toEqual(['2|-|has 4 cells; the header has 5']);
     expect(issuesOf(() => parseCustomersCsv(''))).toEqual(['-|-|the file is empty (expected a header row: customer,bus,phase,kw,kvar)']);
     expect(issuesOf(() => parseCustomersCsv('customer,bus,phase,kw,kvar\n"H1,P1,A,2,1\n'))).toEqual(['-|-|line 2: a quoted field is never closed (a " is missing)']);
+  });
+});
+
+describe('separators of spreadsheet exports', () => {
+  const comma = 'customer,bus,phase,kw,pf,fixed\n"Shop; corner",P2,B,10,1,yes\nH3,P3,C,2,0.95,\n';
+
+  it('reads a semicolon or tab separated list exactly as the comma separated one', () => {
+    const expected = parseCustomersCsv(comma);
+    expect(expected.map((c) => c.customer)).toEqual(['Shop; corner', 'H3']);
+    expect(parseCustomersCsv('customer;bus;phase;kw;pf;fixed\r\n"Shop; corner";P2;B;10;1;yes\r\nH3;P3;C;2;0.95;\r\n')).toEqual(expected);
+    expect(parseCustomersCsv('\ufeffcustomer\tbus\tphase\tkw\tpf\tfixed\n"Shop; corner"\tP2\tB\t10\t1\tyes\nH3\tP3\tC\t2\t0.95\t\n')).toEqual(expected);
+  });
+
+  it('takes the separator the header line uses most, outside quotes; a comma otherwise', () => {
+    expect(csvDelimiter('customer;bus;phase;kw;pf\nH1;P1;A;1,5;0,9\n')).toBe(';');
+    expect(csvDelimiter('"a;b;c",bus\n')).toBe(',');
+    expect(csvDelimiter('customer\tbus\n')).toBe('\t');
+    expect(csvDelimiter('customer\n')).toBe(',');
+    expect(csvDelimiter('')).toBe(',');
+  });
+
+  it('says how to write a decimal comma', () => {
+    expect(issuesOf(() => parseCustomersCsv('customer;bus;phase;kw;pf\nH1;P1;A;1,5;0,9\n'))).toEqual([
+      '2|kw|kW must be a number (found "1,5"; write decimals with a point, e.g. 1.5)',
+      '2|pf|the power factor must be a number (found "0,9"; write decimals with a point, e.g. 0.9)',
+    ]);
   });
 });
 

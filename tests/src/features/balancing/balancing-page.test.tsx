@@ -119,3 +119,24 @@ describe('balancing page: progress while running', () => {
     expect(screen.queryByText(/exact solves? so far/)).not.toBeInTheDocument();
   });
 });
+
+describe('balancing page: an answer belongs to the customers it was run on', () => {
+  it('puts away the server\'s error when another customer list is chosen or the form is corrected', async () => {
+    const user = userEvent.setup();
+    const api = setup();
+    await user.click(await screen.findByLabelText(/A customer list \(CSV/));
+    const file = (name: string, text: string) => new File([text], name, { type: 'text/csv' });
+    await user.upload(screen.getByLabelText('Customer list (CSV)'), file('first.csv', 'customer,bus,phase,kw,kvar\nH1,P1,A,2,0\n'));
+    expect(await screen.findByText('first.csv: 1 customer read.')).toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Run balancing' }));
+    expect(await screen.findByText(/no single-phase kW loads/)).toBeInTheDocument();
+    // a corrected file: the earlier answer is about the earlier file
+    await user.upload(screen.getByLabelText('Customer list (CSV)'), file('second.csv', 'customer,bus,phase,kw,kvar\nH1,P1,Q,2,0\n'));
+    expect(await screen.findByText('second.csv has problems')).toBeInTheDocument();
+    expect(screen.queryByText(/no single-phase kW loads/)).not.toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Run balancing' }));
+    expect(screen.getByText(/Correct the customer list first/)).toBeInTheDocument();
+    expect(screen.queryByText(/no single-phase kW loads/)).not.toBeInTheDocument();
+    expect(posts(api)).toHaveLength(1);
+  });
+});
