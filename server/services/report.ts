@@ -23,24 +23,27 @@ async function revisionOf(db: Db, actor: Actor, studyId: string, q: ReportQuery)
   const number = q.revision ?? latest.number;
   if (number > latest.number) throw new AppError(404, 'not-found', `This study has no revision ${number}; its latest is revision ${latest.number}.`);
   const revision = await getRevision(db, study.id, number);
+  let caseName: string | undefined;
   if (q.case !== undefined && q.case !== BASE_CASE_ID) {
-    let ids: string[];
+    let cases: { id: string; name?: string }[];
     try {
-      ids = circuitCases(revision.content.circuit).map((c) => c.id);
+      cases = circuitCases(revision.content.circuit);
     } catch (err) {
       if (!(err instanceof InvalidCircuitError)) throw err;
-      ids = [];
+      cases = [];
     }
-    if (!ids.includes(q.case)) {
-      throw new AppError(400, 'validation', ids.length ? `Revision ${number} has no study case "${q.case}"; its cases are ${ids.map((i) => `"${i}"`).join(', ')}.` : `Revision ${number} has no study cases.`, { fields: { case: 'No such study case in this revision' } });
+    const found = cases.find((c) => c.id === q.case);
+    if (!found) {
+      throw new AppError(400, 'validation', cases.length ? `Revision ${number} has no study case "${q.case}"; its cases are ${cases.map((c) => (c.name ? `"${c.id}" (${c.name})` : `"${c.id}"`)).join(', ')}.` : `Revision ${number} has no study cases.`, { fields: { case: 'No such study case in this revision' } });
     }
+    caseName = found.name ?? found.id;
   }
-  return { study, revision };
+  return { study, revision, fileStem: `${fileStem(study.name)}-rev${revision.number}${caseName !== undefined ? `-${fileStem(caseName)}` : ''}` };
 }
 
 /** The PDF report of a revision: bytes and a file name. */
 export async function studyReport(db: Db, actor: Actor, studyId: string, q: ReportQuery, now = new Date()): Promise<{ pdf: Uint8Array; fileName: string }> {
-  const { study, revision } = await revisionOf(db, actor, studyId, q);
+  const { study, revision, fileStem: stem } = await revisionOf(db, actor, studyId, q);
   const approved = study.status === 'approved' && study.approvedRevision === revision.number;
   let approver: string | undefined;
   let approvedAt: string | undefined;
@@ -73,18 +76,23 @@ export async function studyReport(db: Db, actor: Actor, studyId: string, q: Repo
     madeAt: now.toISOString(),
   };
   const pdf = await work().report(input);
-  return { pdf, fileName: `${fileStem(study.name)}-rev${revision.number}${q.case ? `-${fileStem(q.case)}` : ''}.pdf` };
+  return { pdf, fileName: `${stem}.pdf` };
 }
 
 /** One results table of a revision as CSV. */
 export async function studyResultsCsv(db: Db, actor: Actor, studyId: string, q: ResultsCsvQuery): Promise<{ csv: string; fileName: string }> {
-  const { study, revision } = await revisionOf(db, actor, studyId, q);
+  const { revision, fileStem: stem } = await revisionOf(db, actor, studyId, q);
   const out = await work().csv({ content: revision.content, ...(q.case ? { caseId: q.case } : {}), units: q.units, table: q.table });
   if (!out.ok) throw new AppError(409, 'conflict', `Revision ${revision.number} cannot be solved, so it has no results: ${out.message}`);
-  return { csv: out.csv, fileName: `${fileStem(study.name)}-rev${revision.number}${q.case ? `-${fileStem(q.case)}` : ''}-${q.table}${q.units === 'pu' ? '-pu' : ''}.csv` };
+  return { csv: out.csv, fileName: `${stem}-${q.table}${q.units === 'pu' ? '-pu' : ''}.csv` };
 }
 
-/** A study name as a file name: letters, digits and dashes. */
-function fileStem(name: string): string {
-  return name.normalize('NFKD').replace(/[^A-Za-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 80) || 'study';
+/**
+ * A study's or case's name as part of a file name: its letters and digits in any script (accents
+ * kept: "Étude über" stays "Étude-über"), runs of anything else as one dash, at most 80 characters.
+ * The download's Content-Disposition carries it UTF-8 encoded, with an ASCII fallback.
+ */
+export function fileStem(name: string): string {
+  const words = name.normalize('NFC').replace(/[^\p{L}\p{M}\p{N}]+/gu, '-').replace(/^-+|-+$/g, '');
+  return Array.from(words).slice(0, 80).join('').replace(/-+$/, '') || 'study';
 }

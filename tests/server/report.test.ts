@@ -168,7 +168,21 @@ describe('GET /api/studies/:id/report.pdf', () => {
     expect(text).toContain('167.3');
     const bad = await viewer.get(`/api/studies/${s.body.id}/report.pdf?case=nope`);
     expect(bad.status).toBe(400);
-    expect(bad.body.error.message).toContain('"lost-n"');
+    expect(bad.body.error.message).toContain('"lost-n" (Neutral lost at the drop)');
+  });
+
+  it('names the downloads after the study and the case as people wrote them, accents and scripts kept', async () => {
+    const circuit = { ...openNeutral, cases: [{ id: 'lost-n', name: 'Neutral lost — drop', changes: [{ element: 'DROP', set: { open: ['n'] } }] }] };
+    const s = await engineer.post('/api/studies').send({ name: 'Étude über Straße — 中文 🔌 feeder', content: { circuit } });
+    expect(s.status).toBe(201);
+    const fileName = (disposition: string) => decodeURIComponent(/filename\*=UTF-8''([^;]+)/.exec(disposition)?.[1] ?? /filename="?([^";]+)/.exec(disposition)![1]);
+    const pdf = await getBinary(viewer, `/api/studies/${s.body.id}/report.pdf`);
+    expect(fileName(pdf.headers['content-disposition'])).toBe('Étude-über-Straße-中文-feeder-rev1.pdf');
+    expect(pdf.headers['content-disposition']).toMatch(/^attachment; filename="[\x20-\x7e]+"; filename\*=/); // an ASCII fallback first
+    const ofCase = await getBinary(viewer, `/api/studies/${s.body.id}/report.pdf?case=lost-n&units=pu`);
+    expect(fileName(ofCase.headers['content-disposition'])).toBe('Étude-über-Straße-中文-feeder-rev1-Neutral-lost-drop.pdf');
+    const csv = await viewer.get(`/api/studies/${s.body.id}/results.csv?table=loads&case=lost-n&units=pu`);
+    expect(fileName(csv.headers['content-disposition'])).toBe('Étude-über-Straße-中文-feeder-rev1-Neutral-lost-drop-loads-pu.csv');
   });
 });
 
