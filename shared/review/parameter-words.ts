@@ -148,6 +148,28 @@ export function complexText(v: unknown): string | null {
 
 const CONDUCTOR_LIST_KEYS = new Set(['open', 'between', 'primary', 'conductors', 'opened', 'phases']);
 
+/** The format's named choices in words, by the parameter they belong to ("perConductor" never shows). */
+const CHOICE_WORDS: Record<string, Record<string, string>> = {
+  kind: {
+    perConductor: 'per conductor',
+    matrix: 'impedance matrix',
+    sequence: 'sequence impedances',
+    carson: 'conductor geometry (Carson)',
+    threePhase: 'three-phase',
+    threePhaseEarth: 'three-phase to earth',
+    lineEarth: 'line to earth',
+    lineLine: 'line to line',
+    doubleLineEarth: 'two lines to earth',
+  },
+  connection: { wye: 'wye', wyeFloating: 'floating wye (star point not connected)', delta: 'delta', single: 'single-phase' },
+  model: { impedance: 'constant impedance', current: 'constant current', power: 'constant power' },
+  earthing: { solid: 'solidly earthed', unearthed: 'unearthed' },
+  hvEarthing: { solid: 'solidly earthed', unearthed: 'unearthed' },
+  lvEarthing: { solid: 'solidly earthed', unearthed: 'unearthed' },
+  set: { 'ansi-c84.1': 'ANSI C84.1', 'iec-en': 'IEC/EN ±10 %' },
+  unbalanceMetric: { iec: 'IEC |V2|/|V1|', nema: 'line voltages (NEMA)', ieee: 'phase voltages (IEEE)' },
+};
+
 /**
  * A stored value in words for parameter `path`: numbers as written, conductor lists in words,
  * complex values as "re + jim", switch state as "closed"/"open", bus names as drawn, absent "—",
@@ -164,6 +186,7 @@ export function valueWords(path: string, v: unknown, names?: CircuitNames): stri
   }
   if (typeof v === 'string') {
     if (v === '') return '(empty)';
+    if (Object.hasOwn(CHOICE_WORDS, last) && Object.hasOwn(CHOICE_WORDS[last], v)) return CHOICE_WORDS[last][v];
     if (names && (last === 'bus' || last === 'from' || last === 'to')) return names.bus(v);
     if (names) return names.text(v);
     return v;

@@ -100,6 +100,16 @@ describe('drawn elements and counts', () => {
     expect(valueWords('closed', false)).toBe('open');
     expect(valueWords('open', [])).toBe('none');
   });
+
+  it('says the format\'s named choices in words, never as written in the file', () => {
+    expect(valueWords('impedance.kind', 'perConductor')).toBe('per conductor');
+    expect(valueWords('kind', 'doubleLineEarth')).toBe('two lines to earth');
+    expect(valueWords('connection', 'wyeFloating')).toBe('floating wye (star point not connected)');
+    expect(valueWords('each.model', 'power')).toBe('constant power');
+    expect(valueWords('limits.set', 'iec-en')).toBe('IEC/EN ±10 %');
+    expect(valueWords('lvEarthing', 'solid')).toBe('solidly earthed');
+    expect(valueWords('name', 'perConductor')).toBe('perConductor'); // a name is a name
+  });
 });
 
 describe('the diff of opening a neutral with one click', () => {

@@ -5,8 +5,8 @@
 import { reportUrl as pdfUrl, resultsCsvUrl as csvUrl } from '../../../../shared/api/report.ts';
 import type { CsvTable } from '../../../../shared/report/tables.ts';
 
-/** The report of the latest revision (or `revision`), in volts or per unit. */
-export function reportUrl(id: string, q: { revision?: number; units?: 'si' | 'pu' } = {}): string {
+/** The report of the latest revision (or `revision`), of its base circuit (or study case `case`), in volts or per unit. */
+export function reportUrl(id: string, q: { revision?: number; case?: string; units?: 'si' | 'pu' } = {}): string {
   return pdfUrl(id, q);
 }
 

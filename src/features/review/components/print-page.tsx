@@ -101,7 +101,7 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
         <Button variant="primary" onClick={() => window.print()}>
           Print
         </Button>
-        <a href={reportUrl(studyId, { revision: n, ...(units === 'pu' ? { units } : {}) })} download className="self-center font-semibold text-accent hover:underline">
+        <a href={reportUrl(studyId, { revision: n, ...(caseId ? { case: caseId } : {}), ...(units === 'pu' ? { units } : {}) })} download className="self-center font-semibold text-accent hover:underline">
           Download the PDF
         </a>
         <Link to={`/studies/${studyId}`} className="self-center font-semibold text-accent hover:underline">
