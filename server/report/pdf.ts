@@ -69,6 +69,8 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
   const perUnit = readPerUnitSettings(input.content.layout);
   const revisionWords = `Revision ${input.revision.number}${caseName ? `, case "${caseName}"` : ''}`;
   const title = input.study.name;
+  // One line at the foot of every page, whatever the names' length: a long one would push the page number off the page.
+  const footerWords = `${shorten(title, 60)} — Revision ${input.revision.number}${caseName ? `, case "${shorten(caseName, 30)}"` : ''}`;
 
   const content: Node[] = [
     { text: pdfText(title), style: 'h1' },
@@ -164,7 +166,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     content,
     footer: (page: number, pages: number) => ({
       columns: [
-        { text: pdfText(`${title} — ${revisionWords}`), alignment: 'left' },
+        { text: pdfText(footerWords), alignment: 'left', noWrap: true },
         { text: `Page ${page} of ${pages}`, alignment: 'right', width: 80 },
       ],
       fontSize: 7,
@@ -175,4 +177,13 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
   };
   const buffer = await pdfmake.createPdf(doc).getBuffer();
   return new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength);
+}
+
+/** At most `max` characters (whole code points), cut at a space where one is near, with "…". */
+function shorten(text: string, max: number): string {
+  const chars = Array.from(text);
+  if (chars.length <= max) return text;
+  const cut = chars.slice(0, max - 1).join('');
+  const space = cut.lastIndexOf(' ');
+  return `${(space > max * 0.6 ? cut.slice(0, space) : cut).trimEnd()}…`;
 }

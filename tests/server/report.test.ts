@@ -171,6 +171,25 @@ describe('GET /api/studies/:id/report.pdf', () => {
     expect(bad.body.error.message).toContain('"lost-n" (Neutral lost at the drop)');
   });
 
+  it('keeps the page number at the foot of every page when the study and case names are as long as allowed', async () => {
+    const name = `Wrenfold Close ${'pillar and service drop survey '.repeat(7)}`.slice(0, 200).trim();
+    const caseName = `Neutral lost ${'at the pillar '.repeat(10)}`.trim();
+    const circuit = { ...openNeutral, cases: [{ id: 'long', name: caseName, changes: [{ element: 'ROD', set: { ohms: 1000 } }] }] };
+    const s = await engineer.post('/api/studies').send({ name, content: { circuit } });
+    expect(s.status).toBe(201);
+    for (const q of ['', '?case=long']) {
+      const file = path.join(dir, `long${q ? '-case' : ''}.pdf`);
+      writeFileSync(file, (await getBinary(viewer, `/api/studies/${s.body.id}/report.pdf${q}`)).body as Buffer);
+      const pages = Number(/Pages:\s+(\d+)/.exec(execFileSync('pdfinfo', [file], { encoding: 'utf8' }))![1]);
+      expect(pages).toBeGreaterThan(3);
+      for (let p = 1; p <= pages; p++) {
+        const text = execFileSync('pdftotext', ['-raw', '-enc', 'UTF-8', '-f', String(p), '-l', String(p), file, '-'], { encoding: 'utf8' });
+        const foot = text.split('\n').find((l) => / Page \d+ of \d+$/.test(l)) ?? `no page number on page ${p}`;
+        expect(foot, `page ${p}${q}`).toMatch(new RegExp(`^Wrenfold Close pillar and service .*… — Revision 1${q ? ', case "Neutral lost at the .*…"' : ''} Page ${p} of ${pages}$`));
+      }
+    }
+  });
+
   it('names the downloads after the study and the case as people wrote them, accents and scripts kept', async () => {
     const circuit = { ...openNeutral, cases: [{ id: 'lost-n', name: 'Neutral lost — drop', changes: [{ element: 'DROP', set: { open: ['n'] } }] }] };
     const s = await engineer.post('/api/studies').send({ name: 'Étude über Straße — 中文 🔌 feeder', content: { circuit } });
