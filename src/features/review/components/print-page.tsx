@@ -192,7 +192,7 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
       )}
       <h2 className="mt-4 text-[16px]">Caution</h2>
       <p className="font-semibold text-caution">{SAFETY_CAUTION}</p>
-      <footer className="mt-6 border-t border-rule pt-1 text-[11px] text-ink-muted print:fixed print:inset-x-0 print:bottom-0 print:mt-0 print:bg-white">{foot}</footer>
+      <footer className="mt-6 truncate border-t border-rule pt-1 text-[11px] text-ink-muted print:fixed print:inset-x-0 print:bottom-0 print:mt-0 print:bg-white">{foot}</footer>
     </article>
   );
 }
