@@ -1,7 +1,7 @@
 /**
  * Numbers as every results view writes them (workspace tables, report, CSV): magnitudes with a
  * tenth above 10 then three or four significant figures, angles to a tenth of a degree with a true
- * minus sign, per-unit values to three decimals. One source, so a PDF says exactly what the
+ * minus sign, per-unit values to three decimals (three significant figures below 0.1). One source, so a PDF says exactly what the
  * screen and the CSV say.
  */
 
@@ -24,10 +24,16 @@ export function formatAngle(deg: number): string {
   return `${v < 0 ? '−' : ''}${Math.abs(v).toFixed(1)}°`;
 }
 
-/** A per-unit value to three decimals ("1.394"). */
+/**
+ * A per-unit value to three decimals ("1.394"); below 0.1, three significant figures ("0.00537"),
+ * so a small but real value (a 5 kW load on a 1 MVA base, a 0.5 kvar flow) never reads as 0.000.
+ */
 export function formatPu(x: number): string {
   if (!Number.isFinite(x)) return String(x);
-  return Math.abs(x) < 5e-7 ? '0.000' : x.toFixed(3);
+  const a = Math.abs(x);
+  if (a < 1e-6) return '0.000';
+  if (a >= 0.1) return x.toFixed(3);
+  return x.toFixed(2 - Math.floor(Math.log10(Number(a.toPrecision(3)))));
 }
 
 /** A percentage to two decimals ("47.30"). */

@@ -11,6 +11,7 @@ import { ElementTable } from '../../../../../src/features/workspace/results/elem
 import { LoadTable } from '../../../../../src/features/workspace/results/load-table.tsx';
 import { SequenceCurrentTable, SequenceVoltageTable } from '../../../../../src/features/workspace/results/sequence-tables.tsx';
 import { formatMagnitude } from '../../../../../src/features/workspace/results/format.ts';
+import { formatPu } from '../../../../../shared/report/format.ts';
 
 const result = solveCircuit(demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit);
 const house = result.buses.find((b) => b.bus === 'HOUSE')!;
@@ -112,7 +113,7 @@ describe('Sequence tables units', () => {
     const iRow = () => within(screen.getByRole('table', { name: 'Sequence currents' })).getByRole('row', { name: /DROP/ });
     expect(vRow()).toHaveTextContent(formatMagnitude(v2));
     await userEvent.click(within(screen.getByRole('group', { name: 'Sequence voltage units' })).getByRole('button', { name: 'pu' }));
-    expect(vRow()).toHaveTextContent((v2 / house.nominalVLN!).toFixed(3));
+    expect(vRow()).toHaveTextContent(formatPu(v2 / house.nominalVLN!));
     expect(vRow()).not.toHaveTextContent(formatMagnitude(v2));
     await userEvent.click(within(screen.getByRole('group', { name: 'Sequence current units' })).getByRole('button', { name: 'pu' }));
     expect(Number((i1 / padBase).toFixed(3))).toBeGreaterThan(0.1);
