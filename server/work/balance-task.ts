@@ -52,7 +52,12 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
       customers = parseCustomersCsv(task.customersCsv);
     } else ({ feeder, customers } = customersFromCircuit(task.circuit));
   } catch (e) {
-    if (e instanceof CustomerListError) return { ok: false, message: `The customer list has problems: ${e.issues.slice(0, 5).map(issueText).join('; ')}${e.issues.length > 5 ? `; and ${e.issues.length - 5} more` : ''}.`, field: 'customersCsv' };
+    if (e instanceof CustomerListError) {
+      const problems = `${e.issues.slice(0, 5).map(issueText).join('; ')}${e.issues.length > 5 ? `; and ${e.issues.length - 5} more` : ''}.`;
+      // without a list, the customers are the study's own loads: no list to blame
+      if (task.customersCsv === undefined) return { ok: false, message: `The study's loads cannot be balanced: ${words(problems)}` };
+      return { ok: false, message: `The customer list has problems: ${problems}`, field: 'customersCsv' };
+    }
     throw e;
   }
   const highs = await highsRuntime();

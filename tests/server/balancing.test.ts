@@ -64,7 +64,8 @@ describe('balancing a study', () => {
     expect(bus.body.error.message).toContain('row 2, column bus: the feeder has no three-phase bus "P9"');
     const none = await engineer.post(`/api/studies/${feederStudy}/balance`).send({});
     expect(none.status).toBe(400);
-    expect(none.body.error.message).toMatch(/no single-phase kW loads between a phase and the neutral/);
+    expect(none.body.error.message).toBe("The study's loads cannot be balanced: the study has no single-phase kW loads between a phase and the neutral to balance.");
+    expect(none.body.error.fields).toBeUndefined(); // no customer list was sent
     const objective = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'cost' });
     expect(objective.status).toBe(400);
   });
