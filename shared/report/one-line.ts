@@ -72,7 +72,8 @@ function place(elements: DrawnElement[], stored: Record<string, XY>): { buses: M
   const cursor = new Map<number, number>();
   for (const b of busNames) {
     const below = elements.filter((e) => e.buses[0] === b && !ABOVE.has(e.type));
-    const width = Math.max(1, below.length) * SLOT;
+    const above = elements.filter((e) => e.buses[0] === b && ABOVE.has(e.type));
+    const width = Math.max(1, below.length, above.length) * SLOT;
     const t = tier.get(b)!;
     const x0 = cursor.get(t) ?? 0;
     cursor.set(t, x0 + width + SLOT / 2);
@@ -82,6 +83,13 @@ function place(elements: DrawnElement[], stored: Record<string, XY>): { buses: M
       if (stored[e.id]) return;
       els.set(e.id, SERIES.has(e.type) && e.buses.length > 1 ? { x: x0 + SLOT / 2 + k * SLOT, y: y + TIER / 2 } : { x: x0 + SLOT / 2 + k * SLOT, y: y + 75 });
     });
+    // one source above its bus sits over its middle; several side by side, never on top of each other
+    if (above.length > 1) {
+      above.forEach((e, k) => {
+        const at = buses.get(b)!;
+        if (!stored[e.id]) els.set(e.id, { x: at.x + (k - (above.length - 1) / 2) * SLOT, y: at.y - 75 });
+      });
+    }
   }
   for (const e of elements) {
     if (stored[e.id]) els.set(e.id, stored[e.id]);

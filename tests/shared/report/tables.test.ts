@@ -35,6 +35,16 @@ describe('report tables', () => {
     expect(oneLineSvg(openedConnection, undefined, 'Plex').svg).toContain('neutral open');
   });
 
+  it('draws several sources on one bus side by side, not on top of each other', () => {
+    const source = (id: string) => ({ type: 'source', id, bus: 'B1', kvLL: 0.4, impedance: { z1: { re: 0.01, im: 0.05 } } });
+    const circuit = { format: 'wyeward-circuit', version: 1, frequencyHz: 50, elements: [source('S1'), source('S2'), source('S3')] };
+    const { labels } = oneLineSvg(circuit, undefined, 'Plex', { labels: false });
+    const xs = ['S1', 'S2', 'S3'].map((id) => labels.find((l) => l.text === id)!.x);
+    expect(new Set(xs).size).toBe(3);
+    const sorted = [...xs].sort((a, b) => a - b);
+    expect(sorted[1] - sorted[0]).toBeGreaterThanOrEqual(60); // a symbol's width apart at least
+  });
+
   it('write per unit as V / V_base of the solved values', () => {
     const result = solveCircuit(openNeutral);
     const pu = busTable(tableContext(openNeutral, result, 'pu', readPerUnitSettings(undefined)));
