@@ -14,6 +14,7 @@ import { oneLineSvg } from '../../../../shared/report/one-line.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { phasorSvg } from '../../../../shared/report/phasor-svg.ts';
 import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../../../shared/report/tables.ts';
+import { BASE_CASE_ID, circuitCases } from '../../../../shared/engine/index.ts';
 import { SAFETY_CAUTION } from '../../../../shared/review/risk.ts';
 import { Button } from '../../../components/button.tsx';
 import { Loading } from '../../../components/loading.tsx';
@@ -24,6 +25,15 @@ import { useStudyRecord } from '../api/get-study-record.ts';
 import { reportUrl } from '../api/report.ts';
 
 const FONT = 'IBM Plex Sans, sans-serif';
+
+/** The study cases of a stored circuit; none when its list cannot be read (the solve then says why). */
+function casesOf(circuit: unknown): { id: string }[] {
+  try {
+    return circuitCases(circuit);
+  } catch {
+    return [];
+  }
+}
 const TABLE = 'w-full border-collapse text-[11px] [&_td]:border-t [&_td]:border-rule [&_td]:px-1 [&_td]:py-0.5 [&_td]:align-top [&_th]:px-1 [&_th]:py-0.5 [&_th]:text-left [&_th]:align-bottom [&_th]:font-semibold [&_th]:text-ink-muted';
 
 function PrintTable({ table, columns, title }: { table: ResultTable; columns?: number[]; title?: string }) {
@@ -73,11 +83,23 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
 
   const solved = useMemo(() => {
     if (!revision.data) return null;
-    return solveReported(revision.data.content.circuit, caseId);
+    const circuit = revision.data.content.circuit;
+    // a link may name a case this revision does not have (deleted later, or mistyped): say so, never crash
+    if (caseId !== undefined && caseId !== BASE_CASE_ID && !casesOf(circuit).some((c) => c.id === caseId)) return { missingCase: caseId };
+    return solveReported(circuit, caseId);
   }, [revision.data, caseId]);
 
   if (revision.isPending || study.isPending) return <Loading />;
-  if (revision.isError || study.isError || !solved || !revision.data || !study.data) return <Notice tone="error" title="This revision could not be loaded." />;
+  if (revision.isError || study.isError || !solved || !revision.data || !study.data)
+    return <Notice tone="error" title={`Revision ${n} could not be loaded.`}>{revision.error?.message ?? study.error?.message}</Notice>;
+  if ('missingCase' in solved)
+    return (
+      <Notice tone="error" title={`Revision ${n} has no study case “${solved.missingCase}”.`}>
+        <Link to={`/studies/${studyId}/print/${n}${units === 'pu' ? '?units=pu' : ''}`} className="font-semibold text-accent hover:underline">
+          Print view of the base circuit
+        </Link>
+      </Notice>
+    );
 
   const rev = revision.data;
   const s = study.data;

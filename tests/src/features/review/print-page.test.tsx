@@ -40,3 +40,12 @@ describe('print view of a study case', () => {
     expect(Object.fromEntries(new URL(link.getAttribute('href')!, 'http://wyeward.test').searchParams)).toEqual({ revision: '1' });
   });
 });
+
+describe('print view of a case the revision does not have', () => {
+  it('says so and links the base circuit, instead of failing the page', async () => {
+    setup();
+    renderReview(<PrintPage studyId={STUDY_ID} n={1} units="pu" caseId="nope" />);
+    expect(await screen.findByText('Revision 1 has no study case “nope”.')).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Print view of the base circuit' })).toHaveAttribute('href', `/studies/${STUDY_ID}/print/1?units=pu`);
+  });
+});
