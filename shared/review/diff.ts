@@ -237,7 +237,8 @@ export function resultDeltas(from: ResultsSummary, to: ResultsSummary, names?: {
       text: `${row.label}: ${formatValue(fv, row.unit)} → ${formatValue(tv, row.unit)}`,
     });
   }
-  return out.sort((p, q) => KIND_ORDER.indexOf(p.kind) - KIND_ORDER.indexOf(q.kind) || p.key.localeCompare(q.key));
+  // numbers in names in their order: No 2 before No 10
+  return out.sort((p, q) => KIND_ORDER.indexOf(p.kind) - KIND_ORDER.indexOf(q.kind) || p.key.localeCompare(q.key, 'en', { numeric: true }));
 }
 
 function flagsOf(s: ResultsSummary): FlagSummary[] {

@@ -54,6 +54,15 @@ describe('result deltas', () => {
     expect(d[0].delta).toBeCloseTo(71.2, 10);
   });
 
+  it('lists houses numbered in names in their numeric order (No 2 before No 10)', () => {
+    const withHouses = (amps: number): ResultsSummary => {
+      const s = summary(12.1, 120);
+      if (!s.ok) throw new Error('ok summary');
+      return { ...s, neutralCurrents: ['No 10', 'No 2', 'No 1'].map((id) => ({ key: `${id}@Bus 4`, elementId: id, bus: 'Bus 4', amps })) };
+    };
+    expect(resultDeltas(withHouses(1), withHouses(5)).map((r) => r.label)).toEqual(['neutral current at Bus 4 (No 1)', 'neutral current at Bus 4 (No 2)', 'neutral current at Bus 4 (No 10)']);
+  });
+
   it('ignores changes within 0.05 of the unit and lists rows that appear or disappear', () => {
     expect(resultDeltas(summary(12.1, 120), summary(12.14, 120.04))).toEqual([]);
     const gone = resultDeltas(summary(12.1, 120), { ok: false, error: { code: 'singular-network', message: 'x', elementIds: [] } });

@@ -45,7 +45,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
   const [bus, setBus] = useState('');
   const [weightTexts, setWeightTexts] = useState<WeightTexts>({ neutral: '1', unbalance: '1', losses: '1', voltage: '1' });
   const [formError, setFormError] = useState<string | null>(null);
-  const [result, setResult] = useState<{ response: BalanceResponse; customers: Customer[] | null } | null>(null);
+  const [result, setResult] = useState<{ response: BalanceResponse; customers: Customer[] | null; fileName: string | null } | null>(null);
   const [applied, setApplied] = useState<{ revision: number | null | undefined } | null>(null);
   const [applyError, setApplyError] = useState<string | null>(null);
   const [applying, setApplying] = useState(false);
@@ -107,7 +107,7 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
           if (abort.current === controller && !controller.signal.aborted) setProgress(p);
         },
       },
-      { onSuccess: (response) => setResult({ response, customers }) },
+      { onSuccess: (response) => setResult({ response, customers, fileName: customers ? (file?.name ?? null) : null }) },
     );
   }
 
@@ -133,7 +133,9 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
     const circuit = study.content.circuit as unknown as CircuitInput;
     const next = result.customers ? applyCustomers(circuit, result.customers, result.response.assignment) : applyAssignment(circuit, result.response.assignment);
     try {
-      const revision = await onApply({ ...study.content, circuit: next as unknown as StudyContent['circuit'] }, `Phase balancing: ${result.response.moves.length} move${result.response.moves.length === 1 ? '' : 's'} (${result.response.objective})`);
+      const moves = result.response.moves.length;
+      const added = result.customers ? `${result.customers.length} customer${result.customers.length === 1 ? '' : 's'} added as loads from ${result.fileName ?? 'the customer list'}, ` : '';
+      const revision = await onApply({ ...study.content, circuit: next as unknown as StudyContent['circuit'] }, `Phase balancing: ${added}${moves} move${moves === 1 ? '' : 's'} (${result.response.objective})`);
       setApplied({ revision });
     } catch (err) {
       setApplyError(err instanceof Error ? err.message : 'The moves could not be saved.');

@@ -140,3 +140,46 @@ describe('balancing page: an answer belongs to the customers it was run on', () 
     expect(posts(api)).toHaveLength(1);
   });
 });
+
+describe('balancing page: applying an uploaded customer list', () => {
+  it('says in the revision message that the list\'s customers were added as loads, not only the moves', async () => {
+    const user = userEvent.setup();
+    const s = studyDetail({ name: 'Lane feeder' });
+    const figures = { neutralCurrentA: 10, maxUnbalancePercent: { iec: 1, nema: 1, ieee: 1 }, lossesKw: 1, minCustomerVoltagePu: 0.95, maxCustomerVoltagePu: 1 };
+    const cx = { re: 1, im: 0 };
+    const currents = { a: cx, b: cx, c: cx, n: cx };
+    const voltage = (phase: string) => [{ customer: 'H1', bus: 'P1', phase, volts: 230, pu: 1 }];
+    const api = stubApi({
+      'GET /api/auth/me': () => ({ body: me('engineer') }),
+      'GET /api/studies/:id': () => ({ body: s }),
+      'POST /api/studies/:id/balance': () => ({
+        body: {
+          objective: 'neutral current leaving bus P0',
+          assignment: { H1: 'B', H2: 'A' },
+          moves: [{ customer: 'H1', bus: 'P1', from: 'A', to: 'B' }],
+          before: figures,
+          after: figures,
+          rotatingRule: figures,
+          gapPercent: 0,
+          milpStatus: 'optimal',
+          solves: 4,
+          maxMoves: 8,
+          voltages: { before: voltage('A'), after: voltage('B') },
+          currents: { at: 'P0', before: currents, after: currents },
+          fromStudy: false,
+          caution: 'CAUTION: phase moves are work on live equipment.',
+        },
+      }),
+      'PATCH /api/studies/:id': (req) => ({ body: { ...s, version: 2, revision: 2, content: (req.body as { content: unknown }).content } }),
+    });
+    renderApp(`/studies/${s.id}/balance`);
+    await user.click(await screen.findByLabelText(/A customer list \(CSV/));
+    await user.upload(screen.getByLabelText('Customer list (CSV)'), new File(['customer,bus,phase,kw,kvar\nH1,P1,A,2,0\nH2,P1,A,1,0\n'], 'lane.csv', { type: 'text/csv' }));
+    await screen.findByText('lane.csv: 2 customers read.');
+    await user.click(screen.getByRole('button', { name: 'Run balancing' }));
+    await user.click(await screen.findByRole('button', { name: 'Apply as a new revision' }));
+    expect(await screen.findByText(/Saved as revision 2/)).toBeInTheDocument();
+    const patch = api.calls.find((c) => c.method === 'PATCH')!;
+    expect((patch.body as { message: string }).message).toBe('Phase balancing: 2 customers added as loads from lane.csv, 1 move (neutral current leaving bus P0)');
+  });
+});
