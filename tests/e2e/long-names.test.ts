@@ -1,8 +1,9 @@
 /**
  * A study name people type may be one long word (underscores, no spaces, up to the 200 characters
  * allowed). The pages that show it break it rather than widen the page past the window: the list
- * keeps each row's buttons in view, and the study, history, balancing and print pages have no
- * sideways scrolling. Only a browser lays the pages out, so only a browser test shows it.
+ * keeps each row's buttons in view, the audit trail its last column, and the study, history,
+ * balancing and print pages have no sideways scrolling. Only a browser lays the pages out, so
+ * only a browser test shows it.
  */
 import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
@@ -60,5 +61,17 @@ describe('a long study name in a real browser', () => {
     }
     await screenshot(page, 'long-name-print');
     expect(errors).toEqual([]);
+
+    // the audit trail (owners only) names the study in a column of its table
+    const owner = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(owner, product.baseUrl, 'owner@wyeward.test');
+    await owner.waitForURL(`${product.baseUrl}/`);
+    await owner.goto(`${product.baseUrl}/audit`);
+    const row = owner.getByRole('row', { name: /study created/ }).filter({ hasText: NAME.slice(0, 40) }).first();
+    await row.waitFor();
+    const details = (await row.getByRole('cell').last().boundingBox())!;
+    expect(details.x + details.width).toBeLessThanOrEqual(1280);
+    await screenshot(owner, 'long-name-audit');
+    await owner.close();
   });
 });
