@@ -377,13 +377,21 @@ export async function deleteStudy(db: Db, actor: Actor, id: string): Promise<voi
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'study.delete', studyId: id, detail: { name: deleted[0].name } });
 }
 
+/** "<name> (copy)" within the 200 characters a name may have: the name is shortened (whole characters), never the "(copy)". */
+function copyName(name: string): string {
+  const suffix = ' (copy)';
+  const chars = Array.from(name);
+  while (chars.join('').length + suffix.length > 200) chars.pop();
+  return `${chars.join('').trimEnd()}${suffix}`;
+}
+
 /**
  * Copies a study (how a study is started from a template): circuit, layout and settings become
  * revision 1 of a draft that remembers its source and the source's revision.
  */
 export async function cloneStudy(db: Db, actor: Actor, id: string, input: CloneStudyRequest): Promise<CreatedStudy> {
   const from = await getStudy(db, actor, id);
-  const name = input.name ?? `${from.name} (copy)`.slice(0, 200);
+  const name = input.name ?? copyName(from.name);
   return db.transaction(async (tx) => {
     const [raw] = await tx.select().from(studies).where(visible(actor, id)).limit(1);
     if (!raw) throw notFound();

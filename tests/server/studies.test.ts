@@ -194,6 +194,18 @@ describe('templates, clone and delete', () => {
     expect((await owner.get(`/api/studies/${clone.body.id}`)).body.name).toBe('Feeder 7 (copy)');
   });
 
+  it('keeps "(copy)" on the copy of a study whose name is as long as allowed, cutting whole characters', async () => {
+    const long = `${'Wrenfold pillar '.repeat(12)}🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌🔌`.slice(0, 200);
+    const { id } = await create(engineer, { name: long });
+    const clone = await owner.post(`/api/studies/${id}/clone`);
+    expect(clone.status).toBe(201);
+    const name = (await owner.get(`/api/studies/${clone.body.id}`)).body.name as string;
+    expect(name.endsWith(' (copy)')).toBe(true);
+    expect(name.length).toBeLessThanOrEqual(200);
+    expect(long.startsWith(name.slice(0, -' (copy)'.length))).toBe(true);
+    expect(name).not.toMatch(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])/); // no half of a surrogate pair
+  });
+
   it('soft-deletes: the study disappears from reads and writes, and the row stays', async () => {
     const { id } = await create(engineer, { name: 'To delete' });
     expect((await engineer.delete(`/api/studies/${id}`)).status).toBe(204);
