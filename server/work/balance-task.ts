@@ -102,7 +102,12 @@ export async function runBalance(task: BalanceTask): Promise<BalanceOutcome> {
       },
     };
   } catch (e) {
-    if (e instanceof CustomerListError) return { ok: false, message: `The customers do not fit the study: ${e.issues.slice(0, 5).map(issueText).join('; ')}.`, field: e.issues.some((i) => i.row !== undefined) ? 'customersCsv' : undefined };
+    if (e instanceof CustomerListError) {
+      const problems = e.issues.slice(0, 5).map(issueText).join('; ');
+      // problems of rows are the customers'; others (the bus asked for) the settings'
+      if (e.issues.some((i) => i.row !== undefined)) return { ok: false, message: `The customers do not fit the study: ${problems}.`, field: 'customersCsv' };
+      return { ok: false, message: `The study cannot be balanced: ${words(problems)}.`, ...(task.bus !== undefined && problems.includes(`bus "${task.bus}"`) ? { field: 'bus' } : {}) };
+    }
     if (e instanceof EngineError) return { ok: false, message: `The study cannot be balanced: ${words(e.message)}` };
     throw e;
   } finally {

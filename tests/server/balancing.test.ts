@@ -66,6 +66,10 @@ describe('balancing a study', () => {
     expect(none.status).toBe(400);
     expect(none.body.error.message).toBe("The study's loads cannot be balanced: the study has no single-phase kW loads between a phase and the neutral to balance.");
     expect(none.body.error.fields).toBeUndefined(); // no customer list was sent
+    const where = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, bus: 'NOWHERE' });
+    expect(where.status).toBe(400);
+    expect(where.body.error.message).toMatch(/^The study cannot be balanced: the feeder has no bus "NOWHERE" to measure the neutral current at; its buses are \S/);
+    expect(where.body.error.fields).toEqual({ bus: expect.any(String) });
     const objective = await engineer.post(`/api/studies/${feederStudy}/balance`).send({ customersCsv: CSV, objective: 'cost' });
     expect(objective.status).toBe(400);
   });

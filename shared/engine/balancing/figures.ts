@@ -42,6 +42,13 @@ export interface NeutralPoint {
 
 const hasNeutral = (r: CircuitResult, id: string, port: number) => r.elements[id]?.ports?.[port]?.conductors.includes('n') ?? false;
 
+/** "; did you mean "WC3"?" for a name that differs only in case, else "; its buses are WC0, WC1, …" (at most 12). */
+function busHint(buses: string[], asked: string): string {
+  const same = buses.find((b) => b.toLowerCase() === asked.trim().toLowerCase());
+  if (same) return `; did you mean "${same}"?`;
+  return `; its buses are ${buses.slice(0, 12).join(', ')}${buses.length > 12 ? ', …' : ''}`;
+}
+
 /**
  * The measuring point: at the source, the neutral conductors leaving the source bus (past a
  * transformer bank without a neutral on its primary side, the lines leaving its secondary); at any
@@ -49,7 +56,7 @@ const hasNeutral = (r: CircuitResult, id: string, port: number) => r.elements[id
  */
 export function neutralPoint(feeder: BalanceFeeder, base: CircuitResult, bus?: string): NeutralPoint {
   if (bus !== undefined && bus !== feeder.sourceBus) {
-    if (!feeder.order.includes(bus)) throw new CustomerListError([{ message: `the feeder has no bus "${bus}" to measure the neutral current at` }]);
+    if (!feeder.order.includes(bus)) throw new CustomerListError([{ message: `the feeder has no bus "${bus}" to measure the neutral current at${busHint(feeder.order, bus)}` }]);
     let parent: FeederEdge | undefined;
     for (const list of feeder.children.values()) parent ??= list.find((e) => e.downstream === bus);
     const port = 1 - parent!.upstreamPort;

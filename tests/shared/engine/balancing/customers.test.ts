@@ -1,6 +1,6 @@
 /** The customer list: CSV columns, kvar from pf, and every problem named by row and column in words. */
 import { describe, expect, it } from 'vitest';
-import { analyseFeeder, checkCustomers, csvDelimiter, CustomerListError, parseCustomersCsv, rotatingRule, withCustomers, solveCircuit } from '../../../../shared/engine/index.ts';
+import { analyseFeeder, checkCustomers, csvDelimiter, CustomerListError, neutralPoint, parseCustomersCsv, rotatingRule, withCustomers, solveCircuit } from '../../../../shared/engine/index.ts';
 import { smallCustomers, smallFeeder } from './small-feeder.ts';
 
 function issuesOf(f: () => unknown): string[] {
@@ -77,6 +77,12 @@ describe('customers on the feeder', () => {
   it('checks each customer against the buses and phases of the feeder', () => {
     const list = parseCustomersCsv('customer,bus,phase,kw,kvar\nH1,P9,A,2,0\nS-1,P1,A,1,0\n');
     expect(issuesOf(() => checkCustomers(feeder, list))).toEqual(['2|bus|the feeder has no three-phase bus "P9"', '3|customer|"S-1" is already the name of an element of the feeder; give the customer another name']);
+  });
+
+  it('names the buses, or the one meant, when the neutral is to be measured at a bus the feeder lacks', () => {
+    const base = solveCircuit(withCustomers(feeder, smallCustomers, {}));
+    expect(issuesOf(() => neutralPoint(feeder, base, 'p2'))).toEqual(['-|-|the feeder has no bus "p2" to measure the neutral current at; did you mean "P2"?']);
+    expect(issuesOf(() => neutralPoint(feeder, base, 'Q9'))).toEqual([`-|-|the feeder has no bus "Q9" to measure the neutral current at; its buses are ${feeder.order.join(', ')}`]);
   });
 
   it('adds each customer as a single-phase load between its phase and the bus neutral', () => {
