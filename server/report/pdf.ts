@@ -10,7 +10,7 @@
  */
 import pdfmake from 'pdfmake';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
-import { busColumnGroups, flaggedBuses, inputGroups, scopeLines, solveReported } from '../../shared/report/document.ts';
+import { busColumnGroups, flaggedBuses, inputGroups, NOTHING_DRAWN, scopeLines, solveReported } from '../../shared/report/document.ts';
 import { oneLineSvg } from '../../shared/report/one-line.ts';
 import { phasorLegend, phasorSvg } from '../../shared/report/phasor-svg.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
@@ -110,8 +110,10 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     const p = at(l.x, l.y);
     content.push({ text: pdfText(l.text), fontSize: l.size * k, bold: l.bold ?? false, color: l.colour ?? '#000000', lineHeight: 1, absolutePosition: { x: p.x, y: p.y - 1.025 * l.size * k } });
   }
+  if (inputGroups(circuit).length === 0) content.push({ text: NOTHING_DRAWN });
   content.push({ text: 'Circuit inputs', style: 'h2', pageBreak: 'before' });
   content.push(...inputTables(circuit));
+  if (inputGroups(circuit).length === 0) content.push({ text: NOTHING_DRAWN });
 
   content.push({ text: 'Results', style: 'h2', pageBreak: 'before' });
   if (!result) {

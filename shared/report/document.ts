@@ -54,6 +54,9 @@ export function parameterLines(e: Record<string, unknown>, names: CircuitNames):
   return out.join('; ');
 }
 
+/** What the report says in place of the diagram and the inputs of a revision with no element. */
+export const NOTHING_DRAWN = 'Nothing is drawn in this revision yet.';
+
 /** The input table of each element kind: a title ("Loads") and rows of name and parameters. */
 export function inputGroups(circuit: unknown): { title: string; rows: [string, string][] }[] {
   const names = circuitNames(circuit);

@@ -190,6 +190,15 @@ describe('GET /api/studies/:id/report.pdf', () => {
     }
   });
 
+  it('says that nothing is drawn in the report of an empty study', async () => {
+    const s = await engineer.post('/api/studies').send({ name: 'Blank page', content: { circuit: { format: 'wyeward-circuit', version: 1, frequencyHz: 50, elements: [] } } });
+    expect(s.status).toBe(201);
+    const text = pdfWords((await getBinary(viewer, `/api/studies/${s.body.id}/report.pdf`)).body as Buffer, 'empty.pdf');
+    expect(text).toContain('One-line diagram Nothing is drawn in this revision yet.');
+    expect(text).toContain('Circuit inputs Nothing is drawn in this revision yet.');
+    expect(text).toContain(SAFETY_CAUTION);
+  });
+
   it('names the downloads after the study and the case as people wrote them, accents and scripts kept', async () => {
     const circuit = { ...openNeutral, cases: [{ id: 'lost-n', name: 'Neutral lost — drop', changes: [{ element: 'DROP', set: { open: ['n'] } }] }] };
     const s = await engineer.post('/api/studies').send({ name: 'Étude über Straße — 中文 🔌 feeder', content: { circuit } });

@@ -9,7 +9,7 @@
  */
 import { useMemo } from 'react';
 import { Link } from 'react-router';
-import { busColumnGroups, flaggedBuses, inputGroups, scopeLines, solveReported } from '../../../../shared/report/document.ts';
+import { busColumnGroups, flaggedBuses, inputGroups, NOTHING_DRAWN, scopeLines, solveReported } from '../../../../shared/report/document.ts';
 import { oneLineSvg } from '../../../../shared/report/one-line.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../../../shared/report/per-unit.ts';
 import { phasorSvg } from '../../../../shared/report/phasor-svg.ts';
@@ -174,9 +174,10 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
       </ul>
 
       <h2 className="mt-4 text-[16px] print:break-before-page">One-line diagram</h2>
-      <Svg svg={diagram.svg} label="One-line diagram" />
+      {inputGroups(circuit).length === 0 ? <p>{NOTHING_DRAWN}</p> : <Svg svg={diagram.svg} label="One-line diagram" />}
 
       <h2 className="mt-4 text-[16px] print:break-before-page">Circuit inputs</h2>
+      {inputGroups(circuit).length === 0 ? <p>{NOTHING_DRAWN}</p> : null}
       {inputGroups(circuit).map((g) => (
         <PrintTable key={g.title} table={{ id: g.title, title: g.title, columns: ['Name', 'Parameters'], rows: g.rows }} />
       ))}

@@ -49,3 +49,17 @@ describe('print view of a case the revision does not have', () => {
     expect(screen.getByRole('link', { name: 'Print view of the base circuit' })).toHaveAttribute('href', `/studies/${STUDY_ID}/print/1?units=pu`);
   });
 });
+
+describe('print view of an empty study', () => {
+  it('says that nothing is drawn where the diagram and the inputs would be', async () => {
+    const empty = { format: 'wyeward-circuit', version: 1, frequencyHz: 50, elements: [] };
+    stubApi({
+      'GET /api/studies/:id/revisions/:n': () => ({ body: { ...revision(1), content: { circuit: empty }, summary: { ok: true } } }),
+      'GET /api/studies/:id/review': () => ({ body: reviewState() }),
+      'GET /api/studies/:id': () => ({ body: studyDetail({ id: STUDY_ID, name: 'Blank', content: { circuit: empty } }) }),
+    });
+    renderReview(<PrintPage studyId={STUDY_ID} n={1} />);
+    expect(await screen.findAllByText('Nothing is drawn in this revision yet.')).toHaveLength(2);
+    expect(screen.queryByRole('img', { name: 'One-line diagram' })).not.toBeInTheDocument();
+  });
+});
