@@ -6,12 +6,14 @@ import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useAudit, useAuditChoices, type AuditFilters } from '../api/get-audit.ts';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 /** Action families offered as prefixes ("review." = every review action). */
 const PREFIXES = [...new Set(AUDIT_ACTIONS.map((a) => `${a.split('.')[0]}.`))];
 
 /** The team's audit trail for owners: filter by study, action and actor; 50 events a page, newest first. */
 export function AuditPage() {
+  useDocumentTitle('Audit trail');
   const [search, setSearch] = useSearchParams();
   const filters: AuditFilters = {
     studyId: search.get('studyId') || undefined,

@@ -11,6 +11,7 @@ import { applyServerErrors } from '../../../lib/form-errors.ts';
 import { formatWait } from '../../../lib/format.ts';
 import { useSignIn } from '../api/sign-in.ts';
 import { DemoAccounts } from './demo-accounts.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 type SignInInput = z.input<typeof signInRequestSchema>;
 type SignInOutput = z.output<typeof signInRequestSchema>;
@@ -22,6 +23,7 @@ interface Problem {
 
 /** E-mail + password sign-in; shows the demo accounts beside it when demo mode is on. */
 export function SignInForm({ onSignedIn, children }: { onSignedIn: (me: Me) => void; children?: ReactNode }) {
+  useDocumentTitle('Sign in');
   const signIn = useSignIn();
   const [problem, setProblem] = useState<Problem | null>(null);
   const form = useForm<SignInInput, unknown, SignInOutput>({

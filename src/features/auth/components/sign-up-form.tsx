@@ -9,6 +9,7 @@ import { Notice } from '../../../components/notice.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { applyServerErrors } from '../../../lib/form-errors.ts';
 import { isPending, useSignUp } from '../api/sign-up.ts';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 type SignUpInput = z.input<typeof signUpRequestSchema>;
 type SignUpOutput = z.output<typeof signUpRequestSchema>;
@@ -21,6 +22,7 @@ interface SignUpFormProps {
 
 /** Creates an account: a new team with you as owner, or (with an invite) joins the inviting team. */
 export function SignUpForm({ onSignedUp, invite }: SignUpFormProps) {
+  useDocumentTitle(invite ? 'Join your team' : 'Create an account');
   const signUp = useSignUp();
   const [problem, setProblem] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);

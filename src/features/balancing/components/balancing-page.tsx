@@ -19,6 +19,7 @@ import { readCustomersCsv, type ReadCustomers } from '../utils/read-customers.ts
 import { readWeights, type WeightTexts } from '../utils/mix-weights.ts';
 import { progressWords } from '../utils/progress-words.ts';
 import { CurrentPhasors } from './current-phasors.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 const OBJECTIVES = [
   ['neutral', 'Neutral current'],
@@ -37,6 +38,7 @@ export interface BalancingPageProps {
 }
 
 export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) {
+  useDocumentTitle('Phase balancing', study.name);
   const [source, setSource] = useState<'study' | 'csv'>('study');
   const [file, setFile] = useState<{ name: string; read: ReadCustomers } | null>(null);
   const [objective, setObjective] = useState<BalanceRequest['objective']>('neutral');

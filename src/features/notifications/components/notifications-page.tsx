@@ -5,6 +5,7 @@ import { Loading } from '../../../components/loading.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useMarkRead, useNotifications } from '../api/notifications.ts';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 const KIND: Record<Notification['kind'], string> = {
   'review-requested': 'Review requested',
@@ -15,6 +16,7 @@ const KIND: Record<Notification['kind'], string> = {
 
 /** The signed-in member's notifications, newest first; open the study or mark them read. */
 export function NotificationsPage() {
+  useDocumentTitle('Notifications');
   const list = useNotifications();
   const mark = useMarkRead();
   return (

@@ -6,6 +6,8 @@ import { useDiff } from '../api/get-diff.ts';
 import { useRevisions } from '../api/get-revisions.ts';
 import { DiffView } from './diff-view.tsx';
 import { StudyCrumbs } from './study-crumbs.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
+import { useStudyRecord } from '../api/get-study-record.ts';
 
 function readRevision(v: string | null): number | undefined {
   const n = Number(v);
@@ -16,6 +18,7 @@ function readRevision(v: string | null): number | undefined {
 export function DiffPage({ studyId }: { studyId: string }) {
   const [search, setSearch] = useSearchParams();
   const revisions = useRevisions(studyId);
+  useDocumentTitle('Compare revisions', useStudyRecord(studyId).data?.name);
   const latest = revisions.data?.items[0]?.number;
   const to = readRevision(search.get('to')) ?? latest;
   const from = readRevision(search.get('from')) ?? (to !== undefined ? Math.max(1, to - 1) : undefined);

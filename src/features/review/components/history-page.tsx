@@ -10,10 +10,13 @@ import { canWrite } from '../utils/permissions.ts';
 import { RestoreDialog } from './restore-dialog.tsx';
 import { RevisionResults } from './revision-results.tsx';
 import { StudyCrumbs } from './study-crumbs.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
+import { useStudyRecord } from '../api/get-study-record.ts';
 
 /** Every saved revision, newest first: open any read-only, compare with the previous, restore (write roles). */
 export function HistoryPage({ studyId, role }: { studyId: string; role: Role }) {
   const revisions = useRevisions(studyId);
+  useDocumentTitle('History', useStudyRecord(studyId).data?.name);
   const navigate = useNavigate();
   const [restoring, setRestoring] = useState<number | null>(null);
   const latest = revisions.data?.items[0]?.number;

@@ -23,6 +23,7 @@ import { useReview } from '../api/get-review.ts';
 import { useRevision } from '../api/get-revision.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
 import { reportUrl } from '../api/report.ts';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 const FONT = 'IBM Plex Sans, sans-serif';
 
@@ -88,6 +89,9 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
     if (caseId !== undefined && caseId !== BASE_CASE_ID && !casesOf(circuit).some((c) => c.id === caseId)) return { missingCase: caseId };
     return solveReported(circuit, caseId);
   }, [revision.data, caseId]);
+  // the browser's "Save as PDF" names the file after the title, and prints it at the head of each page
+  const shownCase = solved && !('missingCase' in solved) ? solved.caseName : null;
+  useDocumentTitle(study.data ? `${study.data.name} — Revision ${n}${shownCase ? `, case ${shownCase}` : ''}` : null);
 
   if (revision.isPending || study.isPending) return <Loading />;
   if (revision.isError || study.isError || !solved || !revision.data || !study.data)

@@ -15,6 +15,8 @@ import { RestoreDialog } from './restore-dialog.tsx';
 import { ResultsCaution } from './results-caution.tsx';
 import { RevisionResults } from './revision-results.tsx';
 import { StudyCrumbs } from './study-crumbs.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
+import { useStudyRecord } from '../api/get-study-record.ts';
 
 const TABLE = 'w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted';
 
@@ -134,6 +136,7 @@ export function ResultsSummaryTables({ summary, names = circuitNames(null) }: { 
 export function RevisionPage({ studyId, n, role }: { studyId: string; n: number; role: Role }) {
   const revision = useRevision(studyId, n);
   const revisions = useRevisions(studyId);
+  useDocumentTitle(`Revision ${n}`, useStudyRecord(studyId).data?.name);
   const navigate = useNavigate();
   const [restoring, setRestoring] = useState(false);
   const latest = revisions.data?.items[0]?.number;

@@ -12,6 +12,7 @@ import { useReview } from '../api/get-review.ts';
 import { useNewFromTemplate, useTemplates } from '../api/templates.ts';
 import { canWrite } from '../utils/permissions.ts';
 import { RiskNotice } from '../../../components/risk-notice.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 /** Who approved the template's current revision (from its review history). */
 function ApprovedBy({ studyId }: { studyId: string }) {
@@ -93,6 +94,7 @@ function TemplateCard({ t, role }: { t: TemplateSummary; role: Role }) {
 
 /** The team's templates as cards: name, description, who approved, element count, and "New from template". */
 export function TemplatesPage({ role }: { role: Role }) {
+  useDocumentTitle('Templates');
   const templates = useTemplates();
   return (
     <div className="mx-auto flex max-w-6xl flex-col gap-4">

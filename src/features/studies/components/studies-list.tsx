@@ -15,9 +15,11 @@ import { useDeleteStudy } from '../api/delete-study.ts';
 import { parseStudyListParams, useStudies } from '../api/get-studies.ts';
 import { NewStudyDialog } from './new-study-dialog.tsx';
 import { StudiesTable } from './studies-table.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 /** The studies page: filter, templates toggle, the table, paging, and the create/clone/delete actions the role allows. */
 export function StudiesList({ role }: { role: Role }) {
+  useDocumentTitle('Studies');
   const [search, setSearch] = useSearchParams();
   const params = parseStudyListParams(search);
   const studies = useStudies(params);

@@ -15,10 +15,12 @@ import { useStudy } from '../api/get-study.ts';
 import { ContentSummaryPanel } from './content-summary-panel.tsx';
 import { StudyLoadError } from './study-load-error.tsx';
 import { StudyDetailsForm } from './study-details-form.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 /** One study: its record (who, when, revision, origin), content summary, and the edits the role allows. */
 export function StudyPage({ id, role }: { id: string; role: Role }) {
   const study = useStudy(id);
+  useDocumentTitle(study.data?.name);
   const navigate = useNavigate();
   const remove = useDeleteStudy();
   const clone = useCloneStudy();

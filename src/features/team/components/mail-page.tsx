@@ -4,6 +4,7 @@ import { Notice } from '../../../components/notice.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useMail } from '../api/get-mail.ts';
 import { useMailMessage } from '../api/get-mail-message.ts';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 const URL_PATTERN = /(https?:\/\/[^\s<>"]+)/g;
 
@@ -27,6 +28,7 @@ function MessageText({ text }: { text: string }) {
 
 /** Outgoing mail (owner): what the server sent, so invitations can be followed without a mail server. */
 export function MailPage() {
+  useDocumentTitle('Outgoing mail');
   const mail = useMail();
   const [search, setSearch] = useSearchParams();
   const selected = search.get('message');

@@ -6,9 +6,11 @@ import { can, ROLE_HINT, ROLE_LABEL } from '../../../lib/authorization.ts';
 import { useTeam } from '../../../lib/api/team.ts';
 import { InviteForm, PendingInvites } from './invites.tsx';
 import { Members } from './members.tsx';
+import { useDocumentTitle } from '../../../lib/document-title.ts';
 
 /** The team: members and roles for everyone; invitations and role changes for owners. */
 export function TeamPage({ me }: { me: Me }) {
+  useDocumentTitle('Team');
   const team = useTeam();
   const canManage = can(me.role, 'team:manage');
   if (team.isPending) return <Loading label="Loading the team…" />;

@@ -33,6 +33,7 @@ describe('balancing page: weighted mix', () => {
     const user = userEvent.setup();
     const api = setup();
     const objective = await screen.findByLabelText('Objective');
+    expect(document.title).toBe('Phase balancing — Lane houses — Wyeward');
     expect(screen.queryByLabelText('Weight of the losses')).not.toBeInTheDocument();
     await user.selectOptions(objective, 'Weighted mix');
     for (const label of ['Weight of the neutral current', 'Weight of the voltage unbalance', 'Weight of the losses', 'Weight of the lowest customer voltage']) {

@@ -31,6 +31,8 @@ describe('print view of a study case', () => {
     const url = new URL(link.getAttribute('href')!, 'http://wyeward.test');
     expect(url.pathname).toBe(`/api/studies/${STUDY_ID}/report.pdf`);
     expect(Object.fromEntries(url.searchParams)).toEqual({ revision: '1', case: 'case-2', units: 'pu' });
+    // the browser's "Save as PDF" takes its file name and page header from the title
+    expect(document.title).toBe('Lane 14 — Revision 1, case Rod removed — Wyeward');
   });
 
   it('links the base circuit\'s PDF when no case is shown', async () => {
@@ -52,7 +54,7 @@ describe('print view of a case the revision does not have', () => {
 
 describe('print view of an empty study', () => {
   it('says that nothing is drawn where the diagram and the inputs would be', async () => {
-    const empty = { format: 'wyeward-circuit', version: 1, frequencyHz: 50, elements: [] };
+    const empty = { format: 'wyeward-circuit' as const, version: 1 as const, frequencyHz: 50, elements: [] };
     stubApi({
       'GET /api/studies/:id/revisions/:n': () => ({ body: { ...revision(1), content: { circuit: empty }, summary: { ok: true } } }),
       'GET /api/studies/:id/review': () => ({ body: reviewState() }),
