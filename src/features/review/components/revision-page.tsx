@@ -17,6 +17,7 @@ import { RevisionResults } from './revision-results.tsx';
 import { StudyCrumbs } from './study-crumbs.tsx';
 import { useDocumentTitle } from '../../../lib/document-title.ts';
 import { useStudyRecord } from '../api/get-study-record.ts';
+import { reportUrl } from '../api/report.ts';
 
 const TABLE = 'w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted';
 
@@ -158,7 +159,14 @@ export function RevisionPage({ studyId, n, role }: { studyId: string; n: number;
               <h1 className="text-xl">Revision {revision.data.number}</h1>
               <p className="text-[13px] text-ink-muted">Read-only: this is how the study was saved.</p>
             </div>
-            <div className="flex gap-2">
+            <div className="flex flex-wrap items-center gap-2">
+              {/* the report of this revision, not of the latest one */}
+              <a href={reportUrl(studyId, { revision: n })} download className="text-[13px] font-semibold text-accent hover:underline">
+                Report of revision {n} (PDF)
+              </a>
+              <Link to={`/studies/${studyId}/print/${n}`} className="text-[13px] font-semibold text-accent hover:underline">
+                Print view
+              </Link>
               {n > 1 ? (
                 <Link to={`/studies/${studyId}/diff?from=${n - 1}&to=${n}`} className={buttonClass('secondary')}>
                   Compare with revision {n - 1}
