@@ -62,6 +62,25 @@ describe('a long study name in a real browser', () => {
     await screenshot(page, 'long-name-print');
     expect(errors).toEqual([]);
 
+    // …while on a phone-sized window the other names still break between words, never inside one
+    await page.setViewportSize({ width: 390, height: 800 });
+    await page.goto(`${product.baseUrl}/`);
+    const demo = page.getByRole('link', { name: 'Wrenfold Close: houses to balance across phases' });
+    await demo.waitFor();
+    const brokenWords = await demo.evaluate((a) => {
+      const text = a.firstChild as Text;
+      const out: string[] = [];
+      for (const m of text.data.matchAll(/\S+/g)) {
+        const r = document.createRange();
+        r.setStart(text, m.index!);
+        r.setEnd(text, m.index! + m[0].length);
+        if (r.getClientRects().length > 1) out.push(m[0]);
+      }
+      return out;
+    });
+    expect(brokenWords).toEqual([]);
+    await screenshot(page, 'long-name-list-narrow');
+
     // the audit trail (owners only) names the study in a column of its table
     const owner = await browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(owner, product.baseUrl, 'owner@wyeward.test');

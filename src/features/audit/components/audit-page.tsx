@@ -107,7 +107,7 @@ export function AuditPage() {
                   </td>
                   <td>{e.actor.name}</td>
                   <td>{e.actionLabel}</td>
-                  <td className="[overflow-wrap:anywhere]">
+                  <td className="min-w-48 [overflow-wrap:anywhere]">
                     {e.study && !e.study.deleted ? (
                       <Link to={`/studies/${e.study.id}`} className="text-accent hover:underline">
                         {e.study.name}

@@ -34,7 +34,7 @@ function buildColumns(actions: StudyRowActions) {
       header: 'Name',
       enableSorting: true,
       cell: (info) => (
-        <Link to={`/studies/${info.row.original.id}`} className="font-semibold text-accent [overflow-wrap:anywhere] hover:underline">
+        <Link to={`/studies/${info.row.original.id}`} className="inline-block min-w-48 font-semibold text-accent [overflow-wrap:anywhere] hover:underline">
           {info.getValue()}
         </Link>
       ),
