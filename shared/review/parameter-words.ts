@@ -36,6 +36,7 @@ const WORDS: Record<string, string> = {
   arrangement: 'R, L, C arrangement',
   length: 'length',
   lengthUnit: 'length unit',
+  perLengthUnit: 'per-length data given per',
   impedance: 'impedance',
   ohmsPerLength: 'Z per length (Ω)',
   z1PerLength: 'Z1 per length (Ω)',
@@ -167,6 +168,7 @@ const CHOICE_WORDS: Record<string, Record<string, string>> = {
   hvEarthing: { solid: 'solidly earthed', unearthed: 'unearthed' },
   lvEarthing: { solid: 'solidly earthed', unearthed: 'unearthed' },
   set: { 'ansi-c84.1': 'ANSI C84.1', 'iec-en': 'IEC/EN ±10 %' },
+  perLengthUnit: { kft: '1000 ft' },
   unbalanceMetric: { iec: 'IEC |V2|/|V1|', nema: 'line voltages (NEMA)', ieee: 'phase voltages (IEEE)' },
 };
 

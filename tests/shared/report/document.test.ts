@@ -40,3 +40,20 @@ describe('solveReported', () => {
     expect(s.failure).not.toMatch(/~|\{|\}/);
   });
 });
+
+describe('circuit inputs in words', () => {
+  it('names every parameter of every demo circuit and example file in words: no file keys such as perLengthUnit', async () => {
+    const { readdirSync, readFileSync } = await import('node:fs');
+    const path = await import('node:path');
+    const { inputGroups } = await import('../../../shared/report/document.ts');
+    const dir = path.resolve(import.meta.dirname, '../../../docs/examples');
+    const circuits = [...demoCircuits.map((d) => d.circuit), ...readdirSync(dir).filter((f) => f.endsWith('.json')).map((f) => JSON.parse(readFileSync(path.join(dir, f), 'utf8')))];
+    expect(circuits.length).toBeGreaterThan(5);
+    for (const c of circuits) {
+      const text = inputGroups(c).flatMap((g) => g.rows.map((r) => r[1])).join('\n');
+      expect(text.length).toBeGreaterThan(0);
+      // a camelCase word is a key or a value as written in the file (units such as kW, kV, kVA aside)
+      expect(text.match(/\b[a-z]+[A-Z][A-Za-z]*\b/g)?.filter((w) => !/^k(W|V|VA|var)$/.test(w)) ?? [], c.name).toEqual([]);
+    }
+  });
+});
