@@ -35,6 +35,8 @@ export interface AppDeps {
   mountClient?: (app: Express) => void;
   /** Development (vite middleware with hot reload): the CSP allows its inline scripts and websocket. */
   dev?: boolean;
+  /** This instance's runner of sweep jobs (services/sweep-run.ts), woken when a sweep is queued through it. */
+  sweeps?: { wake(): void };
   /** More probes for `/api/health` besides the database's (e.g. `bucket` for the object store). */
   healthChecks?: Record<string, HealthCheck>;
 }
@@ -42,7 +44,7 @@ export interface AppDeps {
 /** Largest accepted JSON body; a study's circuit and layout fit easily. */
 export const JSON_LIMIT = '2mb';
 
-export function createApp({ db, config, mailer, objects, mountClient, dev = false, healthChecks = {} }: AppDeps): Express {
+export function createApp({ db, config, mailer, objects, sweeps, mountClient, dev = false, healthChecks = {} }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy) {
@@ -50,7 +52,7 @@ export function createApp({ db, config, mailer, objects, mountClient, dev = fals
     app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
   }
   const lucia = createLucia(db, { cookieSecure: config.cookieSecure, idleHours: config.sessionIdleHours });
-  const ctx: RouteContext = { db, config, mailer, objects, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
+  const ctx: RouteContext = { db, config, mailer, objects, sweeps, lucia, limiter: createSignInLimiter(db, { addressLimit: config.signInAddressLimit, signUpLimit: config.signUpAddressLimit }) };
 
   app.use(securityHeaders({ dev }));
   app.use((_req, res, next) => {

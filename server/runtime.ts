@@ -13,6 +13,7 @@ import { seedDemo } from './db/seed.ts';
 import { createJobRunner } from './jobs/index.ts';
 import { createMailer } from './mail/index.ts';
 import { moveLocalMail } from './mail/store.ts';
+import { createSweepRunner } from './services/sweep-run.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
 import { closeWork, configureWork } from './work/index.ts';
 import { drainServer, trackRequests } from './shutdown.ts';
@@ -74,6 +75,9 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const movedMail = await moveLocalMail(db, path.join(config.dataDir, 'mail'));
   if (movedMail > 0) console.log(`Moved ${movedMail} kept messages from ${path.join(config.dataDir, 'mail')} into the database.`);
   jobs.start();
+  // Sweeps have a runner of their own: a long sweep never holds up mail delivery.
+  const sweeps = createSweepRunner(db, { pollMs: config.jobsPollMs });
+  sweeps.start();
   const objects = objectStoreFor(config);
   const bucket = await objects.start();
   if (config.databaseUrl && bucket.local) {
@@ -81,7 +85,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   }
   const movedFiles = await moveLocalAttachments(db, objects, config.dataDir);
   if (movedFiles.moved + movedFiles.dropped > 0) console.log(`Moved ${movedFiles.moved} attachment files from ${path.join(config.dataDir, 'attachments')} into the bucket (${movedFiles.dropped} files of deleted attachments removed).`);
-  const app = createApp({ db, config, mailer, objects, mountClient, dev });
+  const app = createApp({ db, config, mailer, objects, sweeps, mountClient, dev });
 
   trackRequests(server);
   server.on('request', app);
@@ -122,6 +126,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
       const cut = await drainServer(server, config.shutdownTimeoutMs);
       if (cut > 0) console.log(`${cut} request(s) still running after ${config.shutdownTimeoutMs} ms were cut.`);
       await onClose();
+      await sweeps.close(); // a sweep in progress goes back to the queue between two batches
       await jobs.close();
       await closeWork();
       await mailer.close();

@@ -35,6 +35,8 @@ export const TABLES_IN_ORDER: PgTable[] = [
   schema.attachments,
   schema.mailMessages,
   schema.jobs,
+  schema.sweepJobs,
+  schema.sweepChunks,
 ];
 
 export const DUMP_FORMAT = 'wyeward-database';

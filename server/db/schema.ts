@@ -337,3 +337,70 @@ export const jobs = pgTable(
   },
   (t) => [index('jobs_due_idx').on(t.status, t.runAt)],
 );
+
+/**
+ * Server sweep jobs (services/sweeps.ts): one row per sweep, run on one study revision (and
+ * optionally one of its cases). The run itself is a `sweep.run` job of the jobs table, so exactly
+ * one instance runs it; `done` counts the points stored in sweep_chunks, and a run taken over after
+ * its instance died goes on from there. `status` `queued` reads as running through the API.
+ */
+export const sweepJobs = pgTable(
+  'sweep_jobs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: uuid('team_id')
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    studyId: uuid('study_id')
+      .notNull()
+      .references(() => studies.id, { onDelete: 'cascade' }),
+    /** The revision swept (its content is what runs), and its number as people read it. */
+    revisionId: uuid('revision_id')
+      .notNull()
+      .references(() => studyRevisions.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    caseId: text('case_id'),
+    caseName: text('case_name'),
+    /** The parameters as asked: `[{ path, from, to, points, scale }]` (the points' values are derived from them). */
+    parameters: jsonb('parameters').notNull(),
+    /** What each point records: `[{ key, label, unit, spec }]`. */
+    outputs: jsonb('outputs').notNull(),
+    total: integer('total').notNull(),
+    done: integer('done').notNull().default(0),
+    status: text('status', { enum: ['queued', 'running', 'done', 'failed', 'cancelled'] })
+      .notNull()
+      .default('queued'),
+    error: text('error'),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    /** How many times an instance took the run (1 unless one died or shut down while running it), and the last one. */
+    claims: integer('claims').notNull().default(0),
+    runner: text('runner'),
+    createdAt: ts('created_at').notNull().defaultNow(),
+    updatedAt: ts('updated_at').notNull().defaultNow(),
+    finishedAt: ts('finished_at'),
+  },
+  (t) => [index('sweep_jobs_study_idx').on(t.studyId, t.createdAt), index('sweep_jobs_status_idx').on(t.status, t.teamId)],
+);
+
+/**
+ * Solved points of a sweep job, in chunks of consecutive points from `start`: `rows` holds each
+ * point's outputs in order (`[[0.98, 1.02], …]`, null where a value does not exist), `errors` why
+ * a point did not solve, by its place in the chunk (`{ "3": "…" }`).
+ */
+export const sweepChunks = pgTable(
+  'sweep_chunks',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    sweepId: uuid('sweep_id')
+      .notNull()
+      .references(() => sweepJobs.id, { onDelete: 'cascade' }),
+    start: integer('start').notNull(),
+    count: integer('count').notNull(),
+    rows: jsonb('rows').notNull(),
+    errors: jsonb('errors'),
+    createdAt: ts('created_at').notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('sweep_chunks_start_idx').on(t.sweepId, t.start)],
+);

@@ -13,7 +13,8 @@ import type { Db } from '../db/index.ts';
 import { logEvent } from '../log.ts';
 import { backoffMs, claim, complete, enqueue, fail, type Job } from './queue.ts';
 
-export type JobHandler = (payload: unknown, job: Job) => Promise<void>;
+/** Runs one job; resolving `'released'` means the handler gave the job back to the queue (queue.ts release) rather than finishing it. */
+export type JobHandler = (payload: unknown, job: Job) => Promise<void | 'released'>;
 
 export interface JobRunnerOptions {
   /** How often an idle instance looks for due jobs queued by others (ms). */
@@ -52,8 +53,7 @@ export function createJobRunner(db: Db, { pollMs = 1_000, leaseMs = 5 * 60_000, 
 
   async function runOne(job: Job): Promise<void> {
     try {
-      await handlers.get(job.kind)!(job.payload, job);
-      await complete(db, job);
+      if ((await handlers.get(job.kind)!(job.payload, job)) !== 'released') await complete(db, job);
     } catch (err) {
       const error = err instanceof Error ? `${err.name}: ${err.message}` : String(err);
       const outcome = await fail(db, job, error.slice(0, 500), backoffMs(job.attempts, backoffBaseMs, backoffMaxMs));

@@ -45,6 +45,28 @@ export async function claim(db: Db, kinds: string[], leaseMs: number): Promise<J
   return job ?? null;
 }
 
+/**
+ * Extends the lease of a job in hand (long jobs call this as they go); false when the claim was
+ * lost (the lease ended and another instance took the job over), so the caller stops. Pass a
+ * transaction to make the job's own writes depend on still holding it.
+ */
+export async function extendLease(db: Pick<Db, 'update'>, job: Job, leaseMs: number): Promise<boolean> {
+  const rows = await db
+    .update(jobs)
+    .set({ lockedUntil: sql`now() + ${`${Math.ceil(leaseMs)} milliseconds`}::interval` })
+    .where(and(eq(jobs.id, job.id), eq(jobs.attempts, job.attempts), eq(jobs.status, 'running')))
+    .returning({ id: jobs.id });
+  return rows.length > 0;
+}
+
+/** Gives a job in hand back to the queue at once, not counting this attempt (its instance is shutting down). */
+export async function release(db: Db, job: Job): Promise<void> {
+  await db
+    .update(jobs)
+    .set({ status: 'queued', lockedUntil: null, runAt: sql`now()`, attempts: sql`${jobs.attempts} - 1` })
+    .where(and(eq(jobs.id, job.id), eq(jobs.attempts, job.attempts), eq(jobs.status, 'running')));
+}
+
 /** A finished job leaves the table (only while this claim still holds it). */
 export async function complete(db: Db, job: Job): Promise<void> {
   await db.delete(jobs).where(and(eq(jobs.id, job.id), eq(jobs.attempts, job.attempts)));

@@ -14,6 +14,8 @@ export interface RouteContext {
   objects: ObjectStore;
   lucia: AuthLucia;
   limiter: SignInLimiter;
+  /** This instance's runner of sweep jobs: woken when a sweep is queued here (other instances find it when they poll). */
+  sweeps?: { wake(): void };
 }
 
 /** A named route parameter as one string (Express 5 types wildcard parameters as arrays). */

@@ -5,13 +5,15 @@ import { actorOf, requireRole, requireUser } from '../auth/index.ts';
 import { cancelSweep, getSweep, startSweep } from '../services/sweeps.ts';
 import { param, type RouteContext } from './context.ts';
 
-export function sweepRoutes({ db }: RouteContext): Router {
+export function sweepRoutes({ db, sweeps }: RouteContext): Router {
   const r = Router({ mergeParams: true });
   // Sweeps change nothing in the study, but they take the server's work threads: engineers and owners start and cancel them.
   const run = requireRole('engineer');
 
   r.post('/:id/sweeps', run, async (req, res) => {
-    res.status(202).json(await startSweep(db, actorOf(res), param(req.params.id), createSweepRequestSchema.parse(req.body)));
+    const job = await startSweep(db, actorOf(res), param(req.params.id), createSweepRequestSchema.parse(req.body));
+    sweeps?.wake();
+    res.status(202).json(job);
   });
 
   r.get('/:id/sweeps/:job', requireUser, async (req, res) => {

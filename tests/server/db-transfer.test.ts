@@ -15,6 +15,7 @@ import { DEMO_PASSWORD } from '../../server/db/demo-accounts.ts';
 import { closeDb, dbKind, type Db } from '../../server/db/index.ts';
 import { DumpError, exportDatabase, importDatabase, tableCounts, TABLES_IN_ORDER } from '../../server/db/dump.ts';
 import { seedDemo } from '../../server/db/seed.ts';
+import { demoCircuits } from '../../shared/engine/index.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
 import { getTableConfig } from 'drizzle-orm/pg-core';
 import * as schema from '../../server/db/schema.ts';
@@ -36,6 +37,9 @@ async function dump(db: Db): Promise<string[]> {
 /** The row lines of a dump (the header carries the time of the export). */
 const rowsOf = (lines: string[]) => lines.slice(1);
 
+/** A server sweep of the source (its job row and stored points move too). */
+let sweep: { studyId: string; id: string };
+
 /** What a signed-in engineer and owner read from the app on `db`. */
 async function appView(db: Db) {
   const t = makeApp(db);
@@ -50,6 +54,7 @@ async function appView(db: Db) {
     attachments: (await engineer.get(`/api/studies/${first}/attachments`)).body,
     audit: (await owner.get('/api/audit?pageSize=100')).body,
     team: (await owner.get('/api/team')).body,
+    sweep: (await engineer.get(`/api/studies/${sweep.studyId}/sweeps/${sweep.id}?limit=100`)).body,
   };
 }
 
@@ -71,6 +76,15 @@ beforeAll(async () => {
   expect((await owner.post('/api/team/invites').send({ email: 'new.hire@example.test', role: 'viewer' })).status).toBe(201);
   expect((await request(t.app).post('/api/auth/sign-up').set('Origin', APP_URL).send({ name: 'Nia', email: 'nia@example.test', password: 'quartz lantern meadow 42', teamName: 'Other' })).status).toBe(202);
   expect((await request(t.app).post('/api/auth/sign-in').set('Origin', APP_URL).send({ email: 'owner@wyeward.test', password: 'wrong' })).status).toBe(401);
+  // A finished server sweep with its points.
+  const circuit = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+  const made = await engineer.post('/api/studies').send({ name: 'Lane 14 sweep', content: { circuit } });
+  expect(made.status).toBe(201);
+  const swept = await engineer.post(`/api/studies/${made.body.id}/sweeps`).send({ parameters: [{ path: 'KITCHEN.each.kw', from: 1, to: 3, points: 5 }] });
+  expect(swept.status, JSON.stringify(swept.body)).toBe(202);
+  sweep = { studyId: made.body.id, id: swept.body.id };
+  await t.sweeps.drain();
+  expect((await engineer.get(`/api/studies/${sweep.studyId}/sweeps/${sweep.id}`)).body).toMatchObject({ status: 'done', done: 5 });
   // A background job still waiting (the mail above was delivered and its jobs are gone).
   await enqueue(source, 'mail.deliver', { mailId: '0000000000000-00000000' });
   sourceLines = await dump(source);

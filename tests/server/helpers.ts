@@ -14,6 +14,7 @@ import type { Db } from '../../server/db/index.ts';
 import { memberships, studies, teams, users } from '../../server/db/schema.ts';
 import { createJobRunner, type JobRunner } from '../../server/jobs/index.ts';
 import { createMailer, type Mailer } from '../../server/mail/index.ts';
+import { createSweepRunner } from '../../server/services/sweep-run.ts';
 import { objectStoreFor, type ObjectStore } from '../../server/storage/objects.ts';
 
 export const PASSWORD = 'correct horse battery';
@@ -27,6 +28,8 @@ export interface TestApp {
   objects: ObjectStore;
   /** The background jobs of this app (mail delivery), running; `mailer.close()` stops them too. */
   jobs: JobRunner;
+  /** This app's runner of sweep jobs (woken by the sweeps it queues; `mailer.close()` stops it too). */
+  sweeps: JobRunner;
   config: Config;
 }
 
@@ -36,16 +39,18 @@ export function makeApp(db: Db, env: Record<string, string> = {}): TestApp {
   // Every test file's requests come from one address: sign-ups are not what most tests are about.
   const config = readConfig({ DATA_DIR: dataDir, APP_URL: APP_URL, DEMO: '0', SIGN_UP_ADDRESS_LIMIT: '100000', ...env });
   const jobs = createJobRunner(db);
+  const sweeps = createSweepRunner(db);
   const mailer = createMailer({ db, jobs, from: config.mailFrom });
   const closeMailer = mailer.close;
-  // Test files end with mailer.close() then the database's close: the job loop stops first.
+  // Test files end with mailer.close() then the database's close: the job loops stop first.
   mailer.close = async () => {
+    await sweeps.close();
     await jobs.close();
     await closeMailer();
   };
   // No polling: each app runs the jobs it queues at once (wake()); many test files close their database without closing the app.
   const objects = objectStoreFor(config);
-  return { app: createApp({ db, config, mailer, objects }), db, mailer, objects, jobs, config };
+  return { app: createApp({ db, config, mailer, objects, sweeps }), db, mailer, objects, jobs, sweeps, config };
 }
 
 let passwordHash: Promise<string> | null = null;
