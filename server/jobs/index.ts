@@ -51,14 +51,17 @@ export function createJobRunner(db: Db, { pollMs = 1_000, leaseMs = 5 * 60_000, 
   let current: Promise<void> | null = null;
   let again = false;
 
-  async function runOne(job: Job): Promise<void> {
+  /** Runs one claimed job; true when its handler gave it back (its instance is stopping: claim no more). */
+  async function runOne(job: Job): Promise<boolean> {
     try {
-      if ((await handlers.get(job.kind)!(job.payload, job)) !== 'released') await complete(db, job);
+      if ((await handlers.get(job.kind)!(job.payload, job)) === 'released') return true;
+      await complete(db, job);
     } catch (err) {
       const error = err instanceof Error ? `${err.name}: ${err.message}` : String(err);
       const outcome = await fail(db, job, error.slice(0, 500), backoffMs(job.attempts, backoffBaseMs, backoffMaxMs));
       logEvent('warn', { event: 'job-failed', kind: job.kind, jobId: job.id, attempt: job.attempts, of: job.maxAttempts, outcome, error: err instanceof Error ? err.name : typeof err });
     }
+    return false;
   }
 
   async function loop(): Promise<void> {
@@ -68,7 +71,7 @@ export function createJobRunner(db: Db, { pollMs = 1_000, leaseMs = 5 * 60_000, 
         if (closed) return;
         const job = await claim(db, [...handlers.keys()], leaseMs);
         if (!job) break;
-        await runOne(job);
+        if (await runOne(job)) return;
       }
     } while (again && !closed);
   }

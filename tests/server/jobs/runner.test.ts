@@ -2,14 +2,15 @@
  * Background jobs from the shared jobs table: each job runs once however many runners (app
  * instances) poll the same database; a failing job is retried with back-off and ends `failed`
  * after its last attempt without stopping the others; a claim whose instance died is taken over
- * once its lease ends.
+ * once its lease ends; a long job extends its lease while it holds the claim and learns when it
+ * lost it; a job given back on shutdown is due again at once without counting the attempt.
  */
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { closeDb, type Db } from '../../../server/db/index.ts';
 import { jobs } from '../../../server/db/schema.ts';
 import { createJobRunner } from '../../../server/jobs/index.ts';
-import { backoffMs, claim, enqueue } from '../../../server/jobs/queue.ts';
+import { backoffMs, claim, enqueue, extendLease, release } from '../../../server/jobs/queue.ts';
 import { openTestDb } from '../test-db.ts';
 
 let db: Db;
@@ -118,6 +119,42 @@ describe('the jobs queue', () => {
       console.error = original;
       await r.close();
     }
+  });
+
+  it('a long job extends its lease while it holds the claim, and learns when another instance took it over', async () => {
+    const id = await enqueue(db, 'sweep', {});
+    const held = (await claim(db, ['sweep'], 1_000))!;
+    expect(await extendLease(db, held, 600_000)).toBe(true);
+    const [{ s }] = await db.select({ s: sql<string>`extract(epoch from ${jobs.lockedUntil} - now())` }).from(jobs).where(eq(jobs.id, id));
+    expect(Number(s)).toBeGreaterThan(500); // about 600 s from now
+    await db.update(jobs).set({ lockedUntil: sql`now() - interval '1 second'` }).where(eq(jobs.id, id));
+    const taken = await claim(db, ['sweep'], 60_000);
+    expect(taken).toMatchObject({ id, attempts: 2 });
+    expect(await extendLease(db, held, 600_000)).toBe(false); // the first holder stops
+    expect(await extendLease(db, taken!, 600_000)).toBe(true);
+  });
+
+  it('a job its handler gives back (shutting down) is due again at once, its attempt not counted', async () => {
+    const id = await enqueue(db, 'sweep', { n: 7 });
+    const r = createJobRunner(db);
+    r.handle('sweep', async (_payload, job) => {
+      await release(db, job);
+      return 'released';
+    });
+    await r.drain();
+    await r.close();
+    const [job] = await db.select().from(jobs).where(eq(jobs.id, id));
+    expect(job).toMatchObject({ status: 'queued', attempts: 0, lockedUntil: null });
+    expect(await secondsUntil(id)).toBeLessThanOrEqual(0);
+    const again = createJobRunner(db);
+    const ran: unknown[] = [];
+    again.handle('sweep', async (payload) => {
+      ran.push(payload);
+    });
+    await again.drain();
+    await again.close();
+    expect(ran).toEqual([{ n: 7 }]);
+    expect(await db.select().from(jobs)).toEqual([]);
   });
 
   it('back-off doubles from its base up to its ceiling', () => {
