@@ -17,6 +17,8 @@ export const ARTIFACTS = path.join(root, 'test-artifacts');
 export interface RunningProduct {
   baseUrl: string;
   dataDir: string;
+  /** The server's process id. */
+  pid: number;
   stop(): Promise<void>;
   /** Ends the process at once (SIGKILL: no clean shutdown) and waits for it to be gone. */
   kill(): Promise<void>;
@@ -66,6 +68,7 @@ export async function startProduct(env: Record<string, string> = {}): Promise<Ru
   return {
     baseUrl,
     dataDir,
+    pid: child.pid!,
     async kill() {
       if (child.exitCode === null && child.signalCode === null) {
         const exited = new Promise((r) => child.once('exit', r));

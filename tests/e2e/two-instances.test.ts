@@ -3,8 +3,9 @@
  * balancer: each is the real product (`server/index.ts`) with its own data directory, both with the
  * same DATABASE_URL, S3_URL/S3_BUCKET and SMTP_URL. A session made on one works on the other; a file
  * uploaded through one downloads through the other; the same-version edit race across the two gives
- * one 200 and one 409; a review e-mail is sent once, not twice; killing one instance while writes
- * run loses no write it acknowledged.
+ * one 200 and one 409; a review e-mail is sent once, not twice; a server sweep posted to one is
+ * read (progress and points) and cancelled through the other and run by exactly one of them;
+ * killing one instance while writes run loses no write it acknowledged.
  */
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -14,6 +15,9 @@ import { SMTPServer } from 'smtp-server';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LOCAL_S3_CREDENTIALS, startLocalS3, type LocalS3 } from '../../server/storage/local-s3.ts';
+import type { SweepJob } from '../../shared/api/sweeps.ts';
+import { demoCircuits, solveCircuit, sweepCircuit, type CircuitInput } from '../../shared/engine/index.ts';
+import { availableOutputs, outputValue } from '../../shared/review/sweep-outputs.ts';
 import { adminQuery, startCluster, type Cluster } from '../server/pg/cluster.ts';
 import { startProduct, type RunningProduct } from './harness.ts';
 
@@ -89,6 +93,7 @@ function on(instance: RunningProduct, cookie?: string) {
     get: (p: string) => with_(r.get(p)),
     post: (p: string) => with_(r.post(p)),
     patch: (p: string) => with_(r.patch(p)),
+    delete: (p: string) => with_(r.delete(p)),
   };
 }
 
@@ -165,6 +170,70 @@ describe('two instances on one database and one bucket', () => {
     // And no message at all went out twice.
     const ids = received.map((m) => m.mailId);
     expect(new Set(ids).size).toBe(ids.length);
+  });
+
+  it('a sweep posted to one is read and cancelled through the other, and run by exactly one of them', async () => {
+    const cookie = await signIn(a, 'engineer@wyeward.test');
+    const circuit = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit as CircuitInput;
+    const made = await on(a, cookie).post('/api/studies').send({ name: 'Lane 14 on two instances', content: { circuit } });
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+    const sweeps = `/api/studies/${made.body.id}/sweeps`;
+    const outputs = ['load:KITCHEN:an', 'shift:HOUSE'];
+    const specs = availableOutputs(solveCircuit(circuit));
+    /** Each point equals the engine's solve of the circuit with the value written (C). */
+    const expectEngine = (job: SweepJob) => {
+      for (const p of job.points) {
+        const direct = solveCircuit(sweepCircuit(circuit, job.parameters, p.values));
+        outputs.forEach((key, k) => expect(p.outputs[k]).toBeCloseTo(outputValue(direct, specs.find((s) => s.key === key)!.spec)!, 9));
+      }
+    };
+    /** Reads the job through `instance` (bounded) until `ok` holds. */
+    const until = async (instance: RunningProduct, id: string, ok: (j: SweepJob) => boolean, query = '') => {
+      for (let i = 0; i < 1200; i++) {
+        const res = await on(instance, cookie).get(`${sweeps}/${id}${query}`);
+        expect(res.status, JSON.stringify(res.body)).toBe(200);
+        if (ok(res.body)) return res.body as SweepJob;
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      throw new Error('the sweep did not get there');
+    };
+    const ranBy = async (id: string) => (await sql.query(`select claims, runner from sweep_jobs where id = $1`, [id])).rows[0] as { claims: number; runner: string };
+    const pids = [a.pid, b.pid].map(String);
+
+    // A small sweep posted to A runs to the end; B reads every point.
+    const small = await on(a, cookie).post(sweeps).send({ parameters: [{ path: 'KITCHEN.each.kw', from: 0.5, to: 6, points: 40 }], outputs });
+    expect(small.status, JSON.stringify(small.body)).toBe(202);
+    const finished = await until(b, small.body.id, (j) => j.status !== 'running', '?limit=100');
+    expect(finished).toMatchObject({ status: 'done', done: 40, total: 40 });
+    expect(finished.points).toHaveLength(40);
+    expectEngine(finished);
+    const smallRun = await ranBy(small.body.id);
+    expect(smallRun.claims).toBe(1);
+    expect(pids).toContain(smallRun.runner.split(':').at(-1));
+
+    // A large one posted to A: B reads its progress and first points, then cancels it.
+    const large = await on(a, cookie).post(sweeps).send({ parameters: [{ path: 'KITCHEN.each.kw', from: 0.5, to: 6, points: 200_000 }], outputs });
+    expect(large.status, JSON.stringify(large.body)).toBe(202);
+    const running = await until(b, large.body.id, (j) => j.done > 0, '?limit=20');
+    expect(running.status).toBe('running');
+    expect(running.points.length).toBe(Math.min(20, running.done));
+    expectEngine(running);
+    const cancelled = await on(b, cookie).delete(`${sweeps}/${large.body.id}`);
+    expect(cancelled.status).toBe(200);
+    expect(cancelled.body.status).toBe('cancelled');
+    // The instance running it notices through the database (its queue row goes) and stores nothing more.
+    for (let i = 0; i < 1200; i++) {
+      const { rows } = await sql.query(`select count(*)::int as n from jobs where kind = 'sweep.run'`);
+      if (rows[0].n === 0) break;
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    expect((await sql.query(`select count(*)::int as n from jobs where kind = 'sweep.run'`)).rows[0].n).toBe(0);
+    const after = (await on(a, cookie).get(`${sweeps}/${large.body.id}`)).body as SweepJob;
+    expect(after).toMatchObject({ status: 'cancelled', done: cancelled.body.done });
+    expect(after.done).toBeLessThan(200_000);
+    const largeRun = await ranBy(large.body.id);
+    expect(largeRun.claims).toBe(1);
+    expect(pids).toContain(largeRun.runner.split(':').at(-1));
   });
 
   it('killing one instance while writes run loses no write it acknowledged', async () => {
