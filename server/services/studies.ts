@@ -24,6 +24,7 @@ import type { Db } from '../db/index.ts';
 import { reviewEvents, studies, users } from '../db/schema.ts';
 import { AppError, isUuid, notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
+import { cancelStudySweeps } from './sweep-store.ts';
 import { appendRevision, ensureRevision, getRevision, latestRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
 import { checkContent } from './study-content.ts';
 
@@ -365,7 +366,7 @@ export async function updateStudy(db: Db, actor: Actor, id: string, input: Updat
   return (await applyEdit(db, actor, id, input)).study;
 }
 
-/** Soft-deletes a study. */
+/** Soft-deletes a study (and cancels its server sweeps). */
 export async function deleteStudy(db: Db, actor: Actor, id: string): Promise<void> {
   if (!isUuid(id)) throw notFound();
   const deleted = await db
@@ -375,6 +376,7 @@ export async function deleteStudy(db: Db, actor: Actor, id: string): Promise<voi
     .returning({ id: studies.id, name: studies.name });
   if (deleted.length === 0) throw notFound();
   await recordAudit(db, { teamId: actor.teamId, actorId: actor.userId, action: 'study.delete', studyId: id, detail: { name: deleted[0].name } });
+  await cancelStudySweeps(db, id);
 }
 
 /** "<name> (copy)" within the 200 characters a name may have: the name is shortened (whole characters), never the "(copy)". */

@@ -137,3 +137,11 @@ export async function finishSweep(db: Db, id: string, status: 'done' | 'failed',
   if (rows.length) await pruneFinished(db, rows[0].studyId);
   return rows.length > 0;
 }
+
+/** Cancels a study's unfinished sweeps (the study is being deleted); the instances running them stop at their next batch. */
+export async function cancelStudySweeps(db: Pick<Db, 'update'>, studyId: string): Promise<void> {
+  await db
+    .update(sweepJobs)
+    .set({ status: 'cancelled', finishedAt: sql`now()`, updatedAt: sql`now()` })
+    .where(and(eq(sweepJobs.studyId, studyId), inArray(sweepJobs.status, UNFINISHED)));
+}

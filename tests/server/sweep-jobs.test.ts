@@ -104,6 +104,19 @@ describe('limits counted in the database', () => {
     expect(await queryRows(db, `select id from sweep_chunks`)).toEqual([]);
   });
 
+  it('deleting a study cancels its unfinished sweeps, freeing their places', async () => {
+    const { engineer, studyId } = await teamWithStudy(idle, 'Deleted');
+    const ids: string[] = [];
+    for (let n = 0; n < MAX_RUNNING_SWEEPS; n++) ids.push((await engineer.post(`/api/studies/${studyId}/sweeps`).send(sweepOf(50))).body.id);
+    expect((await engineer.delete(`/api/studies/${studyId}`)).status).toBe(204);
+    const rows = await queryRows<{ status: string }>(db, 'select status from sweep_jobs where id = any($1::uuid[])', [ids]);
+    expect(rows.map((r) => r.status)).toEqual(ids.map(() => 'cancelled'));
+    const other = await engineer.post('/api/studies').send({ name: 'Deleted again', content: { circuit } });
+    expect((await engineer.post(`/api/studies/${other.body.id}/sweeps`).send(sweepOf(2))).status).toBe(202);
+    await t.sweeps.drain();
+    expect(await queryRows(db, `select id from jobs where kind = $1`, [SWEEP_JOB])).toEqual([]);
+  });
+
   it(`a study keeps its last ${MAX_KEPT_SWEEPS} finished sweeps`, async () => {
     const { engineer, studyId } = await teamWithStudy(t.app, 'Kept');
     const ids: string[] = [];
