@@ -166,5 +166,6 @@ describe('db:export / db:import', () => {
       code = (e as { status: number }).status;
     }
     expect(code).toBe(2);
-  });
+    // Three whole processes, each opening a database: minutes on a busy shared machine, not seconds.
+  }, 300_000);
 });
