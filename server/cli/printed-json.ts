@@ -13,13 +13,19 @@
  * "__proto__" (kept as a key in a null-prototype object, but the general path's records are
  * plain objects): a file with such an element id or node name takes the general path.
  */
-import { isPrimitiveOnly, printedPrimitiveResults, toPhasor, type PreparedCircuit, type Phasor, type PrimitiveSolution } from '../../shared/engine/index.ts';
+import { isPrimitiveOnly, printedPrimitiveResults, toPhasor, type PreparedCircuit, type Phasor, type PrimitiveSolution, type PrintedPrimitiveResult } from '../../shared/engine/index.ts';
 
 /** Keys whose place in a plain object differs from insertion order (or that do not become keys). */
 const isSpecialKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d{0,9})$/.test(k);
 
-/** Entries per native JSON.stringify call. */
-const BATCH = 512;
+/** A number as JSON.stringify writes it (the shortest text that reads back to it; not finite: null). */
+const numText = (x: number): string => (Number.isFinite(x) ? `${x}` : 'null');
+
+/** The JSON text of toPhasor({ re, im }), as JSON.stringify writes it. */
+function phasorText(re: number, im: number): string {
+  const p = toPhasor({ re, im });
+  return `{"re":${numText(p.re)},"im":${numText(p.im)},"mag":${numText(p.mag)},"angleDeg":${numText(p.angleDeg)}}`;
+}
 
 /**
  * Write the `--json` result of `prepared` (solved as `sol` by solvePrimitives) through `write`
@@ -31,8 +37,17 @@ export function writePrintedPrimitiveJson(prepared: PreparedCircuit, sol: Primit
   for (const e of prepared.expansions) if (isSpecialKey(e.id)) return false;
   const r = printedPrimitiveResults(prepared, sol);
   if (!r) return false;
+  for (const n of r.nodeNames) if (isSpecialKey(n)) return false;
+  writePrintedResult(r, write, chunkChars);
+  return true;
+}
+
+/**
+ * Write `r` (from printedPrimitiveResults, or printedPrimitiveResultOfText for the typed path) as
+ * the `--json` text through `write`. Its ids and node names must not be special keys (see above).
+ */
+export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: string) => void, chunkChars = 1 << 20): void {
   const { nodeNames, vRe, vIm, cRe, cIm, currentStart, currentCount } = r;
-  for (const n of nodeNames) if (isSpecialKey(n)) return false;
   let buf = '';
   const push = (s: string) => {
     buf += s;
@@ -41,39 +56,23 @@ export function writePrintedPrimitiveJson(prepared: PreparedCircuit, sol: Primit
       buf = '';
     }
   };
-  /** Entries `key(i): value(i)` for i < count, as the inside of a JSON object, a batch per stringify. */
-  const record = (count: number, key: (i: number) => string, value: (i: number) => unknown) => {
-    let first = true;
-    for (let lo = 0; lo < count; lo += BATCH) {
-      const batch: Record<string, unknown> = Object.create(null);
-      const hi = Math.min(count, lo + BATCH);
-      for (let i = lo; i < hi; i++) batch[key(i)] = value(i);
-      const text = JSON.stringify(batch);
-      push(`${first ? '' : ','}${text.slice(1, -1)}`);
-      first = false;
-    }
-  };
   // the keys in jsonResult's order
   push(`{"format":"wyeward-result","version":1,"conventions":${JSON.stringify(r.conventions)},"nodes":{`);
-  record(
-    nodeNames.length,
-    (i) => nodeNames[i],
-    (i) => toPhasor({ re: vRe[i], im: vIm[i] }),
-  );
+  for (let i = 0; i < nodeNames.length; i++) push(`${i ? ',' : ''}${JSON.stringify(nodeNames[i])}:${phasorText(vRe[i], vIm[i])}`);
   push('},"elements":{');
-  record(
-    r.elementIds.length,
-    (k) => r.elementIds[k],
-    (k) => {
-      const count = currentCount[k];
-      const start = currentStart[k];
-      const currents = new Array<Phasor>(count);
-      for (let c = 0; c < count; c++) currents[c] = toPhasor({ re: cRe[start + c], im: cIm[start + c] });
-      return { type: r.elementTypes[k], currents };
-    },
-  );
+  const { elementIds, elementTypes } = r;
+  // the type part of each element's text, once per type name
+  const typeText = new Map<string, string>();
+  for (let k = 0; k < elementIds.length; k++) {
+    const type = elementTypes[k];
+    let head = typeText.get(type);
+    if (head === undefined) typeText.set(type, (head = `:{"type":${JSON.stringify(type)},"currents":[`));
+    let text = `${k ? ',' : ''}${JSON.stringify(elementIds[k])}${head}`;
+    const start = currentStart[k];
+    for (let c = 0; c < currentCount[k]; c++) text += `${c ? ',' : ''}${phasorText(cRe[start + c], cIm[start + c])}`;
+    push(`${text}]}`);
+  }
   // a primitive-only circuit has no faults
   push(`},"faults":[],"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${JSON.stringify(r.iterations)}}\n`);
   if (buf) write(buf);
-  return true;
 }

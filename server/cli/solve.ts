@@ -18,8 +18,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { writePrintedPrimitiveJson } from './printed-json.ts';
-import { BASE_CASE_ID, EngineError, applyCase, caseLabel, circuitCases, circuitResults, prepareCircuit, solvePrimitives, type CircuitResult, type Phasor, type StudyCase } from '../../shared/engine/index.ts';
+import { writePrintedPrimitiveJson, writePrintedResult } from './printed-json.ts';
+import { BASE_CASE_ID, EngineError, applyCase, caseLabel, circuitCases, circuitResults, prepareCircuit, printedPrimitiveResultOfText, solvePrimitives, type CircuitResult, type Phasor, type StudyCase } from '../../shared/engine/index.ts';
 
 export const CAUTION =
   'CAUTION: Wyeward is an engineering aid. Results are only as good as the model; designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.';
@@ -213,6 +213,19 @@ export function main(argv: string[]): void {
     fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
   }
   mark('read');
+  // --json of a primitive-only file: the typed path from the text (same bytes as the general path;
+  // it declines anything else, which then takes the general path below)
+  if (asJson && !full && !allCases && caseId === undefined) {
+    const before = marks.length;
+    const printed = printedPrimitiveResultOfText(text, (stage) => mark(stage === 'scan' ? 'scan (parse + validate)' : 'solve'));
+    if (printed) {
+      writePrintedResult(printed, (chunk) => process.stdout.write(chunk));
+      mark('results + JSON write');
+      if (timings) printTimings(t0, marks);
+      return;
+    }
+    marks.length = before; // a declined file: its time counts in the general path's first stage
+  }
   let input: unknown;
   try {
     input = JSON.parse(text);
@@ -260,17 +273,19 @@ export function main(argv: string[]): void {
     process.stdout.write((studyCase ? `${caseHeading(studyCase)}\n` : '') + formatReport(result));
     mark('report');
   }
-  if (timings) {
-    // time since process start (node + loader + imports) first, then each step, on stderr
-    const startup = t0; // performance.now() counts from the process's time origin
-    const parts = [`start-up + imports ${startup.toFixed(0)} ms`];
-    let prev = t0;
-    for (const [label, t] of marks) {
-      parts.push(`${label} ${(t - prev).toFixed(0)} ms`);
-      prev = t;
-    }
-    process.stderr.write(`solve timings: ${parts.join(', ')}; total ${prev.toFixed(0)} ms since process start\n`);
+  if (timings) printTimings(t0, marks);
+}
+
+/** The --timings line on stderr: time since process start (node + loader + imports) first, then each step. */
+function printTimings(t0: number, marks: [string, number][]): void {
+  const startup = t0; // performance.now() counts from the process's time origin
+  const parts = [`start-up + imports ${startup.toFixed(0)} ms`];
+  let prev = t0;
+  for (const [label, t] of marks) {
+    parts.push(`${label} ${(t - prev).toFixed(0)} ms`);
+    prev = t;
   }
+  process.stderr.write(`solve timings: ${parts.join(', ')}; total ${prev.toFixed(0)} ms since process start\n`);
 }
 
 const USAGE = 'usage: solve <file.json> [--json [--full]] [--case <id> | --all-cases]';

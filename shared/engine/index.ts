@@ -35,6 +35,7 @@ export * from './schema/blocks.ts';
 export * from './schema/primitives.ts';
 export type * from './results/types.ts';
 export { isPrimitiveOnly, printedPrimitiveResults, type PrintedPrimitiveResult } from './results/printed-primitives.ts';
+export { printedPrimitiveResultOfText } from './typed/printed-scanned.ts';
 export { type Phasor, toPhasor, polar, cx } from './phasor.ts';
 export { sequenceComponents, phasesFromSequence, type SequenceComponents } from './metrics/sequence.ts';
 export { iecUnbalancePercent, maxDeviationUnbalancePercent, iecUnbalanceFromLineMagnitudesPercent } from './metrics/unbalance.ts';

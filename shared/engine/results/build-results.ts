@@ -35,7 +35,7 @@ export function splitBusNode(node: string): { bus: string; conductor: string } |
  * printed-only path). `forFlags`: only what computeFlags reads (no voltages to earth and no
  * sequence phasors; the unbalance figures are still computed, from the same numbers).
  */
-export function busResults(ctx: ExpandContext, expansions: Expansion[], sol: { nodeVolts: { keys(): Iterable<string>; get(node: string): Cx | undefined } }, floatingNodes: Set<string>, forFlags = false): BusResult[] {
+export function busResults(ctx: Pick<ExpandContext, 'nominal' | 'splitPhase' | 'sequence'>, expansions: readonly Expansion[], sol: { nodeVolts: { keys(): Iterable<string>; get(node: string): Cx | undefined } }, floatingNodes: Set<string>, forFlags = false): BusResult[] {
   const buses = new Map<string, Set<string>>();
   const order: string[] = [];
   const note = (bus: string) => {
