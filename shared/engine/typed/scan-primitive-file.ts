@@ -45,13 +45,6 @@ export interface ScannedPrimitives {
   nodeIndex: Map<string, number>;
 }
 
-/** The hash nodeRef computes while reading a name (FNV-1a on UTF-16 code units). */
-function hashOfText(name: string): number {
-  let h = 0x811c9dc5 | 0;
-  for (let i = 0; i < name.length; i++) h = Math.imul(h ^ name.charCodeAt(i), 0x01000193);
-  return h;
-}
-
 /** Thrown inside the scanner when the text is not of the accepted shape; never escapes it. */
 class NotAccepted {}
 const NO = new NotAccepted();
@@ -60,7 +53,10 @@ const NO = new NotAccepted();
 const POW10 = Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
 
 /** Names whose place in a JavaScript object is not their insertion order, or that are not kept as keys. */
-const isSpecialKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d{0,9})$/.test(k);
+const isSpecialKey = (k: string) => {
+  const c = k.charCodeAt(0);
+  return ((c >= 48 && c <= 57) || c === 95) && (k === '__proto__' || /^(0|[1-9]\d{0,9})$/.test(k));
+};
 
 /** Keys of an element, as bits. */
 const F_TYPE = 1;
@@ -87,155 +83,228 @@ export function scanPrimitiveFile(text: string): ScannedPrimitives | undefined {
   }
 }
 
-function scan(s: string): ScannedPrimitives {
-  const len = s.length;
-  let p = 0;
+// The scanner keeps its position in a local variable of scan() and calls small top-level
+// functions that take and return positions (a position shared by closures is a context slot,
+// which V8 cannot keep in a register: measured ~2× slower). Results beyond a position go
+// through the module-level slots below.
 
-  const ws = (): void => {
-    for (;;) {
-      const c = s.charCodeAt(p);
-      if (c === 32 || c === 10 || c === 13 || c === 9) p++;
-      else return;
-    }
-  };
-  const expect = (c: number): void => {
-    ws();
-    if (s.charCodeAt(p) !== c) throw NO;
+/** Position after JSON whitespace at p. */
+function ws(s: string, p: number): number {
+  for (;;) {
+    const c = s.charCodeAt(p);
+    if (c === 32 || c === 10 || c === 13 || c === 9) p++;
+    else return p;
+  }
+}
+
+/** Position after the character c at p (after whitespace), or not accepted. */
+function expect(s: string, p: number, c: number): number {
+  p = ws(s, p);
+  if (s.charCodeAt(p) !== c) throw NO;
+  return p + 1;
+}
+
+/** True when the text at p is the string literal `"w"`. */
+function isWord(s: string, p: number, w: string): boolean {
+  return s.charCodeAt(p) === 34 && s.charCodeAt(p + 1 + w.length) === 34 && s.startsWith(w, p + 1);
+}
+
+/** The string starting at p (its opening quote), without escapes or control characters: its end (the closing quote) and hash in STR_END, STR_HASH. */
+let STR_END = 0;
+let STR_HASH = 0;
+function scanString(s: string, p: number): void {
+  if (s.charCodeAt(p) !== 34) throw NO;
+  let h = 0x811c9dc5 | 0;
+  for (p++; ; p++) {
+    const c = s.charCodeAt(p);
+    if (c === 34) break;
+    if (c === 92 || !(c >= 32)) throw NO; // escapes, control characters, end of text (NaN)
+    h = Math.imul(h ^ c, 0x01000193);
+  }
+  STR_END = p;
+  STR_HASH = h;
+}
+
+/** The hash scanString computes (FNV-1a on UTF-16 code units). */
+function hashOfText(name: string): number {
+  let h = 0x811c9dc5 | 0;
+  for (let i = 0; i < name.length; i++) h = Math.imul(h ^ name.charCodeAt(i), 0x01000193);
+  return h;
+}
+
+/**
+ * A JSON number at p (after whitespace), read to the double JSON.parse gives; its end in NUM_END.
+ * The decimal significand as an integer m < 10^15 and a power of ten |e| ≤ 22 are both exact
+ * doubles, so m·10^e or m/10^−e is one correctly rounded operation (Clinger's fast path); other
+ * numbers go through Number() of their text, which rounds correctly too.
+ */
+let NUM_END = 0;
+function readNumber(s: string, p: number): number {
+  p = ws(s, p);
+  const start = p;
+  let neg = false;
+  if (s.charCodeAt(p) === 45) {
+    neg = true;
     p++;
-  };
-  /** A string without escapes or control characters; p after its closing quote. */
-  const str = (): string => {
-    ws();
-    if (s.charCodeAt(p) !== 34) throw NO;
-    const start = ++p;
-    for (;;) {
-      const c = s.charCodeAt(p);
-      if (c === 34) break;
-      if (c === 92 || c < 32 || p >= len) throw NO; // escapes, control characters, end of text (NaN < 32 is false)
-      p++;
-    }
-    return s.slice(start, p++);
-  };
-  /** True (and p past it) when the text at p is the string literal `"word"`. */
-  const word = (w: string): boolean => {
-    if (s.charCodeAt(p) === 34 && s.startsWith(w, p + 1) && s.charCodeAt(p + 1 + w.length) === 34) {
-      p += w.length + 2;
-      return true;
-    }
-    return false;
-  };
-  /**
-   * A JSON number, read to the double JSON.parse gives: the decimal significand as an integer
-   * m < 10^15 and a power of ten |e| ≤ 22 are both exact doubles, so m·10^e or m/10^−e is one
-   * correctly rounded operation (Clinger's fast path); other numbers go through Number() of
-   * their text, which rounds correctly too.
-   */
-  const readNumber = (): number => {
-    ws();
-    const start = p;
-    let neg = false;
-    if (s.charCodeAt(p) === 45) {
-      neg = true;
-      p++;
-    }
-    let m = 0;
-    let digits = 0; // significant digits in m
-    let exp = 0;
-    let c = s.charCodeAt(p);
-    if (c === 48) {
-      p++;
-      c = s.charCodeAt(p);
-      if (c >= 48 && c <= 57) throw NO; // leading zero
-    } else if (c >= 49 && c <= 57) {
-      do {
+  }
+  let m = 0;
+  let digits = 0; // significant digits seen
+  let exp = 0;
+  let c = s.charCodeAt(p);
+  if (c === 48) {
+    c = s.charCodeAt(++p);
+    if (c >= 48 && c <= 57) throw NO; // leading zero
+  } else if (c >= 49 && c <= 57) {
+    do {
+      if (digits < 15) m = m * 10 + (c - 48);
+      else exp++;
+      digits++;
+      c = s.charCodeAt(++p);
+    } while (c >= 48 && c <= 57);
+  } else throw NO;
+  if (c === 46) {
+    c = s.charCodeAt(++p);
+    if (!(c >= 48 && c <= 57)) throw NO;
+    do {
+      if (digits === 0 && c === 48) exp--; // leading zeros of a fraction
+      else {
         if (digits < 15) {
           m = m * 10 + (c - 48);
-          digits++;
-        } else {
-          exp++;
-          digits++;
-        }
-        c = s.charCodeAt(++p);
-      } while (c >= 48 && c <= 57);
-    } else throw NO;
-    if (c === 46) {
-      c = s.charCodeAt(++p);
-      if (!(c >= 48 && c <= 57)) throw NO;
-      do {
-        if (digits === 0 && c === 48) exp--; // leading zeros of a fraction
-        else if (digits < 15) {
-          m = m * 10 + (c - 48);
-          digits++;
           exp--;
-        } else digits++;
-        c = s.charCodeAt(++p);
-      } while (c >= 48 && c <= 57);
-    }
-    if (c === 101 || c === 69) {
-      c = s.charCodeAt(++p);
-      let eneg = false;
-      if (c === 43 || c === 45) {
-        eneg = c === 45;
-        c = s.charCodeAt(++p);
+        }
+        digits++;
       }
-      if (!(c >= 48 && c <= 57)) throw NO;
-      let e = 0;
-      do {
-        if (e < 100000) e = e * 10 + (c - 48);
-        c = s.charCodeAt(++p);
-      } while (c >= 48 && c <= 57);
-      exp += eneg ? -e : e;
+      c = s.charCodeAt(++p);
+    } while (c >= 48 && c <= 57);
+  }
+  if (c === 101 || c === 69) {
+    c = s.charCodeAt(++p);
+    let eneg = false;
+    if (c === 43 || c === 45) {
+      eneg = c === 45;
+      c = s.charCodeAt(++p);
     }
-    let v: number;
-    if (digits <= 15 && m === 0) v = neg ? -0 : 0;
-    else if (digits <= 15 && exp >= 0 && exp <= 22) v = neg ? -(m * POW10[exp]) : m * POW10[exp];
-    else if (digits <= 15 && exp < 0 && exp >= -22) v = neg ? -(m / POW10[-exp]) : m / POW10[-exp];
-    else v = Number(s.slice(start, p));
-    if (!Number.isFinite(v)) throw NO;
-    return v;
-  };
-  /** A complex value (number, {re, im} or {mag ≥ 0, angleDeg}) into cre/cim. */
-  let cre = 0;
-  let cim = 0;
-  const complex = (): void => {
-    ws();
-    if (s.charCodeAt(p) !== 123) {
-      cre = readNumber();
-      cim = 0;
-      return;
-    }
-    p++;
-    let re: number | undefined;
-    let im: number | undefined;
-    let mag: number | undefined;
-    let ang: number | undefined;
-    let n = 0;
-    ws();
-    if (s.charCodeAt(p) === 125) throw NO;
-    for (;;) {
-      ws();
-      if (word('re') && re === undefined) re = (expect(58), readNumber());
-      else if (word('im') && im === undefined) im = (expect(58), readNumber());
-      else if (word('mag') && mag === undefined) mag = (expect(58), readNumber());
-      else if (word('angleDeg') && ang === undefined) ang = (expect(58), readNumber());
-      else throw NO;
-      n++;
-      ws();
-      const c = s.charCodeAt(p++);
-      if (c === 125) break;
-      if (c !== 44) throw NO;
-    }
-    if (n !== 2) throw NO;
-    if (re !== undefined && im !== undefined) {
-      cre = re;
-      cim = im;
-    } else if (mag !== undefined && ang !== undefined && mag >= 0) {
-      const z = polar(mag, ang);
-      cre = z.re;
-      cim = z.im;
-    } else throw NO;
-  };
+    if (!(c >= 48 && c <= 57)) throw NO;
+    let e = 0;
+    do {
+      if (e < 100000) e = e * 10 + (c - 48);
+      c = s.charCodeAt(++p);
+    } while (c >= 48 && c <= 57);
+    exp += eneg ? -e : e;
+  }
+  NUM_END = p;
+  let v: number;
+  if (digits <= 15 && m === 0) v = neg ? -0 : 0;
+  else if (digits <= 15 && exp >= 0 && exp <= 22) v = neg ? -(m * POW10[exp]) : m * POW10[exp];
+  else if (digits <= 15 && exp < 0 && exp >= -22) v = neg ? -(m / POW10[-exp]) : m / POW10[-exp];
+  else v = Number(s.slice(start, p));
+  if (!Number.isFinite(v)) throw NO;
+  return v;
+}
 
+/** A complex value at p (number, {re, im} or {mag ≥ 0, angleDeg}): CX_RE, CX_IM, its end in NUM_END. */
+let CX_RE = 0;
+let CX_IM = 0;
+function readComplex(s: string, p: number): void {
+  p = ws(s, p);
+  if (s.charCodeAt(p) !== 123) {
+    CX_RE = readNumber(s, p);
+    CX_IM = 0;
+    return;
+  }
+  p++;
+  // parts: 1 re, 2 im, 4 mag, 8 angleDeg
+  let seen = 0;
+  let re = 0;
+  let im = 0;
+  let mag = 0;
+  let ang = 0;
+  for (;;) {
+    p = ws(s, p);
+    let bit = 0;
+    if (isWord(s, p, 're')) bit = 1;
+    else if (isWord(s, p, 'im')) bit = 2;
+    else if (isWord(s, p, 'mag')) bit = 4;
+    else if (isWord(s, p, 'angleDeg')) bit = 8;
+    if (bit === 0 || seen & bit) throw NO;
+    seen |= bit;
+    p = expect(s, p + (bit === 1 || bit === 2 ? 4 : bit === 4 ? 5 : 10), 58);
+    const v = readNumber(s, p);
+    p = ws(s, NUM_END);
+    if (bit === 1) re = v;
+    else if (bit === 2) im = v;
+    else if (bit === 4) mag = v;
+    else ang = v;
+    const c = s.charCodeAt(p++);
+    if (c === 125) break;
+    if (c !== 44) throw NO;
+  }
+  NUM_END = p;
+  if (seen === 3) {
+    CX_RE = re;
+    CX_IM = im;
+  } else if (seen === 12 && mag >= 0) {
+    const z = polar(mag, ang);
+    CX_RE = z.re;
+    CX_IM = z.im;
+  } else throw NO;
+}
+
+/**
+ * Node names interned from the text without slicing a string per use (a node is named by ~4–8
+ * elements): an open-addressing table on the names' hashes, checked against the names.
+ */
+class NodeTable {
+  names: string[] = [];
+  private hashes = new Int32Array(1024);
+  private size = 1 << 12;
+  private table = new Int32Array(this.size); // node number + 1; 0: empty
+
+  constructor(private readonly s: string) {}
+
+  /** The number of the node named by the text from..to with hash h (a new number for a new name). */
+  node(from: number, to: number, h: number): number {
+    const len = to - from;
+    const mask = this.size - 1;
+    for (let q = h & mask; ; q = (q + 1) & mask) {
+      const t = this.table[q];
+      if (t === 0) break;
+      if (this.hashes[t - 1] === h) {
+        const name = this.names[t - 1];
+        if (name.length === len && this.s.startsWith(name, from)) return t - 1;
+      }
+    }
+    return this.add(this.s.slice(from, to), h);
+  }
+
+  add(name: string, h: number): number {
+    if (isSpecialKey(name)) throw NO;
+    const i = this.names.length;
+    this.names.push(name);
+    if (i === this.hashes.length) {
+      const h2 = new Int32Array(2 * i);
+      h2.set(this.hashes);
+      this.hashes = h2;
+    }
+    this.hashes[i] = h;
+    if (2 * this.names.length > this.size) {
+      this.size *= 4;
+      this.table = new Int32Array(this.size);
+      for (let j = 0; j < this.names.length; j++) this.place(this.hashes[j], j);
+    } else this.place(h, i);
+    return i;
+  }
+
+  private place(h: number, i: number): void {
+    const mask = this.size - 1;
+    let q = h & mask;
+    while (this.table[q] !== 0) q = (q + 1) & mask;
+    this.table[q] = i + 1;
+  }
+}
+
+function scan(s: string): ScannedPrimitives {
+  const len = s.length;
   // growable element arrays
   let cap = Math.max(64, (len / 80) | 0);
   let kind = new Uint8Array(cap);
@@ -243,249 +312,171 @@ function scan(s: string): ScannedPrimitives {
   let n2 = new Int32Array(cap);
   let vre = new Float64Array(cap);
   let vim = new Float64Array(cap);
-  const grow = () => {
-    cap *= 2;
-    const k2 = new Uint8Array(cap);
-    k2.set(kind);
-    kind = k2;
-    const a2 = new Int32Array(cap);
-    a2.set(n1);
-    n1 = a2;
-    const b2 = new Int32Array(cap);
-    b2.set(n2);
-    n2 = b2;
-    const r2 = new Float64Array(cap);
-    r2.set(vre);
-    vre = r2;
-    const i2 = new Float64Array(cap);
-    i2.set(vim);
-    vim = i2;
-  };
   const ids: string[] = [];
   const idSet = new Set<string>();
-  // Node names interned from the text without slicing a string per use (a node is named by ~4–8
-  // elements): an open-addressing table on a hash of the characters, checked against the names.
-  const nodeNames: string[] = [];
-  let tabSize = 1 << 12;
-  let table = new Int32Array(tabSize); // node number + 1; 0: empty
-  let nodeHash = new Int32Array(1024);
-  const place = (h: number, i: number): void => {
-    let q = h & (tabSize - 1);
-    while (table[q] !== 0) q = (q + 1) & (tabSize - 1);
-    table[q] = i + 1;
-  };
-  const addNode = (name: string, h: number): number => {
-    if (isSpecialKey(name)) throw NO;
-    const i = nodeNames.length;
-    nodeNames.push(name);
-    if (i === nodeHash.length) {
-      const h2 = new Int32Array(2 * i);
-      h2.set(nodeHash);
-      nodeHash = h2;
-    }
-    nodeHash[i] = h;
-    if (2 * nodeNames.length > tabSize) {
-      tabSize *= 4;
-      table = new Int32Array(tabSize);
-      for (let j = 0; j < nodeNames.length; j++) place(nodeHash[j], j);
-    } else place(h, i);
-    return i;
-  };
-  /** The number of the node named by the text from..to (a new number for a new name). */
-  const node = (from: number, to: number, h: number): number => {
-    const len = to - from;
-    for (let q = h & (tabSize - 1); ; q = (q + 1) & (tabSize - 1)) {
-      const t = table[q];
-      if (t === 0) break;
-      const name = nodeNames[t - 1];
-      if (nodeHash[t - 1] === h && name.length === len && s.startsWith(name, from)) return t - 1;
-    }
-    return addNode(s.slice(from, to), h);
-  };
-  addNode(EARTH, hashOfText(EARTH));
-  /** A node name's string in the text: its bounds and hash in nodeFrom/nodeTo/nodeH (no escapes, non-empty). */
-  let nodeFrom = 0;
-  let nodeTo = 0;
-  let nodeH = 0;
-  const nodeRef = (): void => {
-    ws();
-    if (s.charCodeAt(p) !== 34) throw NO;
-    const start = ++p;
-    let h = 0x811c9dc5 | 0;
-    for (;;) {
-      const c = s.charCodeAt(p);
-      if (c === 34) break;
-      if (c === 92 || c < 32 || p >= len) throw NO;
-      h = Math.imul(h ^ c, 0x01000193);
-      p++;
-    }
-    if (p === start) throw NO; // an empty name: the general path's message
-    nodeFrom = start;
-    nodeTo = p++;
-    nodeH = h;
-  };
+  const nodes = new NodeTable(s);
+  nodes.add(EARTH, hashOfText(EARTH));
   let count = 0;
-
-  const element = (): void => {
-    expect(123);
-    let seen = 0;
-    let type = -1;
-    let id = '';
-    let aFrom = 0;
-    let aTo = 0;
-    let aH = 0;
-    let bFrom = 0;
-    let bTo = 0;
-    let bH = 0;
-    let zr = 0;
-    let zi = 0;
-    for (;;) {
-      ws();
-      let bit = 0;
-      if (s.charCodeAt(p) !== 34) throw NO;
-      // dispatch on the key's first letter, then check the whole key
-      switch (s.charCodeAt(p + 1)) {
-        case 116: // t
-          if (word('type')) {
-            bit = F_TYPE;
-            expect(58);
-            ws();
-            if (word('impedance')) type = S_IMPEDANCE;
-            else if (word('voltageSource')) type = S_VOLTAGE_SOURCE;
-            else if (word('currentSource')) type = S_CURRENT_SOURCE;
-            else throw NO;
-          } else if (word('to')) bit = F_TO;
-          break;
-        case 105: // i
-          if (word('id')) {
-            bit = F_ID;
-            expect(58);
-            id = str();
-          }
-          break;
-        case 102: // f
-          if (word('from')) bit = F_FROM;
-          break;
-        case 112: // p
-          if (word('plus')) bit = F_PLUS;
-          break;
-        case 109: // m
-          if (word('minus')) bit = F_MINUS;
-          break;
-        case 111: // o
-          if (word('ohms')) bit = F_OHMS;
-          break;
-        case 118: // v
-          if (word('volts')) bit = F_VOLTS;
-          break;
-        case 97: // a
-          if (word('amps')) bit = F_AMPS;
-          break;
-      }
-      if (bit === 0) throw NO; // any other key (seriesOhms, closed, …): the general path
-      if (bit & (F_FROM | F_PLUS)) {
-        expect(58);
-        nodeRef();
-        aFrom = nodeFrom;
-        aTo = nodeTo;
-        aH = nodeH;
-      } else if (bit & (F_TO | F_MINUS)) {
-        expect(58);
-        nodeRef();
-        bFrom = nodeFrom;
-        bTo = nodeTo;
-        bH = nodeH;
-      } else if (bit & (F_OHMS | F_VOLTS | F_AMPS)) {
-        expect(58);
-        complex();
-        zr = cre;
-        zi = cim;
-      }
-      if (seen & bit) throw NO;
-      seen |= bit;
-      ws();
-      const c = s.charCodeAt(p++);
-      if (c === 125) break;
-      if (c !== 44) throw NO;
-    }
-    if (type < 0 || seen !== NEEDS[type]) throw NO;
-    // what the general path rejects, or orders differently: its message, not ours
-    if (id.length === 0) throw NO;
-    if (aH === bH && aTo - aFrom === bTo - bFrom && s.startsWith(s.slice(aFrom, aTo), bFrom)) throw NO; // a node joined to itself
-    if (idSet.has(id) || isSpecialKey(id)) throw NO;
-    if (!(Math.abs(zr) <= MAX_MAGNITUDE && Math.abs(zi) <= MAX_MAGNITUDE)) throw NO;
-    if (type === S_IMPEDANCE && !(Math.max(Math.abs(zr), Math.abs(zi)) >= MIN_IMPEDANCE)) throw NO;
-    idSet.add(id);
-    if (count === cap) grow();
-    ids.push(id);
-    kind[count] = type;
-    n1[count] = node(aFrom, aTo, aH);
-    n2[count] = node(bFrom, bTo, bH);
-    vre[count] = zr;
-    vim[count] = zi;
-    count++;
-  };
-
-  // the top-level object
-  expect(123);
-  let top = 0;
   let sequence: 'ABC' | 'ACB' = 'ABC';
+  let top = 0;
+  let p = expect(s, 0, 123);
   for (;;) {
-    ws();
-    let bit: number;
-    if (word('format')) {
-      bit = 1;
-      expect(58);
-      ws();
-      if (!word('wyeward-circuit')) throw NO;
-    } else if (word('version')) {
-      bit = 2;
-      expect(58);
-      if (readNumber() !== 1) throw NO;
-    } else if (word('frequencyHz')) {
-      bit = 4;
-      expect(58);
-      if (!(readNumber() > 0)) throw NO;
-    } else if (word('elements')) {
+    p = ws(s, p);
+    let bit = 0;
+    if (isWord(s, p, 'elements')) {
       bit = 8;
-      expect(58);
-      expect(91);
-      ws();
+      p = expect(s, expect(s, p + 10, 58), 91);
+      p = ws(s, p);
       if (s.charCodeAt(p) === 93) p++;
       else
         for (;;) {
-          element();
-          ws();
+          // one element: its keys in any order, then the checks
+          p = expect(s, p, 123);
+          let seen = 0;
+          let type = -1;
+          let idFrom = 0;
+          let idTo = 0;
+          let aFrom = 0;
+          let aTo = 0;
+          let aH = 0;
+          let bFrom = 0;
+          let bTo = 0;
+          let bH = 0;
+          let zr = 0;
+          let zi = 0;
+          for (;;) {
+            p = ws(s, p);
+            if (s.charCodeAt(p) !== 34) throw NO;
+            let key = 0;
+            let keyLen = 0;
+            // dispatch on the key's first letter, then check the whole key
+            switch (s.charCodeAt(p + 1)) {
+              case 116: // t
+                if (isWord(s, p, 'type')) { key = F_TYPE; keyLen = 4; }
+                else if (isWord(s, p, 'to')) { key = F_TO; keyLen = 2; }
+                break;
+              case 105: // i
+                if (isWord(s, p, 'id')) { key = F_ID; keyLen = 2; }
+                break;
+              case 102: // f
+                if (isWord(s, p, 'from')) { key = F_FROM; keyLen = 4; }
+                break;
+              case 112: // p
+                if (isWord(s, p, 'plus')) { key = F_PLUS; keyLen = 4; }
+                break;
+              case 109: // m
+                if (isWord(s, p, 'minus')) { key = F_MINUS; keyLen = 5; }
+                break;
+              case 111: // o
+                if (isWord(s, p, 'ohms')) { key = F_OHMS; keyLen = 4; }
+                break;
+              case 118: // v
+                if (isWord(s, p, 'volts')) { key = F_VOLTS; keyLen = 5; }
+                break;
+              case 97: // a
+                if (isWord(s, p, 'amps')) { key = F_AMPS; keyLen = 4; }
+                break;
+            }
+            if (key === 0 || seen & key) throw NO; // any other key (seriesOhms, closed, …), or a repeated one: the general path
+            seen |= key;
+            p = ws(s, expect(s, p + keyLen + 2, 58));
+            if (key === F_TYPE) {
+              if (isWord(s, p, 'impedance')) { type = S_IMPEDANCE; p = p + 11; }
+              else if (isWord(s, p, 'voltageSource')) { type = S_VOLTAGE_SOURCE; p = p + 15; }
+              else if (isWord(s, p, 'currentSource')) { type = S_CURRENT_SOURCE; p = p + 15; }
+              else throw NO;
+            } else if (key === F_ID) {
+              scanString(s, p);
+              idFrom = p + 1;
+              idTo = STR_END;
+              p = STR_END + 1;
+            } else if (key & (F_FROM | F_PLUS)) {
+              scanString(s, p);
+              { aFrom = p + 1; aTo = STR_END; aH = STR_HASH; }
+              p = STR_END + 1;
+            } else if (key & (F_TO | F_MINUS)) {
+              scanString(s, p);
+              { bFrom = p + 1; bTo = STR_END; bH = STR_HASH; }
+              p = STR_END + 1;
+            } else {
+              readComplex(s, p);
+              zr = CX_RE;
+              zi = CX_IM;
+              p = NUM_END;
+            }
+            p = ws(s, p);
+            const c = s.charCodeAt(p++);
+            if (c === 125) break;
+            if (c !== 44) throw NO;
+          }
+          if (type < 0 || seen !== NEEDS[type]) throw NO;
+          // what the general path rejects, or orders differently: its message, not ours
+          if (idTo === idFrom || aTo === aFrom || bTo === bFrom) throw NO; // empty id or node name
+          if (aH === bH && aTo - aFrom === bTo - bFrom && s.startsWith(s.slice(aFrom, aTo), bFrom)) throw NO; // a node joined to itself
+          if (!(Math.abs(zr) <= MAX_MAGNITUDE && Math.abs(zi) <= MAX_MAGNITUDE)) throw NO;
+          if (type === S_IMPEDANCE && !(Math.max(Math.abs(zr), Math.abs(zi)) >= MIN_IMPEDANCE)) throw NO;
+          const id = s.slice(idFrom, idTo);
+          if (idSet.has(id) || isSpecialKey(id)) throw NO;
+          idSet.add(id);
+          if (count === cap) {
+            cap *= 2;
+            [kind, n1, n2, vre, vim] = [grown(kind, new Uint8Array(cap)), grown(n1, new Int32Array(cap)), grown(n2, new Int32Array(cap)), grown(vre, new Float64Array(cap)), grown(vim, new Float64Array(cap))];
+          }
+          ids.push(id);
+          kind[count] = type;
+          n1[count] = nodes.node(aFrom, aTo, aH);
+          n2[count] = nodes.node(bFrom, bTo, bH);
+          vre[count] = zr;
+          vim[count] = zi;
+          count++;
+          p = ws(s, p);
           const c = s.charCodeAt(p++);
           if (c === 93) break;
           if (c !== 44) throw NO;
         }
-    } else if (word('name')) {
-      bit = 16;
-      expect(58);
-      str();
-    } else if (word('description')) {
-      bit = 32;
-      expect(58);
-      str();
-    } else if (word('sequence')) {
+    } else if (isWord(s, p, 'format')) {
+      bit = 1;
+      p = ws(s, expect(s, p + 8, 58));
+      if (!isWord(s, p, 'wyeward-circuit')) throw NO;
+      p += 17;
+    } else if (isWord(s, p, 'version')) {
+      bit = 2;
+      if (readNumber(s, expect(s, p + 9, 58)) !== 1) throw NO;
+      p = NUM_END;
+    } else if (isWord(s, p, 'frequencyHz')) {
+      bit = 4;
+      if (!(readNumber(s, expect(s, p + 13, 58)) > 0)) throw NO;
+      p = NUM_END;
+    } else if (isWord(s, p, 'name') || isWord(s, p, 'description')) {
+      bit = s.charCodeAt(p + 1) === 110 ? 16 : 32;
+      p = ws(s, expect(s, p + (bit === 16 ? 6 : 13), 58));
+      scanString(s, p);
+      p = STR_END + 1;
+    } else if (isWord(s, p, 'sequence')) {
       bit = 64;
-      expect(58);
-      ws();
-      if (word('ABC')) sequence = 'ABC';
-      else if (word('ACB')) sequence = 'ACB';
+      p = ws(s, expect(s, p + 10, 58));
+      if (isWord(s, p, 'ABC')) sequence = 'ABC';
+      else if (isWord(s, p, 'ACB')) sequence = 'ACB';
       else throw NO;
+      p += 5;
     } else throw NO; // buses, limits, cases, anything else: the general path
     if (top & bit) throw NO;
     top |= bit;
-    ws();
+    p = ws(s, p);
     const c = s.charCodeAt(p++);
     if (c === 125) break;
     if (c !== 44) throw NO;
   }
-  ws();
+  p = ws(s, p);
   if (p !== len || (top & 15) !== 15) throw NO;
+  const nodeNames = nodes.names;
   const nodeIndex = new Map<string, number>();
   for (let i = 0; i < nodeNames.length; i++) nodeIndex.set(nodeNames[i], i);
   return { sequence, count, ids, kind: kind.subarray(0, count), n1: n1.subarray(0, count), n2: n2.subarray(0, count), re: vre.subarray(0, count), im: vim.subarray(0, count), nodeNames, nodeIndex };
+}
+
+/** `to` with the contents of the shorter `from` copied in. */
+function grown<T extends Uint8Array | Int32Array | Float64Array>(from: T, to: T): T {
+  to.set(from);
+  return to;
 }
