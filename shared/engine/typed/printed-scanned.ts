@@ -5,7 +5,8 @@
  * both. The same numbers as the general path to the last bit: the solver does the same
  * operations, the totals are summed by the same TotalsSum in element order from the same
  * products (primitivePowers for sources; its impedance case written out below with the same
- * expressions), and the flags come from the same busResults and computeFlags.
+ * expressions), and the flags from the same computeFlags over the buses that can raise one
+ * (flagBuses: the unbalance figures of busResults, from the same functions).
  *
  * Undefined when the file is not one the typed path takes (blocks, cases, limits, bus data,
  * unusual fields or anything the general path would report as an error): the caller then runs
@@ -14,7 +15,12 @@
 import type { Cx, Primitive } from '../types.ts';
 import { resolveLimits } from '../limits/limit-sets.ts';
 import { computeFlags } from '../limits/flags.ts';
-import { busResults, primitivePowers, resultConventions, TotalsSum } from '../results/build-results.ts';
+import { primitivePowers, resultConventions, splitBusNode, TotalsSum } from '../results/build-results.ts';
+import type { BusResult } from '../results/types.ts';
+import { CONDUCTORS } from '../schema/common.ts';
+import { sub, toPhasor, ZERO } from '../phasor.ts';
+import { sequenceComponents } from '../metrics/sequence.ts';
+import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/unbalance.ts';
 import type { PrintedPrimitiveResult } from '../results/printed-primitives.ts';
 import { S_CURRENT_SOURCE, S_IMPEDANCE, scanPrimitiveFile, type ScannedPrimitives } from './scan-primitive-file.ts';
 import { solveScanned, type ScannedSolution } from './solve-scanned.ts';
@@ -68,15 +74,7 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
       totals.add('source', primitivePowers(prim, [{ re: ir, im: ii }], V, true));
     }
   }
-  const nodeVolts = {
-    keys: () => f.nodeNames,
-    get: (name: string): Cx | undefined => {
-      const i = f.nodeIndex.get(name);
-      return i === undefined ? undefined : { re: vRe[i], im: vIm[i] };
-    },
-  };
-  // no bus data, no blocks: no nominal voltages, no split-phase buses; the buses only for the flags
-  const buses = busResults({ nominal: new Map(), splitPhase: new Set(), sequence: f.sequence }, [], { nodeVolts }, new Set(), true);
+  const buses = flagBuses(f, vRe, vIm);
   const currentStart = new Int32Array(count);
   for (let k = 0; k < count; k++) currentStart[k] = k;
   return {
@@ -95,4 +93,66 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
     flags: computeFlags(buses, [], [], resolveLimits(undefined, undefined), []),
     iterations: 1,
   };
+}
+
+/**
+ * The buses that can raise a flag in a file with no bus data and no blocks, as busResults(…, forFlags)
+ * gives them. Without nominal voltages no bus has voltage or neutral-shift flags (computeFlags needs
+ * the nominal), and there are no floating parts here; only the unbalance of three-phase buses (a, b
+ * and c present, no split-phase legs) remains. Those buses, in busResults' order (first named by a
+ * node, in node order), with the same numbers from the same functions; the others are left out,
+ * since they raise nothing.
+ */
+function flagBuses(f: ScannedPrimitives, vRe: Float64Array, vIm: Float64Array): BusResult[] {
+  const busIndex = new Map<string, number>();
+  const busNames: string[] = [];
+  const NC = CONDUCTORS.length;
+  let at = new Int32Array(64 * NC).fill(-1); // node number of conductor c of bus b at b·NC + c
+  for (let i = 0; i < f.nodeNames.length; i++) {
+    const sp = splitBusNode(f.nodeNames[i]);
+    if (!sp) continue;
+    let b = busIndex.get(sp.bus);
+    if (b === undefined) {
+      b = busNames.length;
+      busIndex.set(sp.bus, b);
+      busNames.push(sp.bus);
+      if ((b + 1) * NC > at.length) {
+        const a2 = new Int32Array(2 * at.length).fill(-1);
+        a2.set(at);
+        at = a2;
+      }
+    }
+    at[b * NC + (CONDUCTORS as readonly string[]).indexOf(sp.conductor)] = i;
+  }
+  const [A, B, C, N, L1, L2] = [0, 1, 2, 3, 4, 5];
+  const out: BusResult[] = [];
+  const V = (i: number) => ({ re: vRe[i], im: vIm[i] });
+  for (let b = 0; b < busNames.length; b++) {
+    const o = b * NC;
+    if (at[o + A] < 0 || at[o + B] < 0 || at[o + C] < 0 || at[o + L1] >= 0 || at[o + L2] >= 0) continue;
+    const va = V(at[o + A]);
+    const vb = V(at[o + B]);
+    const vc = V(at[o + C]);
+    const hasN = at[o + N] >= 0;
+    const vn = hasN ? V(at[o + N]) : ZERO;
+    const lineToNeutral = { a: toPhasor(sub(va, vn)), b: toPhasor(sub(vb, vn)), c: toPhasor(sub(vc, vn)) };
+    const lineToLine = { ab: toPhasor(sub(va, vb)), bc: toPhasor(sub(vb, vc)), ca: toPhasor(sub(vc, va)) };
+    const s = sequenceComponents(va, vb, vc, f.sequence);
+    const r: BusResult = {
+      bus: busNames[b],
+      kind: 'threePhase',
+      conductors: hasN ? ['a', 'b', 'c', 'n'] : ['a', 'b', 'c'],
+      toEarth: {},
+      lineToNeutral,
+      lnReference: hasN ? 'neutral' : 'earth',
+      lineToLine,
+      floating: false,
+      iecUnbalancePercent: iecUnbalancePercent(s.positive, s.negative),
+      nemaUnbalancePercent: maxDeviationUnbalancePercent([lineToLine.ab.mag, lineToLine.bc.mag, lineToLine.ca.mag]),
+      ieeeUnbalancePercent: maxDeviationUnbalancePercent([lineToNeutral.a.mag, lineToNeutral.b.mag, lineToNeutral.c.mag]),
+    };
+    if (hasN) r.neutralToEarth = toPhasor(vn);
+    out.push(r);
+  }
+  return out;
 }
