@@ -46,10 +46,6 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
   const { vRe, vIm, cRe, cIm } = sol;
   const totals = new TotalsSum();
   const elementTypes = new Array<string>(count);
-  const V = (name: string): Cx => {
-    const i = f.nodeIndex.get(name)!;
-    return { re: vRe[i], im: vIm[i] };
-  };
   for (let k = 0; k < count; k++) {
     const kk = kind[k];
     elementTypes[k] = TYPE_NAMES[kk];
@@ -71,6 +67,13 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
         kk === S_CURRENT_SOURCE
           ? { type: 'currentSource', id: f.ids[k], from: f.nodeNames[n1[k]], to: f.nodeNames[n2[k]], amps: { re: f.re[k], im: f.im[k] } }
           : { type: 'voltageSource', id: f.ids[k], plus: f.nodeNames[n1[k]], minus: f.nodeNames[n2[k]], volts: { re: f.re[k], im: f.im[k] } };
+      // the source's two nodes by name, as the general path reads them
+      const a = n1[k];
+      const b = n2[k];
+      const V = (name: string): Cx => {
+        const i = name === f.nodeNames[a] ? a : b;
+        return { re: vRe[i], im: vIm[i] };
+      };
       totals.add('source', primitivePowers(prim, [{ re: ir, im: ii }], V, true));
     }
   }

@@ -40,9 +40,8 @@ export interface ScannedPrimitives {
   /** Value: ohms, volts or amps. */
   re: Float64Array;
   im: Float64Array;
-  /** Node names by number (earth first, then in order of first use by the elements' terminals), and the inverse. */
+  /** Node names by number (earth first, then in order of first use by the elements' terminals). */
   nodeNames: string[];
-  nodeIndex: Map<string, number>;
 }
 
 /** Thrown inside the scanner when the text is not of the accepted shape; never escapes it. */
@@ -469,10 +468,7 @@ function scan(s: string): ScannedPrimitives {
   }
   p = ws(s, p);
   if (p !== len || (top & 15) !== 15) throw NO;
-  const nodeNames = nodes.names;
-  const nodeIndex = new Map<string, number>();
-  for (let i = 0; i < nodeNames.length; i++) nodeIndex.set(nodeNames[i], i);
-  return { sequence, count, ids, kind: kind.subarray(0, count), n1: n1.subarray(0, count), n2: n2.subarray(0, count), re: vre.subarray(0, count), im: vim.subarray(0, count), nodeNames, nodeIndex };
+  return { sequence, count, ids, kind: kind.subarray(0, count), n1: n1.subarray(0, count), n2: n2.subarray(0, count), re: vre.subarray(0, count), im: vim.subarray(0, count), nodeNames: nodes.names };
 }
 
 /** `to` with the contents of the shorter `from` copied in. */
