@@ -50,7 +50,6 @@ export function writePrintedPrimitiveJson(prepared: PreparedCircuit, sol: Primit
  * the `--json` text through `write`. Its ids and node names must not be special keys (see above).
  */
 export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: string) => void, chunkChars = 1 << 16): void {
-  const { nodeNames, vRe, vIm, cRe, cIm, currentStart, currentCount } = r;
   let buf = '';
   const push = (s: string) => {
     buf += s;
@@ -59,11 +58,29 @@ export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: str
       buf = '';
     }
   };
-  // the keys in jsonResult's order
+  // the keys in jsonResult's order; each record by a function of its own (see writeNodes)
   push(`{"format":"wyeward-result","version":1,"conventions":${JSON.stringify(r.conventions)},"nodes":{`);
-  for (let i = 0; i < nodeNames.length; i++) push(`${i ? ',' : ''}${JSON.stringify(nodeNames[i])}:${phasorText(vRe[i], vIm[i])}`);
+  writeNodes(r, push);
   push('},"elements":{');
-  const { elementIds, elementTypes } = r;
+  writeElements(r, push);
+  // a primitive-only circuit has no faults
+  push(`},"faults":[],"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${JSON.stringify(r.iterations)}}\n`);
+  if (buf) write(buf);
+}
+
+/**
+ * The entries of `nodes`. A function of its own, like writeElements: a single run executes each
+ * loop once, and one function holding both loops was optimized for the first, then deoptimized
+ * at the second for want of type feedback and compiled again.
+ */
+function writeNodes(r: PrintedPrimitiveResult, push: (s: string) => void): void {
+  const { nodeNames, vRe, vIm } = r;
+  for (let i = 0; i < nodeNames.length; i++) push(`${i ? ',' : ''}${JSON.stringify(nodeNames[i])}:${phasorText(vRe[i], vIm[i])}`);
+}
+
+/** The entries of `elements`: type and currents. */
+function writeElements(r: PrintedPrimitiveResult, push: (s: string) => void): void {
+  const { elementIds, elementTypes, cRe, cIm, currentStart, currentCount } = r;
   // the type part of each element's text, once per type name
   const typeText = new Map<string, string>();
   for (let k = 0; k < elementIds.length; k++) {
@@ -75,7 +92,4 @@ export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: str
     for (let c = 0; c < currentCount[k]; c++) text += `${c ? ',' : ''}${phasorText(cRe[start + c], cIm[start + c])}`;
     push(`${text}]}`);
   }
-  // a primitive-only circuit has no faults
-  push(`},"faults":[],"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${JSON.stringify(r.iterations)}}\n`);
-  if (buf) write(buf);
 }

@@ -42,13 +42,39 @@ export function printedPrimitiveResultOfText(text: string, mark: (stage: 'scan' 
 }
 
 function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPrimitiveResult {
+  const { count, kind } = f;
+  const { vRe, vIm, cRe, cIm } = sol;
+  const totals = elementTotals(f, sol);
+  const elementTypes = new Array<string>(count);
+  for (let k = 0; k < count; k++) elementTypes[k] = TYPE_NAMES[kind[k]];
+  const buses = flagBuses(f, vRe, vIm);
+  const currentStart = new Int32Array(count);
+  for (let k = 0; k < count; k++) currentStart[k] = k;
+  return {
+    conventions: resultConventions(f.sequence),
+    nodeNames: f.nodeNames,
+    vRe,
+    vIm,
+    elementIds: f.ids,
+    elementTypes,
+    currentStart,
+    currentCount: new Int32Array(count).fill(1),
+    cRe,
+    cIm,
+    totals: totals.result(sol.maxKclResidualAmps),
+    floating: [],
+    flags: computeFlags(buses, [], [], resolveLimits(undefined, undefined), []),
+    iterations: 1,
+  };
+}
+
+/** The totals: every element's powers added in element order (a function of its own, see solveScanned). */
+function elementTotals(f: ScannedPrimitives, sol: ScannedSolution): TotalsSum {
   const { count, kind, n1, n2 } = f;
   const { vRe, vIm, cRe, cIm } = sol;
   const totals = new TotalsSum();
-  const elementTypes = new Array<string>(count);
   for (let k = 0; k < count; k++) {
     const kk = kind[k];
-    elementTypes[k] = TYPE_NAMES[kk];
     const ir = cRe[k];
     const ii = cIm[k];
     if (kk === S_IMPEDANCE) {
@@ -77,25 +103,7 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
       totals.add('source', primitivePowers(prim, [{ re: ir, im: ii }], V, true));
     }
   }
-  const buses = flagBuses(f, vRe, vIm);
-  const currentStart = new Int32Array(count);
-  for (let k = 0; k < count; k++) currentStart[k] = k;
-  return {
-    conventions: resultConventions(f.sequence),
-    nodeNames: f.nodeNames,
-    vRe,
-    vIm,
-    elementIds: f.ids,
-    elementTypes,
-    currentStart,
-    currentCount: new Int32Array(count).fill(1),
-    cRe,
-    cIm,
-    totals: totals.result(sol.maxKclResidualAmps),
-    floating: [],
-    flags: computeFlags(buses, [], [], resolveLimits(undefined, undefined), []),
-    iterations: 1,
-  };
+  return totals;
 }
 
 /**

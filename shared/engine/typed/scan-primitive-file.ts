@@ -302,6 +302,106 @@ class NodeTable {
   }
 }
 
+/**
+ * One element object at p (after whitespace): its keys in any order, its parts into the EL_*
+ * slots (type, the keys seen, the bounds and hashes of its id and node names, its value); returns
+ * the position after its closing brace. A function of its own rather than a loop body of scan: a
+ * small function is compiled early by its call count, which matters in a single run of the CLI.
+ */
+let EL_TYPE = -1;
+let EL_SEEN = 0;
+let EL_ID_FROM = 0;
+let EL_ID_TO = 0;
+let EL_A_FROM = 0;
+let EL_A_TO = 0;
+let EL_A_HASH = 0;
+let EL_B_FROM = 0;
+let EL_B_TO = 0;
+let EL_B_HASH = 0;
+let EL_RE = 0;
+let EL_IM = 0;
+function scanElement(s: string, p: number): number {
+  p = expect(s, p, 123);
+  let seen = 0;
+  let type = -1;
+  let zr = 0;
+  let zi = 0;
+  for (;;) {
+    p = ws(s, p);
+    if (s.charCodeAt(p) !== 34) throw NO;
+    let key = 0;
+    let keyLen = 0;
+    // dispatch on the key's first letter, then check the whole key
+    switch (s.charCodeAt(p + 1)) {
+      case 116: // t
+        if (isWord(s, p, 'type')) { key = F_TYPE; keyLen = 4; }
+        else if (isWord(s, p, 'to')) { key = F_TO; keyLen = 2; }
+        break;
+      case 105: // i
+        if (isWord(s, p, 'id')) { key = F_ID; keyLen = 2; }
+        break;
+      case 102: // f
+        if (isWord(s, p, 'from')) { key = F_FROM; keyLen = 4; }
+        break;
+      case 112: // p
+        if (isWord(s, p, 'plus')) { key = F_PLUS; keyLen = 4; }
+        break;
+      case 109: // m
+        if (isWord(s, p, 'minus')) { key = F_MINUS; keyLen = 5; }
+        break;
+      case 111: // o
+        if (isWord(s, p, 'ohms')) { key = F_OHMS; keyLen = 4; }
+        break;
+      case 118: // v
+        if (isWord(s, p, 'volts')) { key = F_VOLTS; keyLen = 5; }
+        break;
+      case 97: // a
+        if (isWord(s, p, 'amps')) { key = F_AMPS; keyLen = 4; }
+        break;
+    }
+    if (key === 0 || seen & key) throw NO; // any other key (seriesOhms, closed, …), or a repeated one: the general path
+    seen |= key;
+    p = ws(s, expect(s, p + keyLen + 2, 58));
+    if (key === F_TYPE) {
+      if (isWord(s, p, 'impedance')) { type = S_IMPEDANCE; p = p + 11; }
+      else if (isWord(s, p, 'voltageSource')) { type = S_VOLTAGE_SOURCE; p = p + 15; }
+      else if (isWord(s, p, 'currentSource')) { type = S_CURRENT_SOURCE; p = p + 15; }
+      else throw NO;
+    } else if (key === F_ID) {
+      scanString(s, p);
+      EL_ID_FROM = p + 1;
+      EL_ID_TO = STR_END;
+      p = STR_END + 1;
+    } else if (key & (F_FROM | F_PLUS)) {
+      scanString(s, p);
+      EL_A_FROM = p + 1;
+      EL_A_TO = STR_END;
+      EL_A_HASH = STR_HASH;
+      p = STR_END + 1;
+    } else if (key & (F_TO | F_MINUS)) {
+      scanString(s, p);
+      EL_B_FROM = p + 1;
+      EL_B_TO = STR_END;
+      EL_B_HASH = STR_HASH;
+      p = STR_END + 1;
+    } else {
+      readComplex(s, p);
+      zr = CX_RE;
+      zi = CX_IM;
+      p = NUM_END;
+    }
+    p = ws(s, p);
+    const c = s.charCodeAt(p++);
+    if (c === 125) break;
+    if (c !== 44) throw NO;
+  }
+  EL_TYPE = type;
+  EL_SEEN = seen;
+  EL_RE = zr;
+  EL_IM = zi;
+  return p;
+}
+
 function scan(s: string): ScannedPrimitives {
   const len = s.length;
   // growable element arrays
@@ -329,85 +429,19 @@ function scan(s: string): ScannedPrimitives {
       if (s.charCodeAt(p) === 93) p++;
       else
         for (;;) {
-          // one element: its keys in any order, then the checks
-          p = expect(s, p, 123);
-          let seen = 0;
-          let type = -1;
-          let idFrom = 0;
-          let idTo = 0;
-          let aFrom = 0;
-          let aTo = 0;
-          let aH = 0;
-          let bFrom = 0;
-          let bTo = 0;
-          let bH = 0;
-          let zr = 0;
-          let zi = 0;
-          for (;;) {
-            p = ws(s, p);
-            if (s.charCodeAt(p) !== 34) throw NO;
-            let key = 0;
-            let keyLen = 0;
-            // dispatch on the key's first letter, then check the whole key
-            switch (s.charCodeAt(p + 1)) {
-              case 116: // t
-                if (isWord(s, p, 'type')) { key = F_TYPE; keyLen = 4; }
-                else if (isWord(s, p, 'to')) { key = F_TO; keyLen = 2; }
-                break;
-              case 105: // i
-                if (isWord(s, p, 'id')) { key = F_ID; keyLen = 2; }
-                break;
-              case 102: // f
-                if (isWord(s, p, 'from')) { key = F_FROM; keyLen = 4; }
-                break;
-              case 112: // p
-                if (isWord(s, p, 'plus')) { key = F_PLUS; keyLen = 4; }
-                break;
-              case 109: // m
-                if (isWord(s, p, 'minus')) { key = F_MINUS; keyLen = 5; }
-                break;
-              case 111: // o
-                if (isWord(s, p, 'ohms')) { key = F_OHMS; keyLen = 4; }
-                break;
-              case 118: // v
-                if (isWord(s, p, 'volts')) { key = F_VOLTS; keyLen = 5; }
-                break;
-              case 97: // a
-                if (isWord(s, p, 'amps')) { key = F_AMPS; keyLen = 4; }
-                break;
-            }
-            if (key === 0 || seen & key) throw NO; // any other key (seriesOhms, closed, …), or a repeated one: the general path
-            seen |= key;
-            p = ws(s, expect(s, p + keyLen + 2, 58));
-            if (key === F_TYPE) {
-              if (isWord(s, p, 'impedance')) { type = S_IMPEDANCE; p = p + 11; }
-              else if (isWord(s, p, 'voltageSource')) { type = S_VOLTAGE_SOURCE; p = p + 15; }
-              else if (isWord(s, p, 'currentSource')) { type = S_CURRENT_SOURCE; p = p + 15; }
-              else throw NO;
-            } else if (key === F_ID) {
-              scanString(s, p);
-              idFrom = p + 1;
-              idTo = STR_END;
-              p = STR_END + 1;
-            } else if (key & (F_FROM | F_PLUS)) {
-              scanString(s, p);
-              { aFrom = p + 1; aTo = STR_END; aH = STR_HASH; }
-              p = STR_END + 1;
-            } else if (key & (F_TO | F_MINUS)) {
-              scanString(s, p);
-              { bFrom = p + 1; bTo = STR_END; bH = STR_HASH; }
-              p = STR_END + 1;
-            } else {
-              readComplex(s, p);
-              zr = CX_RE;
-              zi = CX_IM;
-              p = NUM_END;
-            }
-            p = ws(s, p);
-            const c = s.charCodeAt(p++);
-            if (c === 125) break;
-            if (c !== 44) throw NO;
-          }
+          p = scanElement(s, p);
+          const type = EL_TYPE;
+          const seen = EL_SEEN;
+          const idFrom = EL_ID_FROM;
+          const idTo = EL_ID_TO;
+          const aFrom = EL_A_FROM;
+          const aTo = EL_A_TO;
+          const aH = EL_A_HASH;
+          const bFrom = EL_B_FROM;
+          const bTo = EL_B_TO;
+          const bH = EL_B_HASH;
+          const zr = EL_RE;
+          const zi = EL_IM;
           if (type < 0 || seen !== NEEDS[type]) throw NO;
           // what the general path rejects, or orders differently: its message, not ours
           if (idTo === idFrom || aTo === aFrom || bTo === bFrom) throw NO; // empty id or node name

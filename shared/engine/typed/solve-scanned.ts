@@ -40,12 +40,34 @@ function union(parent: Int32Array, a: number, b: number): boolean {
   return true;
 }
 
-/** Solve; undefined when the general path must take the file (see the module comment). */
+/**
+ * Solve; undefined when the general path must take the file (see the module comment).
+ * Each phase is a function of its own, run once: a single run of the CLI executes every loop
+ * once, and a long function of many loops was optimized loop by loop, deoptimized each time the
+ * next loop had no type feedback yet, and compiled again (seen with --trace-deopt).
+ */
 export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined {
+  const forest = sourceForest(f);
+  if (!forest) return undefined;
+  const t = sourceTrees(f, forest);
+  const { yRe, yIm } = admittances(f);
+  const { offRe, offIm } = supernodeOffsets(f, t);
+  const st = stamps(f, t, yRe, yIm, offRe, offIm);
+  const { symbolic, positions } = analyzePattern(t.n, st.rows, st.cols, st.count);
+  const { aRe, aIm } = assembled(symbolic.rowIdx.length, positions, st);
+  const lu = factorNumeric(symbolic, aRe, aIm);
+  if (lu.nullVectors.length > 0) return undefined; // a numerically floating part
+  const x = lu.solve(st.rhsRe, st.rhsIm);
+  if (!allFinite(x.re, x.im, t.n)) return undefined;
+  const { vRe, vIm } = nodeVoltages(t, offRe, offIm, x.re, x.im);
+  const { cRe, cIm, maxKcl } = currents(f, t, yRe, yIm, vRe, vIm);
+  return { vRe, vIm, cRe, cIm, maxKclResidualAmps: maxKcl };
+}
+
+/** The ideal sources' forest (CSR adjacency, each node's edges in element order as the general solver lists them); undefined for a loop of ideal sources or a part with no path to earth. */
+function sourceForest(f: ScannedPrimitives): { start: Int32Array; to: Int32Array; el: Int32Array } | undefined {
   const { count, kind, n1, n2 } = f;
   const nn = f.nodeNames.length;
-
-  // 1. ideal sources: a forest (a loop among them is the general path's error), and galvanic parts
   const zdsu = new Int32Array(nn);
   const dsu = new Int32Array(nn);
   for (let i = 0; i < nn; i++) zdsu[i] = dsu[i] = i;
@@ -62,38 +84,53 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
   }
   const earthRoot = find(dsu, 0);
   for (let i = 1; i < nn; i++) if (find(dsu, i) !== earthRoot) return undefined; // a floating part
-  // the forest's adjacency (CSR), each node's edges in element order as the general solver lists them
   for (let i = 0; i < nn; i++) deg[i + 1] += deg[i];
-  const adjTo = new Int32Array(deg[nn]);
-  const adjEl = new Int32Array(deg[nn]);
+  const to = new Int32Array(deg[nn]);
+  const el = new Int32Array(deg[nn]);
   const fill = deg.slice(0, nn);
   for (let k = 0; k < count; k++) {
     if (kind[k] !== S_VOLTAGE_SOURCE) continue;
     const a = n1[k];
     const b = n2[k];
-    adjTo[fill[a]] = b;
-    adjEl[fill[a]++] = k;
-    adjTo[fill[b]] = a;
-    adjEl[fill[b]++] = k;
+    to[fill[a]] = b;
+    el[fill[a]++] = k;
+    to[fill[b]] = a;
+    el[fill[b]++] = k;
   }
+  return { start: deg, to, el };
+}
 
-  // 2. trees of the forest, breadth-first from each node in node order (earth first)
+/** Trees of the forest, breadth-first from each node in node order (earth first), and the unknowns (one per tree root other than earth's tree). */
+interface Trees {
+  treeParent: Int32Array;
+  treeEdge: Int32Array;
+  treeSign: Int8Array;
+  /** Non-root tree nodes, parents before children. */
+  order: Int32Array;
+  unknownOf: Int32Array;
+  n: number;
+}
+function sourceTrees(f: ScannedPrimitives, forest: { start: Int32Array; to: Int32Array; el: Int32Array }): Trees {
+  const nn = f.nodeNames.length;
+  const { start, to: adjTo, el: adjEl } = forest;
+  const n1 = f.n1;
   const treeParent = new Int32Array(nn).fill(-1);
   const treeEdge = new Int32Array(nn).fill(-2);
   const treeSign = new Int8Array(nn);
   const rootOf = new Int32Array(nn).fill(-1);
-  const order: number[] = [];
+  const order = new Int32Array(nn);
+  let nOrder = 0;
   const queue = new Int32Array(nn);
   for (let s = 0; s < nn; s++) {
     if (rootOf[s] !== -1) continue;
     rootOf[s] = s;
-    if (deg[s + 1] === deg[s]) continue;
+    if (start[s + 1] === start[s]) continue;
     let qh = 0;
     let qt = 0;
     queue[qt++] = s;
     while (qh < qt) {
       const u = queue[qh++];
-      for (let e = deg[u]; e < deg[u + 1]; e++) {
+      for (let e = start[u]; e < start[u + 1]; e++) {
         const to = adjTo[e];
         if (rootOf[to] !== -1) continue;
         const el = adjEl[e];
@@ -101,7 +138,7 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
         treeParent[to] = u;
         treeEdge[to] = el;
         treeSign[to] = n1[el] === to ? 1 : -1;
-        order.push(to);
+        order[nOrder++] = to;
         queue[qt++] = to;
       }
     }
@@ -110,19 +147,31 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
   let n = 0;
   for (let i = 1; i < nn; i++) if (rootOf[i] === i) unknownOf[i] = n++;
   for (let i = 0; i < nn; i++) if (rootOf[i] !== i) unknownOf[i] = rootOf[i] === 0 ? -1 : unknownOf[rootOf[i]];
+  return { treeParent, treeEdge, treeSign, order: order.subarray(0, nOrder), unknownOf, n };
+}
 
-  // 3. values as the general solver compiles them
-  const yRe = new Float64Array(count);
-  const yIm = new Float64Array(count);
+/** 1/Z of every impedance, as the general solver compiles it. */
+function admittances(f: ScannedPrimitives): { yRe: Float64Array; yIm: Float64Array } {
+  const { count, kind } = f;
   const zr = f.re;
   const zi = f.im;
+  const yRe = new Float64Array(count);
+  const yIm = new Float64Array(count);
   for (let k = 0; k < count; k++) {
     if (kind[k] !== S_IMPEDANCE) continue;
     const d = zr[k] * zr[k] + zi[k] * zi[k];
     yRe[k] = zr[k] / d;
     yIm[k] = -zi[k] / d;
   }
-  // supernode offsets: V(child) = V(parent) ± EMF of the tree edge
+  return { yRe, yIm };
+}
+
+/** Supernode offsets: V(child) = V(parent) ± EMF of the tree edge. */
+function supernodeOffsets(f: ScannedPrimitives, t: Trees): { offRe: Float64Array; offIm: Float64Array } {
+  const nn = f.nodeNames.length;
+  const zr = f.re;
+  const zi = f.im;
+  const { order, treeParent, treeSign, treeEdge } = t;
   const offRe = new Float64Array(nn);
   const offIm = new Float64Array(nn);
   for (let q = 0; q < order.length; q++) {
@@ -139,9 +188,29 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
     offRe[c] = re;
     offIm[c] = im;
   }
+  return { offRe, offIm };
+}
 
-  // 4. stamps: every matrix entry recorded with its value, in the general solver's order; the
-  // right-hand side as it builds it (earth-fixed and offset nodes move to the right)
+/** Recorded matrix entries (unknown indices and values, in the general solver's order) and the right-hand side. */
+interface Stamps {
+  rows: Int32Array;
+  cols: Int32Array;
+  valRe: Float64Array;
+  valIm: Float64Array;
+  count: number;
+  rhsRe: Float64Array;
+  rhsIm: Float64Array;
+}
+
+/**
+ * Every matrix entry recorded with its value, in the general solver's order; the right-hand side
+ * as it builds it (earth-fixed and offset nodes move to the right).
+ */
+function stamps(f: ScannedPrimitives, t: Trees, yRe: Float64Array, yIm: Float64Array, offRe: Float64Array, offIm: Float64Array): Stamps {
+  const { count, kind, n1, n2 } = f;
+  const zr = f.re;
+  const zi = f.im;
+  const { unknownOf, n } = t;
   let cap = 4 * count + 16;
   let rows = new Int32Array(cap);
   let cols = new Int32Array(cap);
@@ -203,29 +272,50 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
       inject(a, -zr[k], -zi[k]);
     }
   }
-  const { symbolic, positions } = analyzePattern(n, rows, cols, nRec);
-  const nnz = symbolic.rowIdx.length;
+  return { rows, cols, valRe, valIm, count: nRec, rhsRe, rhsIm };
+}
+
+/** The matrix values on the permuted pattern, added in the recorded order. */
+function assembled(nnz: number, positions: Int32Array, st: Stamps): { aRe: Float64Array; aIm: Float64Array } {
   const aRe = new Float64Array(nnz);
   const aIm = new Float64Array(nnz);
-  for (let e = 0; e < nRec; e++) {
+  const { valRe, valIm } = st;
+  for (let e = 0; e < st.count; e++) {
     const p = positions[e];
     aRe[p] += valRe[e];
     aIm[p] += valIm[e];
   }
-  const lu = factorNumeric(symbolic, aRe, aIm);
-  if (lu.nullVectors.length > 0) return undefined; // a numerically floating part
-  const x = lu.solve(rhsRe, rhsIm);
-  for (let u = 0; u < n; u++) if (!Number.isFinite(x.re[u]) || !Number.isFinite(x.im[u])) return undefined;
+  return { aRe, aIm };
+}
+
+function allFinite(re: Float64Array, im: Float64Array, n: number): boolean {
+  for (let u = 0; u < n; u++) if (!Number.isFinite(re[u]) || !Number.isFinite(im[u])) return false;
+  return true;
+}
+
+/** Node voltages: each node's offset plus its unknown's solution. */
+function nodeVoltages(t: Trees, offRe: Float64Array, offIm: Float64Array, xRe: Float64Array, xIm: Float64Array): { vRe: Float64Array; vIm: Float64Array } {
+  const nn = offRe.length;
+  const unknownOf = t.unknownOf;
   const vRe = new Float64Array(nn);
   const vIm = new Float64Array(nn);
   for (let i = 0; i < nn; i++) {
     const u = unknownOf[i];
-    vRe[i] = offRe[i] + (u >= 0 ? x.re[u] : 0);
-    vIm[i] = offIm[i] + (u >= 0 ? x.im[u] : 0);
+    vRe[i] = offRe[i] + (u >= 0 ? xRe[u] : 0);
+    vIm[i] = offIm[i] + (u >= 0 ? xIm[u] : 0);
   }
+  return { vRe, vIm };
+}
 
-  // 5. currents: through impedances and current sources directly, through ideal sources by KCL
-  // leaf to root along each tree; the largest KCL residual as the general solver measures it
+/**
+ * Currents through impedances and current sources directly, through ideal sources by KCL leaf to
+ * root along each tree; the largest KCL residual as the general solver measures it.
+ */
+function currents(f: ScannedPrimitives, t: Trees, yRe: Float64Array, yIm: Float64Array, vRe: Float64Array, vIm: Float64Array): { cRe: Float64Array; cIm: Float64Array; maxKcl: number } {
+  const { count, kind, n1, n2 } = f;
+  const zr = f.re;
+  const zi = f.im;
+  const nn = vRe.length;
   const cRe = new Float64Array(count);
   const cIm = new Float64Array(count);
   const oRe = new Float64Array(nn);
@@ -253,7 +343,7 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
     oRe[b] -= ir;
     oIm[b] -= ii;
   }
-  let maxKcl = 0;
+  const { order, treeParent, treeEdge, unknownOf } = t;
   for (let q = order.length - 1; q >= 0; q--) {
     const c = order[q];
     const pnode = treeParent[c];
@@ -266,10 +356,11 @@ export function solveScanned(f: ScannedPrimitives): ScannedSolution | undefined 
     cRe[el] = sign * Fr;
     cIm[el] = sign * Fi;
   }
+  let maxKcl = 0;
   for (let i = 1; i < nn; i++) {
     if (treeParent[i] !== -1) continue;
     if (unknownOf[i] < 0) continue;
     maxKcl = Math.max(maxKcl, Math.hypot(oRe[i], oIm[i]));
   }
-  return { vRe, vIm, cRe, cIm, maxKclResidualAmps: maxKcl };
+  return { cRe, cIm, maxKcl };
 }
