@@ -18,6 +18,22 @@
  * keeps that version as the reference), at a fraction of the allocation.
  */
 export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32Array): Int32Array {
+  // the setup and the elimination are functions of their own: a run that orders once (the CLI)
+  // executes each loop once, and one function of both was compiled loop by loop, deoptimizing
+  // at the next loop for want of type feedback
+  return eliminate(n, adjacencyPool(n, colPtr, rowIdx));
+}
+
+/** The adjacency lists (diagonal dropped) in one pool, each with a few slots of room to grow. */
+interface Pool {
+  pool: Int32Array;
+  top: number;
+  start: Int32Array;
+  len: Int32Array;
+  cap: Int32Array;
+}
+
+function adjacencyPool(n: number, colPtr: Int32Array, rowIdx: Int32Array): Pool {
   const start = new Int32Array(n);
   const len = new Int32Array(n);
   const cap = new Int32Array(n);
@@ -40,6 +56,13 @@ export function minimumDegreeOrder(n: number, colPtr: Int32Array, rowIdx: Int32A
       pool = bigger;
     }
   }
+  return { pool, top, start, len, cap };
+}
+
+/** Minimum-degree elimination on the pool's lists (see minimumDegreeOrder). */
+function eliminate(n: number, lists: Pool): Int32Array {
+  const { start, len, cap } = lists;
+  let { pool, top } = lists;
   const eliminated = new Uint8Array(n);
   const mark = new Int32Array(n).fill(-1);
   const heap = new MinHeap(n, n);

@@ -61,15 +61,29 @@ export function analyzePattern(
   for (let k = 0; k < n; k++) pinv[p[k]] = k;
   // 2. permuted pattern: the original one relabelled (already free of duplicates), each column re-sorted
   const { colPtr, rowIdx } = permutePattern(n, oPtr, oIdx, pinv);
-  const nnz = rowIdx.length;
-  // 3. transpose positions: the pattern is symmetric and its columns sorted, so sweeping the
-  // columns j in increasing order meets the entries (j, i) of each column i in its stored order
-  const tpos = new Int32Array(nnz);
+  // each step a function of its own: a run that analyses once (the CLI) executes each loop once,
+  // and one function of all of them was compiled loop by loop, deoptimizing at each next loop
+  const tpos = transposePositions(n, colPtr, rowIdx);
+  const { parent, lp } = eliminationTree(n, colPtr, rowIdx);
+  const positions = entryPositions(colPtr, rowIdx, pinv, rows, cols, count);
+  return { symbolic: { n, perm: p, pinv, colPtr, rowIdx, tpos, parent, lp, lnz: lp[n] }, positions };
+}
+
+/**
+ * 3. Transpose positions: the pattern is symmetric and its columns sorted, so sweeping the
+ * columns j in increasing order meets the entries (j, i) of each column i in its stored order.
+ */
+function transposePositions(n: number, colPtr: Int32Array, rowIdx: Int32Array): Int32Array {
+  const tpos = new Int32Array(rowIdx.length);
   const next = colPtr.slice(0, n);
   for (let j = 0; j < n; j++) {
     for (let q = colPtr[j]; q < colPtr[j + 1]; q++) tpos[q] = next[rowIdx[q]]++;
   }
-  // 4. elimination tree and column counts of L (Davis, LDL symbolic)
+  return tpos;
+}
+
+/** 4. Elimination tree and column counts of L (Davis, LDL symbolic). */
+function eliminationTree(n: number, colPtr: Int32Array, rowIdx: Int32Array): { parent: Int32Array; lp: Int32Array } {
   const parent = new Int32Array(n).fill(-1);
   const flag = new Int32Array(n);
   const lnzCol = new Int32Array(n);
@@ -87,10 +101,14 @@ export function analyzePattern(
   }
   const lp = new Int32Array(n + 1);
   for (let k = 0; k < n; k++) lp[k + 1] = lp[k] + lnzCol[k];
-  // 5. input entry → permuted position
+  return { parent, lp };
+}
+
+/** 5. Input entry → permuted position. */
+function entryPositions(colPtr: Int32Array, rowIdx: Int32Array, pinv: Int32Array, rows: Int32Array, cols: Int32Array, count: number): Int32Array {
   const positions = new Int32Array(count);
   for (let e = 0; e < count; e++) positions[e] = findPos(colPtr, rowIdx, pinv[rows[e]], pinv[cols[e]]);
-  return { symbolic: { n, perm: p, pinv, colPtr, rowIdx, tpos, parent, lp, lnz: lp[n] }, positions };
+  return positions;
 }
 
 function findPos(colPtr: Int32Array, rowIdx: Int32Array, i: number, j: number): number {
@@ -138,6 +156,14 @@ function buildSymmetricPattern(
   cols: Int32Array,
   count: number,
 ): { colPtr: Int32Array; rowIdx: Int32Array } {
+  // three steps, each a function of its own (see analyzePattern)
+  const { start, tmp } = scatterSymmetric(n, rows, cols, count);
+  const len = dedupeSortColumns(n, start, tmp);
+  return layColumns(n, start, tmp, len);
+}
+
+/** Every entry (r, c) as r in column c and c in column r, plus the diagonal, column by column (duplicates kept). */
+function scatterSymmetric(n: number, rows: Int32Array, cols: Int32Array, count: number): { start: Int32Array; tmp: Int32Array } {
   const cnt = new Int32Array(n + 1);
   for (let e = 0; e < count; e++) {
     cnt[cols[e]]++;
@@ -155,9 +181,15 @@ function buildSymmetricPattern(
     tmp[fill[c]++] = r;
     tmp[fill[r]++] = c;
   }
-  // per column: drop duplicates with a marker array (stamps repeat entries a lot: a coupled
-  // 4×4 branch touches each pair of its nodes several times), then insertion-sort what is left
-  // (columns of nodal matrices are short); then lay the columns out
+  return { start, tmp };
+}
+
+/**
+ * Per column: drop duplicates with a marker array (stamps repeat entries a lot: a coupled 4×4
+ * branch touches each pair of its nodes several times), then insertion-sort what is left
+ * (columns of nodal matrices are short). Returns each column's length (its entries stay at start[j]).
+ */
+function dedupeSortColumns(n: number, start: Int32Array, tmp: Int32Array): Int32Array {
   const len = new Int32Array(n);
   const mark = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
@@ -184,6 +216,11 @@ function buildSymmetricPattern(
     }
     len[j] = m - lo;
   }
+  return len;
+}
+
+/** The columns laid out one after another (CSC). */
+function layColumns(n: number, start: Int32Array, tmp: Int32Array, len: Int32Array): { colPtr: Int32Array; rowIdx: Int32Array } {
   const colPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) colPtr[j + 1] = colPtr[j] + len[j];
   const rowIdx = new Int32Array(colPtr[n]);

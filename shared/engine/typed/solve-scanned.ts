@@ -82,8 +82,20 @@ function sourceForest(f: ScannedPrimitives): { start: Int32Array; to: Int32Array
       deg[n2[k] + 1]++;
     }
   }
+  if (!allTiedToEarth(dsu)) return undefined; // a floating part
+  return forestAdjacency(f, deg);
+}
+
+function allTiedToEarth(dsu: Int32Array): boolean {
   const earthRoot = find(dsu, 0);
-  for (let i = 1; i < nn; i++) if (find(dsu, i) !== earthRoot) return undefined; // a floating part
+  for (let i = 1; i < dsu.length; i++) if (find(dsu, i) !== earthRoot) return false;
+  return true;
+}
+
+/** The forest's CSR adjacency from each node's source count (deg[i + 1]). */
+function forestAdjacency(f: ScannedPrimitives, deg: Int32Array): { start: Int32Array; to: Int32Array; el: Int32Array } {
+  const { count, kind, n1, n2 } = f;
+  const nn = deg.length - 1;
   for (let i = 0; i < nn; i++) deg[i + 1] += deg[i];
   const to = new Int32Array(deg[nn]);
   const el = new Int32Array(deg[nn]);
