@@ -12,9 +12,11 @@
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
  * never a stack trace. `--timings` adds one stderr line splitting the run (start-up and imports,
  * read, JSON parse, validate + expand, solve, results, output). Big JSON results are written in
- * chunks (see writeJson); a primitive-only file's --json is written straight from the solution
- * (printed-json.ts). Kept light on purpose (it is benchmarked against ngspice): file → parse →
- * solve → write, importing only the engine.
+ * chunks (see writeJson); a primitive-only file's --json is written straight from arrays
+ * (printed-json.ts), by the typed path from the file's text when it takes the file
+ * (shared/engine/typed: no JSON.parse, no element objects), else from the general solver's
+ * solution. Kept light on purpose (it is benchmarked against ngspice): file → parse → solve →
+ * write, importing only the engine.
  */
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
@@ -217,7 +219,12 @@ export function main(argv: string[]): void {
   // it declines anything else, which then takes the general path below)
   if (asJson && !full && !allCases && caseId === undefined) {
     const before = marks.length;
-    const printed = printedPrimitiveResultOfText(text, (stage) => mark(stage === 'scan' ? 'scan (parse + validate)' : 'solve'));
+    let printed: ReturnType<typeof printedPrimitiveResultOfText>;
+    try {
+      printed = printedPrimitiveResultOfText(text, (stage) => mark(stage === 'scan' ? 'scan (parse + validate)' : 'solve'));
+    } catch {
+      printed = undefined; // never expected; the general path then reports in its own words
+    }
     if (printed) {
       writePrintedResult(printed, (chunk) => process.stdout.write(chunk));
       mark('results + JSON write');

@@ -334,39 +334,71 @@ function scanElement(s: string, p: number): number {
     // dispatch on the key's first letter, then check the whole key
     switch (s.charCodeAt(p + 1)) {
       case 116: // t
-        if (isWord(s, p, 'type')) { key = F_TYPE; keyLen = 4; }
-        else if (isWord(s, p, 'to')) { key = F_TO; keyLen = 2; }
+        if (isWord(s, p, 'type')) {
+          key = F_TYPE;
+          keyLen = 4;
+        } else if (isWord(s, p, 'to')) {
+          key = F_TO;
+          keyLen = 2;
+        }
         break;
       case 105: // i
-        if (isWord(s, p, 'id')) { key = F_ID; keyLen = 2; }
+        if (isWord(s, p, 'id')) {
+          key = F_ID;
+          keyLen = 2;
+        }
         break;
       case 102: // f
-        if (isWord(s, p, 'from')) { key = F_FROM; keyLen = 4; }
+        if (isWord(s, p, 'from')) {
+          key = F_FROM;
+          keyLen = 4;
+        }
         break;
       case 112: // p
-        if (isWord(s, p, 'plus')) { key = F_PLUS; keyLen = 4; }
+        if (isWord(s, p, 'plus')) {
+          key = F_PLUS;
+          keyLen = 4;
+        }
         break;
       case 109: // m
-        if (isWord(s, p, 'minus')) { key = F_MINUS; keyLen = 5; }
+        if (isWord(s, p, 'minus')) {
+          key = F_MINUS;
+          keyLen = 5;
+        }
         break;
       case 111: // o
-        if (isWord(s, p, 'ohms')) { key = F_OHMS; keyLen = 4; }
+        if (isWord(s, p, 'ohms')) {
+          key = F_OHMS;
+          keyLen = 4;
+        }
         break;
       case 118: // v
-        if (isWord(s, p, 'volts')) { key = F_VOLTS; keyLen = 5; }
+        if (isWord(s, p, 'volts')) {
+          key = F_VOLTS;
+          keyLen = 5;
+        }
         break;
       case 97: // a
-        if (isWord(s, p, 'amps')) { key = F_AMPS; keyLen = 4; }
+        if (isWord(s, p, 'amps')) {
+          key = F_AMPS;
+          keyLen = 4;
+        }
         break;
     }
     if (key === 0 || seen & key) throw NO; // any other key (seriesOhms, closed, …), or a repeated one: the general path
     seen |= key;
     p = ws(s, expect(s, p + keyLen + 2, 58));
     if (key === F_TYPE) {
-      if (isWord(s, p, 'impedance')) { type = S_IMPEDANCE; p = p + 11; }
-      else if (isWord(s, p, 'voltageSource')) { type = S_VOLTAGE_SOURCE; p = p + 15; }
-      else if (isWord(s, p, 'currentSource')) { type = S_CURRENT_SOURCE; p = p + 15; }
-      else throw NO;
+      if (isWord(s, p, 'impedance')) {
+        type = S_IMPEDANCE;
+        p = p + 11;
+      } else if (isWord(s, p, 'voltageSource')) {
+        type = S_VOLTAGE_SOURCE;
+        p = p + 15;
+      } else if (isWord(s, p, 'currentSource')) {
+        type = S_CURRENT_SOURCE;
+        p = p + 15;
+      } else throw NO;
     } else if (key === F_ID) {
       scanString(s, p);
       EL_ID_FROM = p + 1;
