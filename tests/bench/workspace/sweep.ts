@@ -9,17 +9,22 @@
  * opposed to frames late because the cores were busy) (an init script keeps a requestAnimationFrame loop; the product
  * code is not touched). A warm-up sweep of 200 points runs first (workers started, code compiled).
  * Targets (issue 10): 1 000 points ≤ 1 s, 10 000 points ≤ 10 s with a frame every ≤ 50 ms.
+ * Frame gaps are reported as a distribution (longest, count over 50 ms, p50/p95/p99, buckets) and
+ * counted from the Run click until the finished run has been painted.
  * Run: `node --import tsx tests/bench/workspace/sweep.ts` (SWEEP_RUNS=n runs per size, default 2;
- * SWEEP_TRACE=1 also prints where the page's main thread spent a 10 000-point run, from a
- * chromium trace; SWEEP_PROFILE=1 the page's JavaScript by function).
+ * SWEEP_LATE=1 lists when each late frame happened; SWEEP_TRACE=1 (or =<points>) also prints where
+ * the page's main thread spent a 10 000-point run, from a chromium trace: its tasks over 50 ms and,
+ * per late frame, how busy the main thread was; SWEEP_TRACE_FILE=<path> writes the
+ * trace's events there; SWEEP_PROFILE=1 the page's JavaScript by function).
  */
 import { spawn, spawnSync, execSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { cpus, tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type Page } from 'playwright-core';
 import { study300 } from './study-300.ts';
+import { gapStats, printTrace, type Gap, type GapStats, type TraceEvent } from './sweep-trace.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 const RUNS = Number(process.env.SWEEP_RUNS ?? 2);
@@ -37,25 +42,39 @@ async function freePort(): Promise<number> {
   });
 }
 
-/** Frame gaps while armed (a string: tsx's helpers do not exist in the page). */
+/** Frame gaps while armed, each with the time it ended (a string: tsx's helpers do not exist in the page). */
 const FRAMES = `(() => {
   const f = (window.__frames = { armed: false, last: 0, gaps: [], tasks: [] });
   new PerformanceObserver((l) => { if (f.armed) for (const e of l.getEntries()) f.tasks.push(e.duration); }).observe({ type: 'longtask', buffered: false });
-  const tick = (t) => { if (f.armed) { if (f.last) f.gaps.push(t - f.last); f.last = t; } requestAnimationFrame(tick); };
+  const tick = (t) => { if (f.armed) { if (f.last) f.gaps.push([t, t - f.last]); f.last = t; } requestAnimationFrame(tick); };
   requestAnimationFrame(tick);
 })()`;
 
-async function sweep(page: Page, points: number): Promise<{ seconds: number; maxGap: number; over50: number; frames: number; tasks: number[] }> {
+interface Measured {
+  seconds: number;
+  gaps: Gap[];
+  stats: GapStats;
+  tasks: number[];
+}
+
+async function sweep(page: Page, points: number): Promise<Measured> {
   const panel = page.getByRole('region', { name: /^Sweep on the/ });
   await panel.getByLabel('Parameter 1 points').fill(String(points));
+  const marks = (await page.evaluate(`performance.getEntriesByName('sweep-done').length`)) as number;
   await page.evaluate(`(() => { window.__frames.gaps = []; window.__frames.tasks = []; window.__frames.last = 0; window.__frames.armed = true; })()`);
   await panel.getByRole('button', { name: `Run sweep (${points} points)` }).click();
+  // while it runs, only a cheap look at the page's marks (a query over the whole page every poll would be work on the page's thread)
+  await page.waitForFunction((n) => performance.getEntriesByName('sweep-done').length > n, marks, { timeout: 600_000, polling: 250 });
   const done = `Done: ${points} points in`;
-  await page.waitForFunction((d) => Array.from(document.querySelectorAll('[role=status]')).some((s) => (s.textContent ?? '').startsWith(d)), done, { timeout: 600_000, polling: 200 });
-  const { gaps, tasks } = (await page.evaluate(`(() => { window.__frames.armed = false; return { gaps: window.__frames.gaps, tasks: window.__frames.tasks }; })()`)) as { gaps: number[]; tasks: number[] };
+  await page.waitForFunction((d) => Array.from(document.querySelectorAll('[role=status]')).some((s) => (s.textContent ?? '').startsWith(d)), done, { timeout: 60_000, polling: 'raf' });
+  // frames are counted until the finished run is on screen (its last commit included), then a little longer
+  await page.evaluate(`new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => setTimeout(r, 100))))`);
+  const { gaps, tasks, start } = (await page.evaluate(
+    `(() => { window.__frames.armed = false; const m = performance.getEntriesByName('sweep-start'); return { gaps: window.__frames.gaps, tasks: window.__frames.tasks, start: m.length ? m[m.length - 1].startTime : 0 }; })()`,
+  )) as { gaps: [number, number][]; tasks: number[]; start: number };
   const text = await panel.getByRole('status').first().textContent();
   const seconds = Number(/in ([\d.]+) s/.exec(text ?? '')?.[1]);
-  return { seconds, maxGap: Math.max(0, ...gaps), over50: gaps.filter((g) => g > 50).length, frames: gaps.length, tasks };
+  return { seconds, gaps: gaps.map(([t, ms]) => ({ at: t - start, ms })), stats: gapStats(gaps.map((g) => g[1])), tasks };
 }
 
 const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-sweep-dist-'));
@@ -113,18 +132,16 @@ try {
   await sweep(page, 200);
   if (process.env.SWEEP_TRACE) {
     const cdp = await page.context().newCDPSession(page);
-    const events: { name: string; dur?: number; ph: string; tid: number; pid: number; args?: { name?: string } }[] = [];
-    cdp.on('Tracing.dataCollected', (e) => void events.push(...(e.value as unknown as typeof events)));
+    const events: TraceEvent[] = [];
+    cdp.on('Tracing.dataCollected', (e) => void events.push(...(e.value as unknown as TraceEvent[])));
     const finished = new Promise((r) => cdp.once('Tracing.tracingComplete', r));
-    await cdp.send('Tracing.start', { categories: 'devtools.timeline', transferMode: 'ReportEvents' });
-    await sweep(page, 10000);
+    await cdp.send('Tracing.start', { categories: 'toplevel,devtools.timeline,blink.user_timing', transferMode: 'ReportEvents' });
+    const m = await sweep(page, Number(process.env.SWEEP_TRACE) > 1 ? Number(process.env.SWEEP_TRACE) : 10000);
     await cdp.send('Tracing.end');
     await finished;
-    const main = (events as { name: string; ph: string; tid: number; pid: number; args?: { name?: string } }[]).find((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
-    console.log(`trace: ${events.length} events`);
-    const sums = new Map<string, number>();
-    for (const e of events) if (e.ph === 'X' && e.dur && (!main || (e.tid === main.tid && e.pid === main.pid))) sums.set(e.name, (sums.get(e.name) ?? 0) + e.dur / 1000);
-    for (const [k, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 20)) console.log(`${ms.toFixed(0)} ms  ${k}`);
+    console.log(`traced run: ${m.seconds.toFixed(2)} s, longest frame gap ${m.stats.max.toFixed(0)} ms, ${m.stats.over50} of ${m.stats.frames} gaps > 50 ms; ${uptime()}`);
+    printTrace(events, m.gaps);
+    if (process.env.SWEEP_TRACE_FILE) writeFileSync(process.env.SWEEP_TRACE_FILE, JSON.stringify({ events, gaps: m.gaps }));
   }
   if (process.env.SWEEP_PROFILE) {
     const cdp = await page.context().newCDPSession(page);
@@ -142,16 +159,22 @@ try {
     for (const [k, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`${ms.toFixed(0)} ms  ${k}`);
   }
   const rows: string[] = [];
+  const header = [
+    '| points | Run → last point | points / s | longest frame gap | gaps > 50 ms | gap p50 / p95 / p99 | gaps ≤ 20, ≤ 33, ≤ 50, ≤ 100, > 100 ms | long tasks on the page (> 50 ms) | load average after (1, 5, 15 min) |',
+    '|---:|---:|---:|---:|---:|---:|---|---|---|',
+  ];
   for (const n of [1000, 10000]) {
     for (let r = 0; r < RUNS; r++) {
       const m = await sweep(page, n);
-      const line = `| ${n.toLocaleString('en')} | ${m.seconds.toFixed(2)} s | ${Math.round(n / m.seconds)} | ${m.maxGap.toFixed(0)} ms | ${m.over50} of ${m.frames} | ${m.tasks.length}, longest ${Math.max(0, ...m.tasks).toFixed(0)} ms | ${uptime().replace(/.*load average: /, '')} |`;
+      const s = m.stats;
+      const line = `| ${n.toLocaleString('en')} | ${m.seconds.toFixed(2)} s | ${Math.round(n / m.seconds)} | ${s.max.toFixed(0)} ms | ${s.over50} of ${s.frames} | ${s.p50.toFixed(0)} / ${s.p95.toFixed(0)} / ${s.p99.toFixed(0)} ms | ${s.buckets.join(', ')} | ${m.tasks.length}, longest ${Math.max(0, ...m.tasks).toFixed(0)} ms | ${uptime().replace(/.*load average: /, '')} |`;
       rows.push(line);
       console.log(line);
+      if (process.env.SWEEP_LATE) for (const g of m.gaps.filter((x) => x.ms > 50)) console.log(`    late frame: +${(g.at - g.ms).toFixed(0)}…${g.at.toFixed(0)} ms after Run (${g.ms.toFixed(0)} ms)`);
     }
   }
-  console.log('\n| points | Run → last point | points / s | longest frame gap | gaps > 50 ms | long tasks on the page (> 50 ms) | load average after (1, 5, 15 min) |');
-  console.log('|---:|---:|---:|---:|---:|---|---|');
+  console.log('');
+  for (const h of header) console.log(h);
   for (const r of rows) console.log(r);
   console.log(`\nmachine: ${cpus().length} cores; after: ${uptime()} (headless chromium, software rendering)`);
 } finally {

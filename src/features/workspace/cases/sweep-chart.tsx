@@ -7,6 +7,7 @@
 import { line } from 'd3-shape';
 import { memo, useMemo } from 'react';
 import { breaksLimit, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
+import { LineSeries } from './line-series.ts';
 
 const W = 460;
 const H = 210;
@@ -39,74 +40,60 @@ function scale(d0: number, d1: number, r0: number, r1: number, log = false): Sca
 
 const tick = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(4))));
 
+/** The chart's x scale for these parameter values (pixels of the drawing). */
+export const xScale = (xs: readonly number[], log?: boolean): Scale => {
+  let a = Infinity;
+  let b = -Infinity;
+  for (const v of xs) [a, b] = [Math.min(a, v), Math.max(b, v)];
+  return scale(a, b, M.l, M.l + IW, log);
+};
+
 /**
- * The points a line needs at the chart's resolution: all of them when there are few; else, per
- * pixel column, the first, lowest, highest and last (in order), so peaks and limit crossings stay
- * and a 10 000-point sweep draws a path of at most ~4 points per pixel.
+ * A line series for one output (see line-series.ts) at this chart's resolution: every point when
+ * there are few, else at most about four per pixel column. `ys` is the store's array (NaN: none).
  */
+export function lineSeries(xs: readonly number[], ys: ArrayLike<number>, output: Pick<SweepOutput, 'violation'>, log?: boolean): LineSeries {
+  const x = xScale(xs, log);
+  return new LineSeries(xs, ys, { column: (v) => Math.round(x(v)), keepAll: 2 * IW, breaks: (v) => breaksLimit(output, v) });
+}
+
+/** The points a line over these values draws (all of them when there are few; per pixel column of `x` the first, lowest, highest and last). */
 export function drawn(xs: readonly number[], ys: readonly (number | null)[], x: (v: number) => number): number[] {
-  const all = xs.map((_, i) => i);
-  if (xs.length <= 2 * IW) return all;
-  const out: number[] = [];
-  let col = NaN;
-  let group: number[] = [];
-  const flush = () => {
-    if (group.length === 0) return;
-    const vals = group.filter((i) => ys[i] !== null);
-    if (vals.length === 0 || vals.length !== group.length) {
-      out.push(...group); // keep gaps (points not solved) exactly where they are
-    } else {
-      let lo = vals[0];
-      let hi = vals[0];
-      for (const i of vals) {
-        if ((ys[i] as number) < (ys[lo] as number)) lo = i;
-        if ((ys[i] as number) > (ys[hi] as number)) hi = i;
-      }
-      out.push(...[...new Set([group[0], lo, hi, group[group.length - 1]])].sort((a, b) => a - b));
-    }
-    group = [];
-  };
-  for (const i of all) {
-    const c = Math.round(x(xs[i]));
-    if (c !== col) {
-      flush();
-      col = c;
-    }
-    group.push(i);
-  }
-  flush();
-  return out;
+  const s = new LineSeries(xs, Float64Array.from(ys, (v) => (v === null ? NaN : v)), { column: (v) => Math.round(x(v)), keepAll: 2 * IW });
+  s.add(0, xs.length);
+  return s.indices();
 }
 
 export interface LineChartProps {
   xLabel: string;
-  xs: number[];
-  ys: (number | null)[];
+  /** The points as they arrive (drawn again when its version changes). */
+  series: LineSeries;
+  version: number;
   output: SweepOutput;
   log?: boolean;
   picked?: number | null;
   onPick?: (index: number) => void;
 }
 
-export const SweepLineChart = memo(function SweepLineChart({ xLabel, xs, ys, output, log, picked, onPick }: LineChartProps) {
+export const SweepLineChart = memo(function SweepLineChart({ xLabel, series, version, output, log, picked, onPick }: LineChartProps) {
+  const { xs, ys } = series;
   const g = useMemo(() => {
-    const vals = ys.filter((v): v is number => v !== null);
-    let lo = Math.min(...vals);
-    let hi = Math.max(...vals);
-    if (!vals.length) [lo, hi] = [0, 1];
+    let lo = series.lo;
+    let hi = series.hi;
+    if (!(hi >= lo)) [lo, hi] = [0, 1];
     // show the nearest limit lines when they are close to the data
     const span = Math.max(hi - lo, Math.abs(hi) * 0.02, 1e-9);
     for (const b of [...output.violation, ...(output.warning ?? [])]) if (Number.isFinite(b) && b > lo - span && b < hi + span) [lo, hi] = [Math.min(lo, b), Math.max(hi, b)];
     const pad = (hi - lo) * 0.06 || Math.abs(hi) * 0.05 || 1;
-    const x = scale(Math.min(...xs), Math.max(...xs), M.l, M.l + IW, log);
+    const x = xScale(xs, log);
     const y = scale(lo - pad, hi + pad, M.t + IH, M.t);
     const path = line<number>()
-      .defined((i) => ys[i] !== null)
+      .defined((i) => Number.isFinite(ys[i]))
       .x((i) => x(xs[i]))
-      .y((i) => y(ys[i] as number))(drawn(xs, ys, x));
-    const first = ys.findIndex((v) => breaksLimit(output, v));
-    return { x, y, path, first, y0: lo - pad, y1: hi + pad };
-  }, [xs, ys, output, log]);
+      .y((i) => y(ys[i]))(series.indices());
+    return { x, y, path, first: series.firstBreak, y0: lo - pad, y1: hi + pad };
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- version stands for the points added to the series in place
+  }, [series, version, output, log]);
   const { x, y } = g;
   const band = (a: number, b: number, fill: string, key: string) => {
     const top = Math.max(Math.min(a, b), g.y0);
@@ -155,13 +142,13 @@ export const SweepLineChart = memo(function SweepLineChart({ xLabel, xs, ys, out
         <path d={g.path ?? ''} fill="none" stroke="#1f5f8b" strokeWidth={1.6} />
         {g.first >= 0 ? (
           <g>
-            <circle cx={x(xs[g.first])} cy={y(ys[g.first] as number)} r={4} fill="none" stroke="#a3261b" strokeWidth={2} />
+            <circle cx={x(xs[g.first])} cy={y(ys[g.first])} r={4} fill="none" stroke="#a3261b" strokeWidth={2} />
             <text x={Math.min(x(xs[g.first]) + 6, M.l + IW - 120)} y={M.t + 12} fontSize={10} fill="#a3261b">
               limit first broken at {tick(xs[g.first])}
             </text>
           </g>
         ) : null}
-        {picked !== null && picked !== undefined && ys[picked] !== null && ys[picked] !== undefined ? <circle cx={x(xs[picked])} cy={y(ys[picked] as number)} r={4} fill="#1f5f8b" /> : null}
+        {picked !== null && picked !== undefined && Number.isFinite(ys[picked]) ? <circle cx={x(xs[picked])} cy={y(ys[picked])} r={4} fill="#1f5f8b" /> : null}
         <text x={M.l + IW / 2} y={H - 6} textAnchor="middle" fontSize={11} fill="#1c2226">
           {xLabel}
         </text>
@@ -179,8 +166,10 @@ export interface HeatMapProps {
   /** Values of the first (slowest) parameter: rows; of the second: columns. */
   xs: number[];
   ys: number[];
-  /** Point k = i·ys.length + j. */
-  values: (number | null | undefined)[];
+  /** Point k = i·ys.length + j (null, undefined or NaN: no value). */
+  values: ArrayLike<number | null | undefined>;
+  /** Drawn again when this changes (the values are filled in place while a sweep runs). */
+  version?: number;
   output: SweepOutput;
   picked?: number | null;
   onPick?: (index: number) => void;
@@ -188,16 +177,20 @@ export interface HeatMapProps {
 
 /** Colour of a value: blue shades within the limits, red beyond them, grey when missing. */
 function colour(v: number | null | undefined, lo: number, hi: number, out: boolean): string {
-  if (v === null || v === undefined) return '#e4e1d8';
+  if (v === null || v === undefined || Number.isNaN(v)) return '#e4e1d8';
   const t = hi > lo ? (v - lo) / (hi - lo) : 0.5;
   const l = Math.round(88 - t * 48);
   return out ? `hsl(6 70% ${l}%)` : `hsl(205 55% ${l}%)`;
 }
 
 export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys, values, output, picked, onPick }: HeatMapProps) {
-  const nums = values.filter((v): v is number => typeof v === 'number');
-  const lo = nums.length ? Math.min(...nums) : 0;
-  const hi = nums.length ? Math.max(...nums) : 1;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let k = 0; k < values.length; k++) {
+    const v = values[k];
+    if (typeof v === 'number' && !Number.isNaN(v)) [lo, hi] = [Math.min(lo, v), Math.max(hi, v)];
+  }
+  if (!(hi >= lo)) [lo, hi] = [0, 1];
   const cw = IW / ys.length;
   const ch = IH / xs.length;
   const everyX = Math.max(1, Math.ceil(xs.length / 6));
@@ -208,7 +201,7 @@ export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys,
         {xs.map((_, i) =>
           ys.map((__, j) => {
             const k = i * ys.length + j;
-            const v = values[k];
+            const v = values[k] ?? null;
             return (
               <rect
                 key={k}
@@ -216,7 +209,7 @@ export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys,
                 y={M.t + (xs.length - 1 - i) * ch}
                 width={cw + 0.5}
                 height={ch + 0.5}
-                fill={colour(v, lo, hi, breaksLimit(output, v ?? null))}
+                fill={colour(v, lo, hi, !Number.isNaN(v) && breaksLimit(output, v))}
                 stroke={picked === k ? '#1c2226' : 'none'}
                 onClick={() => onPick?.(k)}
               />

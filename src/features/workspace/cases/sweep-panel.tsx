@@ -15,7 +15,11 @@ import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.
 import { sweepCsv } from './sweep-csv.ts';
 import { availableOutputs } from '../../../../shared/review/sweep-outputs.ts';
 import { SweepPool } from './sweep-pool.ts';
-import { SweepResults, type Run } from './sweep-results.tsx';
+import { drawArrived, runData, SweepResults, type Run } from './sweep-results.tsx';
+import { createBatcher, type Batcher } from './sweep-batcher.ts';
+
+/** While points arrive, the results are drawn again at most once per animation frame and at most this often, ms. */
+const REDRAW_MS = 200;
 
 /** Largest sweep run in the browser (about 20 s of solving on a small study on two cores). */
 export const BROWSER_MAX_POINTS = 20_000;
@@ -71,13 +75,15 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
   const [startError, setStartError] = useState<string | null>(null);
   const pool = useRef<SweepPool | null>(null);
   const running = useRef<{ cancel(): void } | null>(null);
-  const paintTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const batcher = useRef<Batcher | null>(null);
+  const csvUrl = useRef<string | null>(null);
 
   useEffect(
     () => () => {
       running.current?.cancel();
       pool.current?.dispose();
-      if (paintTimer.current) clearTimeout(paintTimer.current);
+      batcher.current?.cancel();
+      if (csvUrl.current) URL.revokeObjectURL(csvUrl.current);
     },
     [],
   );
@@ -137,23 +143,18 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
       log: plan.specs.map((s) => s.scale === 'log'),
       points,
       outputs: plan.outs,
-      rows: new Array(points.length),
-      done: 0,
+      ...runData(points, axes, plan.specs.map((s) => s.scale === 'log'), plan.outs),
       status: 'running',
       started: performance.now(),
     };
     setPicked(null);
     setRun(next);
-    // Rows land in the run object; its results box (not this panel) repaints at most every 250 ms while they arrive.
-    const schedule = () => {
-      if (paintTimer.current) return;
-      paintTimer.current = setTimeout(() => {
-        paintTimer.current = null;
-        next.notify?.();
-      }, 250);
-    };
+    // Points land in the run's store as they arrive; its results box (not this panel) is drawn again at most once per frame.
+    batcher.current?.cancel();
+    const batch = createBatcher((ranges) => drawArrived(next, ranges), { minInterval: REDRAW_MS });
+    batcher.current = batch;
     if (where === 'server') {
-      if (server) runOnServer(server.studyId, next, plan.used, plan.specs);
+      if (server) runOnServer(server.studyId, next, plan.used, plan.specs, batch);
       return;
     }
     pool.current ??= new SweepPool();
@@ -161,12 +162,12 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     running.current = pool.current.run(
       { circuit: plain, paths: plan.used.map((p) => `${p.elementId}.${p.path}`), points, outputs: plan.outs.map((o) => o.spec) },
       {
-        onRows(at, rows, done) {
-          for (let i = 0; i < rows.length; i++) next.rows[at + i] = rows[i];
-          next.done = done;
-          schedule();
+        onRows(at, rows) {
+          next.store.put(at, rows);
+          batch.push(at, rows.count);
         },
         onDone() {
+          batch.flushNow();
           performance.mark('sweep-done');
           next.status = 'done';
           next.ms = performance.now() - next.started;
@@ -174,6 +175,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
           setRun({ ...next });
         },
         onFailure(message) {
+          batch.flushNow();
           next.status = 'failed';
           next.error = message;
           running.current = null;
@@ -184,11 +186,12 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
   };
 
   /** The same sweep as a server job on the saved study: its points are fetched as they are solved and drawn as a browser run's. */
-  const runOnServer = (studyId: string, next: Run, used: ParamForm[], specs: { from: number; to: number; steps: number; scale: 'linear' | 'log' }[]) => {
+  const runOnServer = (studyId: string, next: Run, used: ParamForm[], specs: { from: number; to: number; steps: number; scale: 'linear' | 'log' }[], batch: Batcher) => {
     let stopped = false;
     let jobId: string | null = null;
     let timer: ReturnType<typeof setTimeout> | null = null;
     const finish = (status: Run['status'], error?: string) => {
+      batch.flushNow();
       next.status = status;
       if (error) next.error = error;
       next.ms = performance.now() - next.started;
@@ -205,14 +208,16 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     const poll = async () => {
       if (stopped || !jobId) return;
       try {
-        const job = await getServerSweep(studyId, jobId, next.done);
+        const job = await getServerSweep(studyId, jobId, next.store.done);
         if (stopped) return;
-        job.points.forEach((p, i) => (next.rows[job.offset + i] = { outputs: p.outputs, ...(p.error ? { error: p.error } : {}) }));
-        next.done = job.offset + job.points.length;
-        next.notify?.();
+        next.store.putRows(
+          job.offset,
+          job.points.map((p) => ({ outputs: p.outputs, ...(p.error ? { error: p.error } : {}) })),
+        );
+        batch.push(job.offset, job.points.length);
         if (job.status === 'failed') return finish('failed', job.error ?? 'the server stopped the sweep');
         if (job.status === 'cancelled') return finish('cancelled');
-        if (job.status === 'done' && next.done >= job.total) return finish('done');
+        if (job.status === 'done' && next.store.done >= job.total) return finish('done');
         timer = setTimeout(() => void poll(), job.status === 'done' ? 0 : SERVER_POLL_MS);
       } catch (e) {
         if (!stopped) finish('failed', (e as Error).message);
@@ -237,11 +242,18 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
   const cancel = () => {
     running.current?.cancel();
     running.current = null;
+    batcher.current?.flushNow();
+    batcher.current?.cancel();
     if (run && run.status === 'running') setRun({ ...run, status: 'cancelled', ms: performance.now() - run.started });
   };
 
-  const csvHref = useMemo(() => (run && run.status !== 'running' ? URL.createObjectURL(new Blob([sweepCsv(run.paramLabels, run.outputs, run.points, run.rows)], { type: 'text/csv' })) : null), [run]);
-  useEffect(() => () => void (csvHref && URL.revokeObjectURL(csvHref)), [csvHref]);
+  // The CSV is written when asked for (not when the sweep ends: a 10 000-point file is no work for the last frame).
+  const exportCsv = (a: HTMLAnchorElement) => {
+    if (!run) return;
+    if (csvUrl.current) URL.revokeObjectURL(csvUrl.current);
+    csvUrl.current = URL.createObjectURL(new Blob([sweepCsv(run.paramLabels, run.outputs, run.points, run.store.rows())], { type: 'text/csv' }));
+    a.href = csvUrl.current;
+  };
 
   const makeCase = () => {
     if (!run || picked === null || !onCases) return;
@@ -267,7 +279,16 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
           <fieldset key={i} className="flex flex-wrap items-center gap-1.5 text-[13px]">
             <legend className="sr-only">Parameter {n}</legend>
             <span className="font-semibold">Parameter {n}</span>
-            <select aria-label={`Parameter ${n} element`} className="h-7 rounded-[3px] border border-rule-strong bg-paper px-1" value={p.elementId} onChange={(e) => setParam(i, { elementId: e.target.value, path: '' })}>
+            <select
+              aria-label={`Parameter ${n} element`}
+              className="h-7 rounded-[3px] border border-rule-strong bg-paper px-1"
+              value={p.elementId}
+              onChange={(e) => {
+                setParam(i, { elementId: e.target.value, path: '' });
+                // a sweep is coming: its workers start loading now, not on Run
+                (pool.current ??= new SweepPool()).warm();
+              }}
+            >
               <option value="">Element…</option>
               {elements.map((e) => (
                 <option key={e.id as string} value={e.id as string}>
@@ -359,8 +380,9 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
             {startError}
           </span>
         ) : null}
-        {csvHref && run ? (
-          <a className="text-accent hover:underline" href={csvHref} download="sweep.csv">
+        {run && run.status !== 'running' ? (
+          // the file is made on click, before the browser follows the link
+          <a className="text-accent hover:underline" href="#" download="sweep.csv" onClick={(e) => exportCsv(e.currentTarget)}>
             Export CSV
           </a>
         ) : null}

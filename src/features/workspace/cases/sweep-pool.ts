@@ -3,12 +3,13 @@
  * A sweep is cut into chunks that go to whichever worker is free, so the page's thread only
  * posts and receives; rows arrive per chunk (`onRows`) with the count done. Cancel terminates the
  * busy workers (a chunk in flight cannot be interrupted otherwise) and they are started afresh for
- * the next run. Where Workers do not exist (component tests), chunks run on the page's thread one
+ * the next run; warm() starts them ahead of the first run. Where Workers do not exist (component tests), chunks run on the page's thread one
  * macrotask apart, through the same handler.
  */
 import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
 import { createSweepHandler } from './sweep-handler.ts';
-import type { PointRow, SweepRequest, SweepResponse } from './sweep-protocol.ts';
+import type { SweepRequest, SweepResponse } from './sweep-protocol.ts';
+import type { PackedRows } from './sweep-store.ts';
 import type { OutputSpec } from '../../../../shared/review/sweep-outputs.ts';
 
 interface Slot {
@@ -25,8 +26,8 @@ export interface SweepJob {
 }
 
 export interface SweepCallbacks {
-  /** Rows of points `start`… (in point order inside the chunk); `done` counts every point answered so far. */
-  onRows(start: number, rows: PointRow[], done: number): void;
+  /** Points `start`… packed (in point order inside the chunk); `done` counts every point answered so far. */
+  onRows(start: number, rows: PackedRows, done: number): void;
   onDone(): void;
   onFailure(message: string): void;
 }
@@ -104,6 +105,11 @@ export class SweepPool {
     this.failure = null;
   }
 
+  /** Starts the workers ahead of a run (their code loaded and evaluated while the user fills in the form). */
+  warm() {
+    for (let i = 0; i < this.size; i++) this.slot(i);
+  }
+
   /** Runs a sweep; only one at a time (a new run cancels the previous one). */
   run(job: SweepJob, cb: SweepCallbacks): RunningSweep {
     this.stopBusy();
@@ -128,7 +134,7 @@ export class SweepPool {
     };
     this.listener = (res, s) => {
       if (res.kind !== 'chunk' || res.job !== id || finished) return;
-      done += res.rows.length;
+      done += res.rows.count;
       s.busy = false;
       feed(s);
       cb.onRows(res.start, res.rows, done);

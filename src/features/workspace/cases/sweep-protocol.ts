@@ -1,4 +1,8 @@
-/** Messages between the page and the sweep workers (structured-clone safe: plain data only). */
+/**
+ * Messages between the page and the sweep workers (structured-clone safe: plain data only). A
+ * chunk's answer is packed in one Float64Array, transferred, not copied: no object per point.
+ */
+import type { PackedRows } from './sweep-store.ts';
 import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
 import type { OutputSpec } from '../../../../shared/review/sweep-outputs.ts';
 
@@ -29,6 +33,6 @@ export interface EnvelopeRequest {
 export type SweepRequest = SweepChunk | EnvelopeRequest;
 
 export type SweepResponse =
-  | { kind: 'chunk'; job: number; start: number; rows: PointRow[] }
+  | { kind: 'chunk'; job: number; start: number; rows: PackedRows }
   | { kind: 'envelope'; job: number; ok: true; envelope: LostNeutralEnvelope }
   | { kind: 'envelope'; job: number; ok: false; error: string };

@@ -1,21 +1,25 @@
 /**
  * A sweep's results as they arrive: progress, one chart per recorded output (a line over one
  * parameter, a heat map over two), the picked point with "Make this point a case", and for small
- * sweeps the points as a table. The box is laid out and painted on its own while points arrive.
+ * sweeps the points as a table. While points arrive, the box is drawn again at most once per
+ * animation frame (sweep-batcher.ts), each line chart only takes in the new points
+ * (line-series.ts), and the progress row and each chart are laid out and painted on their own.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useRef, useState, type CSSProperties } from 'react';
 import type { SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { Button } from '../../../components/button.tsx';
-import { SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
-import type { PointRow } from './sweep-protocol.ts';
+import type { LineSeries } from './line-series.ts';
+import type { Range } from './sweep-batcher.ts';
+import { lineSeries, SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
+import { SweepStore } from './sweep-store.ts';
 
-/** While points arrive, the charts are drawn again at most this often, ms (the progress bar more often). */
-const CHART_REDRAW_MS = 1000;
+/** While points arrive, a heat map is drawn again at most this often, ms (a line chart at every redraw: only its new points cost). */
+const HEAT_MAP_REDRAW_MS = 1000;
 
 /** The points table is shown for sweeps up to this size (larger ones: CSV). */
 const TABLE_MAX = 200;
 
-/** One sweep run (in the browser's workers or on the server): what was asked and the rows so far (rows are filled in place as they arrive). */
+/** One sweep run (in the browser's workers or on the server): what was asked and the points so far (filled in place as they arrive). */
 export interface Run {
   paramLabels: string[];
   parameters: { elementId: string; path: string }[];
@@ -23,15 +27,37 @@ export interface Run {
   log: boolean[];
   points: number[][];
   outputs: SweepOutput[];
-  rows: (PointRow | undefined)[];
-  done: number;
+  /** The points' values, exact. */
+  store: SweepStore;
+  /** One parameter: the line drawn per output, kept up to date point by point; two: null (heat maps). */
+  lines: LineSeries[] | null;
+  /** Counts the redraws asked for while points arrive. */
+  version: number;
   status: 'running' | 'done' | 'cancelled' | 'failed';
   error?: string;
   started: number;
   ms?: number;
-  /** Set by the results box while it shows this run: asks it to draw the rows that arrived. */
+  /** Set by the results box while it shows this run: asks it to draw the points that arrived. */
   notify?: () => void;
 }
+
+/** A run's store and, for one parameter, its line series (empty: nothing arrived yet). */
+export function runData(points: number[][], axes: number[][], log: boolean[], outputs: SweepOutput[]): Pick<Run, 'store' | 'lines' | 'version'> {
+  const store = new SweepStore(points.length, outputs.length);
+  const lines = axes.length === 1 ? outputs.map((o, k) => lineSeries(axes[0], store.values[k], o, log[0])) : null;
+  return { store, lines, version: 0 };
+}
+
+/** Takes the points that arrived (already in the run's store) into its lines and asks for one redraw. */
+export function drawArrived(run: Run, ranges: readonly Range[]) {
+  if (run.lines) for (const line of run.lines) for (const [start, count] of ranges) line.add(start, count);
+  run.version++;
+  run.notify?.();
+}
+
+/** While a run fills in, rows that change size are laid out and painted on their own (not the page). */
+const running: CSSProperties = { contain: 'strict', height: '1.25rem' };
+const chartBox: CSSProperties = { contain: 'strict', width: '100%', maxWidth: 460, aspectRatio: '460 / 210' };
 
 export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
   const [, setTick] = useState(0);
@@ -42,39 +68,41 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
     };
   }, [run]);
   const total = run.points.length;
-  const failed = run.status === 'running' ? 0 : run.rows.filter((r) => r?.error).length;
-  // The series the charts draw are rebuilt at most every CHART_REDRAW_MS while the sweep runs
-  // (each chart is memoised on them), and once more when it stops.
-  const drawn = useRef({ at: -Infinity, done: -1, status: run.status, run });
+  const { store } = run;
+  const failed = run.status === 'running' ? 0 : store.failed;
+  // heat maps (every cell an element) are drawn again at most every HEAT_MAP_REDRAW_MS while the sweep runs, and once more when it stops
+  const heat = useRef({ at: -Infinity, version: -1, status: run.status, run });
   const now = performance.now();
-  if (drawn.current.run !== run || drawn.current.status !== run.status || (run.done !== drawn.current.done && now - drawn.current.at >= CHART_REDRAW_MS)) {
-    drawn.current = { at: now, done: run.done, status: run.status, run };
+  if (heat.current.run !== run || heat.current.status !== run.status || (run.version !== heat.current.version && now - heat.current.at >= HEAT_MAP_REDRAW_MS)) {
+    heat.current = { at: now, version: run.version, status: run.status, run };
   }
-  const { done: drawnDone } = drawn.current;
-  // eslint-disable-next-line react-hooks/exhaustive-deps -- drawnDone and the status stand for the rows filled in place
-  const series = useMemo(() => run.outputs.map((_, k) => run.rows.map((r) => r?.outputs[k] ?? null)), [run, drawnDone, run.status]);
+  const heatVersion = heat.current.version;
   const status =
     run.status === 'running'
-      ? `Solving: ${run.done} of ${total} points`
+      ? `Solving: ${store.done} of ${total} points`
       : run.status === 'done'
         ? `Done: ${total} points in ${((run.ms ?? 0) / 1000).toFixed(2)} s${failed ? `; ${failed} could not be solved (see the CSV)` : ''}`
         : run.status === 'cancelled'
-          ? `Cancelled after ${run.done} of ${total} points`
+          ? `Cancelled after ${store.done} of ${total} points`
           : `The sweep stopped: ${run.error}`;
   const two = run.axes.length === 2;
   // Contained: while points arrive, only this box is laid out and painted again, not the page.
   return (
     <div className="flex flex-col gap-2" style={{ contain: 'content' }}>
-      <div className="flex items-center gap-2 text-[12px]">
-        <progress aria-label="Sweep progress" max={total} value={run.done} className="w-48" />
+      <div className="flex items-center gap-2 text-[12px]" style={run.status === 'running' ? running : undefined}>
+        <progress aria-label="Sweep progress" max={total} value={store.done} className="w-48" />
         <span role="status">{status}</span>
       </div>
       <div className="grid grid-cols-1 gap-3 lg:grid-cols-2">
         {run.outputs.map((o, k) =>
-          two ? (
-            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={series[k]} output={o} picked={picked} onPick={onPick} />
+          two || !run.lines ? (
+            <SweepHeatMap key={o.key} xLabel={run.paramLabels[0]} yLabel={run.paramLabels[1]} xs={run.axes[0]} ys={run.axes[1]} values={store.values[k]} version={heatVersion} output={o} picked={picked} onPick={onPick} />
           ) : (
-            <SweepLineChart key={o.key} xLabel={run.paramLabels[0]} xs={run.axes[0]} ys={series[k]} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
+            <div key={o.key}>
+              <div style={chartBox}>
+                <SweepLineChart xLabel={run.paramLabels[0]} series={run.lines[k]} version={run.lines[k].version} output={o} log={run.log[0]} picked={picked} onPick={onPick} />
+              </div>
+            </div>
           ),
         )}
       </div>
@@ -82,7 +110,7 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
         <div className="flex flex-wrap items-center gap-2 text-[12px]">
           <span>
             Picked point: {run.paramLabels.map((l, i) => `${l} = ${Number(run.points[picked][i].toPrecision(6))}`).join(', ')}
-            {run.rows[picked]?.error ? ` — does not solve: ${run.rows[picked]?.error}` : ''}
+            {store.error(picked) ? ` — does not solve: ${store.error(picked)}` : ''}
           </span>
           {onMakeCase ? (
             <Button size="sm" onClick={onMakeCase}>
@@ -118,10 +146,10 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
                     </td>
                   ))}
                   {run.outputs.map((o, k) => {
-                    const v = run.rows[i]?.outputs[k];
+                    const v = store.value(k, i);
                     return (
                       <td key={o.key} className="num text-right">
-                        {v === null || v === undefined ? '—' : v.toFixed(o.unit === 'pu' ? 4 : 2)}
+                        {v === null ? '—' : v.toFixed(o.unit === 'pu' ? 4 : 2)}
                       </td>
                     );
                   })}

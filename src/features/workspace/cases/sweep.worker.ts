@@ -8,5 +8,7 @@ const handle = createSweepHandler();
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
 scope.onmessage = (e: MessageEvent<SweepRequest>) => {
-  scope.postMessage(handle(e.data));
+  const res = handle(e.data);
+  // a chunk's values are moved to the page, not copied
+  scope.postMessage(res, res.kind === 'chunk' ? [res.rows.values.buffer] : []);
 };

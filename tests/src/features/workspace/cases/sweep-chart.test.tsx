@@ -1,7 +1,7 @@
 /** Sweep charts: the line keeps every peak at the chart's resolution; a chart names its output and parameter; the first limit crossing is called out. */
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { drawn, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
+import { drawn, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
 import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
@@ -20,10 +20,32 @@ describe('sweep charts', () => {
 
   it('names the output and the parameter, and calls out the first point that breaks the limit', () => {
     const xs = [1, 2, 3, 4];
-    render(<SweepLineChart xLabel="K every phase › P (kW)" xs={xs} ys={[1.0, 1.02, 1.07, 1.1]} output={output} />);
+    const series = lineSeries(xs, Float64Array.from([1.0, 1.02, 1.07, 1.1]), output);
+    series.add(0, 4);
+    render(<SweepLineChart xLabel="K every phase › P (kW)" series={series} version={series.version} output={output} />);
     expect(screen.getByRole('img', { name: 'K terminal voltage (pu) against K every phase › P (kW)' })).toBeTruthy();
     expect(screen.getByText('limit first broken at 3')).toBeTruthy();
     render(<SweepHeatMap xLabel="A" yLabel="B" xs={[1, 2]} ys={[3, 4]} values={[1, 1.01, 1.06, null]} output={output} />);
     expect(screen.getByRole('img', { name: 'Heat map of K terminal voltage (pu) over A and B' }).querySelectorAll('rect')).toHaveLength(4);
+  });
+
+  it('draws the points as they arrive: a gap where points are missing, one line once they are all in', () => {
+    const xs = Array.from({ length: 3000 }, (_, i) => i);
+    const ys = new Float64Array(3000).fill(NaN);
+    const series = lineSeries(xs, ys, output);
+    const fill = (a: number, b: number) => {
+      for (let i = a; i < b; i++) ys[i] = 1 + 0.01 * Math.sin(i / 100);
+      series.add(a, b - a);
+    };
+    fill(0, 1000);
+    fill(2000, 3000);
+    const { container, rerender } = render(<SweepLineChart xLabel="x" series={series} version={series.version} output={output} />);
+    const d = () => container.querySelector('path')!.getAttribute('d')!;
+    expect(d().match(/M/g)).toHaveLength(2);
+    fill(1000, 2000);
+    rerender(<SweepLineChart xLabel="x" series={series} version={series.version} output={output} />);
+    expect(d().match(/M/g)).toHaveLength(1);
+    // at most about four points per pixel column of the 392-pixel plot
+    expect(d().split('L').length).toBeLessThanOrEqual(4 * 393);
   });
 });

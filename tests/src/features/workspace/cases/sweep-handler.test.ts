@@ -4,7 +4,7 @@ import { CSV_CAUTION, sweepCsv } from '../../../../../src/features/workspace/cas
 import { createSweepHandler } from '../../../../../src/features/workspace/cases/sweep-handler.ts';
 import { availableOutputs, outputValue } from '../../../../../shared/review/sweep-outputs.ts';
 import { chunkSize, SweepPool } from '../../../../../src/features/workspace/cases/sweep-pool.ts';
-import type { PointRow } from '../../../../../src/features/workspace/cases/sweep-protocol.ts';
+import { SweepStore } from '../../../../../src/features/workspace/cases/sweep-store.ts';
 
 const openNeutral = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit as CircuitInput;
 const outputs = availableOutputs(solveCircuit(openNeutral));
@@ -15,13 +15,20 @@ describe('sweep worker handler', () => {
     const points = sweepPoints([{ from: 0.5, to: 6, steps: 5 }]).concat([[-1e9]]);
     const res = handle({ kind: 'chunk', job: 1, start: 0, circuit: openNeutral, paths: ['KITCHEN.each.kw'], points, outputs: outputs.map((o) => o.spec) });
     if (res.kind !== 'chunk') throw new Error('expected rows');
-    expect(res.rows).toHaveLength(6);
+    // packed point-major in one Float64Array (moved to the page, not copied)
+    expect(res.rows.count).toBe(6);
+    expect(res.rows.values).toBeInstanceOf(Float64Array);
+    expect(res.rows.values).toHaveLength(6 * outputs.length);
+    const store = new SweepStore(6, outputs.length);
+    store.put(res.start, res.rows);
     points.slice(0, 5).forEach((p, i) => {
       const direct = solveCircuit(sweepCircuit(openNeutral, ['KITCHEN.each.kw'], p));
-      outputs.forEach((o, k) => expect(res.rows[i].outputs[k]).toBeCloseTo(outputValue(direct, o.spec) as number, 9));
+      outputs.forEach((o, k) => expect(store.row(i)!.outputs[k]).toBeCloseTo(outputValue(direct, o.spec) as number, 9));
+      expect(store.row(i)!.error).toBeUndefined();
     });
-    expect(res.rows[5].error).toBeTruthy();
-    expect(res.rows[5].outputs.every((v) => v === null)).toBe(true);
+    expect(store.row(5)!.error).toBeTruthy();
+    expect(store.row(5)!.outputs.every((v) => v === null)).toBe(true);
+    expect(store.failed).toBe(1);
   });
 
   it('CSV: the caution first, units in the header, one row per point with its status', () => {
@@ -38,14 +45,16 @@ describe('sweep pool (in the page thread where Workers do not exist)', () => {
   it('delivers every point once, in chunks, with the count done', async () => {
     const pool = new SweepPool(2);
     const points = sweepPoints([{ from: 1, to: 4, steps: 4 }, { from: 0.5, to: 2, steps: 3 }]);
-    const rows: (PointRow | undefined)[] = new Array(points.length);
+    const store = new SweepStore(points.length, 1);
     const dones: number[] = [];
     await new Promise<void>((resolve, reject) =>
       pool.run(
         { circuit: openNeutral, paths: ['HEATER.each.kw', 'KITCHEN.each.kw'], points, outputs: [outputs[0].spec] },
-        { onRows: (at, rs, done) => (rs.forEach((r, i) => (rows[at + i] = r)), dones.push(done)), onDone: resolve, onFailure: reject },
+        { onRows: (at, rs, done) => (expect(store.put(at, rs)).toBe(rs.count), dones.push(done)), onDone: resolve, onFailure: reject },
       ),
     );
+    const rows = store.rows();
+    expect(store.done).toBe(points.length);
     expect(rows.every((r) => r && !r.error)).toBe(true);
     expect(dones[dones.length - 1]).toBe(points.length);
     expect(dones.length).toBe(Math.ceil(points.length / chunkSize(points.length, 2)));
@@ -59,7 +68,7 @@ describe('sweep pool (in the page thread where Workers do not exist)', () => {
     const points = sweepPoints([{ from: 1, to: 4, steps: 40 }]);
     let seen = 0;
     let finished = false;
-    const run = pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: (_a, rs) => (seen += rs.length), onDone: () => (finished = true), onFailure: () => {} });
+    const run = pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: (_a, rs) => (seen += rs.count), onDone: () => (finished = true), onFailure: () => {} });
     run.cancel();
     await new Promise((r) => setTimeout(r, 50));
     expect(seen).toBe(0);

@@ -1,0 +1,99 @@
+/**
+ * Helpers of the browser sweep benchmark (tests/bench/workspace/sweep.ts): the frame-gap
+ * distribution of a run, and where the page's main thread went during the late frames, from a
+ * chromium trace (CDP Tracing, "toplevel" and "devtools.timeline" categories). Prints; asserts nothing.
+ */
+
+/** A frame gap: when it ended (ms after the Run click, page clock) and how long it was. */
+export interface Gap {
+  at: number;
+  ms: number;
+}
+
+export interface GapStats {
+  frames: number;
+  over50: number;
+  max: number;
+  p50: number;
+  p95: number;
+  p99: number;
+  /** Gaps per bucket: ≤ 20, 20–33, 33–50, 50–100, > 100 ms. */
+  buckets: number[];
+}
+
+const quantile = (sorted: number[], q: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] : 0);
+
+export function gapStats(gaps: readonly number[]): GapStats {
+  const s = [...gaps].sort((a, b) => a - b);
+  const edges = [20, 33.4, 50, 100, Infinity];
+  const buckets = edges.map(() => 0);
+  for (const g of s) buckets[edges.findIndex((e) => g <= e)]++;
+  return { frames: s.length, over50: s.filter((g) => g > 50).length, max: s.length ? s[s.length - 1] : 0, p50: quantile(s, 0.5), p95: quantile(s, 0.95), p99: quantile(s, 0.99), buckets };
+}
+
+export interface TraceEvent {
+  name: string;
+  cat?: string;
+  ph: string;
+  ts: number;
+  dur?: number;
+  tid: number;
+  pid: number;
+  args?: { name?: string; data?: { functionName?: string; url?: string; lineNumber?: number; type?: string } };
+}
+
+const words = (e: TraceEvent) => {
+  const d = e.args?.data;
+  if (e.name === 'FunctionCall' && d) return `FunctionCall ${d.functionName || '(anonymous)'} ${(d.url ?? '').split('/').pop()}:${d.lineNumber ?? ''}`;
+  if (e.name === 'EventDispatch' && d?.type) return `EventDispatch ${d.type}`;
+  return e.name;
+};
+
+/**
+ * Prints the main thread's work during a traced run: the top-level tasks over 50 ms (with their
+ * largest parts), and for each late frame (gap > 50 ms) how much of the gap the main thread was
+ * busy — a late frame with an idle main thread was the page waiting for a core, not doing work.
+ */
+export function printTrace(events: TraceEvent[], gaps: Gap[], log: (s: string) => void = console.log) {
+  const mark = events.find((e) => e.name === 'sweep-start' && (e.ph === 'R' || e.ph === 'I' || e.ph === 'n' || e.ph === 'b'));
+  const mains = events.filter((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
+  const main = mains.find((m) => mark && m.pid === mark.pid) ?? mains[0];
+  if (!main || !mark) {
+    log(`trace: no main thread or no start mark (${events.length} events)`);
+    return;
+  }
+  const onMain = events.filter((e) => e.tid === main.tid && e.pid === main.pid && e.ph === 'X' && e.dur !== undefined);
+  const t0 = mark.ts;
+  const tasks = onMain.filter((e) => (e.name === 'ThreadControllerImpl::RunTask' || e.name === 'RunTask') && e.ts >= t0).sort((a, b) => a.ts - b.ts);
+  // nested RunTask events (a task inside a task) are counted once, by the outer one
+  const top: TraceEvent[] = [];
+  for (const t of tasks) if (!top.length || t.ts >= top[top.length - 1].ts + (top[top.length - 1].dur ?? 0)) top.push(t);
+  const busy = top.reduce((n, t) => n + (t.dur ?? 0), 0) / 1000;
+  const end = top.length ? (top[top.length - 1].ts + (top[top.length - 1].dur ?? 0) - t0) / 1000 : 0;
+  log(`trace: main thread busy ${busy.toFixed(0)} ms in ${top.length} tasks over ${end.toFixed(0)} ms after Run`);
+  const sums = new Map<string, number>();
+  for (const e of onMain) if (e.ts >= t0 && e.name !== 'ThreadControllerImpl::RunTask' && e.name !== 'RunTask') sums.set(words(e), (sums.get(words(e)) ?? 0) + (e.dur ?? 0) / 1000);
+  log('  main thread by event (inclusive, ms):');
+  for (const [k, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 14)) log(`    ${ms.toFixed(0).padStart(6)}  ${k}`);
+  const parts = (t: TraceEvent) => {
+    const inside = onMain.filter((e) => e !== t && e.ts >= t.ts && e.ts + (e.dur ?? 0) <= t.ts + (t.dur ?? 0) && e.name !== 'ThreadControllerImpl::RunTask' && e.name !== 'RunTask');
+    return inside
+      .sort((a, b) => (b.dur ?? 0) - (a.dur ?? 0))
+      .slice(0, 5)
+      .map((e) => `${words(e)} ${((e.dur ?? 0) / 1000).toFixed(0)}`)
+      .join('; ');
+  };
+  const long = top.filter((t) => (t.dur ?? 0) > 50_000);
+  log(`  main-thread tasks > 50 ms: ${long.length}`);
+  for (const t of long) log(`    +${((t.ts - t0) / 1000).toFixed(0)} ms: ${((t.dur ?? 0) / 1000).toFixed(0)} ms — ${parts(t)}`);
+  const late = gaps.filter((g) => g.ms > 50);
+  log(`  late frames (gap > 50 ms): ${late.length}`);
+  for (const g of late) {
+    const a = t0 + (g.at - g.ms) * 1000;
+    const b = t0 + g.at * 1000;
+    const over = top.filter((t) => t.ts < b && t.ts + (t.dur ?? 0) > a);
+    const ms = over.reduce((n, t) => n + (Math.min(b, t.ts + (t.dur ?? 0)) - Math.max(a, t.ts)) / 1000, 0);
+    const big = over.sort((x, y) => (y.dur ?? 0) - (x.dur ?? 0))[0];
+    log(`    +${(g.at - g.ms).toFixed(0)}…${g.at.toFixed(0)} ms (${g.ms.toFixed(0)} ms): main thread busy ${ms.toFixed(0)} ms${big ? `; largest task ${((big.dur ?? 0) / 1000).toFixed(0)} ms — ${parts(big)}` : ''}`);
+  }
+}
