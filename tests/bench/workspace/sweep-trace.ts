@@ -37,9 +37,11 @@ export interface TraceEvent {
   ph: string;
   ts: number;
   dur?: number;
+  /** Thread (CPU) time, µs: far below dur when the thread waited for a core. */
+  tdur?: number;
   tid: number;
   pid: number;
-  args?: { name?: string; data?: { functionName?: string; url?: string; lineNumber?: number; type?: string } };
+  args?: { name?: string; data?: { functionName?: string; url?: string; lineNumber?: number; type?: string; nodeName?: string } };
 }
 
 const words = (e: TraceEvent) => {
@@ -69,12 +71,19 @@ export function printTrace(events: TraceEvent[], gaps: Gap[], log: (s: string) =
   const top: TraceEvent[] = [];
   for (const t of tasks) if (!top.length || t.ts >= top[top.length - 1].ts + (top[top.length - 1].dur ?? 0)) top.push(t);
   const busy = top.reduce((n, t) => n + (t.dur ?? 0), 0) / 1000;
+  const cpu = top.reduce((n, t) => n + (t.tdur ?? 0), 0) / 1000;
   const end = top.length ? (top[top.length - 1].ts + (top[top.length - 1].dur ?? 0) - t0) / 1000 : 0;
-  log(`trace: main thread busy ${busy.toFixed(0)} ms in ${top.length} tasks over ${end.toFixed(0)} ms after Run`);
-  const sums = new Map<string, number>();
-  for (const e of onMain) if (e.ts >= t0 && e.name !== 'ThreadControllerImpl::RunTask' && e.name !== 'RunTask') sums.set(words(e), (sums.get(words(e)) ?? 0) + (e.dur ?? 0) / 1000);
-  log('  main thread by event (inclusive, ms):');
-  for (const [k, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 14)) log(`    ${ms.toFixed(0).padStart(6)}  ${k}`);
+  log(`trace: main thread busy ${busy.toFixed(0)} ms (of which running on a core ${cpu.toFixed(0)} ms) in ${top.length} tasks over ${end.toFixed(0)} ms after Run`);
+  const paints = onMain.filter((e) => e.ts >= t0 && e.name === 'Paint' && e.args?.data && e.args.data.nodeName === '#document');
+  log(`  the page painted again ${paints.length} times: ${(paints.reduce((n, e) => n + (e.tdur ?? 0), 0) / 1000).toFixed(0)} ms on a core, ${(paints.reduce((n, e) => n + (e.dur ?? 0), 0) / 1000).toFixed(0)} ms in all`);
+  const sums = new Map<string, [number, number]>();
+  for (const e of onMain) {
+    if (e.ts < t0 || e.name === 'ThreadControllerImpl::RunTask' || e.name === 'RunTask') continue;
+    const [cpuMs, allMs] = sums.get(words(e)) ?? [0, 0];
+    sums.set(words(e), [cpuMs + (e.tdur ?? 0) / 1000, allMs + (e.dur ?? 0) / 1000]);
+  }
+  log('  main thread by event (inclusive, ms on a core / in all):');
+  for (const [k, [c, a]] of [...sums].sort((x, y) => y[1][0] - x[1][0]).slice(0, 14)) log(`    ${c.toFixed(0).padStart(6)} / ${a.toFixed(0).padStart(6)}  ${k}`);
   const parts = (t: TraceEvent) => {
     const inside = onMain.filter((e) => e !== t && e.ts >= t.ts && e.ts + (e.dur ?? 0) <= t.ts + (t.dur ?? 0) && e.name !== 'ThreadControllerImpl::RunTask' && e.name !== 'RunTask');
     return inside

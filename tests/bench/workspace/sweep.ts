@@ -15,7 +15,8 @@
  * SWEEP_LATE=1 lists when each late frame happened; SWEEP_TRACE=1 (or =<points>) also prints where
  * the page's main thread spent a 10 000-point run, from a chromium trace: its tasks over 50 ms and,
  * per late frame, how busy the main thread was; SWEEP_TRACE_FILE=<path> writes the
- * trace's events there; SWEEP_PROFILE=1 the page's JavaScript by function).
+ * trace's events there; SWEEP_CONTAIN=<selector> gives those elements paint
+ * containment (experiments); SWEEP_PROFILE=1 the page's JavaScript by function).
  */
 import { spawn, spawnSync, execSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -123,6 +124,8 @@ try {
   const panel = page.getByRole('region', { name: /^Sweep on the/ });
   await panel.waitFor({ timeout: 120_000 });
   await page.getByRole('table', { name: 'Bus voltages' }).waitFor({ timeout: 120_000 });
+  // an experiment: paint containment tried on other parts of the workspace (set through the CSSOM: the CSP refuses a style element)
+  if (process.env.SWEEP_CONTAIN) await page.evaluate((sel) => document.querySelectorAll<HTMLElement>(sel).forEach((el) => (el.style.contain = 'paint')), process.env.SWEEP_CONTAIN);
   const workers = await page.evaluate(() => Math.max(1, navigator.hardwareConcurrency || 1));
   await panel.getByLabel('Parameter 1 element').selectOption(load.id);
   await panel.getByLabel('Parameter 1 value').selectOption('each.kw');

@@ -19,7 +19,7 @@ import { drawArrived, runData, SweepResults, type Run } from './sweep-results.ts
 import { createBatcher, type Batcher } from './sweep-batcher.ts';
 
 /** While points arrive, the results are drawn again at most once per animation frame and at most this often, ms. */
-const REDRAW_MS = 200;
+const REDRAW_MS = 300;
 
 /** Largest sweep run in the browser (about 20 s of solving on a small study on two cores). */
 export const BROWSER_MAX_POINTS = 20_000;
