@@ -2,6 +2,9 @@
  * Coalesces a sweep's arriving chunks into at most one redraw per animation frame, and at most one
  * every `minInterval` ms: each chunk's range of points is queued and, at the next frame due, every
  * range queued since the last redraw is handed over at once (none is dropped or handed twice).
+ * With `backoff`, a redraw that took long (from handing over to the next frame: the commit and its
+ * paint, stretched when the page waits for a core on a busy machine) spaces the next ones out to
+ * `backoff` times its cost, up to `maxInterval`, so the page keeps most frames for the user.
  * The frame and clock sources are injectable so tests drive it without timers.
  */
 
@@ -10,12 +13,18 @@ export type Range = [start: number, count: number];
 export interface BatcherOptions {
   /** Shortest time between two redraws, ms. */
   minInterval: number;
+  /** The interval is at least this many times the last redraw's cost (none when unset). */
+  backoff?: number;
+  /** Longest interval the backoff may set, ms. */
+  maxInterval?: number;
   requestFrame?: (cb: () => void) => unknown;
   setTimer?: (cb: () => void, ms: number) => unknown;
   now?: () => number;
 }
 
 export interface Batcher {
+  /** The current shortest time between two redraws, ms. */
+  readonly interval: number;
   /** Queues points start … start + count − 1. */
   push(start: number, count: number): void;
   /** Hands over whatever is queued now (the sweep ended). */
@@ -33,17 +42,25 @@ export function createBatcher(flush: (ranges: Range[]) => void, options: Batcher
   let asked = false;
   let alive = true;
   let generation = 0;
+  let interval = options.minInterval;
 
   const hand = () => {
     if (pending.length === 0) return;
     const ranges = pending;
     pending = [];
-    last = now();
+    const t0 = now();
+    last = t0;
     flush(ranges);
+    if (options.backoff) {
+      const b = options.backoff;
+      requestFrame(() => {
+        interval = Math.min(options.maxInterval ?? Infinity, Math.max(options.minInterval, (now() - t0) * b));
+      });
+    }
   };
   const onFrame = (gen: number) => {
     if (!alive || gen !== generation) return;
-    const wait = last + options.minInterval - now();
+    const wait = last + interval - now();
     if (wait > 0) {
       setTimer(() => {
         if (alive && gen === generation) requestFrame(() => onFrame(gen));
@@ -54,6 +71,9 @@ export function createBatcher(flush: (ranges: Range[]) => void, options: Batcher
     hand();
   };
   return {
+    get interval() {
+      return interval;
+    },
     push(start, count) {
       if (!alive) return;
       pending.push([start, count]);

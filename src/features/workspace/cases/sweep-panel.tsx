@@ -18,8 +18,14 @@ import { SweepPool } from './sweep-pool.ts';
 import { drawArrived, runData, SweepResults, type Run } from './sweep-results.tsx';
 import { createBatcher, type Batcher } from './sweep-batcher.ts';
 
-/** While points arrive, the results are drawn again at most once per animation frame and at most this often, ms. */
+/**
+ * While points arrive, the results are drawn again at most once per animation frame and at most
+ * every REDRAW_MS; when a redraw takes long (a busy machine), the next waits REDRAW_BACKOFF times
+ * as long, up to REDRAW_MAX_MS.
+ */
 const REDRAW_MS = 300;
+const REDRAW_BACKOFF = 6;
+const REDRAW_MAX_MS = 1000;
 
 /** Largest sweep run in the browser (about 20 s of solving on a small study on two cores). */
 export const BROWSER_MAX_POINTS = 20_000;
@@ -151,7 +157,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     setRun(next);
     // Points land in the run's store as they arrive; its results box (not this panel) is drawn again at most once per frame.
     batcher.current?.cancel();
-    const batch = createBatcher((ranges) => drawArrived(next, ranges), { minInterval: REDRAW_MS });
+    const batch = createBatcher((ranges) => drawArrived(next, ranges), { minInterval: REDRAW_MS, backoff: REDRAW_BACKOFF, maxInterval: REDRAW_MAX_MS });
     batcher.current = batch;
     if (where === 'server') {
       if (server) runOnServer(server.studyId, next, plan.used, plan.specs, batch);

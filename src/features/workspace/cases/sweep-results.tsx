@@ -6,6 +6,7 @@
  * (line-series.ts), and the progress row and each chart are laid out and painted on their own.
  */
 import { useEffect, useRef, useState, type CSSProperties } from 'react';
+import { flushSync } from 'react-dom';
 import type { SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { Button } from '../../../components/button.tsx';
 import type { LineSeries } from './line-series.ts';
@@ -62,7 +63,8 @@ const chartBox: CSSProperties = { contain: 'strict', width: '100%', maxWidth: 46
 export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
   const [, setTick] = useState(0);
   useEffect(() => {
-    run.notify = () => setTick((n) => n + 1);
+    // drawn in the frame the batcher hands the points over in (its cost is then that frame's)
+    run.notify = () => flushSync(() => setTick((n) => n + 1));
     return () => {
       run.notify = undefined;
     };

@@ -69,3 +69,31 @@ describe('sweep batcher', () => {
     expect(flushes).toHaveLength(2);
   });
 });
+
+describe('sweep batcher on a busy page', () => {
+  it('spaces redraws out to backoff times the cost of the last one, between the shortest and longest interval', () => {
+    const time = fakeTime();
+    const flushes: number[] = [];
+    // a redraw's cost is the time from handing over to the next frame
+    const b = createBatcher(() => void flushes.push(time.now()), { minInterval: 100, backoff: 6, maxInterval: 1000, ...time });
+    const run = (frames: number, step: number) => {
+      for (let k = 0; k < frames; k++) {
+        b.push(k, 1);
+        time.frame(step);
+      }
+    };
+    // quiet: each frame comes 16 ms after a redraw, 6 × 16 < 100: the shortest interval holds
+    run(60, 16);
+    expect(b.interval).toBe(100);
+    const quiet = flushes.length;
+    for (let k = 1; k < quiet; k++) expect(flushes[k] - flushes[k - 1]).toBeGreaterThanOrEqual(100);
+    // busy: frames come 120 ms apart, so a redraw costs 120 ms: the next ones wait 720 ms
+    run(40, 120);
+    expect(b.interval).toBe(720);
+    const busy = flushes.slice(quiet);
+    for (let k = 2; k < busy.length; k++) expect(busy[k] - busy[k - 1]).toBeGreaterThanOrEqual(720);
+    // very busy: capped at the longest interval
+    run(40, 400);
+    expect(b.interval).toBe(1000);
+  });
+});
