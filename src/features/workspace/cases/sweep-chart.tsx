@@ -5,7 +5,7 @@
  * (line) or the cell (heat map), so it can be made a case.
  */
 import { line } from 'd3-shape';
-import { memo, useMemo } from 'react';
+import { memo, useMemo, type MouseEvent } from 'react';
 import { breaksLimit, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { LineSeries } from './line-series.ts';
 
@@ -175,12 +175,76 @@ export interface HeatMapProps {
   onPick?: (index: number) => void;
 }
 
-/** Colour of a value: blue shades within the limits, red beyond them, grey when missing. */
-function colour(v: number | null | undefined, lo: number, hi: number, out: boolean): string {
-  if (v === null || v === undefined || Number.isNaN(v)) return '#e4e1d8';
+const MISSING = '#e4e1d8';
+const MISSING_RGB: [number, number, number] = [0xe4, 0xe1, 0xd8];
+
+/** Hue, saturation and lightness of a value: blue shades within the limits, red beyond them (null when missing). */
+function shade(v: number | null | undefined, lo: number, hi: number, out: boolean): [number, number, number] | null {
+  if (v === null || v === undefined || Number.isNaN(v)) return null;
   const t = hi > lo ? (v - lo) / (hi - lo) : 0.5;
   const l = Math.round(88 - t * 48);
-  return out ? `hsl(6 70% ${l}%)` : `hsl(205 55% ${l}%)`;
+  return out ? [6, 70, l] : [205, 55, l];
+}
+
+/** Colour of a value as CSS: blue shades within the limits, red beyond them, grey when missing. */
+function colour(v: number | null | undefined, lo: number, hi: number, out: boolean): string {
+  const c = shade(v, lo, hi, out);
+  return c ? `hsl(${c[0]} ${c[1]}% ${c[2]}%)` : MISSING;
+}
+
+/** HSL (degrees, %, %) to 0–255 RGB (CSS Color 4's conversion). */
+export function hslToRgb(h: number, s: number, l: number): [number, number, number] {
+  const sat = s / 100;
+  const lig = l / 100;
+  const f = (n: number) => {
+    const k = (n + h / 30) % 12;
+    return Math.round(255 * (lig - sat * Math.min(lig, 1 - lig) * Math.max(-1, Math.min(k - 3, 9 - k, 1))));
+  };
+  return [f(0), f(8), f(4)];
+}
+
+/**
+ * A heat map's cells as RGBA pixels, one per point: ys.length wide, xs.length high, the first
+ * parameter's last value on the top row (as the drawing), the same colours as the cells drawn one
+ * by one. Pure.
+ */
+export function heatPixels(rows: number, cols: number, values: ArrayLike<number | null | undefined>, lo: number, hi: number, breaks: (v: number) => boolean): Uint8ClampedArray {
+  const px = new Uint8ClampedArray(rows * cols * 4);
+  for (let i = 0; i < rows; i++) {
+    for (let j = 0; j < cols; j++) {
+      const v = values[i * cols + j];
+      const c = shade(v, lo, hi, typeof v === 'number' && !Number.isNaN(v) && breaks(v));
+      const [r, g, b] = c ? hslToRgb(...c) : MISSING_RGB;
+      const at = ((rows - 1 - i) * cols + j) * 4;
+      px[at] = r;
+      px[at + 1] = g;
+      px[at + 2] = b;
+      px[at + 3] = 255;
+    }
+  }
+  return px;
+}
+
+/** Up to this many cells a heat map draws each cell as an element (it can be clicked and read); beyond, one image redrawn as a whole. */
+export const HEAT_MAP_CELLS_MAX = 2500;
+
+/** The cells as a PNG data URL (null where the browser has no 2-D canvas). */
+function heatImage(rows: number, cols: number, px: Uint8ClampedArray): string | null {
+  if (typeof document === 'undefined') return null;
+  const canvas = document.createElement('canvas');
+  canvas.width = cols;
+  canvas.height = rows;
+  let ctx: CanvasRenderingContext2D | null = null;
+  try {
+    ctx = canvas.getContext('2d');
+  } catch {
+    ctx = null;
+  }
+  if (!ctx) return null;
+  const img = ctx.createImageData(cols, rows);
+  img.data.set(px);
+  ctx.putImageData(img, 0, 0);
+  return canvas.toDataURL('image/png');
 }
 
 export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys, values, output, picked, onPick }: HeatMapProps) {
@@ -195,10 +259,27 @@ export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys,
   const ch = IH / xs.length;
   const everyX = Math.max(1, Math.ceil(xs.length / 6));
   const everyY = Math.max(1, Math.ceil(ys.length / 6));
+  // a large map is one image (thousands of cell elements would be rebuilt, laid out and painted at every redraw)
+  const image = xs.length * ys.length > HEAT_MAP_CELLS_MAX ? heatImage(xs.length, ys.length, heatPixels(xs.length, ys.length, values, lo, hi, (v) => breaksLimit(output, v))) : null;
+  const pickAt = (e: MouseEvent<SVGImageElement>) => {
+    const box = e.currentTarget.getBoundingClientRect();
+    const j = Math.min(ys.length - 1, Math.max(0, Math.floor(((e.clientX - box.left) / box.width) * ys.length)));
+    const i = xs.length - 1 - Math.min(xs.length - 1, Math.max(0, Math.floor(((e.clientY - box.top) / box.height) * xs.length)));
+    onPick?.(i * ys.length + j);
+  };
+  const pk = picked ?? -1;
   return (
     <figure className="m-0">
       <svg role="img" aria-label={`Heat map of ${output.label} (${output.unit}) over ${xLabel} and ${yLabel}`} viewBox={`0 0 ${W} ${H}`} className="w-full max-w-[460px] bg-paper">
-        {xs.map((_, i) =>
+        {image ? (
+          <>
+            <image href={image} x={M.l} y={M.t} width={IW} height={IH} preserveAspectRatio="none" style={{ imageRendering: 'pixelated' }} onClick={pickAt} />
+            {pk >= 0 && pk < xs.length * ys.length ? (
+              <rect x={M.l + (pk % ys.length) * cw} y={M.t + (xs.length - 1 - Math.floor(pk / ys.length)) * ch} width={cw} height={ch} fill="none" stroke="#1c2226" pointerEvents="none" />
+            ) : null}
+          </>
+        ) : null}
+        {image ? null : xs.map((_, i) =>
           ys.map((__, j) => {
             const k = i * ys.length + j;
             const v = values[k] ?? null;

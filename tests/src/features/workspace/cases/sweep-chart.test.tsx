@@ -1,7 +1,7 @@
 /** Sweep charts: the line keeps every peak at the chart's resolution; a chart names its output and parameter; the first limit crossing is called out. */
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { drawn, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
+import { drawn, heatPixels, hslToRgb, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
 import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
@@ -47,5 +47,31 @@ describe('sweep charts', () => {
     expect(d().match(/M/g)).toHaveLength(1);
     // at most about four points per pixel column of the 392-pixel plot
     expect(d().split('L').length).toBeLessThanOrEqual(4 * 393);
+  });
+
+  it('a large heat map is one image whose pixels are the colours the cells are drawn in', () => {
+    // (P) CSS colours: red, blue, yellow, 50 % grey and the named "green" #008000
+    expect(hslToRgb(0, 100, 50)).toEqual([255, 0, 0]);
+    expect(hslToRgb(240, 100, 50)).toEqual([0, 0, 255]);
+    expect(hslToRgb(60, 100, 50)).toEqual([255, 255, 0]);
+    expect(hslToRgb(0, 0, 50)).toEqual([128, 128, 128]);
+    expect(hslToRgb(120, 100, 25)).toEqual([0, 128, 0]);
+    const xs = [1, 2, 3];
+    const ys = [10, 20, 30, 40];
+    const values = [1.0, 1.01, NaN, 1.06, 0.97, null, 1.02, 1.03, 0.85, 1.0, 1.04, 1.05];
+    const { container } = render(<SweepHeatMap xLabel="A" yLabel="B" xs={xs} ys={ys} values={values} output={output} />);
+    const rects = [...container.querySelectorAll('rect')];
+    expect(rects).toHaveLength(12);
+    const px = heatPixels(3, 4, values, 0.85, 1.06, (v) => v < 0.9 || v > 1.05);
+    rects.forEach((r, k) => {
+      const [i, j] = [Math.floor(k / 4), k % 4];
+      const at = ((2 - i) * 4 + j) * 4; // the first parameter's last value on the top row
+      const fill = r.getAttribute('fill')!;
+      const m = /^hsl\((\d+) (\d+)% (\d+)%\)$/.exec(fill);
+      const rgb = m ? hslToRgb(Number(m[1]), Number(m[2]), Number(m[3])) : [0xe4, 0xe1, 0xd8];
+      expect(fill.startsWith('hsl(6 ')).toBe(k === 3 || k === 8); // red: beyond the limit
+      expect([...px.slice(at, at + 3)]).toEqual(rgb);
+      expect(px[at + 3]).toBe(255);
+    });
   });
 });
