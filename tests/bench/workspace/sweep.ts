@@ -16,7 +16,7 @@
  * the page's main thread spent a 10 000-point run, from a chromium trace: its tasks over 50 ms and,
  * per late frame, how busy the main thread was; SWEEP_TRACE_FILE=<path> writes the
  * trace's events there; SWEEP_CONTAIN=<selector> gives those elements paint
- * containment (experiments); SWEEP_PROFILE=1 the page's JavaScript by function).
+ * containment (experiments); SWEEP_2D=1 sweeps two parameters instead, 100 × 100 points (heat maps); SWEEP_PROFILE=1 the page's JavaScript by function).
  */
 import { spawn, spawnSync, execSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -58,9 +58,14 @@ interface Measured {
   tasks: number[];
 }
 
+/** Runs a sweep of `points` in all (one parameter of that many points, or with SWEEP_2D two of its square root each). */
 async function sweep(page: Page, points: number): Promise<Measured> {
   const panel = page.getByRole('region', { name: /^Sweep on the/ });
-  await panel.getByLabel('Parameter 1 points').fill(String(points));
+  if (await panel.getByLabel('Parameter 2 points').count()) {
+    const side = Math.round(Math.sqrt(points));
+    await panel.getByLabel('Parameter 1 points').fill(String(side));
+    await panel.getByLabel('Parameter 2 points').fill(String(points / side));
+  } else await panel.getByLabel('Parameter 1 points').fill(String(points));
   const marks = (await page.evaluate(`performance.getEntriesByName('sweep-done').length`)) as number;
   await page.evaluate(`(() => { window.__frames.gaps = []; window.__frames.tasks = []; window.__frames.last = 0; window.__frames.armed = true; })()`);
   await panel.getByRole('button', { name: `Run sweep (${points} points)` }).click();
@@ -133,6 +138,14 @@ try {
   console.log(`study: ${circuit.elements.length} elements; parameter ${load.id} every phase › P (kW), half to one and a half of its value; ${outputs} outputs recorded; ${workers} workers`);
   console.log(`before: ${uptime()}`);
   await sweep(page, 200);
+  if (process.env.SWEEP_2D) {
+    // two parameters (a heat map per output): the first load's kW and a second load's, each over 100 points
+    const other = circuit.elements.find((e) => e.type === 'load' && 'each' in e && e.id !== load.id)!;
+    await panel.getByRole('button', { name: '+ Second parameter (heat map)' }).click();
+    await panel.getByLabel('Parameter 2 element').selectOption(other.id);
+    await panel.getByLabel('Parameter 2 value').selectOption('each.kw');
+    console.log(`two parameters: ${load.id} and ${other.id} every phase › P (kW), 100 × 100 points`);
+  }
   if (process.env.SWEEP_TRACE) {
     const cdp = await page.context().newCDPSession(page);
     const events: TraceEvent[] = [];
@@ -166,7 +179,7 @@ try {
     '| points | Run → last point | points / s | longest frame gap | gaps > 50 ms | gap p50 / p95 / p99 | gaps ≤ 20, ≤ 33, ≤ 50, ≤ 100, > 100 ms | long tasks on the page (> 50 ms) | load average after (1, 5, 15 min) |',
     '|---:|---:|---:|---:|---:|---:|---|---|---|',
   ];
-  for (const n of [1000, 10000]) {
+  for (const n of process.env.SWEEP_2D ? [10000] : [1000, 10000]) {
     for (let r = 0; r < RUNS; r++) {
       const m = await sweep(page, n);
       const s = m.stats;
