@@ -225,6 +225,13 @@ export function heatPixels(rows: number, cols: number, values: ArrayLike<number 
   return px;
 }
 
+/** The point under a click on a heat map's image, from where it fell across (0 left … 1 right) and down (0 top … 1 bottom). */
+export function heatCellAt(across: number, down: number, rows: number, cols: number): number {
+  const j = Math.min(cols - 1, Math.max(0, Math.floor(across * cols)));
+  const i = rows - 1 - Math.min(rows - 1, Math.max(0, Math.floor(down * rows)));
+  return i * cols + j;
+}
+
 /** Up to this many cells a heat map draws each cell as an element (it can be clicked and read); beyond, one image redrawn as a whole. */
 export const HEAT_MAP_CELLS_MAX = 2500;
 
@@ -263,9 +270,7 @@ export const SweepHeatMap = memo(function SweepHeatMap({ xLabel, yLabel, xs, ys,
   const image = xs.length * ys.length > HEAT_MAP_CELLS_MAX ? heatImage(xs.length, ys.length, heatPixels(xs.length, ys.length, values, lo, hi, (v) => breaksLimit(output, v))) : null;
   const pickAt = (e: MouseEvent<SVGImageElement>) => {
     const box = e.currentTarget.getBoundingClientRect();
-    const j = Math.min(ys.length - 1, Math.max(0, Math.floor(((e.clientX - box.left) / box.width) * ys.length)));
-    const i = xs.length - 1 - Math.min(xs.length - 1, Math.max(0, Math.floor(((e.clientY - box.top) / box.height) * xs.length)));
-    onPick?.(i * ys.length + j);
+    onPick?.(heatCellAt((e.clientX - box.left) / box.width, (e.clientY - box.top) / box.height, xs.length, ys.length));
   };
   const pk = picked ?? -1;
   return (

@@ -1,7 +1,7 @@
 /** Sweep charts: the line keeps every peak at the chart's resolution; a chart names its output and parameter; the first limit crossing is called out. */
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { drawn, heatPixels, hslToRgb, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
+import { drawn, heatCellAt, heatPixels, hslToRgb, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
 import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
@@ -73,5 +73,18 @@ describe('sweep charts', () => {
       expect([...px.slice(at, at + 3)]).toEqual(rgb);
       expect(px[at + 3]).toBe(255);
     });
+  });
+
+  it('a click on a heat map image picks the point of the cell under it (the first parameter’s last value on top)', () => {
+    // 3 values of the first parameter (rows), 4 of the second (columns): point k = i·4 + j
+    expect(heatCellAt(0.01, 0.01, 3, 4)).toBe(2 * 4 + 0); // top left: last row value, first column
+    expect(heatCellAt(0.99, 0.99, 3, 4)).toBe(0 * 4 + 3); // bottom right
+    expect(heatCellAt(0.5, 0.5, 3, 4)).toBe(1 * 4 + 2);
+    expect(heatCellAt(1, 1, 3, 4)).toBe(3); // the far edges stay in the map
+    // the same cell the drawn pixels put there
+    const px = heatPixels(3, 4, Array.from({ length: 12 }, (_, k) => k), 0, 11, () => false);
+    const k = heatCellAt(0.3, 0.1, 3, 4);
+    const [r, c] = [0, 1]; // top row, second column of the image
+    expect([...px.slice((r * 4 + c) * 4, (r * 4 + c) * 4 + 3)]).toEqual([...heatPixels(1, 1, [k], 0, 11, () => false).slice(0, 3)]);
   });
 });
