@@ -9,13 +9,16 @@
  * - answer: the worker's answer arrives on the page (a message listener registered before the app's);
  *   the worker's own time for the request (`ms` of the answer: validate, expand, solve, results);
  * - commit: the first DOM mutation after the answer (React's commit of the new results);
- * - paint: a task queued from the next animation frame after that commit (the frame has been painted).
+ * - paint: a task queued from the next animation frame after that commit (the frame has been painted);
+ * - settled: the same after the last DOM mutation the answer caused (tables that follow the diagram
+ *   in a later render included); an edit counts once nothing has changed for 300 ms.
  * Prints medians per study of input→post (debounce and React), post→answer (worker round trip:
  * clone in, solve, clone out), of which in the worker, answer→commit, commit→paint and input→paint.
  * Issue 14 targets: input→paint ≤ 50 ms median on every demo study, ≤ 100 ms on a 300-element study.
  * Builds the client into a temporary directory and starts the product on it (bench-server.ts, fresh
  * data, demo accounts), like drag.ts. Run: `node --import tsx tests/bench/workspace/edit-latency.ts`
- * (EDIT_RUNS=n edits per study, default 15).
+ * (EDIT_RUNS=n edits per study, default 15; EDIT_STUDIES=<regex> picks studies by name; EDIT_PROFILE=1 prints
+ * a CPU profile and a timeline of the main thread per study).
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -27,6 +30,14 @@ import { study300 } from './study-300.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 const RUNS = Number(process.env.EDIT_RUNS ?? 15);
+/** EDIT_STUDIES=<regex>: only the studies whose name matches. */
+const ONLY = process.env.EDIT_STUDIES ? new RegExp(process.env.EDIT_STUDIES, 'i') : null;
+/**
+ * EDIT_PROFILE=1: a CPU profile of the page's main thread over each study's edits (unminified
+ * build), printed as the functions with the most self time, and a timeline trace summed by event
+ * (script, style, layout, paint).
+ */
+const PROFILE = process.env.EDIT_PROFILE === '1';
 const median = (xs: number[]) => {
   const s = xs.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
   if (s.length === 0) return NaN;
@@ -63,10 +74,18 @@ const INSTRUMENT = `(() => {
       });
     }
   };
+  lat.seq = 0;
+  lat.lastMutation = NaN;
   new MutationObserver(() => {
-    if (lat.marks.answer === undefined || lat.marks.commit !== undefined) return;
-    mark('commit');
-    requestAnimationFrame(() => setTimeout(() => mark('paint'), 0));
+    if (!lat.armed || lat.marks.answer === undefined) return;
+    if (lat.marks.commit === undefined) {
+      mark('commit');
+      requestAnimationFrame(() => setTimeout(() => mark('paint'), 0));
+    }
+    // settled: the frame after the last mutation the answer caused (tables rendered after the diagram)
+    lat.lastMutation = performance.now();
+    const seq = ++lat.seq;
+    requestAnimationFrame(() => setTimeout(() => { if (seq === lat.seq) lat.marks.settled = performance.now(); }, 0));
   }).observe(document, { subtree: true, childList: true, characterData: true, attributes: true });
 })()`;
 
@@ -80,6 +99,8 @@ interface EditFigures {
   answerToCommit: number[];
   commitToPaint: number[];
   total: number[];
+  /** Input → the frame after the last change the answer made (every table updated). */
+  settled: number[];
 }
 
 /** Open a study, pick a load with a kW field, apply RUNS edits and collect the marks. */
@@ -114,17 +135,33 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
   if (!inputId) return `${name}: no kW field`;
   const input = page.locator(`[id="${inputId}"]`);
   const start = Number((await input.inputValue()).replace(/[^\d.eE+-]/g, '')) || 1;
-  const out: EditFigures = { study: name, elements: elements.length, load: chosen, inputToPost: [], roundTrip: [], inWorker: [], answerToCommit: [], commitToPaint: [], total: [] };
+  const cdp = PROFILE ? await page.context().newCDPSession(page) : null;
+  const traceEvents: TraceEvent[] = [];
+  if (cdp) {
+    await cdp.send('Profiler.enable');
+    await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+    await cdp.send('Profiler.start');
+    cdp.on('Tracing.dataCollected', (e) => void traceEvents.push(...(e.value as unknown as TraceEvent[])));
+    await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReportEvents' });
+  }
+  const out: EditFigures = { study: name, elements: elements.length, load: chosen, inputToPost: [], roundTrip: [], inWorker: [], answerToCommit: [], commitToPaint: [], total: [], settled: [] };
   for (let r = 0; r < RUNS; r++) {
     await page.evaluate(`(() => { window.__lat.marks = {}; window.__lat.workerMs = NaN; window.__lat.armed = false; })()`);
     await input.fill(String(+(start * (r % 2 ? 1 : 1.1 + 0.01 * r)).toPrecision(6)));
     await page.evaluate(`(() => { window.__lat.armed = true; })()`);
     await input.press('Enter');
-    try {
-      await page.waitForFunction(`window.__lat.marks.paint !== undefined`, undefined, { timeout: 20_000 });
-    } catch {
+    // Polled by a promise evaluated through the DevTools protocol: waitForFunction compiles its
+    // predicate inside the page, which the product's CSP (no 'unsafe-eval') refuses now and then.
+    const painted = await page.evaluate(`new Promise((resolve) => {
+      const t0 = performance.now();
+      // painted, then settled: no mutation for 300 ms after the last one's frame (at most 20 s in all)
+      const done = () => { const l = window.__lat; return l.marks.paint !== undefined && l.marks.settled !== undefined && l.marks.settled >= l.lastMutation && performance.now() - l.lastMutation > 300; };
+      const poll = () => done() ? resolve(true) : performance.now() - t0 > 20000 ? resolve(false) : setTimeout(poll, 5);
+      poll();
+    })`);
+    if (!painted) {
       const m = await page.evaluate(`window.__lat.marks`);
-      console.log(`  ${name}: edit ${r + 1} did not reach a paint (marks ${JSON.stringify(m)})`);
+      console.log(`  ${name}: edit ${r + 1} did not reach a paint within 20 s (marks ${JSON.stringify(m)})`);
       continue;
     }
     const { marks: m, workerMs } = (await page.evaluate(`({ marks: window.__lat.marks, workerMs: window.__lat.workerMs })`)) as { marks: Record<string, number>; workerMs: number };
@@ -134,14 +171,78 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
     out.answerToCommit.push(m.commit - m.answer);
     out.commitToPaint.push(m.paint - m.commit);
     out.total.push(m.paint - m.input);
+    out.settled.push(m.settled - m.input);
     await page.waitForTimeout(100);
+  }
+  if (cdp) {
+    const { profile } = (await cdp.send('Profiler.stop')) as { profile: CpuProfile };
+    const done = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
+    await cdp.send('Tracing.end');
+    await done;
+    printProfile(name, profile, traceEvents, out.total.length);
+    await cdp.detach();
   }
   return out;
 }
 
+interface CpuProfile {
+  nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[];
+  samples: number[];
+  timeDeltas: number[];
+}
+interface TraceEvent {
+  name: string;
+  ph: string;
+  dur?: number;
+  tid: number;
+  pid: number;
+  args?: { data?: { frame?: string } };
+}
+
+/** Self time per function (ms per edit) and main-thread timeline events by name. */
+function printProfile(study: string, profile: CpuProfile, events: TraceEvent[], edits: number): void {
+  const byId = new Map(profile.nodes.map((n) => [n.id, n] as const));
+  const self = new Map<string, number>();
+  profile.samples.forEach((id, i) => {
+    const n = byId.get(id);
+    if (!n) return;
+    const f = n.callFrame;
+    const key = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber + 1}`;
+    self.set(key, (self.get(key) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000);
+  });
+  // Total (inclusive) time of the page's own functions: each sample counts once per function on its stack.
+  const parent = new Map<number, number>();
+  for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+  const total = new Map<string, number>();
+  profile.samples.forEach((id, i) => {
+    const seen = new Set<string>();
+    for (let cur: number | undefined = id; cur !== undefined; cur = parent.get(cur)) {
+      const f = byId.get(cur)?.callFrame;
+      if (!f || !/study-workspace|index-|\.js/.test(f.url) || !f.functionName) continue;
+      const key = `${f.functionName} ${f.url.split('/').pop()}:${f.lineNumber + 1}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      total.set(key, (total.get(key) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000);
+    }
+  });
+  const per = Math.max(1, edits);
+  console.log(`\nprofile of ${study} (${edits} edits; ms per edit, total time of the page's functions):`);
+  for (const [k, ms] of [...total].sort((a, b) => b[1] - a[1]).slice(0, 60)) console.log(`  ${(ms / per).toFixed(2).padStart(8)}  ${k}`);
+  console.log(`\nprofile of ${study} (${edits} edits; ms per edit, self time):`);
+  for (const [k, ms] of [...self].filter(([k]) => !k.startsWith('(idle)') && !k.startsWith('(program)')).sort((a, b) => b[1] - a[1]).slice(0, 30)) console.log(`  ${(ms / per).toFixed(2).padStart(8)}  ${k}`);
+  // The renderer main thread: the thread with the most RunTask time in the renderer process.
+  const busy = new Map<string, number>();
+  for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && e.dur) busy.set(`${e.pid}:${e.tid}`, (busy.get(`${e.pid}:${e.tid}`) ?? 0) + e.dur);
+  const main = [...busy].sort((a, b) => b[1] - a[1])[0]?.[0];
+  const sums = new Map<string, number>();
+  for (const e of events) if (e.ph === 'X' && e.dur && `${e.pid}:${e.tid}` === main) sums.set(e.name, (sums.get(e.name) ?? 0) + e.dur / 1000);
+  console.log(`timeline of the main thread (ms per edit, inclusive):`);
+  for (const [k, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 18)) console.log(`  ${(ms / per).toFixed(2).padStart(8)}  ${k}`);
+}
+
 const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-dist-'));
 const data = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-data-'));
-const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
+const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn', ...(PROFILE ? ['--minify', 'false'] : [])], { cwd: root, encoding: 'utf8' });
 if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
 const port = await freePort();
 const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
@@ -186,6 +287,7 @@ try {
   const items: { id: string; name: string }[] = list.items ?? list.studies ?? list;
   const results: EditFigures[] = [];
   for (const s of items) {
+    if (ONLY && !ONLY.test(s.name)) continue;
     const r = await measureStudy(page, base, s.id, s.name);
     if (typeof r === 'string') console.log(`skipped ${r}`);
     else {
@@ -194,9 +296,9 @@ try {
     }
   }
   const f = (xs: number[]) => median(xs).toFixed(1);
-  console.log('\n| study | elements | edits | input→post | post→answer | of which in the worker | answer→commit | commit→paint | input→paint (median) | target |');
-  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---|');
-  for (const r of results) console.log(`| ${r.study} | ${r.elements} | ${r.total.length} | ${f(r.inputToPost)} ms | ${f(r.roundTrip)} ms | ${f(r.inWorker)} ms | ${f(r.answerToCommit)} ms | ${f(r.commitToPaint)} ms | ${f(r.total)} ms | ${r.elements >= 250 ? '≤ 100 ms' : '≤ 50 ms'} |`);
+  console.log('\n| study | elements | edits | input→post | post→answer | of which in the worker | answer→commit | commit→paint | input→paint (median) | target | input→settled (median) |');
+  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---|---:|');
+  for (const r of results) console.log(`| ${r.study} | ${r.elements} | ${r.total.length} | ${f(r.inputToPost)} ms | ${f(r.roundTrip)} ms | ${f(r.inWorker)} ms | ${f(r.answerToCommit)} ms | ${f(r.commitToPaint)} ms | ${f(r.total)} ms | ${r.elements >= 250 ? '≤ 100 ms' : '≤ 50 ms'} | ${f(r.settled)} ms |`);
   console.log(`\nmachine: ${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (headless chromium, software rendering)`);
 } finally {
   await browser.close();
