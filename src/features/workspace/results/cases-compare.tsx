@@ -21,6 +21,8 @@ export interface CasesCompareProps {
 const fmt = (v: number | null, unit: CompareRow['unit']) => (v === null ? '—' : unit === '' ? String(v) : `${v.toFixed(unit === 'pu' ? 3 : unit === '%' ? 2 : 1)} ${unit}`);
 const fmtDelta = (d: number | null, unit: CompareRow['unit']) => (d === null ? '' : `${d >= 0 ? '+' : '−'}${fmt(Math.abs(d), unit)}`);
 
+const NO_CASES = '';
+
 /** Quiet time after the last edit before the cases are solved again, ms (each edit would otherwise solve every case). */
 export const COMPARE_DEBOUNCE_MS = 300;
 
@@ -29,7 +31,8 @@ export const COMPARE_DEBOUNCE_MS = 300;
  * (base first), or null while running. Edits are debounced, and answers to an overtaken round dropped.
  */
 function useCaseOutcomes(circuit: unknown): CaseOutcome[] | null {
-  const key = useMemo(() => JSON.stringify(circuit ?? null), [circuit]);
+  // Without cases there is nothing to compare: the circuit is not serialised on every edit then.
+  const key = useMemo(() => ((circuit as { cases?: unknown } | null)?.cases === undefined ? NO_CASES : JSON.stringify(circuit)), [circuit]);
   const [outcomes, setOutcomes] = useState<CaseOutcome[] | null>(null);
   const port = useRef<SolvePort | null>(null);
   const onAnswer = useRef<(res: SolveResponse) => void>(() => {});
@@ -47,6 +50,10 @@ function useCaseOutcomes(circuit: unknown): CaseOutcome[] | null {
     };
   }, []);
   useEffect(() => {
+    if (key === NO_CASES) {
+      setOutcomes([]);
+      return;
+    }
     const parsed = JSON.parse(key) as unknown;
     let cases;
     try {

@@ -4,7 +4,7 @@
  * the selected bus/element, transformers, faults, the power balance and the safety caution.
  * `selection` is the canvas's selected bus name or element id, so the panel follows the canvas.
  */
-import { memo, useCallback, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
+import { memo, useCallback, useDeferredValue, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { CircuitResult } from '../../../../shared/engine/index.ts';
 import type { PerUnitSettings } from '../../../../shared/report/per-unit.ts';
 import { circuitIssueWords } from '../../../../shared/review/circuit-issues.ts';
@@ -140,7 +140,88 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-function ResultsPanelView({ status, result: fullResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker = '~', perUnit }: ResultsPanelProps) {
+interface ResultsBodyProps {
+  result: CircuitResult;
+  busName: string | undefined;
+  bus: CircuitResult['buses'][number] | undefined;
+  elementId: string | undefined;
+  voltages: WaveSignal[];
+  currents: WaveSignal[];
+  standard: WiringStandard;
+  perUnit?: PerUnitSettings;
+  selectId: string;
+  onSelect?: (id: string) => void;
+  setBusChoice: (bus: string | null) => void;
+  setElementChoice: (id: string | null) => void;
+}
+
+/** The tables, diagrams and sections of a result: memoised, so a change of status alone leaves them as they are. */
+const ResultsBody = memo(function ResultsBody({ result, busName, bus, elementId, voltages, currents, standard, perUnit, selectId, onSelect, setBusChoice, setElementChoice }: ResultsBodyProps) {
+  return (
+    <div className="space-y-4">
+      <p className="text-[11px] text-ink-muted">
+        {result.frequencyHz} Hz, sequence {result.conventions.sequence}; phasors RMS, magnitude∠degrees; {result.conventions.power}.
+      </p>
+      <FloatingNotices result={result} />
+      <FlagsSection result={result} />
+      <BusTable result={result} standard={standard} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+      <LoadTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+      {bus ? (
+        <Section title={`Phasors at bus ${bus.bus}`}>
+          <label htmlFor={selectId} className="mr-1 text-[12px]">
+            Bus for phasor diagram
+          </label>
+          <select id={selectId} value={bus.bus} onChange={(e) => setBusChoice(e.target.value)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
+            {result.buses.map((b) => (
+              <option key={b.bus} value={b.bus}>
+                {b.bus}
+              </option>
+            ))}
+          </select>
+          <p className="text-[12px]">
+            Neutral shift at {bus.bus}:{' '}
+            <strong className="num" data-testid="selected-neutral-shift">
+              {bus.neutralToEarth ? `${formatMagnitude(bus.neutralToEarth.mag)} V` : 'no neutral'}
+            </strong>
+            {bus.neutralShiftPercent !== undefined ? <span className="num"> ({bus.neutralShiftPercent.toFixed(1)} % of nominal V_LN)</span> : null}
+            {bus.neutralCause && bus.neutralShiftPercent !== undefined && bus.neutralShiftPercent > result.limits.neutralShiftPercent ? (
+              <span data-testid="selected-neutral-cause">: {NEUTRAL_CAUSE_SHORT[bus.neutralCause](bus.neutralOpenAt ?? [])}</span>
+            ) : null}
+          </p>
+          <PhasorDiagram bus={bus} standard={standard} />
+        </Section>
+      ) : null}
+      <Section title="Waveforms over one cycle">
+        <label className="mr-1 text-[12px]" htmlFor={`${selectId}-el`}>
+          Element for currents
+        </label>
+        <select id={`${selectId}-el`} value={elementId ?? ''} onChange={(e) => setElementChoice(e.target.value || null)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
+          <option value="">none</option>
+          {Object.values(result.elements)
+            .filter((e) => e.ports?.length)
+            .map((e) => (
+              <option key={e.id} value={e.id}>
+                {e.id}
+              </option>
+            ))}
+        </select>
+        <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
+      </Section>
+      <ElementTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+      <SequenceVoltageTable result={result} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
+      <SequenceCurrentTable result={result} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
+      <TransformerSection result={result} />
+      <FaultSection result={result} standard={standard} perUnit={perUnit} />
+      <PowerSummary result={result} perUnit={perUnit} />
+    </div>
+  );
+});
+
+function ResultsPanelView({ status, result: latestResult, error, stale, ms, selection, onSelect, standard = 'iec-60445', privateMarker = '~', perUnit }: ResultsPanelProps) {
+  // The tables follow a new result in a render of their own, after the diagram's values and the
+  // status have been painted (they are long, and mostly below the diagram); they are dimmed until then.
+  const fullResult = useDeferredValue(latestResult);
+  const behind = fullResult !== latestResult;
   const result = useMemo(() => (fullResult ? hidePrivate(fullResult, privateMarker) : undefined), [fullResult, privateMarker]);
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);
@@ -184,61 +265,23 @@ function ResultsPanelView({ status, result: fullResult, error, stale, ms, select
       </div>
       {status === 'error' && error ? <ErrorNotice error={error} privateMarker={privateMarker} /> : null}
       {result ? (
-        <div className={`space-y-4 ${stale ? 'opacity-70' : ''}`}>
-          <p className="text-[11px] text-ink-muted">
-            {result.frequencyHz} Hz, sequence {result.conventions.sequence}; phasors RMS, magnitude∠degrees; {result.conventions.power}.
-          </p>
-          <FloatingNotices result={result} />
-          <FlagsSection result={result} />
-          <BusTable result={result} standard={standard} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
-          <LoadTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
-          {bus ? (
-            <Section title={`Phasors at bus ${bus.bus}`}>
-              <label htmlFor={selectId} className="mr-1 text-[12px]">
-                Bus for phasor diagram
-              </label>
-              <select id={selectId} value={bus.bus} onChange={(e) => setBusChoice(e.target.value)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
-                {result.buses.map((b) => (
-                  <option key={b.bus} value={b.bus}>
-                    {b.bus}
-                  </option>
-                ))}
-              </select>
-              <p className="text-[12px]">
-                Neutral shift at {bus.bus}:{' '}
-                <strong className="num" data-testid="selected-neutral-shift">
-                  {bus.neutralToEarth ? `${formatMagnitude(bus.neutralToEarth.mag)} V` : 'no neutral'}
-                </strong>
-                {bus.neutralShiftPercent !== undefined ? <span className="num"> ({bus.neutralShiftPercent.toFixed(1)} % of nominal V_LN)</span> : null}
-                {bus.neutralCause && bus.neutralShiftPercent !== undefined && bus.neutralShiftPercent > result.limits.neutralShiftPercent ? (
-                  <span data-testid="selected-neutral-cause">: {NEUTRAL_CAUSE_SHORT[bus.neutralCause](bus.neutralOpenAt ?? [])}</span>
-                ) : null}
-              </p>
-              <PhasorDiagram bus={bus} standard={standard} />
-            </Section>
-          ) : null}
-          <Section title="Waveforms over one cycle">
-            <label className="mr-1 text-[12px]" htmlFor={`${selectId}-el`}>
-              Element for currents
-            </label>
-            <select id={`${selectId}-el`} value={elementId ?? ''} onChange={(e) => setElementChoice(e.target.value || null)} className="h-6 rounded-[3px] border border-rule-strong bg-panel px-1 text-[12px]">
-              <option value="">none</option>
-              {Object.values(result.elements)
-                .filter((e) => e.ports?.length)
-                .map((e) => (
-                  <option key={e.id} value={e.id}>
-                    {e.id}
-                  </option>
-                ))}
-            </select>
-            <WaveformChart key={`${bus?.bus ?? ''}|${elementId ?? ''}`} voltages={voltages} currents={currents} frequencyHz={result.frequencyHz} />
-          </Section>
-          <ElementTable result={result} standard={standard} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
-          <SequenceVoltageTable result={result} perUnit={perUnit} selectedBus={busName} onSelectBus={(b) => (setBusChoice(b), onSelect?.(b))} />
-          <SequenceCurrentTable result={result} perUnit={perUnit} selectedId={elementId} onSelect={(id) => (setElementChoice(id), onSelect?.(id))} />
-          <TransformerSection result={result} />
-          <FaultSection result={result} standard={standard} perUnit={perUnit} />
-          <PowerSummary result={result} perUnit={perUnit} />
+        // The values are dimmed while the next edit solves: the class sits outside the tables, which
+        // re-render only when their own inputs change (not when the status line does).
+        <div className={stale || behind ? 'opacity-70' : undefined} aria-busy={behind || undefined}>
+          <ResultsBody
+            result={result}
+            busName={busName}
+            bus={bus}
+            elementId={elementId}
+            voltages={voltages}
+            currents={currents}
+            standard={standard}
+            perUnit={perUnit}
+            selectId={selectId}
+            onSelect={onSelect}
+            setBusChoice={setBusChoice}
+            setElementChoice={setElementChoice}
+          />
         </div>
       ) : null}
       <ResultsCaution />

@@ -53,7 +53,6 @@ export function ResultsTable<Row extends object>({ label, rows, columns, rowId, 
           header: c.header,
           sortUndefined: 'last',
           sortFn: (a, b, id) => compare(a.getValue(id), b.getValue(id)),
-          cell: (info) => c.render(info.row.original),
         }),
       ),
     );
@@ -139,9 +138,11 @@ export function ResultsTable<Row extends object>({ label, rows, columns, rowId, 
                   onClick={onRowSelect ? () => onRowSelect(row.id) : undefined}
                   className={`border-b border-rule ${selected ? 'bg-accent-soft' : 'hover:bg-sunken/50'} ${onRowSelect ? 'cursor-pointer' : ''}`}
                 >
-                  {row.getAllCells().map((cell) => (
-                    <td key={cell.id} className={`px-1.5 py-0.5 align-top whitespace-nowrap ${byId.get(cell.column.id)?.numeric ? 'num text-right' : ''}`}>
-                      <table.FlexRender cell={cell} />
+                  {/* Cells call their column's render directly: rendered through the column definition, each new
+                      result (new definitions) would be a new component type, and React would remount every cell. */}
+                  {columns.map((c) => (
+                    <td key={c.id} className={`px-1.5 py-0.5 align-top whitespace-nowrap ${c.numeric ? 'num text-right' : ''}`}>
+                      {c.render(row.original)}
                     </td>
                   ))}
                 </tr>
