@@ -21,7 +21,7 @@ import {
   type NodeTypes,
   type EdgeTypes,
 } from '@xyflow/react';
-import { useCallback, useEffect, useMemo, useReducer, useRef, useState } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useReducer, useRef, useState } from 'react';
 import { Link } from 'react-router';
 import type { StudyDetail } from '../../../shared/api/studies.ts';
 import type { Role } from '../../../shared/api/common.ts';
@@ -30,7 +30,7 @@ import { StatusBadge } from '../../components/badges.tsx';
 import { Button } from '../../components/button.tsx';
 import { can } from '../../lib/authorization.ts';
 import { BusNodeView } from './canvas/bus-node.tsx';
-import { CanvasViewContext, type CanvasView } from './canvas/canvas-context.tsx';
+import { CanvasValuesContext, CanvasViewContext, createCanvasValuesStore, type CanvasView } from './canvas/canvas-context.tsx';
 import { ElementNodeView } from './canvas/element-node.tsx';
 import { Palette } from './canvas/palette.tsx';
 import { MAX_FIT_ZOOM, fitWithLabels, reveal, visibleArea } from './canvas/view-area.ts';
@@ -136,21 +136,15 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const toggleOpen = useCallback((edgeId: string, c: Conductor) => run(commands.toggleOpen, edgeId, c), [run]);
 
   const view = useMemo<CanvasView>(
-    () => ({
-      readOnly: locked,
-      shifts,
-      pins: Object.fromEntries((pins ?? []).map((p) => [p.elementId, p.count])),
-      wiringStandard: doc.settings.wiringStandard,
-      overlays,
-      stale,
-      problems,
-      busNamesOf: (nodeId) => Object.entries(conversion.map.busToNode).filter(([, n]) => n === nodeId).map(([b]) => b),
-      elementOf: conversion.elementOf,
-      wiredOf: conversion.wiredOf,
-      toggleOpen: locked ? null : toggleOpen,
-    }),
-    [toggleOpen, locked, shifts, pins, doc.settings.wiringStandard, overlays, stale, problems, conversion.map, conversion.elementOf, conversion.wiredOf],
+    () => ({ readOnly: locked, pins: Object.fromEntries((pins ?? []).map((p) => [p.elementId, p.count])), wiringStandard: doc.settings.wiringStandard, toggleOpen: locked ? null : toggleOpen }),
+    [toggleOpen, locked, pins, doc.settings.wiringStandard],
   );
+  // What changes with every edit or solve goes to the nodes through a store: each node re-renders
+  // only when its own entries change (set before paint, in the same frame as the edit or answer).
+  const [canvasValues] = useState(createCanvasValuesStore);
+  useLayoutEffect(() => {
+    canvasValues.set({ overlays, stale, problems, shifts, busNameOf: conversion.map.nodeToBus, elementOf: conversion.elementOf, wiredOf: conversion.wiredOf });
+  }, [canvasValues, overlays, stale, problems, shifts, conversion.map, conversion.elementOf, conversion.wiredOf]);
 
   // Wire names come from the current element and bus names at render time (never stored on the edge).
   const edges = useMemo(
@@ -310,141 +304,143 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
   return (
     <CanvasViewContext.Provider value={view}>
-      <div className="flex flex-col gap-2">
-        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
-          <nav aria-label="Breadcrumb" className="text-[13px] text-ink-muted">
-            <Link to="/" className="text-accent hover:underline">
-              Studies
-            </Link>{' '}
-            <span aria-hidden="true">/</span>{' '}
-          </nav>
-          <h1 className="text-lg">{study.name}</h1>
-          <StatusBadge status={study.status} />
-          {/* Users count revisions; the edit version (baseVersion) stays internal. */}
-          {study.revision ? <span className="num text-[12px] text-ink-muted">revision {study.revision}</span> : null}
-          <Link to={`/studies/${study.id}/details`} className="text-[13px] text-accent hover:underline">
-            Details and record
-          </Link>
-          <Link to={`/studies/${study.id}/balance`} className="text-[13px] text-accent hover:underline">
-            Phase balancing
-          </Link>
-          {readOnly ? <span className="rounded-[2px] bg-sunken px-1.5 text-[12px] font-semibold text-ink-muted">Read-only ({role})</span> : null}
-          {dirty ? <span className="text-[12px] font-semibold text-caution">● Unsaved changes</span> : null}
-        </div>
-
-        <div role="toolbar" aria-label="Workspace tools" className="flex flex-wrap items-center gap-1.5 rounded-[3px] border border-rule bg-panel px-2 py-1">
-          {readOnly ? null : (
-            <>
-              <Button size="sm" variant="primary" onClick={openSave} aria-label="Save study" disabled={conversion.problems.length > 0} title={conversion.problems.length > 0 ? 'Wire or delete unconnected elements first' : 'Save study (Ctrl+S)'}>
-                Save study
-              </Button>
-              <Button size="sm" onClick={undoKeep} disabled={hist.past.length === 0} aria-label="Undo" title="Undo (Ctrl+Z)">
-                ↶ Undo
-              </Button>
-              <Button size="sm" onClick={() => ((historyMove.current = true), redo())} disabled={hist.future.length === 0} aria-label="Redo" title="Redo (Ctrl+Shift+Z)">
-                ↷ Redo
-              </Button>
-              <span className="mx-1 h-5 w-px bg-rule" aria-hidden="true" />
-            </>
-          )}
-          <Button size="sm" onClick={fit} aria-label="Fit view" title="Fit view (F)">
-            Fit view
-          </Button>
-          <Button size="sm" onClick={() => setSnap((s) => !s)} aria-pressed={snap} title="Snap to grid (G)">
-            Snap to grid {snap ? 'on' : 'off'}
-          </Button>
-          <Button size="sm" onClick={() => setDialog('settings')} aria-label="Study settings">
-            Study settings
-          </Button>
-          <Button size="sm" onClick={() => setDialog('help')} aria-label="Keyboard shortcuts" title="Keyboard shortcuts (?)">
-            ? Shortcuts
-          </Button>
-          <span role="status" className="num ml-auto text-[12px] text-ink-muted">
-            {doc.settings.frequencyHz} Hz · {doc.settings.sequence} · {doc.settings.shiftConvention === 'iec' ? 'IEC clock shift' : 'N. American shift (LV lags 30°)'} · {statusText}
-          </span>
-        </div>
-        <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
-        {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
-
-        <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
-          {locked ? null : <Palette onAdd={addItem} />}
-          {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
-          <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
-            <ReactFlow<WorkspaceNode, WorkspaceEdge>
-              nodes={nodes}
-              edges={edges}
-              nodeTypes={nodeTypes}
-              edgeTypes={edgeTypes}
-              onNodesChange={onNodesChange}
-              onEdgesChange={onEdgesChange}
-              onConnect={onConnect}
-              isValidConnection={isValidConnection}
-              connectionMode={ConnectionMode.Loose}
-              onNodeDragStart={onNodeDragStart}
-              onNodeDragStop={onNodeDragStop}
-              onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
-              nodesDraggable={!locked}
-              nodesConnectable={!locked}
-              elementsSelectable
-              deleteKeyCode={null}
-              snapToGrid={snap}
-              snapGrid={SNAP_GRID}
-              defaultViewport={layout?.viewport}
-              fitView={!layout?.viewport && initiallyDrawn}
-              fitViewOptions={FIT_VIEW_OPTIONS}
-              minZoom={0.2}
-              maxZoom={3}
-              proOptions={PRO_OPTIONS}
-              ariaLabelConfig={ARIA_LABEL_CONFIG}
-            >
-              <Background gap={20} size={1} color="#d3d0c6" />
-              <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
-            </ReactFlow>
-            {stale ? (
-              <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
-                Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
-              </p>
-            ) : (
-              <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
-            )}
-            {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
-            {doc.nodes.length === 0 ? (
-              <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
-                {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
-              </p>
-            ) : null}
+      <CanvasValuesContext.Provider value={canvasValues}>
+        <div className="flex flex-col gap-2">
+          <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+            <nav aria-label="Breadcrumb" className="text-[13px] text-ink-muted">
+              <Link to="/" className="text-accent hover:underline">
+                Studies
+              </Link>{' '}
+              <span aria-hidden="true">/</span>{' '}
+            </nav>
+            <h1 className="text-lg">{study.name}</h1>
+            <StatusBadge status={study.status} />
+            {/* Users count revisions; the edit version (baseVersion) stays internal. */}
+            {study.revision ? <span className="num text-[12px] text-ink-muted">revision {study.revision}</span> : null}
+            <Link to={`/studies/${study.id}/details`} className="text-[13px] text-accent hover:underline">
+              Details and record
+            </Link>
+            <Link to={`/studies/${study.id}/balance`} className="text-[13px] text-accent hover:underline">
+              Phase balancing
+            </Link>
+            {readOnly ? <span className="rounded-[2px] bg-sunken px-1.5 text-[12px] font-semibold text-ink-muted">Read-only ({role})</span> : null}
+            {dirty ? <span className="text-[12px] font-semibold text-caution">● Unsaved changes</span> : null}
           </div>
-          <PropertyPanel
-            selection={selection}
-            readOnly={locked}
-            wiringStandard={doc.settings.wiringStandard}
-            perUnit={doc.settings.perUnit}
-            busNames={busNames}
-            onElement={updateElement}
-            onBus={updateBus}
-            onToggleOpen={toggleOpen}
-          />
+
+          <div role="toolbar" aria-label="Workspace tools" className="flex flex-wrap items-center gap-1.5 rounded-[3px] border border-rule bg-panel px-2 py-1">
+            {readOnly ? null : (
+              <>
+                <Button size="sm" variant="primary" onClick={openSave} aria-label="Save study" disabled={conversion.problems.length > 0} title={conversion.problems.length > 0 ? 'Wire or delete unconnected elements first' : 'Save study (Ctrl+S)'}>
+                  Save study
+                </Button>
+                <Button size="sm" onClick={undoKeep} disabled={hist.past.length === 0} aria-label="Undo" title="Undo (Ctrl+Z)">
+                  ↶ Undo
+                </Button>
+                <Button size="sm" onClick={() => ((historyMove.current = true), redo())} disabled={hist.future.length === 0} aria-label="Redo" title="Redo (Ctrl+Shift+Z)">
+                  ↷ Redo
+                </Button>
+                <span className="mx-1 h-5 w-px bg-rule" aria-hidden="true" />
+              </>
+            )}
+            <Button size="sm" onClick={fit} aria-label="Fit view" title="Fit view (F)">
+              Fit view
+            </Button>
+            <Button size="sm" onClick={() => setSnap((s) => !s)} aria-pressed={snap} title="Snap to grid (G)">
+              Snap to grid {snap ? 'on' : 'off'}
+            </Button>
+            <Button size="sm" onClick={() => setDialog('settings')} aria-label="Study settings">
+              Study settings
+            </Button>
+            <Button size="sm" onClick={() => setDialog('help')} aria-label="Keyboard shortcuts" title="Keyboard shortcuts (?)">
+              ? Shortcuts
+            </Button>
+            <span role="status" className="num ml-auto text-[12px] text-ink-muted">
+              {doc.settings.frequencyHz} Hz · {doc.settings.sequence} · {doc.settings.shiftConvention === 'iec' ? 'IEC clock shift' : 'N. American shift (LV lags 30°)'} · {statusText}
+            </span>
+          </div>
+          <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
+          {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
+
+          <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
+            {locked ? null : <Palette onAdd={addItem} />}
+            {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
+            <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
+              <ReactFlow<WorkspaceNode, WorkspaceEdge>
+                nodes={nodes}
+                edges={edges}
+                nodeTypes={nodeTypes}
+                edgeTypes={edgeTypes}
+                onNodesChange={onNodesChange}
+                onEdgesChange={onEdgesChange}
+                onConnect={onConnect}
+                isValidConnection={isValidConnection}
+                connectionMode={ConnectionMode.Loose}
+                onNodeDragStart={onNodeDragStart}
+                onNodeDragStop={onNodeDragStop}
+                onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
+                nodesDraggable={!locked}
+                nodesConnectable={!locked}
+                elementsSelectable
+                deleteKeyCode={null}
+                snapToGrid={snap}
+                snapGrid={SNAP_GRID}
+                defaultViewport={layout?.viewport}
+                fitView={!layout?.viewport && initiallyDrawn}
+                fitViewOptions={FIT_VIEW_OPTIONS}
+                minZoom={0.2}
+                maxZoom={3}
+                proOptions={PRO_OPTIONS}
+                ariaLabelConfig={ARIA_LABEL_CONFIG}
+              >
+                <Background gap={20} size={1} color="#d3d0c6" />
+                <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
+              </ReactFlow>
+              {stale ? (
+                <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
+                  Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
+                </p>
+              ) : (
+                <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
+              )}
+              {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
+              {doc.nodes.length === 0 ? (
+                <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
+                  {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
+                </p>
+              ) : null}
+            </div>
+            <PropertyPanel
+              selection={selection}
+              readOnly={locked}
+              wiringStandard={doc.settings.wiringStandard}
+              perUnit={doc.settings.perUnit}
+              busNames={busNames}
+              onElement={updateElement}
+              onBus={updateBus}
+              onToggleOpen={toggleOpen}
+            />
+          </div>
+
+          <div className="overflow-auto">
+            <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
+            <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
+            <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} server={serverSweeps} />
+          </div>
         </div>
 
-        <div className="overflow-auto">
-          <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
-          <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
-          <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} server={serverSweeps} />
-        </div>
-      </div>
-
-      <SaveDialog open={dialog === 'save'} busy={save.isPending} error={save.isError && !conflictOf(save.error) ? save.error.message : undefined} onCancel={() => setDialog(null)} onSave={(m) => saving.doSave(docRef.current, m || undefined, baseVersion, () => setDialog(null))} />
-      <ConflictDialog
-        theirs={theirs}
-        diff={theirs ? compareCircuits(circuit, theirs.content.circuit) : { added: [], removed: [], changed: [] }}
-        busy={save.isPending}
-        onCancel={saving.dismissConflict}
-        onLoadTheirs={saving.loadTheirs}
-        onOverwrite={() => theirs && saving.doSave(docRef.current, saving.pendingMessage, theirs.version)}
-      />
-      <SettingsDialog open={dialog === 'settings'} settings={doc.settings} buses={busList} readOnly={readOnly} onClose={() => setDialog(null)} onApply={applySettings} />
-      <ShortcutsDialog open={dialog === 'help'} onClose={() => setDialog(null)} />
-      <LeaveDialog open={blocker.state === 'blocked'} onStay={() => blocker.reset?.()} onLeave={() => blocker.proceed?.()} />
+        <SaveDialog open={dialog === 'save'} busy={save.isPending} error={save.isError && !conflictOf(save.error) ? save.error.message : undefined} onCancel={() => setDialog(null)} onSave={(m) => saving.doSave(docRef.current, m || undefined, baseVersion, () => setDialog(null))} />
+        <ConflictDialog
+          theirs={theirs}
+          diff={theirs ? compareCircuits(circuit, theirs.content.circuit) : { added: [], removed: [], changed: [] }}
+          busy={save.isPending}
+          onCancel={saving.dismissConflict}
+          onLoadTheirs={saving.loadTheirs}
+          onOverwrite={() => theirs && saving.doSave(docRef.current, saving.pendingMessage, theirs.version)}
+        />
+        <SettingsDialog open={dialog === 'settings'} settings={doc.settings} buses={busList} readOnly={readOnly} onClose={() => setDialog(null)} onApply={applySettings} />
+        <ShortcutsDialog open={dialog === 'help'} onClose={() => setDialog(null)} />
+        <LeaveDialog open={blocker.state === 'blocked'} onStay={() => blocker.reset?.()} onLeave={() => blocker.proceed?.()} />
+      </CanvasValuesContext.Provider>
     </CanvasViewContext.Provider>
   );
 }

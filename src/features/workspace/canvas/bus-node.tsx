@@ -7,7 +7,7 @@ import { Handle, Position, type NodeProps } from '@xyflow/react';
 import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { busConductors, type BusNode } from '../model/types.ts';
-import { useCanvasView } from './canvas-context.tsx';
+import { useCanvasValue, useCanvasView } from './canvas-context.tsx';
 import { BusPhaseVoltages, flagWords, severitySign } from '../results/diagram-marks.tsx';
 
 export const BUS_WIDTH = 260;
@@ -19,8 +19,10 @@ function fmt(v: number): string {
 
 export const BusNodeView = memo(function BusNodeView({ data, selected }: NodeProps<BusNode>) {
   const view = useCanvasView();
+  // Only this bus's overlay: a solve that leaves it unchanged does not re-render the node.
+  const ov = useCanvasValue((v) => v.overlays?.buses[data.name]);
+  const stale = useCanvasValue((v) => v.stale);
   const conds = busConductors(data.splitPhase);
-  const ov = view.overlays?.buses[data.name];
   const flag = ov?.worstFlag;
   return (
     <div className="relative" style={{ width: BUS_WIDTH }} aria-label={`Bus ${data.name}`}>
@@ -28,8 +30,8 @@ export const BusNodeView = memo(function BusNodeView({ data, selected }: NodePro
         <span className="num font-semibold text-ink">{data.name}</span>
         <span className="num text-ink-muted">{data.kvLL !== undefined ? `${data.kvLL} kV` : data.splitPhase ? '120/240 V' : ''}</span>
         {ov ? (
-          <div className={`num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`} data-stale={view.stale || undefined} title={view.stale ? 'Stale: from before the last edit, which cannot be solved' : undefined}>
-            {view.stale ? <span className="font-semibold text-caution no-underline">stale</span> : null}
+          <div className={`num flex w-max gap-x-2 text-[10.5px] leading-tight text-ink-muted ${stale ? 'line-through opacity-60' : ''}`} data-stale={stale || undefined} title={stale ? 'Stale: from before the last edit, which cannot be solved' : undefined}>
+            {stale ? <span className="font-semibold text-caution no-underline">stale</span> : null}
             <BusPhaseVoltages overlay={ov} standard={view.wiringStandard} />
             {ov.neutralShiftV !== undefined ? (
               <span className={`rounded-[2px] px-1 font-semibold ${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10 ? 'bg-danger-soft text-danger' : 'bg-sunken text-ink'}`} title="Neutral-to-earth voltage (neutral shift)">

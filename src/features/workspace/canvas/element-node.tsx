@@ -8,10 +8,11 @@ import { memo } from 'react';
 import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { elementPorts, type PortSide } from '../model/ports.ts';
 import type { ElementNode } from '../model/types.ts';
-import { useCanvasView, type CanvasView } from './canvas-context.tsx';
+import { useCanvasValue, useCanvasView, type ShiftReading } from './canvas-context.tsx';
 import { flagWords, LoadVoltageNote, severitySign } from '../results/diagram-marks.tsx';
 import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
 
+const NO_PROBLEMS: string[] = [];
 const POSITION: Record<PortSide, Position> = { top: Position.Top, bottom: Position.Bottom, left: Position.Left, right: Position.Right };
 
 /**
@@ -51,11 +52,15 @@ export function elementSummary(el: CircuitElementInput, wired = true): string {
 
 export const ElementNodeView = memo(function ElementNodeView({ id, data, selected }: NodeProps<ElementNode>) {
   const view = useCanvasView();
+  // Only this element's entries: a solve or an edit elsewhere that leaves them unchanged does not re-render the node.
+  const ov = useCanvasValue((v) => v.overlays?.elements[id]);
+  const stale = useCanvasValue((v) => v.stale);
+  const problems = useCanvasValue((v) => v.problems[id]) ?? NO_PROBLEMS;
+  const wired = useCanvasValue((v) => v.wiredOf[id]);
+  const shift = useCanvasValue((v) => v.shifts[id]);
   const el = data.element;
   const ports = elementPorts(el);
-  const ov = view.overlays?.elements[id];
   const flag = ov?.worstFlag;
-  const problems = view.problems[id] ?? [];
   const sides = new Map<PortSide, number>();
   for (const p of ports) sides.set(p.side, (sides.get(p.side) ?? 0) + 1);
   const seen = new Map<PortSide, number>();
@@ -88,13 +93,13 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
       <div className="pointer-events-none absolute left-[68px] top-2 w-max max-w-[150px] text-[11px] leading-tight">
         <div className="num font-semibold text-ink">{id}</div>
         <div className="num text-ink-muted" data-testid={`summary-${id}`}>
-          {elementSummary(view.wiredOf[id] ?? el, view.wiredOf[id] !== undefined)}
+          {elementSummary(wired ?? el, wired !== undefined)}
         </div>
-        {view.shifts[id] !== undefined ? <ShiftNote shift={view.shifts[id]} /> : null}
+        {shift !== undefined ? <ShiftNote shift={shift} /> : null}
         <LoadVoltageNote overlay={ov} standard={view.wiringStandard} />
-        {ov?.loadingPercent !== undefined ? <div className={`num text-ink-muted ${view.stale ? 'line-through opacity-60' : ''}`}>{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
+        {ov?.loadingPercent !== undefined ? <div className={`num text-ink-muted ${stale ? 'line-through opacity-60' : ''}`}>{ov.loadingPercent.toFixed(0)} % loaded</div> : null}
         {flag ? (
-          <div className={`font-semibold ${view.stale ? 'line-through opacity-60 ' : ''}${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
+          <div className={`font-semibold ${stale ? 'line-through opacity-60 ' : ''}${flag.severity === 'violation' ? 'text-danger' : flag.severity === 'warning' ? 'text-caution' : 'text-ink-muted'}`} title={flag.message}>
             {severitySign(flag.severity)} {flagWords(flag)}
           </div>
         ) : null}
@@ -115,7 +120,7 @@ export const ElementNodeView = memo(function ElementNodeView({ id, data, selecte
   );
 });
 
-function ShiftNote({ shift }: { shift: CanvasView['shifts'][string] }) {
+function ShiftNote({ shift }: { shift: ShiftReading }) {
   const m = shift.measuredDeg;
   return (
     <div className="num text-ink">

@@ -9,7 +9,7 @@ import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { elementPorts, isBundleHandle } from '../model/ports.ts';
 import type { Conductor, WorkspaceEdge } from '../model/types.ts';
-import { useCanvasView } from './canvas-context.tsx';
+import { useCanvasValue, useCanvasView } from './canvas-context.tsx';
 
 function amps(a: number): string {
   return a >= 100 ? a.toFixed(0) : a >= 10 ? a.toFixed(1) : a.toFixed(2);
@@ -18,6 +18,11 @@ function amps(a: number): string {
 export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<WorkspaceEdge>) {
   const { id, source, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, targetHandleId, sourceHandleId, data, selected } = props;
   const view = useCanvasView();
+  // Only the entries of this wire's element and bus: a solve that leaves them unchanged does not re-render the wire.
+  const ov = useCanvasValue((v) => v.overlays?.elements[source]);
+  const element = useCanvasValue((v) => v.elementOf[source]);
+  const busName = useCanvasValue((v) => v.busNameOf[props.target]) ?? '';
+  const stale = useCanvasValue((v) => v.stale);
   const [path, lx, ly] = getSmoothStepPath({ sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, borderRadius: 6 });
   const open = data?.open ?? [];
   const single = !isBundleHandle(targetHandleId);
@@ -26,8 +31,6 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
 
   // Currents of this port (engine port index = order of distinct element fields).
   let currents: { conductor: string; mag: number }[] = [];
-  const ov = view.overlays?.elements[source];
-  const element = view.elementOf[source];
   if (ov && element) {
     const ports = elementPorts(element);
     const fields = [...new Set(ports.map((p) => p.field))];
@@ -39,7 +42,6 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
 
   // One click on the wire opens (or closes) its neutral, or the conductor of a single-conductor wire.
   const toggled: Conductor | null = single ? ((targetHandleId ?? null) as Conductor | null) : 'n';
-  const busName = view.busNamesOf(props.target)[0] ?? '';
   const wireName = `connection ${source} to bus ${busName}`;
   const isOpen = toggled !== null && open.includes(toggled);
   const words = toggled === null ? '' : toggled === 'n' ? 'neutral' : toggled === '1' || toggled === '2' ? `leg ${toggled}` : `phase ${phaseStyle(toggled, view.wiringStandard).label}`;
@@ -81,7 +83,7 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
               control
             )}
             {currents.map((c) => (
-              <span key={c.conductor} className={`mr-1 whitespace-nowrap ${view.stale ? 'line-through opacity-60' : ''}`} style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
+              <span key={c.conductor} className={`mr-1 whitespace-nowrap ${stale ? 'line-through opacity-60' : ''}`} style={{ color: phaseStyle(c.conductor, view.wiringStandard).color }}>
                 {phaseStyle(c.conductor, view.wiringStandard).label} {amps(c.mag)} A
               </span>
             ))}

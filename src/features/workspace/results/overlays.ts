@@ -97,3 +97,34 @@ export function diagramOverlays(result: CircuitResult): DiagramOverlays {
   }
   return { buses, elements };
 }
+
+/** Deep equality of plain data (JSON-like values: objects, arrays, numbers, strings, booleans, null, undefined). */
+export function samePlain(a: unknown, b: unknown): boolean {
+  if (Object.is(a, b)) return true;
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false;
+  if (Array.isArray(a) !== Array.isArray(b)) return false;
+  if (Array.isArray(a)) {
+    const bb = b as unknown[];
+    if (a.length !== bb.length) return false;
+    for (let i = 0; i < a.length; i++) if (!samePlain(a[i], bb[i])) return false;
+    return true;
+  }
+  const ka = Object.keys(a);
+  if (ka.length !== Object.keys(b).length) return false;
+  for (const k of ka) if (!Object.prototype.hasOwnProperty.call(b, k) || !samePlain((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k])) return false;
+  return true;
+}
+
+/**
+ * `next` with every bus and element overlay that equals its counterpart in `prev` replaced by that
+ * counterpart, so canvas nodes whose values did not change see the same object and skip rendering.
+ */
+export function shareOverlays(prev: DiagramOverlays | null, next: DiagramOverlays): DiagramOverlays {
+  if (!prev) return next;
+  const pick = <T>(old: Record<string, T>, cur: Record<string, T>): Record<string, T> => {
+    const out: Record<string, T> = {};
+    for (const [k, v] of Object.entries(cur)) out[k] = k in old && samePlain(old[k], v) ? old[k] : v;
+    return out;
+  };
+  return { buses: pick(prev.buses, next.buses), elements: pick(prev.elements, next.elements) };
+}

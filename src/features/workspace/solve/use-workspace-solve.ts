@@ -3,12 +3,12 @@
  * the Web Worker solve, the diagram overlays, the problems to write beside nodes (unwired ports,
  * engine errors naming an element or bus), and each bank's stated and measured phase shift.
  */
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
 import { applyCase, BASE_CASE_ID, type CircuitInput } from '../../../../shared/engine/index.ts';
-import type { CanvasView } from '../canvas/canvas-context.tsx';
+import type { ShiftReading } from '../canvas/canvas-context.tsx';
 import { convert, json } from '../model/conversion.ts';
 import type { WorkspaceDoc } from '../model/document.ts';
-import { diagramOverlays } from '../results/overlays.ts';
+import { diagramOverlays, shareOverlays, type DiagramOverlays } from '../results/overlays.ts';
 import { useLiveSolve } from './use-live-solve.ts';
 
 /** `caseId`: the study case to solve instead of the base (the circuit returned stays the base, with its cases). */
@@ -26,7 +26,9 @@ export function useWorkspaceSolve(doc: WorkspaceDoc, caseId: string = BASE_CASE_
     }
   }, [circuit, caseId]);
   const live = useLiveSolve(shown.circuit && shown.circuit.elements.length > 0 ? shown.circuit : null);
-  const overlays = useMemo(() => (live.result ? diagramOverlays(live.result) : null), [live.result]);
+  // Overlays equal to the previous solve's stay the same objects, so only the nodes they changed re-render.
+  const lastOverlays = useRef<DiagramOverlays | null>(null);
+  const overlays = useMemo(() => (lastOverlays.current = live.result ? shareOverlays(lastOverlays.current, diagramOverlays(live.result)) : null), [live.result]);
 
   const problems = useMemo(() => {
     const out: Record<string, string[]> = {};
@@ -48,7 +50,7 @@ export function useWorkspaceSolve(doc: WorkspaceDoc, caseId: string = BASE_CASE_
   }, [conversion, live.status, live.error]);
 
   const shifts = useMemo(() => {
-    const out: CanvasView['shifts'] = {};
+    const out: Record<string, ShiftReading> = {};
     if (!live.result) return out;
     const byBus = new Map(live.result.buses.map((b) => [b.bus, b] as const));
     for (const el of circuit.elements) {
