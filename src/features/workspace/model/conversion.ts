@@ -5,7 +5,7 @@
  */
 import type { StudyDetail } from '../../../../shared/api/studies.ts';
 import { circuitSchema, type CircuitElementInput, type CircuitInput } from '../../../../shared/engine/index.ts';
-import { PRIVATE_SEP, canvasToCircuit } from './canvas-to-circuit.ts';
+import { PRIVATE_SEP, canvasToCircuit, type ElementConversionCache } from './canvas-to-circuit.ts';
 import { canvasLayout, circuitToCanvas } from './circuit-to-canvas.ts';
 import type { WorkspaceDoc } from './document.ts';
 import { readLayout, type StudySettings } from './layout.ts';
@@ -61,6 +61,8 @@ export type Conversion = ReturnType<typeof canvasToCircuit> & {
  */
 const conversionCache = new WeakMap<WorkspaceEdge[], { data: unknown[]; settings: StudySettings; result: Conversion }>();
 const jsonCache = new WeakMap<object, string>();
+/** Element nodes converted earlier, by data object: an edit re-converts only the elements whose data or wires it changed. */
+const elementCache: ElementConversionCache = new WeakMap();
 
 /** JSON of an object that is never mutated, computed once. */
 export function json(o: object): string {
@@ -69,14 +71,17 @@ export function json(o: object): string {
   return j;
 }
 
-/** The circuit of a document (cached per wires, node data and settings). */
+/**
+ * The circuit of a document (cached per wires, node data and settings). Element objects are shared
+ * with earlier conversions where node data and wiring did not change: never mutate them.
+ */
 export function convert(d: WorkspaceDoc): Conversion {
   const data = d.nodes.map((n) => n.data);
   const hit = conversionCache.get(d.edges);
   if (hit && hit.settings === d.settings && hit.data.length === data.length && hit.data.every((x, i) => x === data[i]) && d.nodes.every((n, i) => n.id === hit.result.ids[i])) return hit.result;
   const elementOf: Record<string, CircuitElementInput> = {};
   for (const n of d.nodes) if (isElementNode(n)) elementOf[n.id] = n.data.element;
-  const converted = canvasToCircuit(d.nodes, d.edges, d.settings);
+  const converted = canvasToCircuit(d.nodes, d.edges, d.settings, elementCache);
   const wiredOf: Record<string, CircuitElementInput> = {};
   for (const e of converted.circuit.elements) if (e.id in elementOf) wiredOf[e.id] = e;
   const result: Conversion = { ...converted, ids: d.nodes.map((n) => n.id), elementOf, wiredOf };
