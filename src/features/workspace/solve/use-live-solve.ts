@@ -45,6 +45,11 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   /** When the circuit last changed (performance.now()), to tell a single edit from a burst. */
   const lastChange = useRef(-Infinity);
   const createPortRef = useRef(createPort);
+  /** The circuit (and limits) the effect last handled: a render with another one is a new edit. */
+  const lastCircuit = useRef<CircuitInput | null>(null);
+  const postedLimitsKey = useRef<string | null>(null);
+  /** Id of the latest request answered (a request posted from render can be answered before the effect runs). */
+  const answeredId = useRef(0);
   // Limits compared by value, so an inline object literal does not re-solve on every render.
   const limitsKey = JSON.stringify(limits ?? null);
   const stableLimits = useMemo(() => limits, [limitsKey]);
@@ -52,6 +57,7 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   useEffect(() => {
     const onResponse = (res: SolveResponse) => {
       if (res.id !== latestId.current) return; // a newer edit is on its way: drop this answer
+      answeredId.current = res.id;
       if (res.ok) setState({ status: 'ok', result: res.result, ms: res.ms });
       else setState((s) => ({ status: 'error', result: s.result, error: res.error, ms: res.ms, stale: s.result !== undefined }));
     };
@@ -65,7 +71,30 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     };
   }, []);
 
+  // A change after a quiet spell goes to the worker from this render, before the components below
+  // render and the browser paints the edit: the worker solves while the page draws. The effect below
+  // then only marks the state as solving. (Guarded by the circuit's identity, so a render repeated
+  // for the same circuit posts nothing; the port may not exist yet on the very first render, and
+  // the effect posts then.)
+  const preposted = useRef<{ circuit: CircuitInput; id: number } | null>(null);
+  if (circuit !== null && portRef.current && preposted.current?.circuit !== circuit && lastCircuit.current !== circuit) {
+    const t = performance.now();
+    if (t - lastChange.current >= debounceMs && limitsKey === postedLimitsKey.current) {
+      const id = ++latestId.current;
+      lastChange.current = t;
+      preposted.current = { circuit, id };
+      portRef.current.post({ id, circuit, limits: stableLimits });
+    }
+  }
+
   useEffect(() => {
+    lastCircuit.current = circuit;
+    postedLimitsKey.current = limitsKey;
+    if (circuit !== null && preposted.current?.circuit === circuit && preposted.current.id === latestId.current) {
+      // already posted by the render above (and perhaps answered already)
+      if (answeredId.current !== preposted.current.id) setState((s) => ({ ...s, status: 'solving', stale: s.result !== undefined }));
+      return;
+    }
     if (circuit === null) {
       latestId.current += 1; // anything in flight is now stale
       setState({ status: 'idle' });
@@ -84,6 +113,7 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     }
     const timer = setTimeout(send, debounceMs);
     return () => clearTimeout(timer);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- limitsKey stands for stableLimits
   }, [circuit, stableLimits, debounceMs]);
 
   return state;
