@@ -147,14 +147,22 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   }, [canvasValues, overlays, stale, problems, shifts, conversion.map, conversion.elementOf, conversion.wiredOf]);
 
   // Wire names come from the current element and bus names at render time (never stored on the edge).
-  const edges = useMemo(
-    () =>
-      doc.edges.map((e) => {
-        const label = wireLabel(e.source, conversion.map.nodeToBus[e.target] ?? '');
-        return e.ariaLabel === label ? e : { ...e, ariaLabel: label };
-      }),
-    [doc.edges, conversion.map],
-  );
+  // The array is kept when no wire changed, so an edit of a value does not hand xyflow new edges to sort through.
+  const lastEdges = useRef<WorkspaceEdge[]>([]);
+  const [labelled] = useState(() => new WeakMap<WorkspaceEdge, WorkspaceEdge>());
+  const edges = useMemo(() => {
+    const next = doc.edges.map((e) => {
+      const label = wireLabel(e.source, conversion.map.nodeToBus[e.target] ?? '');
+      if (e.ariaLabel === label) return e;
+      const known = labelled.get(e);
+      if (known?.ariaLabel === label) return known;
+      const out = { ...e, ariaLabel: label };
+      labelled.set(e, out);
+      return out;
+    });
+    const prev = lastEdges.current;
+    return (lastEdges.current = prev.length === next.length && next.every((e, i) => e === prev[i]) ? prev : next);
+  }, [doc.edges, conversion.map, labelled]);
 
   // The elements the shown case changes are outlined (read-only overlay; nothing is stored on the nodes).
   const nodes = useMemo(() => {

@@ -44,6 +44,9 @@ export interface ResultsPanelProps {
   perUnit?: PerUnitSettings;
 }
 
+/** How long values wait for a new answer before they are dimmed, ms. */
+const DIM_AFTER_MS = 150;
+
 /** Why the neutral shifted, in a few words, by cause (a fault's shift is not a lost neutral). */
 const NEUTRAL_CAUSE_SHORT: Record<NonNullable<CircuitResult['buses'][number]['neutralCause']>, (openAt: string[]) => string> = {
   'open-neutral': (openAt) => `the neutral is open upstream${openAt.length ? ` (${openAt.join(', ')})` : ''}`,
@@ -222,6 +225,17 @@ function ResultsPanelView({ status, result: latestResult, error, stale, ms, sele
   // status have been painted (they are long, and mostly below the diagram); they are dimmed until then.
   const fullResult = useDeferredValue(latestResult);
   const behind = fullResult !== latestResult;
+  // The values are dimmed when they do not belong to what is drawn: at once when the latest edit
+  // failed, and after a short while when its answer or the tables' render is still on its way (a
+  // quick solve then repaints nothing but its values, rather than the whole panel twice).
+  const waiting = status === 'solving' || behind;
+  const [slow, setSlow] = useState(false);
+  useEffect(() => {
+    if (!waiting) return setSlow(false);
+    const t = setTimeout(() => setSlow(true), DIM_AFTER_MS);
+    return () => clearTimeout(t);
+  }, [waiting]);
+  const dim = (status === 'error' && stale) || (waiting && slow);
   const result = useMemo(() => (fullResult ? hidePrivate(fullResult, privateMarker) : undefined), [fullResult, privateMarker]);
   const [busChoice, setBusChoice] = useState<string | null>(null);
   const [elementChoice, setElementChoice] = useState<string | null>(null);
@@ -267,7 +281,7 @@ function ResultsPanelView({ status, result: latestResult, error, stale, ms, sele
       {result ? (
         // The values are dimmed while the next edit solves: the class sits outside the tables, which
         // re-render only when their own inputs change (not when the status line does).
-        <div className={stale || behind ? 'opacity-70' : undefined} aria-busy={behind || undefined}>
+        <div className={dim ? 'opacity-70' : undefined} aria-busy={waiting || undefined}>
           <ResultsBody
             result={result}
             busName={busName}

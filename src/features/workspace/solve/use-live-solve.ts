@@ -6,6 +6,7 @@
  * screen while the next one is computed or when the edit failed (`stale` then says so).
  */
 import { useEffect, useMemo, useRef, useState } from 'react';
+import { flushSync } from 'react-dom';
 import type { CircuitInput, CircuitResult, LimitsInput } from '../../../../shared/engine/index.ts';
 import { createDefaultPort, type PortFailure, type PortListener, type SolvePort } from './solve-port.ts';
 import type { LiveSolveError, SolveResponse } from './solve-protocol.ts';
@@ -36,10 +37,22 @@ export interface LiveSolveOptions {
   createPort?: (onResponse: PortListener, onFailure: PortFailure) => SolvePort;
 }
 
+interface SolvedRequest {
+  circuit: CircuitInput;
+  limits: LimitsInput | undefined;
+}
+
+/** The latest answer, with the request it answers ('failed': the port itself failed, nothing is pending). */
+interface AnsweredState extends LiveSolveState {
+  answers?: SolvedRequest | 'failed';
+}
+
 /** Live solve of a circuit in the engine's format; `null` means nothing to solve yet. */
 export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOptions = {}): LiveSolveState {
   const { debounceMs = 50, limits, createPort = createDefaultPort } = options;
-  const [state, setState] = useState<LiveSolveState>({ status: 'idle' });
+  const [state, setState] = useState<AnsweredState>({ status: 'idle' });
+  /** The circuit and limits of the latest request (what an answer to `latestId` belongs to). */
+  const latestRequest = useRef<SolvedRequest | null>(null);
   const portRef = useRef<SolvePort | null>(null);
   const latestId = useRef(0);
   /** When the circuit last changed (performance.now()), to tell a single edit from a burst. */
@@ -48,8 +61,6 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   /** The circuit (and limits) the effect last handled: a render with another one is a new edit. */
   const lastCircuit = useRef<CircuitInput | null>(null);
   const postedLimitsKey = useRef<string | null>(null);
-  /** Id of the latest request answered (a request posted from render can be answered before the effect runs). */
-  const answeredId = useRef(0);
   // Limits compared by value, so an inline object literal does not re-solve on every render.
   const limitsKey = JSON.stringify(limits ?? null);
   const stableLimits = useMemo(() => limits, [limitsKey]);
@@ -57,12 +68,15 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   useEffect(() => {
     const onResponse = (res: SolveResponse) => {
       if (res.id !== latestId.current) return; // a newer edit is on its way: drop this answer
-      answeredId.current = res.id;
-      if (res.ok) setState({ status: 'ok', result: res.result, ms: res.ms });
-      else setState((s) => ({ status: 'error', result: s.result, error: res.error, ms: res.ms, stale: s.result !== undefined }));
+      const answers = latestRequest.current ?? undefined;
+      // Rendered at once, in the message's own task, rather than in one the scheduler queues behind it.
+      flushSync(() => {
+        if (res.ok) setState({ status: 'ok', result: res.result, ms: res.ms, answers });
+        else setState((s) => ({ status: 'error', result: s.result, error: res.error, ms: res.ms, stale: s.result !== undefined, answers }));
+      });
     };
     const onFailure = (message: string) =>
-      setState((s) => ({ status: 'error', result: s.result, stale: s.result !== undefined, error: { code: 'internal', message: `Live solve is unavailable: ${message}`, elementIds: [], nodes: [] } }));
+      setState((s) => ({ status: 'error', result: s.result, stale: s.result !== undefined, error: { code: 'internal', message: `Live solve is unavailable: ${message}`, elementIds: [], nodes: [] }, answers: 'failed' }));
     const port = createPortRef.current(onResponse, onFailure);
     portRef.current = port;
     return () => {
@@ -72,10 +86,9 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   }, []);
 
   // A change after a quiet spell goes to the worker from this render, before the components below
-  // render and the browser paints the edit: the worker solves while the page draws. The effect below
-  // then only marks the state as solving. (Guarded by the circuit's identity, so a render repeated
-  // for the same circuit posts nothing; the port may not exist yet on the very first render, and
-  // the effect posts then.)
+  // render and the browser paints the edit: the worker solves while the page draws. (Guarded by the
+  // circuit's identity, so a render repeated for the same circuit posts nothing; the port does not
+  // exist yet on the very first render, and the effect below posts then.)
   const preposted = useRef<{ circuit: CircuitInput; id: number } | null>(null);
   if (circuit !== null && portRef.current && preposted.current?.circuit !== circuit && lastCircuit.current !== circuit) {
     const t = performance.now();
@@ -83,6 +96,7 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
       const id = ++latestId.current;
       lastChange.current = t;
       preposted.current = { circuit, id };
+      latestRequest.current = { circuit, limits: stableLimits };
       portRef.current.post({ id, circuit, limits: stableLimits });
     }
   }
@@ -90,19 +104,16 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   useEffect(() => {
     lastCircuit.current = circuit;
     postedLimitsKey.current = limitsKey;
-    if (circuit !== null && preposted.current?.circuit === circuit && preposted.current.id === latestId.current) {
-      // already posted by the render above (and perhaps answered already)
-      if (answeredId.current !== preposted.current.id) setState((s) => ({ ...s, status: 'solving', stale: s.result !== undefined }));
-      return;
-    }
     if (circuit === null) {
       latestId.current += 1; // anything in flight is now stale
+      latestRequest.current = null;
       setState({ status: 'idle' });
       return;
     }
+    if (preposted.current?.circuit === circuit && preposted.current.id === latestId.current) return; // posted by the render above
     // The id is taken at edit time, so an answer to an older edit that lands during the debounce is dropped too.
     const id = ++latestId.current;
-    setState((s) => ({ ...s, status: 'solving', stale: s.result !== undefined }));
+    latestRequest.current = { circuit, limits: stableLimits };
     const send = () => portRef.current?.post({ id, circuit, limits: stableLimits });
     const t = performance.now();
     const quiet = t - lastChange.current;
@@ -116,5 +127,13 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     // eslint-disable-next-line react-hooks/exhaustive-deps -- limitsKey stands for stableLimits
   }, [circuit, stableLimits, debounceMs]);
 
-  return state;
+  // "Solving" is read off the state rather than set: the state answers another circuit (or other
+  // limits) than the one given. So an edit costs no render of its own to say so.
+  return useMemo<LiveSolveState>(() => {
+    const { answers, ...shown } = state;
+    if (circuit === null || answers === 'failed' || (answers && answers.circuit === circuit && answers.limits === stableLimits)) return shown;
+    if (state.status === 'idle' && answers === undefined && state.result === undefined) return { status: 'solving' };
+    return { ...shown, status: 'solving', stale: state.result !== undefined };
+  }, [state, circuit, stableLimits]);
 }
+
