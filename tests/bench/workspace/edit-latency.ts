@@ -59,7 +59,7 @@ async function freePort(): Promise<number> {
 /** The page-side instrumentation (a string: tsx's helpers do not exist in the page). */
 const INSTRUMENT = `(() => {
   const lat = (window.__lat = { marks: {}, workerMs: NaN, armed: false });
-  const mark = (k) => { if (lat.armed && lat.marks[k] === undefined) lat.marks[k] = performance.now(); };
+  const mark = (k) => { if (lat.armed && lat.marks[k] === undefined) { lat.marks[k] = performance.now(); performance.mark('lat-' + k); } };
   document.addEventListener('keydown', (e) => { if (e.key === 'Enter' && lat.armed) mark('input'); }, true);
   const post = Worker.prototype.postMessage;
   Worker.prototype.postMessage = function (...args) { if (lat.marks.input !== undefined) mark('post'); return post.apply(this, args); };
@@ -85,7 +85,7 @@ const INSTRUMENT = `(() => {
     // settled: the frame after the last mutation the answer caused (tables rendered after the diagram)
     lat.lastMutation = performance.now();
     const seq = ++lat.seq;
-    requestAnimationFrame(() => setTimeout(() => { if (seq === lat.seq) lat.marks.settled = performance.now(); }, 0));
+    requestAnimationFrame(() => setTimeout(() => { if (seq === lat.seq) { lat.marks.settled = performance.now(); performance.mark('lat-settled'); } }, 0));
   }).observe(document, { subtree: true, childList: true, characterData: true, attributes: true });
 })()`;
 
@@ -142,7 +142,7 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
     await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
     await cdp.send('Profiler.start');
     cdp.on('Tracing.dataCollected', (e) => void traceEvents.push(...(e.value as unknown as TraceEvent[])));
-    await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReportEvents' });
+    await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline,blink.user_timing', transferMode: 'ReportEvents' });
   }
   const out: EditFigures = { study: name, elements: elements.length, load: chosen, inputToPost: [], roundTrip: [], inWorker: [], answerToCommit: [], commitToPaint: [], total: [], settled: [] };
   for (let r = 0; r < RUNS; r++) {
@@ -187,6 +187,7 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
 
 interface CpuProfile {
   nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[];
+  startTime: number;
   samples: number[];
   timeDeltas: number[];
 }
@@ -194,13 +195,28 @@ interface TraceEvent {
   name: string;
   ph: string;
   dur?: number;
+  ts: number;
   tid: number;
   pid: number;
   args?: { data?: { frame?: string } };
 }
 
 /** Self time per function (ms per edit) and main-thread timeline events by name. */
-function printProfile(study: string, profile: CpuProfile, events: TraceEvent[], edits: number): void {
+function printProfile(study: string, profile: CpuProfile, allEvents: TraceEvent[], edits: number): void {
+  // Only what happens between an edit's input and its settled mark (user-timing marks in the trace;
+  // the CPU profile and the trace share the clock): typing the value and the waits are left out.
+  const windows: [number, number][] = [];
+  for (const e of [...allEvents].filter((x) => x.name.startsWith('lat-')).sort((a, b) => a.ts - b.ts)) {
+    if (e.name === 'lat-input') windows.push([e.ts, e.ts]);
+    else if (e.name === 'lat-settled' && windows.length > 0) windows[windows.length - 1][1] = e.ts;
+  }
+  const inWindow = (t: number) => windows.some(([a, b]) => t >= a && t <= b);
+  const events = allEvents.filter((e) => inWindow(e.ts));
+  const sampleTimes: number[] = [];
+  let clock = profile.startTime;
+  for (const d of profile.timeDeltas) sampleTimes.push((clock += d));
+  const keep = profile.samples.map((_, i) => inWindow(sampleTimes[i]));
+  profile = { ...profile, samples: profile.samples.map((id, i) => (keep[i] ? id : -1)) };
   const byId = new Map(profile.nodes.map((n) => [n.id, n] as const));
   const self = new Map<string, number>();
   profile.samples.forEach((id, i) => {
