@@ -86,9 +86,7 @@ export function ResultsTable<Row extends object>({ label, rows, columns, rowId, 
   };
 
   return (
-    // Laid out and painted only near the view (a long table below the diagram costs nothing while a
-    // solve updates it out of sight); its last size is kept meanwhile, so the page does not jump.
-    <div className="min-w-0 [content-visibility:auto] [contain-intrinsic-size:auto_320px]">
+    <div className="min-w-0">
       <div className="mb-1 flex items-center justify-between gap-2">
         <h3 className="text-[12px] font-semibold uppercase tracking-wide text-ink-muted">{label}</h3>
         <div className="flex items-center gap-2">
