@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit, type CircuitInput } from '../../../../../shared/engine/index.ts';
-import { diagramOverlays, worstFlag } from '../../../../../src/features/workspace/results/overlays.ts';
+import { diagramOverlays, samePlain, shareOverlays, worstFlag } from '../../../../../src/features/workspace/results/overlays.ts';
 
 describe('diagramOverlays', () => {
   const result = solveCircuit(demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit);
@@ -54,5 +54,33 @@ describe('worstFlag', () => {
     expect(worstFlag([f('info', '1'), f('warning', '2'), f('warning', '3')])?.message).toBe('2');
     expect(worstFlag([f('warning', '1'), f('violation', '2')])?.message).toBe('2');
     expect(worstFlag([])).toBeUndefined();
+  });
+});
+
+describe('shareOverlays', () => {
+  const circuit = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
+  const withKw = (kw: number): CircuitInput => ({ ...circuit, elements: circuit.elements.map((e) => (e.id === 'KITCHEN' && e.type === 'load' ? { ...e, each: { kw, kvar: 0 } } : e)) as CircuitInput['elements'] });
+
+  it('keeps the previous object of every overlay whose values are equal, and takes the new one where they changed', () => {
+    const before = diagramOverlays(solveCircuit(circuit));
+    const same = shareOverlays(before, diagramOverlays(solveCircuit(circuit)));
+    for (const k of Object.keys(before.buses)) expect(same.buses[k]).toBe(before.buses[k]);
+    for (const k of Object.keys(before.elements)) expect(same.elements[k]).toBe(before.elements[k]);
+
+    const after = diagramOverlays(solveCircuit(withKw(7)));
+    const shared = shareOverlays(before, after);
+    // the kitchen load's own currents change with its kW
+    expect(shared.elements.KITCHEN).toBe(after.elements.KITCHEN);
+    expect(shared.elements.KITCHEN.currents[0].mag).not.toBe(before.elements.KITCHEN.currents[0].mag);
+    expect(shared).toEqual(after);
+  });
+
+  it('compares plain data deeply (arrays, nesting, missing keys, undefined)', () => {
+    expect(samePlain({ a: [1, { b: 'x' }] }, { a: [1, { b: 'x' }] })).toBe(true);
+    expect(samePlain({ a: [1, { b: 'x' }] }, { a: [1, { b: 'y' }] })).toBe(false);
+    expect(samePlain({ a: 1 }, { a: 1, b: undefined })).toBe(false);
+    expect(samePlain([1, 2], [1, 2, 3])).toBe(false);
+    expect(samePlain({ a: NaN }, { a: NaN })).toBe(true);
+    expect(samePlain([1], { 0: 1 })).toBe(false);
   });
 });
