@@ -14,6 +14,7 @@ import {
   ReactFlowProvider,
   applyEdgeChanges,
   applyNodeChanges,
+  useNodesInitialized,
   useReactFlow,
   type Connection,
   type EdgeChange,
@@ -307,6 +308,21 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const layout = useMemo(() => readLayout(study.content.layout), [study.content.layout]);
   // A study opened empty starts at 100 % (a fit would blow its first node up to the fit's maximum zoom).
   const [initiallyDrawn] = useState(() => doc.nodes.length > 0);
+  // The first fit (xyflow's, on the nodes' own boxes) is redone once the first solve has written its
+  // values beside the nodes: on every label, above the minimap (fitWithLabels), unless the user has
+  // moved the view by then.
+  const nodesMeasured = useNodesInitialized();
+  const userMoved = useRef(false);
+  const refitted = useRef(false);
+  const onMoveStart = useCallback((event: MouseEvent | TouchEvent | null) => {
+    if (event) userMoved.current = true;
+  }, []);
+  const firstAnswer = live.status === 'ok' || live.status === 'error';
+  useEffect(() => {
+    if (refitted.current || !initiallyDrawn || layout?.viewport || !nodesMeasured || !firstAnswer) return;
+    refitted.current = true;
+    if (!userMoved.current) fitWithLabels(rf, canvasRef.current, 0);
+  }, [initiallyDrawn, layout?.viewport, nodesMeasured, firstAnswer, rf]);
   const statusText =
     live.status === 'solving' ? 'Solving…' : live.status === 'ok' ? `Solved in ${live.ms?.toFixed(1) ?? '–'} ms` : live.status === 'error' ? 'The circuit cannot be solved (see the note by the element)' : circuit.elements.length === 0 ? 'Add a source, a bus and loads to begin' : '';
 
@@ -369,6 +385,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
           {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
 
+          {/* Above the diagram, not over it: it hides nothing drawn, and the canvas keeps its size. */}
+          {stale ? null : <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />}
           <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
             {locked ? null : <Palette onAdd={addItem} />}
             {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
@@ -385,6 +403,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
                 connectionMode={ConnectionMode.Loose}
                 onNodeDragStart={onNodeDragStart}
                 onNodeDragStop={onNodeDragStop}
+                onMoveStart={onMoveStart}
                 onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
                 nodesDraggable={!locked}
                 nodesConnectable={!locked}
@@ -407,9 +426,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
                 <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
                   Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
                 </p>
-              ) : (
-                <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
-              )}
+              ) : null}
               {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
               {doc.nodes.length === 0 ? (
                 <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">

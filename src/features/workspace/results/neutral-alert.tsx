@@ -1,5 +1,6 @@
 /**
- * The lost-neutral alert drawn on the diagram (role "alert"): for each bus whose neutral-to-earth
+ * The lost-neutral alert shown right above the diagram (role "alert"; above it, not over it, so it
+ * hides nothing drawn): for each bus whose neutral-to-earth
  * voltage passes its limit while its neutral is open upstream or floating, it says so, names the
  * loads over and under voltage with their own terminal voltages, and carries the caution.
  * A fault study's shift or an intact neutral under unbalance does not raise it (their flags word
@@ -92,12 +93,12 @@ export function hazardHeadline(h: NeutralHazard): string {
   return `Neutral lost at ${h.bus}: the neutral is open ${whereOpen(h.openAt)}.`;
 }
 
-/** The alert over the diagram; nothing when no bus has a lost or floating neutral over its limit. */
+/** The alert above the diagram; nothing when no bus has a lost or floating neutral over its limit. */
 export function NeutralHazardAlert({ result, privateMarker }: { result: CircuitResult | undefined; privateMarker?: string }) {
   const hazards = useMemo(() => (result ? neutralHazards(result, privateMarker) : []), [result, privateMarker]);
   if (hazards.length === 0) return null;
   return (
-    <div role="alert" aria-label="Neutral lost" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[460px] rounded-[3px] border-2 border-danger bg-danger-soft px-2 py-1.5 text-[12px] leading-snug text-ink shadow-sm">
+    <div role="alert" aria-label="Neutral lost" className="rounded-[3px] border-2 border-danger bg-danger-soft px-2 py-1.5 text-[12px] leading-snug text-ink shadow-sm">
       {hazards.map((h) => (
         <div key={h.bus} className="mb-1">
           <p className="font-semibold text-danger">
