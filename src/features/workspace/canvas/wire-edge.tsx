@@ -64,15 +64,20 @@ export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<Workspac
       </button>
     ) : null;
 
+  const loneControl = open.length === 0 && currents.length === 0 && control !== null;
+
   return (
     <>
       <BaseEdge id={id} path={path} style={{ stroke, strokeWidth: single ? 2 : 3.2, strokeDasharray: open.length > 0 ? '2 5' : st?.dash || undefined }} interactionWidth={16} />
       <EdgeLabelRenderer>
         {open.length > 0 || currents.length > 0 || control ? (
-          // One box per wire on its element-side leg: the one-click open control, what is open, the currents.
+          // One box per wire: the one-click open control, what is open, the currents. A box with values
+          // sits on the wire's element-side leg; a lone control (the second terminal of a single-phase
+          // load, which carries no currents of its own) sits just above the middle of the wire, so it
+          // does not land on the values of the wire beside it (the load's first terminal).
           <div
             className="nodrag nopan num pointer-events-none absolute rounded-[2px] border border-rule bg-panel/95 px-1 text-[10px] leading-tight"
-            style={{ transform: `translate(-50%, -50%) translate(${lx}px, ${(ly + sourceY) / 2}px)` }}
+            style={{ transform: loneControl ? `translate(-50%, -100%) translate(${lx}px, ${ly - 1}px)` : `translate(-50%, -50%) translate(${lx}px, ${(ly + sourceY) / 2}px)` }}
           >
             {open.length > 0 ? (
               <div className="font-semibold text-danger">
