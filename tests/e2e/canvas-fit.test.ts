@@ -1,7 +1,8 @@
 /**
  * The open-neutral demo study as an engineer first sees it in a 1280×900 window, after it loads and
  * fits: the minimap and the lost-neutral alert hide nothing drawn for a node (symbol, name, values),
- * the Fit view control keeps it so, and the current chips of one wire do not overlap one another.
+ * the Fit view control keeps it so, and the chips (open control, currents) of the wires do not
+ * overlap one another, on one wire or on the two wires of a single-phase load.
  */
 import { describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
@@ -86,6 +87,9 @@ describe('the open-neutral demo fits clear of the minimap and the alert', () => 
     await settled(page);
     await screenshot(page, 'canvas-fit-first');
     await expectNothingCovered(page);
+    // The alert above the diagram does not push the canvas and its minimap out of the window.
+    const minimap = (await page.locator('.react-flow__minimap').boundingBox())!;
+    expect(minimap.y + minimap.height).toBeLessThanOrEqual(900);
 
     await page.getByRole('button', { name: 'Fit view' }).click();
     await settled(page);

@@ -385,9 +385,11 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
           {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
 
-          {/* Above the diagram, not over it: it hides nothing drawn, and the canvas keeps its size. */}
+          {/* The alert sits above the diagram, not over it (it hides nothing drawn), within the diagram's
+              height (the page does not grow: the canvas and its minimap stay in the window). */}
+          <div className="flex h-[68vh] min-h-[460px] flex-col gap-2">
           {stale ? null : <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />}
-          <div className="flex h-[68vh] min-h-[460px] overflow-hidden rounded-[3px] border border-rule bg-paper">
+          <div className="flex min-h-0 flex-1 overflow-hidden rounded-[3px] border border-rule bg-paper">
             {locked ? null : <Palette onAdd={addItem} />}
             {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
             <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
@@ -444,6 +446,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
               onBus={updateBus}
               onToggleOpen={toggleOpen}
             />
+          </div>
           </div>
 
           <div className="overflow-auto">

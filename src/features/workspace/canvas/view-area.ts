@@ -28,7 +28,7 @@ export function visibleArea(rf: Flow, container: HTMLElement | null): Viewport |
   return { view: toFlowRect(rf, inner), covered };
 }
 
-/** Fits the view to every node together with the labels drawn beside it, above the minimap. */
+/** Fits the view to every node together with the labels drawn beside it, clear of the minimap. */
 export function fitWithLabels(rf: Flow, container: HTMLElement | null, duration = 200): void {
   const nodes = rf.getNodes();
   if (nodes.length === 0) return;
@@ -55,11 +55,31 @@ export function fitWithLabels(rf: Flow, container: HTMLElement | null, duration 
     void rf.fitBounds({ x: minX, y: minY, width: w, height: h }, { padding: 0.06, duration });
     return;
   }
-  // The minimap covers the bottom-right corner: fit into the height above it.
+  // The minimap covers the bottom-right corner. The diagram is fitted to the whole pane when it then
+  // stays clear of the minimap, else to the larger of the areas above it and left of it.
   const mm = container?.querySelector('.react-flow__minimap')?.getBoundingClientRect();
-  const below = mm && mm.height > 0 ? pane.bottom - mm.top + 8 : 0;
-  const zoom = Math.max(0.2, Math.min(MAX_FIT_ZOOM, pane.width / (w * 1.12), (pane.height - below) / (h * 1.12)));
-  void rf.setCenter(minX + w / 2, minY + h / 2 + below / 2 / zoom, { zoom, duration });
+  const k = 1.12;
+  const zoomFor = (aw: number, ah: number) => Math.max(0.2, Math.min(MAX_FIT_ZOOM, aw / (w * k), ah / (h * k)));
+  // An area of the pane (pane-relative), its zoom, and where the diagram's centre goes in it.
+  type Area = { x: number; y: number; w: number; h: number };
+  let area: Area = { x: 0, y: 0, w: pane.width, h: pane.height };
+  if (mm && mm.height > 0 && mm.width > 0) {
+    const gap = 8;
+    const mmLeft = mm.left - pane.left - gap;
+    const mmTop = mm.top - pane.top - gap;
+    const z = zoomFor(pane.width, pane.height);
+    const clear = pane.width / 2 + (w * k * z) / 2 <= mmLeft || pane.height / 2 + (h * k * z) / 2 <= mmTop;
+    if (!clear) {
+      const above: Area = { x: 0, y: 0, w: pane.width, h: Math.max(1, mmTop) };
+      const left: Area = { x: 0, y: 0, w: Math.max(1, mmLeft), h: pane.height };
+      area = zoomFor(left.w, left.h) > zoomFor(above.w, above.h) ? left : above;
+    }
+  }
+  const zoom = zoomFor(area.w, area.h);
+  // setCenter puts a flow point at the pane's centre: the one that puts the diagram's centre at the area's.
+  const dx = (pane.width / 2 - (area.x + area.w / 2)) / zoom;
+  const dy = (pane.height / 2 - (area.y + area.h / 2)) / zoom;
+  void rf.setCenter(minX + w / 2 + dx, minY + h / 2 + dy, { zoom, duration });
 }
 
 /** Largest zoom a fit gives. */
