@@ -9,6 +9,7 @@ import type { Browser, Page } from 'playwright-core';
 import path from 'node:path';
 import { ARTIFACTS, screenshot, signIn, type RunningProduct } from './harness.ts';
 import { useProductAndBrowser } from './product-fixture.ts';
+import { clickWire } from './canvas.ts';
 
 type Box = { x: number; y: number; width: number; height: number };
 
@@ -94,6 +95,19 @@ describe('the open-neutral demo fits clear of the minimap and the alert', () => 
     await page.getByRole('button', { name: 'Fit view' }).click();
     await settled(page);
     await expectNothingCovered(page);
+    // Closing the neutral takes the alert away and opening it brings it back: the canvas changes size
+    // and the fitted view is fitted again, so nothing drawn leaves the pane or goes under the minimap.
+    const alert = page.getByRole('alert', { name: 'Neutral lost' });
+    await clickWire(page, 'Connection DROP to bus PAD', 0.5);
+    await page.getByRole('button', { name: 'Close neutral', exact: true }).click();
+    await expect.poll(() => alert.count(), { timeout: 15_000 }).toBe(0);
+    await page.getByRole('button', { name: 'Open neutral', exact: true }).click();
+    await alert.waitFor({ timeout: 15_000 });
+    await settled(page);
+    await expectNothingCovered(page);
+    const pane = (await page.locator('.react-flow').boundingBox())!;
+    const outside = (await nodeBoxes(page)).filter(({ box }) => box.x < pane.x || box.y < pane.y || box.x + box.width > pane.x + pane.width || box.y + box.height > pane.y + pane.height);
+    expect(outside.map((o) => o.text)).toEqual([]);
     // The window as the engineer sees it.
     await page.screenshot({ path: path.join(ARTIFACTS, 'canvas-fit-window.png') });
 

@@ -220,7 +220,31 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     },
     [run],
   );
-  const fit = useCallback(() => fitWithLabels(rf, canvasRef.current), [rf]);
+  // Whether the view is as a fit left it (no pan or zoom by the user since): such a view is fitted
+  // again when the canvas changes size (the alert above it comes or goes).
+  const fitted = useRef(false);
+  const userMoved = useRef(false);
+  const onMoveStart = useCallback((event: MouseEvent | TouchEvent | null) => {
+    if (event) userMoved.current = true;
+  }, []);
+  const fit = useCallback(() => {
+    fitted.current = true;
+    userMoved.current = false;
+    fitWithLabels(rf, canvasRef.current);
+  }, [rf]);
+  useEffect(() => {
+    const el = canvasRef.current;
+    if (!el || typeof ResizeObserver === 'undefined') return;
+    let last = el.getBoundingClientRect().height;
+    const ro = new ResizeObserver(() => {
+      const h = el.getBoundingClientRect().height;
+      if (h === last) return;
+      last = h;
+      if (fitted.current && !userMoved.current) fitWithLabels(rf, el, 0);
+    });
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, [rf]);
   const openSave = useCallback(() => {
     if (readOnly) return;
     save.reset();
@@ -312,16 +336,14 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   // values beside the nodes: on every label, above the minimap (fitWithLabels), unless the user has
   // moved the view by then.
   const nodesMeasured = useNodesInitialized();
-  const userMoved = useRef(false);
   const refitted = useRef(false);
-  const onMoveStart = useCallback((event: MouseEvent | TouchEvent | null) => {
-    if (event) userMoved.current = true;
-  }, []);
   const firstAnswer = live.status === 'ok' || live.status === 'error';
   useEffect(() => {
     if (refitted.current || !initiallyDrawn || layout?.viewport || !nodesMeasured || !firstAnswer) return;
     refitted.current = true;
-    if (!userMoved.current) fitWithLabels(rf, canvasRef.current, 0);
+    if (userMoved.current) return;
+    fitted.current = true;
+    fitWithLabels(rf, canvasRef.current, 0);
   }, [initiallyDrawn, layout?.viewport, nodesMeasured, firstAnswer, rf]);
   const statusText =
     live.status === 'solving' ? 'Solving…' : live.status === 'ok' ? `Solved in ${live.ms?.toFixed(1) ?? '–'} ms` : live.status === 'error' ? 'The circuit cannot be solved (see the note by the element)' : circuit.elements.length === 0 ? 'Add a source, a bus and loads to begin' : '';
