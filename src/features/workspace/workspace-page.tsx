@@ -410,65 +410,65 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           {/* The alert sits above the diagram, not over it (it hides nothing drawn), within the diagram's
               height (the page does not grow: the canvas and its minimap stay in the window). */}
           <div className="flex h-[68vh] min-h-[460px] flex-col gap-2">
-          {stale ? null : <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />}
-          <div className="flex min-h-0 flex-1 overflow-hidden rounded-[3px] border border-rule bg-paper">
-            {locked ? null : <Palette onAdd={addItem} />}
-            {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
-            <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
-              <ReactFlow<WorkspaceNode, WorkspaceEdge>
-                nodes={nodes}
-                edges={edges}
-                nodeTypes={nodeTypes}
-                edgeTypes={edgeTypes}
-                onNodesChange={onNodesChange}
-                onEdgesChange={onEdgesChange}
-                onConnect={onConnect}
-                isValidConnection={isValidConnection}
-                connectionMode={ConnectionMode.Loose}
-                onNodeDragStart={onNodeDragStart}
-                onNodeDragStop={onNodeDragStop}
-                onMoveStart={onMoveStart}
-                onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
-                nodesDraggable={!locked}
-                nodesConnectable={!locked}
-                elementsSelectable
-                deleteKeyCode={null}
-                snapToGrid={snap}
-                snapGrid={SNAP_GRID}
-                defaultViewport={layout?.viewport}
-                fitView={!layout?.viewport && initiallyDrawn}
-                fitViewOptions={FIT_VIEW_OPTIONS}
-                minZoom={0.2}
-                maxZoom={3}
-                proOptions={PRO_OPTIONS}
-                ariaLabelConfig={ARIA_LABEL_CONFIG}
-              >
-                <Background gap={20} size={1} color="#d3d0c6" />
-                <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
-              </ReactFlow>
-              {stale ? (
-                <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
-                  Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
-                </p>
-              ) : null}
-              {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
-              {doc.nodes.length === 0 ? (
-                <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
-                  {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
-                </p>
-              ) : null}
+            {stale ? null : <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />}
+            <div className="flex min-h-0 flex-1 overflow-hidden rounded-[3px] border border-rule bg-paper">
+              {locked ? null : <Palette onAdd={addItem} />}
+              {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
+              <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
+                <ReactFlow<WorkspaceNode, WorkspaceEdge>
+                  nodes={nodes}
+                  edges={edges}
+                  nodeTypes={nodeTypes}
+                  edgeTypes={edgeTypes}
+                  onNodesChange={onNodesChange}
+                  onEdgesChange={onEdgesChange}
+                  onConnect={onConnect}
+                  isValidConnection={isValidConnection}
+                  connectionMode={ConnectionMode.Loose}
+                  onNodeDragStart={onNodeDragStart}
+                  onNodeDragStop={onNodeDragStop}
+                  onMoveStart={onMoveStart}
+                  onlyRenderVisibleElements={doc.nodes.length >= CULL_FROM_NODES}
+                  nodesDraggable={!locked}
+                  nodesConnectable={!locked}
+                  elementsSelectable
+                  deleteKeyCode={null}
+                  snapToGrid={snap}
+                  snapGrid={SNAP_GRID}
+                  defaultViewport={layout?.viewport}
+                  fitView={!layout?.viewport && initiallyDrawn}
+                  fitViewOptions={FIT_VIEW_OPTIONS}
+                  minZoom={0.2}
+                  maxZoom={3}
+                  proOptions={PRO_OPTIONS}
+                  ariaLabelConfig={ARIA_LABEL_CONFIG}
+                >
+                  <Background gap={20} size={1} color="#d3d0c6" />
+                  <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
+                </ReactFlow>
+                {stale ? (
+                  <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
+                    Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
+                  </p>
+                ) : null}
+                {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
+                {doc.nodes.length === 0 ? (
+                  <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
+                    {readOnly ? 'This study has no diagram yet.' : 'Add a source, a bus and loads from the palette, then drag from a port to a bus to wire them.'}
+                  </p>
+                ) : null}
+              </div>
+              <PropertyPanel
+                selection={selection}
+                readOnly={locked}
+                wiringStandard={doc.settings.wiringStandard}
+                perUnit={doc.settings.perUnit}
+                busNames={busNames}
+                onElement={updateElement}
+                onBus={updateBus}
+                onToggleOpen={toggleOpen}
+              />
             </div>
-            <PropertyPanel
-              selection={selection}
-              readOnly={locked}
-              wiringStandard={doc.settings.wiringStandard}
-              perUnit={doc.settings.perUnit}
-              busNames={busNames}
-              onElement={updateElement}
-              onBus={updateBus}
-              onToggleOpen={toggleOpen}
-            />
-          </div>
           </div>
 
           <div className="overflow-auto">
