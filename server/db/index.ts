@@ -1,18 +1,18 @@
 /**
  * Opens the database and returns the Drizzle client: a PostgreSQL server through node-postgres
  * (`pg`) when a connection string is given (DATABASE_URL), else the embedded PGlite (on disk under
- * DATA_DIR, or in memory). Both get the same schema and the same migrations, applied by one runner
- * (`applyMigrations`); services only ever see `Db`, the query layer both drivers share.
+ * DATA_DIR, or in memory), which runs in its own worker thread and is reached through node-postgres
+ * too (pglite-client.ts), so both are the same driver, pool and Drizzle client. Both get the same
+ * schema and the same migrations, applied by one runner (`applyMigrations`); services only ever
+ * see `Db`.
  */
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
-import { PGlite } from '@electric-sql/pglite';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
-import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
-import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
 import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
 import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
 import pg from 'pg';
+import { startPgliteThread } from './pglite-client.ts';
 import * as schema from './schema.ts';
 
 /** Absolute path of the generated migrations (./drizzle at the project root). */
@@ -28,6 +28,10 @@ interface Handle {
   kind: DbKind;
   /** A plain parameterised query (`$1` …); rows as the driver's own type parsers give them. */
   query<T>(text: string, params?: unknown[]): Promise<T[]>;
+  /** The health probe. */
+  ping(): Promise<void>;
+  /** PGlite: its data directory as a gzipped tarball. */
+  dump?(): Promise<Blob>;
   close(): Promise<void>;
 }
 
@@ -92,13 +96,15 @@ export async function openDb(options: OpenDbOptions = {}): Promise<Db> {
 
 async function openPglite({ dataDir, loadDataDir }: OpenDbOptions): Promise<Db> {
   if (dataDir) mkdirSync(dataDir, { recursive: true });
-  const client = new PGlite({ dataDir, loadDataDir, postgresqlconf: POSTGRES_SETTINGS });
-  await client.waitReady;
-  const db = drizzlePglite({ client, schema });
+  const thread = await startPgliteThread({ dataDir, loadDataDir, settings: POSTGRES_SETTINGS });
+  const { pool } = thread;
+  const db = drizzlePg({ client: pool, schema });
   handles.set(db, {
     kind: 'pglite',
-    query: async <T>(text: string, params?: unknown[]) => (await client.query<T>(text, params)).rows,
-    close: () => client.close(),
+    query: async <T>(text: string, params?: unknown[]) => (await pool.query(text, params)).rows as T[],
+    ping: () => thread.ping(),
+    dump: () => thread.dump(),
+    close: () => thread.close(),
   });
   return db;
 }
@@ -118,6 +124,9 @@ async function openPostgres(url: string, max: number): Promise<Db> {
   handles.set(db, {
     kind: 'postgres',
     query: async <T>(text: string, params?: unknown[]) => (await pool.query(text, params)).rows as T[],
+    ping: async () => {
+      await pool.query('select 1');
+    },
     close: () => pool.end(),
   });
   return db;
@@ -135,17 +144,18 @@ export function describeConnection(url: string): string {
 
 /**
  * Applies pending migrations from ./drizzle. On a PostgreSQL server it holds an advisory lock on
- * one connection for the whole run, so several instances starting together migrate once.
+ * one connection for the whole run, so several instances starting together migrate once (PGlite
+ * belongs to one process: no lock).
  */
 export async function applyMigrations(db: Db): Promise<void> {
   const h = handleOf(db);
-  if (h.kind === 'pglite') {
-    await migratePglite(db as unknown as Parameters<typeof migratePglite>[0], { migrationsFolder: MIGRATIONS_DIR });
-    return;
-  }
   const pool = (db as unknown as { $client: pg.Pool }).$client;
   const conn = await pool.connect();
   try {
+    if (h.kind === 'pglite') {
+      await migratePg(drizzlePg({ client: conn }), { migrationsFolder: MIGRATIONS_DIR });
+      return;
+    }
     await conn.query('select pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
     try {
       await migratePg(drizzlePg({ client: conn }), { migrationsFolder: MIGRATIONS_DIR });
@@ -170,9 +180,13 @@ export function queryRows<T = Record<string, unknown>>(db: Db, text: string, par
   return handleOf(db).query<T>(text, params);
 }
 
-/** Answers when the database runs a trivial query (the health check). */
-export async function pingDb(db: Db): Promise<void> {
-  await handleOf(db).query('select 1');
+/**
+ * The health check: PostgreSQL runs `select 1`; the embedded database's thread answers a round
+ * trip (pglite-client.ts `ping`: `select 1` between statements, at once while a statement it has
+ * just begun is running).
+ */
+export function pingDb(db: Db): Promise<void> {
+  return handleOf(db).ping();
 }
 
 /** Closes the database cleanly: PGlite's files, or every connection of the pool (call on shutdown). */
@@ -180,10 +194,11 @@ export async function closeDb(db: Db): Promise<void> {
   await handleOf(db).close();
 }
 
-/** The PGlite client under `db` (tests dump it as a template); throws on a PostgreSQL server. */
-export function pgliteOf(db: Db): PGlite {
-  if (handleOf(db).kind !== 'pglite') throw new Error('not an embedded database');
-  return (db as unknown as { $client: PGlite }).$client;
+/** The embedded database's data directory as a gzipped tarball (tests keep a migrated one as a template); throws on a PostgreSQL server. */
+export function dumpPglite(db: Db): Promise<Blob> {
+  const h = handleOf(db);
+  if (!h.dump) throw new Error('not an embedded database');
+  return h.dump();
 }
 
 export { schema };

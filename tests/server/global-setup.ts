@@ -6,7 +6,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
-import { closeDb, openDb, pgliteOf } from '../../server/db/index.ts';
+import { closeDb, dumpPglite, openDb } from '../../server/db/index.ts';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -24,7 +24,7 @@ declare module 'vitest' {
 /** Makes the PGlite template and provides its path; returns the clean-up. */
 export async function providePgliteTemplate(project: TestProject): Promise<() => void> {
   const db = await openDb();
-  const dump = await pgliteOf(db).dumpDataDir('gzip');
+  const dump = await dumpPglite(db);
   await closeDb(db);
   const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-pg-template-'));
   const file = path.join(dir, 'template.tar.gz');

@@ -1,0 +1,221 @@
+/**
+ * The request thread's side of the embedded database: starts PGlite in its own worker thread
+ * (pglite-thread.ts) and connects node-postgres to it, so the app reaches PGlite through the same
+ * driver, pool and Drizzle client as a PostgreSQL server. A connection is a `Duplex` over a
+ * MessagePort (node-postgres accepts any stream in place of its socket); the pool holds one, since
+ * PGlite has one session (transactions take turns, as before).
+ *
+ * Why: PGlite runs each statement synchronously; in the request thread a 2 MB insert stalled every
+ * other request for its whole length.
+ */
+import { Duplex } from 'node:stream';
+import { fileURLToPath } from 'node:url';
+import { MessageChannel, Worker, type MessagePort } from 'node:worker_threads';
+import pg from 'pg';
+import { BUSY, SINCE, type ControlAnswer, type ControlMessage, type ThreadData } from './pglite-messages.ts';
+
+export interface PgliteThreadOptions {
+  dataDir?: string;
+  loadDataDir?: Blob;
+  settings: string[];
+}
+
+/** A statement running for longer than this makes the health probe wait for the thread (and so time out when stuck). */
+export const BUSY_HEALTHY_MS = 1000;
+
+export interface PgliteThread {
+  /** A pool of one connection to the thread's PGlite. */
+  pool: pg.Pool;
+  /**
+   * The health probe: resolves when the thread answers a round trip (running `select 1` between
+   * statements), or at once while it is inside a statement begun less than BUSY_HEALTHY_MS ago: a
+   * single-session database cannot answer a second query during one, and a statement that has just
+   * begun is the database working, not failing. Past that it waits for the round trip.
+   */
+  ping(): Promise<void>;
+  /** The data directory as a gzipped tarball (tests keep a migrated one as a template). */
+  dump(): Promise<Blob>;
+  /** Ends the pool's connection, closes PGlite (its files consistent) and stops the thread. */
+  close(): Promise<void>;
+}
+
+/** A node-postgres socket that is a MessagePort to the database thread. */
+class ThreadSocket extends Duplex {
+  private port: MessagePort | null = null;
+  private queued: Uint8Array[] = [];
+
+  constructor(private readonly open: () => MessagePort) {
+    super();
+  }
+
+  // What node-postgres calls on a net.Socket.
+  setNoDelay() {
+    return this;
+  }
+  setKeepAlive() {
+    return this;
+  }
+  ref() {
+    return this;
+  }
+  unref() {
+    return this;
+  }
+
+  connect() {
+    try {
+      this.port = this.open();
+    } catch (err) {
+      process.nextTick(() => this.destroy(err as Error));
+      return this;
+    }
+    this.port.on('message', (m: Uint8Array | { error: string }) => {
+      if (m instanceof Uint8Array) this.push(Buffer.from(m.buffer, m.byteOffset, m.byteLength));
+      else this.destroy(new Error(`embedded database: ${m.error}`));
+    });
+    this.port.on('close', () => {
+      this.push(null);
+    });
+    process.nextTick(() => this.emit('connect'));
+    return this;
+  }
+
+  _read() {}
+
+  /** The messages of one query are written one by one in the same tick: send them as one batch. */
+  _write(chunk: Buffer, _enc: BufferEncoding, done: (err?: Error | null) => void) {
+    if (this.queued.length === 0) queueMicrotask(() => this.flushQueued());
+    this.queued.push(chunk);
+    done();
+  }
+
+  private flushQueued() {
+    if (!this.port || this.queued.length === 0) return;
+    const total = this.queued.reduce((n, c) => n + c.byteLength, 0);
+    const bytes = new Uint8Array(total); // its own ArrayBuffer (a Buffer may be a slice of a shared pool): moved, not copied
+    let at = 0;
+    for (const c of this.queued) {
+      bytes.set(c, at);
+      at += c.byteLength;
+    }
+    this.queued = [];
+    this.port.postMessage(bytes, [bytes.buffer]);
+  }
+
+  _final(done: (err?: Error | null) => void) {
+    this.flushQueued();
+    this.port?.close();
+    done();
+  }
+
+  _destroy(err: Error | null, done: (err?: Error | null) => void) {
+    this.port?.close();
+    this.port = null;
+    done(err);
+  }
+}
+
+/** Starts the thread, waits until PGlite is open, and returns its pool and controls. */
+export async function startPgliteThread(options: PgliteThreadOptions): Promise<PgliteThread> {
+  const state = new SharedArrayBuffer(8);
+  const flags = new Int32Array(state);
+  const epoch = Date.now();
+  const loadDataDir = options.loadDataDir ? await options.loadDataDir.arrayBuffer() : undefined;
+  const data: ThreadData = { dataDir: options.dataDir, loadDataDir, settings: options.settings, state, epoch };
+  const worker = new Worker(fileURLToPath(new URL('./pglite-thread-entry.cjs', import.meta.url)), {
+    workerData: data,
+    transferList: loadDataDir ? [loadDataDir] : [],
+    execArgv: ['--import', 'tsx'],
+  });
+
+  let exited = false;
+  let failure: Error | null = null;
+  const waiting = new Map<number, { resolve: (a: Extract<ControlAnswer, { type: 'done' }>) => void; reject: (e: Error) => void }>();
+  const exit = new Promise<void>((resolve) => worker.once('exit', () => resolve()));
+  const ready = new Promise<void>((resolve, reject) => {
+    worker.on('message', (a: ControlAnswer) => {
+      if (a.type === 'ready') resolve();
+      else if (a.type === 'failed') reject(new Error(`Cannot open the embedded database: ${a.message}`));
+      else {
+        waiting.get(a.id)?.resolve(a);
+        waiting.delete(a.id);
+      }
+    });
+    worker.on('error', (err) => {
+      failure = err;
+      reject(err);
+    });
+    worker.once('exit', (code) => {
+      exited = true;
+      const err = failure ?? new Error(`the embedded database thread stopped (exit code ${code})`);
+      reject(err);
+      for (const w of waiting.values()) w.reject(err);
+      waiting.clear();
+    });
+  });
+  try {
+    await ready;
+  } catch (err) {
+    await worker.terminate();
+    throw err;
+  }
+
+  let next = 0;
+  const control = (m: Omit<Extract<ControlMessage, { id: number }>, 'id'>) =>
+    new Promise<Extract<ControlAnswer, { type: 'done' }>>((resolve, reject) => {
+      if (exited) return reject(failure ?? new Error('the embedded database thread has stopped'));
+      const id = ++next;
+      waiting.set(id, { resolve, reject });
+      worker.postMessage({ ...m, id });
+    });
+
+  const openPort = (): MessagePort => {
+    if (exited) throw failure ?? new Error('the embedded database thread has stopped');
+    const { port1, port2 } = new MessageChannel();
+    worker.postMessage({ type: 'connect', port: port2 } satisfies ControlMessage, [port2]);
+    return port1;
+  };
+
+  const pool = new pg.Pool({
+    max: 1,
+    // Never dropped for idleness: the connection costs nothing to keep, and PGlite has only the one session.
+    idleTimeoutMillis: 0,
+    user: 'postgres',
+    database: 'postgres',
+    ssl: false,
+    stream: () => new ThreadSocket(openPort),
+  });
+  pool.on('error', (err) => console.error(`Embedded database connection lost (${err.message}); the pool will reconnect.`));
+
+  let closing: Promise<void> | null = null;
+  return {
+    pool,
+    async ping() {
+      if (Atomics.load(flags, BUSY) === 1 && Date.now() - epoch - Atomics.load(flags, SINCE) < BUSY_HEALTHY_MS) return;
+      const a = await control({ type: 'ping' });
+      if (!a.ok) throw new Error(a.message ?? 'the embedded database did not answer');
+    },
+    async dump() {
+      const a = await control({ type: 'dump' });
+      if (!a.ok || !a.dump) throw new Error(a.message ?? 'the embedded database could not be dumped');
+      return new Blob([a.dump]);
+    },
+    close() {
+      closing ??= (async () => {
+        await pool.end();
+        if (!exited) {
+          const a = await control({ type: 'close' });
+          if (!a.ok) {
+            await worker.terminate();
+            throw new Error(`Closing the embedded database: ${a.message ?? 'failed'}`);
+          }
+        }
+        // The thread ends by itself once PGlite is closed; a stuck one is stopped.
+        let timer: NodeJS.Timeout | undefined;
+        await Promise.race([exit, new Promise<void>((resolve) => (timer = setTimeout(() => void worker.terminate().then(() => resolve()), 5000)))]);
+        clearTimeout(timer);
+      })();
+      return closing;
+    },
+  };
+}

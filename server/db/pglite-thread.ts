@@ -1,0 +1,203 @@
+/**
+ * The embedded database's own thread (started by pglite-client.ts). PGlite executes every statement
+ * synchronously in its WASM module; here that happens off the request thread. The request thread
+ * talks to it with node-postgres, as it talks to a PostgreSQL server: each connection is a
+ * MessagePort carrying the PostgreSQL wire protocol, and this thread plays the server's part —
+ * it gathers the bytes into whole messages (as a socket server would) and hands them to PGlite's
+ * `execProtocolRaw`, sending the answer back. PGlite has one session, so connections take turns
+ * (the pool holds one; a connection that goes away mid-transaction is rolled back).
+ *
+ * `state` (shared memory) tells the request thread, without a round trip, whether a statement is
+ * running and since when (the health check reads it; see pglite-client.ts).
+ */
+import { parentPort, workerData, type MessagePort } from 'node:worker_threads';
+import { PGlite } from '@electric-sql/pglite';
+import { BUSY, SINCE, type ControlAnswer, type ControlMessage, type ThreadData } from './pglite-messages.ts';
+
+const SSL_REQUEST = 80877103;
+const GSS_REQUEST = 80877104;
+const CANCEL_REQUEST = 80877102;
+
+const data = workerData as ThreadData;
+const state = new Int32Array(data.state);
+const port = parentPort!;
+
+/** One statement (or batch of protocol messages) at a time, in arrival order, whatever the connection. */
+let queue: Promise<unknown> = Promise.resolve();
+function serially<T>(job: () => Promise<T>): Promise<T> {
+  const next = queue.then(job);
+  queue = next.catch(() => {});
+  return next;
+}
+
+/** A simple-protocol Query message. */
+function queryMessage(text: string): Uint8Array {
+  const body = Buffer.from(`${text}\0`, 'utf8');
+  const m = Buffer.alloc(5 + body.length);
+  m[0] = 0x51; // 'Q'
+  m.writeInt32BE(4 + body.length, 1);
+  body.copy(m, 5);
+  return m;
+}
+
+/** Whether an answer holds an ErrorResponse, and the transaction status of its closing ReadyForQuery ('' when it has none). */
+function inspect(reply: Uint8Array): { error: boolean; status: string } {
+  const b = Buffer.from(reply.buffer, reply.byteOffset, reply.byteLength);
+  let error = false;
+  let status = '';
+  for (let i = 0; i + 5 <= b.length; ) {
+    const type = b[i];
+    const len = b.readInt32BE(i + 1);
+    if (type === 0x45) error = true; // 'E'
+    status = type === 0x5a && i + 5 < b.length ? String.fromCharCode(b[i + 5]) : ''; // 'Z'
+    i += 1 + len;
+  }
+  return { error, status };
+}
+
+let pglite: PGlite;
+/** The session's transaction status after the last ReadyForQuery ('I' idle, 'T' in a transaction, 'E' failed). */
+let txStatus = 'I';
+/** True when the last answer ended with ReadyForQuery: nothing half-sent (a parse without its sync) is pending. */
+let atBoundary = true;
+/** The connection whose messages PGlite executed last. */
+let owner: MessagePort | null = null;
+
+async function exec(message: Uint8Array): Promise<Uint8Array> {
+  Atomics.store(state, SINCE, Date.now() - data.epoch);
+  Atomics.store(state, BUSY, 1);
+  try {
+    const reply = await pglite.execProtocolRaw(message);
+    const { status } = inspect(reply);
+    atBoundary = status !== '';
+    if (status) txStatus = status;
+    // The answer may be a view of PGlite's reused receive buffer: copy it out.
+    return reply.slice();
+  } finally {
+    Atomics.store(state, BUSY, 0);
+  }
+}
+
+/** Leaves no transaction open behind a connection that has gone (so the next one starts clean). */
+async function resetSession(): Promise<void> {
+  if (txStatus !== 'I' || !atBoundary) {
+    if (!atBoundary) await exec(Buffer.from([0x53, 0, 0, 0, 4])); // Sync: ends a half-sent extended query
+    if (txStatus !== 'I') await exec(queryMessage('rollback'));
+  }
+}
+
+/** One connection: bytes in, whole messages to PGlite, answers out. */
+function serve(conn: MessagePort): void {
+  let pending: Buffer = Buffer.alloc(0);
+  let started = false;
+  let closed = false;
+  const finish = () => {
+    if (closed) return;
+    closed = true;
+    conn.close();
+    // Only if no other connection has spoken since (its session must not be touched).
+    void serially(async () => {
+      if (owner === conn) await resetSession();
+    }).catch(() => {});
+  };
+  const send = (reply: Uint8Array) => {
+    if (!closed && reply.byteLength > 0) conn.postMessage(reply, [reply.buffer as ArrayBuffer]);
+  };
+  const take = () => {
+    const batches: { startup: boolean; bytes: Buffer }[] = [];
+    let terminate = false;
+    for (;;) {
+      if (!started) {
+        if (pending.length < 8) break;
+        const len = pending.readInt32BE(0);
+        if (pending.length < len) break;
+        const code = pending.readInt32BE(4);
+        const msg = pending.subarray(0, len);
+        pending = pending.subarray(len);
+        if (code === SSL_REQUEST || code === GSS_REQUEST) {
+          send(Uint8Array.of(0x4e)); // 'N': no encryption on a port inside the process
+          continue;
+        }
+        if (code === CANCEL_REQUEST) continue;
+        started = true;
+        batches.push({ startup: true, bytes: msg });
+        continue;
+      }
+      // Every whole message available, as one batch (a query's parse, bind, execute and sync arrive together).
+      let end = 0;
+      while (end + 5 <= pending.length) {
+        const len = pending.readInt32BE(end + 1);
+        if (end + 1 + len > pending.length) break;
+        if (pending[end] === 0x58) {
+          terminate = true; // 'X': the client is leaving
+          break;
+        }
+        end += 1 + len;
+      }
+      if (end > 0) batches.push({ startup: false, bytes: pending.subarray(0, end) });
+      pending = terminate ? Buffer.alloc(0) : pending.subarray(end);
+      break;
+    }
+    for (const b of batches) {
+      serially(() => {
+        owner = conn;
+        return exec(b.bytes);
+      }).then(send, (err: unknown) => {
+        // PGlite itself failed (not an SQL error, which comes back as an ErrorResponse): drop the connection.
+        if (!closed) conn.postMessage({ error: err instanceof Error ? err.message : String(err) });
+        finish();
+      });
+    }
+    if (terminate) finish();
+  };
+  conn.on('message', (chunk: Uint8Array | { end: true }) => {
+    if (closed) return;
+    if (!(chunk instanceof Uint8Array)) return finish();
+    pending = pending.length === 0 ? Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength) : Buffer.concat([pending, chunk]);
+    take();
+  });
+  conn.on('close', finish);
+}
+
+/** The health probe: runs `select 1` when the session is between statements (even inside a transaction). */
+async function ping(): Promise<{ ok: boolean; message?: string }> {
+  if (!atBoundary || txStatus === 'E') return { ok: true }; // a client's statement is half-sent: the thread answering is the proof
+  const { error } = inspect(await exec(queryMessage('select 1')));
+  return error ? { ok: false, message: 'select 1 failed' } : { ok: true };
+}
+
+function answer(a: ControlAnswer, transfer: ArrayBuffer[] = []) {
+  port.postMessage(a, transfer);
+}
+
+port.on('message', (m: ControlMessage) => {
+  if (m.type === 'connect') return serve(m.port);
+  const job =
+    m.type === 'ping'
+      ? ping
+      : m.type === 'dump'
+        ? async () => ({ ok: true, dump: await (await pglite.dumpDataDir('gzip')).arrayBuffer() })
+        : async () => {
+            await pglite.close();
+            return { ok: true };
+          };
+  serially(job).then(
+    (r: { ok: boolean; message?: string; dump?: ArrayBuffer }) => {
+      answer({ type: 'done', id: m.id, ...r }, r.dump ? [r.dump] : []);
+      if (m.type === 'close') port.close();
+    },
+    (err: unknown) => answer({ type: 'done', id: m.id, ok: false, message: err instanceof Error ? err.message : String(err) }),
+  );
+});
+
+async function open(): Promise<void> {
+  try {
+    pglite = new PGlite({ dataDir: data.dataDir, loadDataDir: data.loadDataDir ? new Blob([data.loadDataDir]) : undefined, postgresqlconf: data.settings });
+    await pglite.waitReady;
+    answer({ type: 'ready' });
+  } catch (err) {
+    answer({ type: 'failed', message: err instanceof Error ? err.message : String(err) });
+    port.close();
+  }
+}
+void open();
