@@ -69,6 +69,9 @@ export function createApp({ db, config, mailer, objects, sweeps, mountClient, de
   });
   api.use(guardUrl);
   api.use(originCheck(config.appUrl));
+  // A study file is read as text and parsed with the rest of its checks in the work pool
+  // (services/transfer.ts): parsing and walking 2 MB here would stall every other request.
+  api.use('/studies/import', express.text({ type: 'application/json', limit: JSON_LIMIT }));
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
   api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays, idleHours: config.sessionIdleHours }));

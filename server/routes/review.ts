@@ -47,7 +47,8 @@ export function reviewRoutes({ db, mailer, config, objects }: RouteContext): Rou
 
   r.post('/import', write, async (req, res) => {
     const { name } = importQuerySchema.parse(req.query);
-    res.status(201).json(await importStudy(db, actorOf(res), req.body, name));
+    // The body arrives as text (app.ts): the file is parsed and checked in the work pool.
+    res.status(201).json(await importStudy(db, actorOf(res), typeof req.body === 'string' ? req.body : undefined, name));
   });
 
   // Revisions

@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { and, desc, eq, max } from 'drizzle-orm';
+import { and, desc, eq, max, sql } from 'drizzle-orm';
 import type { RevisionSummary, Revision } from '../../shared/api/revisions.ts';
 import type { StudyContent } from '../../shared/api/studies.ts';
 import { jsonEqual, type RevisionDiff } from '../../shared/review/diff.ts';
@@ -55,43 +55,64 @@ export function sameContent(a: unknown, b: unknown): boolean {
   return jsonEqual(a, b);
 }
 
+type RevisionInput = { studyId: string; teamId: string; authorId: string; content: StudyContent; message?: string; restoredFrom?: number | null; at?: Date; audit?: boolean; summary?: ResultsSummary };
+
+async function nextRevisionNumber(db: Conn, studyId: string): Promise<number> {
+  const [{ n }] = await db.select({ n: max(studyRevisions.number) }).from(studyRevisions).where(eq(studyRevisions.studyId, studyId));
+  return (n ?? 0) + 1;
+}
+
+function revisionValues(r: Omit<RevisionInput, 'content'>, number: number, summary: ResultsSummary) {
+  return {
+    studyId: r.studyId,
+    teamId: r.teamId,
+    number,
+    message: r.message ?? (r.restoredFrom ? `Restored revision ${r.restoredFrom}` : ''),
+    authorId: r.authorId,
+    engineVersion: ENGINE_VERSION,
+    summary,
+    restoredFrom: r.restoredFrom ?? null,
+    ...(r.at ? { createdAt: r.at } : {}),
+  };
+}
+
+async function auditRevision(db: Conn, r: Omit<RevisionInput, 'content'>, number: number, summary: ResultsSummary): Promise<void> {
+  if (r.audit === false) return;
+  await recordAudit(db, {
+    teamId: r.teamId,
+    actorId: r.authorId,
+    action: r.restoredFrom ? 'revision.restore' : 'revision.create',
+    studyId: r.studyId,
+    detail: { revision: number, ...(r.restoredFrom ? { restoredFrom: r.restoredFrom } : {}), solved: summary.ok },
+  });
+}
+
 /**
  * Appends a revision (number = latest + 1) with the engine's summary, and records it in the audit
  * trail. Call inside the transaction that changes the study.
  */
-export async function appendRevision(
-  db: Conn,
-  r: { studyId: string; teamId: string; authorId: string; content: StudyContent; message?: string; restoredFrom?: number | null; at?: Date; audit?: boolean; summary?: ResultsSummary },
-): Promise<RevisionRow> {
-  const [{ n }] = await db.select({ n: max(studyRevisions.number) }).from(studyRevisions).where(eq(studyRevisions.studyId, r.studyId));
-  const number = (n ?? 0) + 1;
+export async function appendRevision(db: Conn, r: RevisionInput): Promise<RevisionRow> {
+  const number = await nextRevisionNumber(db, r.studyId);
   // Callers solve before their transaction (off the request thread, server/work); solved here only when they did not.
   const summary = r.summary ?? summarizeCircuit(r.content.circuit);
   const [row] = await db
     .insert(studyRevisions)
-    .values({
-      studyId: r.studyId,
-      teamId: r.teamId,
-      number,
-      content: r.content,
-      message: r.message ?? (r.restoredFrom ? `Restored revision ${r.restoredFrom}` : ''),
-      authorId: r.authorId,
-      engineVersion: ENGINE_VERSION,
-      summary,
-      restoredFrom: r.restoredFrom ?? null,
-      ...(r.at ? { createdAt: r.at } : {}),
-    })
+    .values({ ...revisionValues(r, number, summary), content: r.content })
     .returning();
-  if (r.audit !== false) {
-    await recordAudit(db, {
-      teamId: r.teamId,
-      actorId: r.authorId,
-      action: r.restoredFrom ? 'revision.restore' : 'revision.create',
-      studyId: r.studyId,
-      detail: { revision: number, ...(r.restoredFrom ? { restoredFrom: r.restoredFrom } : {}), solved: summary.ok },
-    });
-  }
+  await auditRevision(db, r, number, summary);
   return row;
+}
+
+/**
+ * Appends a revision whose content is the study's current content, copied inside the database (an
+ * import: its content arrives already serialised, and up to 2 MB of JSON is neither sent a second
+ * time nor read back). Returns the revision's number.
+ */
+export async function appendRevisionOfStoredContent(db: Conn, r: Omit<RevisionInput, 'content' | 'summary'> & { summary: ResultsSummary }): Promise<number> {
+  const number = await nextRevisionNumber(db, r.studyId);
+  await db.insert(studyRevisions).values({ ...revisionValues(r, number, r.summary), content: sql`(select content from studies where id = ${r.studyId})` });
+  await auditRevision(db, r, number, r.summary);
+  return number;
 }
 
 /**

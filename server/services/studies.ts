@@ -25,7 +25,7 @@ import { reviewEvents, studies, users } from '../db/schema.ts';
 import { AppError, isUuid, notFound } from '../errors.ts';
 import { recordAudit } from './audit.ts';
 import { cancelStudySweeps } from './sweep-store.ts';
-import { appendRevision, ensureRevision, getRevision, latestRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
+import { appendRevision, appendRevisionOfStoredContent, ensureRevision, getRevision, latestRevision, listRevisions, sameContent, type Conn } from './revisions.ts';
 import { checkContent } from './study-content.ts';
 
 const createdByUser = alias(users, 'created_by_user');
@@ -222,15 +222,29 @@ export async function createStudy(db: Db, actor: Actor, input: CreateStudyReques
   });
 }
 
-/** Creates a study from an imported file (validated by the caller) with its first revision. */
+/**
+ * Creates a study from an imported file, read and checked by the caller off the request thread
+ * (server/work/import-file.ts), with its first revision: the content arrives as JSON text and is
+ * stored as it is, the revision copying it inside the database.
+ */
 export async function createImportedStudy(
   db: Db,
   actor: Actor,
-  v: { name: string; description: string; content: StudyContent; format: string; summary?: ResultsSummary },
+  v: { name: string; description: string; contentJson: string; format: string; summary: ResultsSummary },
 ): Promise<CreatedStudy> {
-  v.summary ??= await checkContent(v.content);
   return db.transaction(async (tx) => {
-    const row = await insertStudy(tx, actor, { ...v, message: `Imported from a ${v.format} file` });
+    const [row] = await tx
+      .insert(studies)
+      .values({
+        teamId: actor.teamId,
+        name: v.name,
+        description: v.description,
+        content: sql`${v.contentJson}::jsonb`,
+        createdBy: actor.userId,
+        updatedBy: actor.userId,
+      })
+      .returning({ id: studies.id, version: studies.version });
+    await appendRevisionOfStoredContent(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, message: `Imported from a ${v.format} file`, summary: v.summary });
     await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.import', studyId: row.id, detail: { name: v.name, format: v.format } });
     return row;
   });

@@ -1,17 +1,12 @@
 /**
  * Export of a study as a file and import of one. The export (`wyeward-study`) wraps the circuit
  * (a `wyeward-circuit` object that the engine and CLI read as is) with its layout and settings.
- * Import accepts that, or a bare `wyeward-circuit` file. Every problem reads like a form error
- * ("element LOAD3: every phase › P (kW) must be a number", shared/review/circuit-issues.ts), keyed
- * by its path in the file.
+ * Import accepts that, or a bare `wyeward-circuit` file (read by server/work/import-file.ts).
  */
-import { circuitIssueFields, circuitIssueWords } from '../../shared/review/circuit-issues.ts';
-import type { ResultsSummary } from '../../shared/review/summary.ts';
-import type { CreatedStudy, StudyContent } from '../../shared/api/studies.ts';
-import { studyFileSchema, type StudyFile } from '../../shared/api/transfer.ts';
+import type { CreatedStudy } from '../../shared/api/studies.ts';
+import type { StudyFile } from '../../shared/api/transfer.ts';
 import type { Actor } from '../auth/index.ts';
 import type { Db } from '../db/index.ts';
-import { zodFields } from '../error-handler.ts';
 import { AppError } from '../errors.ts';
 import { recordAudit } from './audit.ts';
 import { createImportedStudy, getStudy } from './studies.ts';
@@ -36,55 +31,13 @@ export async function exportStudy(db: Db, actor: Actor, id: string): Promise<{ f
   return { file, fileName: `${slug}.wyeward.json` };
 }
 
-/** 400 with every problem in words (`fields`: path in the file → sentence); the message names the first. */
-function invalid(fields: Record<string, string>): AppError {
-  const list = Object.values(fields);
-  const more = list.length > 1 ? ` (and ${list.length - 1} more problem${list.length > 2 ? 's' : ''})` : '';
-  return new AppError(400, 'validation', list.length > 0 ? `The file is not valid: ${list[0]}${more}.` : 'The file is not valid.', { fields });
-}
-
 /**
- * The engine's own check of a circuit (off the request thread when large, server/work), with field
- * paths prefixed by where the circuit sits in the file; answers the summary of its solve.
+ * Creates a study from an uploaded file's text (the request body as sent; undefined when it was not
+ * JSON). Reading and checking it (parse, input boundary, schema, the engine's check and solve) runs
+ * in the work pool; a problem is a 400 listing every field by its path in the file.
  */
-async function checkCircuit(circuit: unknown, prefix: string): Promise<ResultsSummary> {
-  const prepared = await work().prepare(circuit);
-  if (prepared.ok) return prepared.summary;
-  const issues = prepared.issues.length > 0 ? prepared.issues : [{ path: '(root)', message: prepared.message }];
-  const fields = circuitIssueFields(circuit, issues.map((i) => ({ ...i, path: i.path === '(root)' ? '' : i.path })), prefix ? `${prefix}.` : '');
-  if (fields[prefix ? `${prefix}.` : ''] !== undefined) {
-    fields[prefix || '_'] = fields[prefix ? `${prefix}.` : ''];
-    delete fields[prefix ? `${prefix}.` : ''];
-  }
-  throw invalid(fields);
-}
-
-/** Creates a study from an uploaded file. */
-export async function importStudy(db: Db, actor: Actor, body: unknown, nameOverride?: string): Promise<CreatedStudy> {
-  if (typeof body !== 'object' || body === null || Array.isArray(body)) throw invalid({ _: 'Send the file as a JSON object.' });
-  const format = (body as { format?: unknown }).format;
-  if (format === 'wyeward-circuit') {
-    const summary = await checkCircuit(body, '');
-    const circuit = body as StudyContent['circuit'] & { name?: unknown; description?: unknown };
-    const name = nameOverride ?? (typeof circuit.name === 'string' && circuit.name.trim() ? circuit.name.trim().slice(0, 200) : 'Imported circuit');
-    const description = typeof circuit.description === 'string' ? circuit.description.slice(0, 5000) : '';
-    return createImportedStudy(db, actor, { name, description, content: { circuit }, format: 'wyeward-circuit', summary });
-  }
-  const parsed = studyFileSchema.safeParse(body);
-  if (!parsed.success) {
-    const circuit = (body as { circuit?: unknown }).circuit;
-    const fields: Record<string, string> = {};
-    for (const [path, message] of Object.entries(zodFields(parsed.error))) {
-      fields[path] = path.startsWith('circuit.') ? circuitIssueWords(circuit, { path: path.slice('circuit.'.length), message }) : circuitIssueWords(body, { path, message });
-    }
-    throw invalid(fields);
-  }
-  const f = parsed.data;
-  const summary = await checkCircuit(f.circuit, 'circuit');
-  const content: StudyContent = {
-    circuit: f.circuit,
-    ...(f.layout !== undefined ? { layout: f.layout } : {}),
-    ...(f.settings !== undefined ? { settings: f.settings } : {}),
-  };
-  return createImportedStudy(db, actor, { name: nameOverride ?? f.name, description: f.description ?? '', content, format: 'wyeward-study', summary });
+export async function importStudy(db: Db, actor: Actor, text: string | undefined, nameOverride?: string): Promise<CreatedStudy> {
+  const file = await work().readStudyFile(text);
+  if (!file.ok) throw new AppError(400, 'validation', file.message, { fields: file.fields });
+  return createImportedStudy(db, actor, { name: nameOverride ?? file.name, description: file.description, contentJson: file.contentJson, format: file.format, summary: file.summary });
 }

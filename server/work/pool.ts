@@ -16,10 +16,14 @@ import type { CsvInput } from '../report/csv.ts';
 import type { ReportInput } from '../report/pdf.ts';
 import type { BalanceOutcome, BalanceProgressMessage, BalanceTask } from './balance-task.ts';
 import type { SweepOutputSpec, SweepPointRow } from '../../shared/engine/index.ts';
+import { readStudyFile, type ImportTask, type StudyFileReading } from './import-file.ts';
 import { prepare, runTask, type Prepared, type SweepOutputsAnswer, type Task } from './tasks.ts';
 
 /** Jobs on circuits with fewer elements than this run inline (they take well under a millisecond). */
 export const INLINE_ELEMENTS = 60;
+
+/** Uploaded files shorter than this (characters) are read inline. */
+export const INLINE_FILE_CHARS = 32 * 1024;
 
 export interface WorkPoolOptions {
   /** Worker threads (default 1: the machine has few cores and the request thread needs one). */
@@ -32,6 +36,8 @@ export interface WorkPoolOptions {
 
 export interface WorkPool {
   prepare(circuit: unknown): Promise<Prepared>;
+  /** An uploaded study file from its text to what is stored (import-file.ts). */
+  readStudyFile(text: string | undefined): Promise<StudyFileReading>;
   diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
   /**
    * Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped);
@@ -66,7 +72,7 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       maxQueue,
     }));
 
-  async function run<T>(task: Task | BalanceTask, cancel?: AbortSignal, limitMs = timeoutMs, transferList?: TransferListItem[]): Promise<T> {
+  async function run<T>(task: Task | BalanceTask | ImportTask, cancel?: AbortSignal, limitMs = timeoutMs, transferList?: TransferListItem[]): Promise<T> {
     const p = getPool();
     if (p.queueSize >= maxQueue) {
       throw new AppError(503, 'unavailable', 'The server is busy with other large studies; try again in a moment.', { retryAfterSeconds: 5 });
@@ -92,6 +98,10 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
     async prepare(circuit) {
       if (elementCount(circuit) < INLINE_ELEMENTS) return prepare(circuit);
       return run<Prepared>({ kind: 'prepare', circuit });
+    },
+    async readStudyFile(text) {
+      if (text === undefined || text.length < INLINE_FILE_CHARS) return readStudyFile(text);
+      return run<StudyFileReading>({ kind: 'import', text });
     },
     async balance(task, signal, onProgress) {
       if (!onProgress) return run<BalanceOutcome>(task, signal);
