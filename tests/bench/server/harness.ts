@@ -46,7 +46,9 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
     await adminQuery(cluster.url, 'create database wyeward_bench');
     dbEnv.DATABASE_URL = cluster.urlOf('wyeward_bench');
   }
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  // BENCH_CPU_PROF=<dir>: the server writes a V8 CPU profile per thread there when it stops (chrome://inspect, or any .cpuprofile reader).
+  const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
+  const child = spawn(process.execPath, [...profile, '--import', 'tsx', 'server/index.ts'], {
     cwd: ROOT,
     env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...dbEnv, ...env },
     stdio: ['ignore', 'ignore', 'inherit'],
