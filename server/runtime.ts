@@ -1,7 +1,9 @@
 /** What `npm start` (index.ts) and `npm run dev` (dev.ts) share: open the database, seed, build the app, listen, shut down cleanly. */
+import { execFile } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import path from 'node:path';
+import { promisify } from 'node:util';
 import { lt } from 'drizzle-orm';
 import type { Express } from 'express';
 import { createApp } from './app.ts';
@@ -9,7 +11,7 @@ import type { Config } from './config.ts';
 import { DEMO_ACCOUNTS } from './db/demo-accounts.ts';
 import { closeDb, dbKind, describeConnection, openDb } from './db/index.ts';
 import { sessions } from './db/schema.ts';
-import { seedDemo } from './db/seed.ts';
+import { seedDemo, type SeedResult } from './db/seed.ts';
 import { createJobRunner } from './jobs/index.ts';
 import { createMailer } from './mail/index.ts';
 import { moveLocalMail } from './mail/store.ts';
@@ -19,6 +21,8 @@ import { closeWork, configureWork } from './work/index.ts';
 import { drainServer, trackRequests } from './shutdown.ts';
 import { moveLocalAttachments } from './storage/move-attachments.ts';
 import { objectStoreFor } from './storage/objects.ts';
+
+const execFileAsync = promisify(execFile);
 
 /** The project root (the directory holding package.json). */
 export const ROOT = path.resolve(import.meta.dirname, '..');
@@ -35,22 +39,37 @@ export function openConfiguredDb(config: Config, { migrate = true }: { migrate?:
   );
 }
 
+/**
+ * A new embedded database in `dir` (initdb, migrations, and the demo seed when asked), made by a
+ * child process that exits when done (db/create-embedded.ts: the memory this takes is then given
+ * back); answers the seed's result.
+ */
+async function createEmbeddedDatabase(dir: string, demo: boolean): Promise<{ seeded: SeedResult | null }> {
+  const { stdout } = await execFileAsync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'server', 'db', 'create-embedded.ts'), dir, demo ? '1' : '0'], {
+    cwd: ROOT,
+    maxBuffer: 1024 * 1024,
+  }).catch((err: { stderr?: string; message: string }) => {
+    throw new Error(`Creating the embedded database in ${dir} failed: ${err.stderr?.trim() || err.message}`);
+  });
+  return JSON.parse(stdout.trim().split('\n').at(-1) ?? '{}') as { seeded: SeedResult | null };
+}
+
 /** Opens (and migrates) the configured database and, in demo mode, seeds the demo team into an empty one. */
 export async function prepareDatabase(config: Config, log: (msg: string) => void = console.log) {
-  const fresh = !config.databaseUrl && !existsSync(path.join(config.dataDir, 'pglite', 'PG_VERSION'));
-  let db = await openConfiguredDb(config);
+  const dir = path.join(config.dataDir, 'pglite');
+  if (!config.databaseUrl && !existsSync(path.join(dir, 'PG_VERSION'))) {
+    // Creating and seeding an embedded database leaves the process that did it holding several hundred MB
+    // more than one that opens it afterwards: a short-lived child process does it.
+    const { seeded } = await createEmbeddedDatabase(dir, config.demo);
+    if (seeded?.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);
+  }
+  const db = await openConfiguredDb(config);
   // lucia drops an expired session when it is presented; this clears the ones never presented again.
   await db.delete(sessions).where(lt(sessions.expiresAt, new Date()));
   await clearExpiredThrottles(db);
   if (config.demo) {
     const seeded = await seedDemo(db);
     if (seeded.created) log(`Demo data seeded: ${seeded.users} accounts, ${seeded.studies} studies.`);
-  }
-  if (fresh) {
-    // Creating and seeding an embedded database leaves that instance holding several hundred MB more than
-    // a reopened one (measured 20 s after a first start: about 800 MB without this, about 400 MB with it).
-    await closeDb(db);
-    db = await openConfiguredDb(config);
   }
   return db;
 }

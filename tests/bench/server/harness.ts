@@ -35,9 +35,10 @@ async function freePort(): Promise<number> {
   });
 }
 
-export async function startServer(env: Record<string, string> = {}): Promise<BenchServer> {
+/** Starts the server; `dataDir` (kept on stop) instead of a fresh directory removed on stop. */
+export async function startServer(env: Record<string, string> = {}, { dataDir: keptDir }: { dataDir?: string } = {}): Promise<BenchServer> {
   const port = await freePort();
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
+  const dataDir = keptDir ?? mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
   const url = `http://127.0.0.1:${port}`;
   let cluster: Cluster | undefined;
   const dbEnv: Record<string, string> = {};
@@ -72,7 +73,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Ben
       child.kill('SIGTERM');
       await new Promise((r) => child.once('exit', r));
       cluster?.stop();
-      rmSync(dataDir, { recursive: true, force: true });
+      if (!keptDir) rmSync(dataDir, { recursive: true, force: true });
     },
   };
 }

@@ -95,6 +95,13 @@ try {
   const inFlight: Promise<void>[] = [];
   const start = performance.now();
   const total = RATE * SECONDS;
+  // Long runs: the server's RSS once a minute (the issue's target is for a 10-minute run).
+  const rssTimer =
+    SECONDS >= 120
+      ? setInterval(() => {
+          console.log(`  ${((performance.now() - start) / 60_000).toFixed(0)} min: RSS ${servers.map((s) => rssMb(s.pid).toFixed(0)).join(' + ')} MB, ${latencies.length} answered, ${errors} errors; ${machineLoad()}`);
+        }, 60_000)
+      : undefined;
   for (let i = 0; i < total; i++) {
     const due = start + (i * 1000) / RATE;
     const wait = due - performance.now();
@@ -114,6 +121,7 @@ try {
     );
   }
   await Promise.all(inFlight);
+  clearInterval(rssTimer);
   const elapsed = (performance.now() - start) / 1000;
   const cpu = appCpu() - cpuBefore;
   const dbCpu = server.postmasterPid ? clusterCpuMs(server.postmasterPid) - dbCpuBefore : 0;
