@@ -67,12 +67,17 @@ async function exec(message: Uint8Array): Promise<Uint8Array> {
   Atomics.store(state, SINCE, Date.now() - data.epoch);
   Atomics.store(state, BUSY, 1);
   try {
-    const reply = await pglite.execProtocolRaw(message);
+    // The streaming form: PGlite's execProtocolRaw (0.5.17) also parses every answer into a list of
+    // results it never empties (about 0.5 kB of heap per statement, never freed: 60 MB after ten
+    // minutes of a busy team); this one hands over the bytes only. Each chunk is a view of WASM
+    // memory: copied at once.
+    const parts: Uint8Array[] = [];
+    await pglite.execProtocolRawStream(message, { onRawData: (chunk) => parts.push(chunk.slice()) });
+    const reply = parts.length === 1 ? parts[0] : Buffer.concat(parts);
     const { status } = inspect(reply);
     atBoundary = status !== '';
     if (status) txStatus = status;
-    // The answer may be a view of PGlite's reused receive buffer: copy it out.
-    return reply.slice();
+    return reply;
   } finally {
     Atomics.store(state, BUSY, 0);
   }

@@ -4,7 +4,7 @@
  * (tests/server/pg/cluster.ts) through DATABASE_URL instead of the embedded database.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, openSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
@@ -47,12 +47,14 @@ export async function startServer(env: Record<string, string> = {}, { dataDir: k
     await adminQuery(cluster.url, 'create database wyeward_bench');
     dbEnv.DATABASE_URL = cluster.urlOf('wyeward_bench');
   }
-  // BENCH_CPU_PROF=<dir>: the server writes a V8 CPU profile per thread there when it stops (chrome://inspect, or any .cpuprofile reader).
-  const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
-  const child = spawn(process.execPath, [...profile, '--import', 'tsx', 'server/index.ts'], {
+  // BENCH_NODE_ARGS: more options for the server's node (e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof`: a V8
+  // CPU profile per thread when it stops; `--trace-gc`); BENCH_SERVER_LOG=<file>: its standard output there.
+  const nodeArgs = (process.env.BENCH_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const log = process.env.BENCH_SERVER_LOG ? openSync(process.env.BENCH_SERVER_LOG, 'a') : 'ignore';
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
     cwd: ROOT,
     env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...dbEnv, ...env },
-    stdio: ['ignore', 'ignore', 'inherit'],
+    stdio: ['ignore', log, 'inherit'],
   });
   for (let i = 0; i < 600; i++) {
     try {
