@@ -109,7 +109,7 @@ function serve(conn: MessagePort): void {
     if (!closed && reply.byteLength > 0) conn.postMessage(reply, [reply.buffer as ArrayBuffer]);
   };
   const take = () => {
-    const batches: { startup: boolean; bytes: Buffer }[] = [];
+    const batches: Buffer[] = [];
     let terminate = false;
     for (;;) {
       if (!started) {
@@ -125,7 +125,7 @@ function serve(conn: MessagePort): void {
         }
         if (code === CANCEL_REQUEST) continue;
         started = true;
-        batches.push({ startup: true, bytes: msg });
+        batches.push(msg); // the StartupMessage: PGlite answers it like a server (authentication ok, parameters, ready)
         continue;
       }
       // Every whole message available, as one batch (a query's parse, bind, execute and sync arrive together).
@@ -139,14 +139,14 @@ function serve(conn: MessagePort): void {
         }
         end += 1 + len;
       }
-      if (end > 0) batches.push({ startup: false, bytes: pending.subarray(0, end) });
+      if (end > 0) batches.push(pending.subarray(0, end));
       pending = terminate ? Buffer.alloc(0) : pending.subarray(end);
       break;
     }
-    for (const b of batches) {
+    for (const bytes of batches) {
       serially(() => {
         owner = conn;
-        return exec(b.bytes);
+        return exec(bytes);
       }).then(send, (err: unknown) => {
         // PGlite itself failed (not an SQL error, which comes back as an ErrorResponse): drop the connection.
         if (!closed) conn.postMessage({ error: err instanceof Error ? err.message : String(err) });
@@ -155,9 +155,8 @@ function serve(conn: MessagePort): void {
     }
     if (terminate) finish();
   };
-  conn.on('message', (chunk: Uint8Array | { end: true }) => {
+  conn.on('message', (chunk: Uint8Array) => {
     if (closed) return;
-    if (!(chunk instanceof Uint8Array)) return finish();
     pending = pending.length === 0 ? Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength) : Buffer.concat([pending, chunk]);
     take();
   });
