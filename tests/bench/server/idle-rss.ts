@@ -3,12 +3,16 @@
  * target ≤ 300 MB), on the embedded database: a first start on a fresh data directory (initdb,
  * migrations, demo seed) and a restart on that directory, each sampled IDLE_RSS_SECONDS (default
  * 20 and 60) after it answers /api/health, without any request meanwhile. Prints figures only,
- * with the machine's load.
+ * with the machine's load. The client is built first if stale (here, so that the server's own
+ * build of it, which `npm start` makes in its process, is not counted).
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { machineLoad, rssMb, startServer } from './harness.ts';
+import { ensureClientBuild } from '../../../server/client-build.ts';
+import { machineLoad, ROOT, rssMb, startServer } from './harness.ts';
+
+await ensureClientBuild(ROOT);
 
 const AT = (process.env.IDLE_RSS_SECONDS ?? '20,60').split(',').map(Number);
 const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-rss-'));
