@@ -4,7 +4,7 @@
  * talks to it with node-postgres, as it talks to a PostgreSQL server: each connection is a
  * MessagePort carrying the PostgreSQL wire protocol, and this thread plays the server's part —
  * it gathers the bytes into whole messages (as a socket server would) and hands them to PGlite's
- * `execProtocolRaw`, sending the answer back. PGlite has one session, so connections take turns
+ * `execProtocolRawStream`, sending the answer back. PGlite has one session, so connections take turns
  * (the pool holds one; a connection that goes away mid-transaction is rolled back).
  *
  * `state` (shared memory) tells the request thread, without a round trip, whether a statement is
