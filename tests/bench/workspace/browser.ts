@@ -6,10 +6,10 @@
  */
 import { spawn } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { chromium } from 'playwright-core';
+import { freePort } from './bench-product.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 const shots = path.join(root, 'test-artifacts', 'workspace-results');
@@ -17,18 +17,6 @@ const median = (xs: number[]) => {
   const s = xs.slice().sort((a, b) => a - b);
   return s.length % 2 ? s[(s.length - 1) >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 const port = await freePort();
 const vite = spawn(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), '--port', String(port), '--strictPort', '--host', '127.0.0.1'], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });

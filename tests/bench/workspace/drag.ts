@@ -6,12 +6,10 @@
  * about two seconds while requestAnimationFrame records frame intervals. Also saves a screenshot
  * (test-artifacts/workspace-results/workspace-300.png). Run: `node --import tsx tests/bench/workspace/drag.ts`.
  */
-import { spawn, spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { cpus, loadavg, tmpdir } from 'node:os';
+import { mkdirSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
-import { chromium } from 'playwright-core';
+import { startBenchProduct } from './bench-product.ts';
 import { study300 } from './study-300.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
@@ -21,50 +19,12 @@ const pct = (xs: number[], p: number) => {
   return s[Math.min(s.length - 1, Math.floor((p / 100) * s.length))];
 };
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
-const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-drag-dist-'));
-const data = mkdtempSync(path.join(tmpdir(), 'wyeward-drag-data-'));
 // DRAG_PROFILE=1: an unminified build and a CPU profile of the drag, to see where frame time goes.
 const profile = process.env.DRAG_PROFILE === '1';
-const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn', ...(profile ? ['--minify', 'false'] : [])], { cwd: root, encoding: 'utf8' });
-if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
-const port = await freePort();
-const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
-  cwd: root,
-  env: { ...process.env, PORT: String(port), DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist },
-  stdio: ['ignore', 'pipe', 'pipe'],
-});
-let log = '';
-server.stdout.on('data', (d) => (log += d));
-server.stderr.on('data', (d) => (log += d));
-const base = `http://127.0.0.1:${port}`;
-const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking'] });
+const product = await startBenchProduct('drag', { unminified: profile });
+const { base, page } = product;
 try {
-  for (let i = 0; ; i++) {
-    if (server.exitCode !== null) throw new Error(`server exited:\n${log}`);
-    const ok = await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false);
-    if (ok) break;
-    if (i > 800) throw new Error(`server did not start:\n${log}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-  page.on('pageerror', (e) => console.log(`page error: ${e.message}`));
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel(/e-?mail/i).fill('engineer@wyeward.test');
-  await page.getByLabel(/password/i).fill('wyeward-demo');
-  await page.getByRole('button', { name: /sign in/i }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
   const created = await page.evaluate(async (circuit) => {
     const res = await fetch('/api/studies', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: 'Bench: 300-element feeder', content: { circuit } }) });
     return { status: res.status, body: await res.json() };
@@ -145,9 +105,5 @@ try {
   );
   console.log(`machine: ${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (headless, software rendering)`);
 } finally {
-  await browser.close();
-  server.kill('SIGTERM');
-  await new Promise((r) => setTimeout(r, 1500));
-  rmSync(dist, { recursive: true, force: true });
-  rmSync(data, { recursive: true, force: true });
+  await product.close();
 }

@@ -20,15 +20,11 @@
  * (EDIT_RUNS=n edits per study, default 15; EDIT_STUDIES=<regex> picks studies by name; EDIT_PROFILE=1 prints
  * a CPU profile and a timeline of the main thread per study).
  */
-import { spawn, spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { cpus, loadavg, tmpdir } from 'node:os';
-import path from 'node:path';
-import { chromium, type Page } from 'playwright-core';
+import { cpus, loadavg } from 'node:os';
+import type { Page } from 'playwright-core';
+import { startBenchProduct } from './bench-product.ts';
 import { study300 } from './study-300.ts';
 
-const root = path.resolve(import.meta.dirname, '../../..');
 const RUNS = Number(process.env.EDIT_RUNS ?? 15);
 /** EDIT_STUDIES=<regex>: only the studies whose name matches. */
 const ONLY = process.env.EDIT_STUDIES ? new RegExp(process.env.EDIT_STUDIES, 'i') : null;
@@ -44,17 +40,6 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[(s.length - 1) >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 /** The page-side instrumentation (a string: tsx's helpers do not exist in the page). */
 const INSTRUMENT = `(() => {
@@ -256,44 +241,9 @@ function printProfile(study: string, profile: CpuProfile, allEvents: TraceEvent[
   for (const [k, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 18)) console.log(`  ${(ms / per).toFixed(2).padStart(8)}  ${k}`);
 }
 
-const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-dist-'));
-const data = mkdtempSync(path.join(tmpdir(), 'wyeward-edit-data-'));
-const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn', ...(PROFILE ? ['--minify', 'false'] : [])], { cwd: root, encoding: 'utf8' });
-if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
-const port = await freePort();
-const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
-  cwd: root,
-  env: { ...process.env, PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist },
-  stdio: ['ignore', 'pipe', 'pipe'],
-});
-let log = '';
-server.stdout.on('data', (d) => (log += d));
-server.stderr.on('data', (d) => (log += d));
-const base = `http://127.0.0.1:${port}`;
-const browser = await chromium.launch({
-  executablePath: '/usr/bin/chromium',
-  headless: true,
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-});
+const product = await startBenchProduct('edit', { unminified: PROFILE, initScript: INSTRUMENT });
+const { base, page } = product;
 try {
-  for (let i = 0; ; i++) {
-    if (server.exitCode !== null) throw new Error(`server exited:\n${log}`);
-    const ok = await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false);
-    if (ok) break;
-    if (i > 800) throw new Error(`server did not start:\n${log}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-  page.on('pageerror', (e) => console.log(`page error: ${e.message}`));
-  await page.addInitScript(INSTRUMENT);
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel(/e-?mail/i).fill('engineer@wyeward.test');
-  await page.getByLabel(/password/i).fill('wyeward-demo');
-  await page.getByRole('button', { name: /sign in/i }).click();
-  // generous: on a loaded machine the first sign-in (password hash, first queries) can take long
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 180_000 }).catch(async (e) => {
-    throw new Error(`sign-in did not finish: ${(await page.locator('body').innerText()).slice(0, 400)}`, { cause: e });
-  });
   const created = await page.evaluate(async (circuit) => {
     const res = await fetch('/api/studies', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: 'Bench: 300-element feeder', content: { circuit } }) });
     return { status: res.status, body: await res.json() };
@@ -317,9 +267,5 @@ try {
   for (const r of results) console.log(`| ${r.study} | ${r.elements} | ${r.total.length} | ${f(r.inputToPost)} ms | ${f(r.roundTrip)} ms | ${f(r.inWorker)} ms | ${f(r.answerToCommit)} ms | ${f(r.commitToPaint)} ms | ${f(r.total)} ms | ${r.elements >= 250 ? '≤ 100 ms' : '≤ 50 ms'} | ${f(r.settled)} ms |`);
   console.log(`\nmachine: ${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (headless chromium, software rendering)`);
 } finally {
-  await browser.close();
-  server.kill('SIGTERM');
-  await new Promise((r) => setTimeout(r, 1500));
-  rmSync(dist, { recursive: true, force: true });
-  rmSync(data, { recursive: true, force: true });
+  await product.close();
 }

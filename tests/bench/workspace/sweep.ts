@@ -18,30 +18,17 @@
  * trace's events there; SWEEP_CONTAIN=<selector> gives those elements paint
  * containment (experiments); SWEEP_2D=1 sweeps two parameters instead, 100 × 100 points (heat maps); SWEEP_PROFILE=1 the page's JavaScript by function).
  */
-import { spawn, spawnSync, execSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { cpus, tmpdir } from 'node:os';
-import path from 'node:path';
-import { chromium, type Page } from 'playwright-core';
+import { execSync } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { cpus } from 'node:os';
+import type { Page } from 'playwright-core';
+import { startBenchProduct } from './bench-product.ts';
 import { study300 } from './study-300.ts';
 import { gapStats, printTrace, type Gap, type GapStats, type TraceEvent } from './sweep-trace.ts';
 
-const root = path.resolve(import.meta.dirname, '../../..');
 const RUNS = Number(process.env.SWEEP_RUNS ?? 2);
 const uptime = () => execSync('uptime', { encoding: 'utf8' }).trim();
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 /** Frame gaps while armed, each with the time it ended (a string: tsx's helpers do not exist in the page). */
 const FRAMES = `(() => {
@@ -83,41 +70,9 @@ async function sweep(page: Page, points: number): Promise<Measured> {
   return { seconds, gaps: gaps.map(([t, ms]) => ({ at: t - start, ms })), stats: gapStats(gaps.map((g) => g[1])), tasks };
 }
 
-const dist = mkdtempSync(path.join(tmpdir(), 'wyeward-sweep-dist-'));
-const data = mkdtempSync(path.join(tmpdir(), 'wyeward-sweep-data-'));
-const build = spawnSync(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
-if (build.status !== 0) throw new Error(`vite build failed:\n${build.stderr}`);
-const port = await freePort();
-const server = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'bench-server.ts')], {
-  cwd: root,
-  env: { ...process.env, PORT: String(port), DATA_DIR: data, DEMO: '1', NODE_ENV: 'production', WYEWARD_BENCH_DIST: dist, APP_URL: `http://127.0.0.1:${port}` },
-  stdio: ['ignore', 'pipe', 'pipe'],
-});
-let log = '';
-server.stdout.on('data', (d) => (log += d));
-server.stderr.on('data', (d) => (log += d));
-const base = `http://127.0.0.1:${port}`;
-const browser = await chromium.launch({
-  executablePath: '/usr/bin/chromium',
-  headless: true,
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-});
+const product = await startBenchProduct('sweep', { initScript: FRAMES });
+const { base, page } = product;
 try {
-  for (let i = 0; ; i++) {
-    if (server.exitCode !== null) throw new Error(`server exited:\n${log}`);
-    const ok = await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false);
-    if (ok) break;
-    if (i > 800) throw new Error(`server did not start:\n${log}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-  page.on('pageerror', (e) => console.log(`page error: ${e.message}`));
-  await page.addInitScript(FRAMES);
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel(/e-?mail/i).fill('engineer@wyeward.test');
-  await page.getByLabel(/password/i).fill('wyeward-demo');
-  await page.getByRole('button', { name: /sign in/i }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
   const circuit = study300(100);
   const load = circuit.elements.find((e) => e.type === 'load' && 'each' in e)!;
   const created = await page.evaluate(async (c) => {
@@ -194,9 +149,5 @@ try {
   for (const r of rows) console.log(r);
   console.log(`\nmachine: ${cpus().length} cores; after: ${uptime()} (headless chromium, software rendering)`);
 } finally {
-  await browser.close();
-  server.kill('SIGTERM');
-  await new Promise((r) => setTimeout(r, 1500));
-  rmSync(dist, { recursive: true, force: true });
-  rmSync(data, { recursive: true, force: true });
+  await product.close();
 }
