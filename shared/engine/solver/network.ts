@@ -84,9 +84,10 @@ export interface Network {
   /**
    * Replace the primitives. Cheap when the topology is unchanged (same ids, kinds, nodes, switch
    * states, which sources have a series impedance, same admittance-stamp sparsity); otherwise the
-   * network is re-analysed transparently.
+   * network is re-analysed transparently. `changed` (sweeps): the positions whose primitive may
+   * differ from the last update's; every other position must hold the very same object as then.
    */
-  update(primitives: readonly Primitive[]): void;
+  update(primitives: readonly Primitive[], changed?: readonly number[]): void;
   /** Solve with the current values. */
   solve(options?: SolverOptions): PrimitiveSolution;
   /** Timings of the last `solve` (and of the analysis that preceded it, if any). */
@@ -145,16 +146,25 @@ export function createNetwork(primitives: readonly Primitive[]): Network {
     get factorNonZeros() {
       return 2 * topo.symbolic.lnz;
     },
-    update(next) {
-      validatePrimitives(next);
+    update(next, changed) {
+      // only the changed primitives are checked again (the rest were, and ids stay unique when
+      // theirs do not change: sameTopology compares them); a problem is reported as a full check words it
+      const only = changed && next.length === topo.prims.length ? changed : undefined;
+      if (only) {
+        try {
+          validatePrimitives(only.map((k) => next[k]));
+        } catch {
+          validatePrimitives(next);
+        }
+      } else validatePrimitives(next);
       const copy = next.slice();
-      if (!sameTopology(topo, copy)) {
+      if (!sameTopology(topo, copy, only)) {
         t0 = now();
         topo = buildTopology(copy);
         analyzeMs = now() - t0;
       } else {
         try {
-          loadValues(topo, copy);
+          loadValues(topo, copy, only);
         } catch (e) {
           // values half-loaded: force a rebuild on the next update, refuse to solve until then
           topo.prims = [];
@@ -291,10 +301,11 @@ function stampConnectivity(y: Cx[][]): { pairs: [number, number][]; earthRows: n
   return { pairs, earthRows, signature: sig };
 }
 
-function sameTopology(t: Topology, prims: Primitive[]): boolean {
+function sameTopology(t: Topology, prims: Primitive[], only?: readonly number[]): boolean {
   const old = t.prims;
   if (old.length !== prims.length) return false;
-  for (let k = 0; k < prims.length; k++) {
+  for (let q = 0, end = only ? only.length : prims.length; q < end; q++) {
+    const k = only ? only[q] : q;
     const a = old[k];
     const b = prims[k];
     if (a.type !== b.type || a.id !== b.id) return false;
@@ -717,10 +728,11 @@ function allocValues(prims: Primitive[]): Values {
   };
 }
 
-/** Read the element values into the topology's typed arrays (coupled-branch inverses are refreshed only where Z changed). */
-function loadValues(t: Topology, prims: Primitive[]): void {
+/** Read the element values into the topology's typed arrays (coupled-branch inverses are refreshed only where Z changed); `only`: just those positions. */
+function loadValues(t: Topology, prims: Primitive[], only?: readonly number[]): void {
   const v = t.values;
-  for (let k = 0; k < prims.length; k++) {
+  for (let q = 0, end = only ? only.length : prims.length; q < end; q++) {
+    const k = only ? only[q] : q;
     const e = prims[k];
     switch (e.type) {
       case 'impedance': {

@@ -239,6 +239,32 @@ describe('solvePrimitives on hand-checkable networks', () => {
     expectInvariants(opened, s3);
   });
 
+  it('createNetwork: an update naming the changed positions (sweeps) matches a fresh solve; a changed switch re-analyses; a bad changed value is refused as a full check words it', () => {
+    const base = r1('solid');
+    const net = createNetwork(base);
+    net.solve();
+    const za = base.findIndex((e) => e.id === 'Za');
+    const heavier = base.map((e, k) => (k === za ? { ...e, ohms: { re: 20, im: 10 } } : e)) as Primitive[];
+    net.update(heavier, [za]);
+    const s2 = net.solve();
+    for (const [node, v] of solvePrimitives(heavier).nodeVolts) expectCx(s2.nodeVolts.get(node), v, 1e-12, `V(${node})`);
+    const n = heavier.findIndex((e) => e.id === 'N');
+    const opened = heavier.map((e, k) => (k === n ? { ...e, closed: false } : e)) as Primitive[];
+    net.update(opened, [n]);
+    const s3 = net.solve();
+    for (const [node, v] of solvePrimitives(opened).nodeVolts) expectCx(s3.nodeVolts.get(node), v, 1e-12, `V(${node})`);
+    expect(cabs(s3.nodeVolts.get('l.n')!)).toBeGreaterThan(1);
+    const zero = opened.map((e, k) => (k === za ? { ...e, ohms: { re: 0, im: 0 } } : e)) as Primitive[];
+    let full = '';
+    try {
+      createNetwork(zero);
+    } catch (e) {
+      full = (e as Error).message;
+    }
+    expect(full).toMatch(/Za/);
+    expect(() => net.update(zero, [za])).toThrow(full);
+  });
+
   it('createNetwork: a bad value in an update is refused, and the network solves again after a good update', () => {
     const z = (x: number): Cx[][] => [
       [{ re: 1, im: x }, { re: 0, im: 0.5 }],
