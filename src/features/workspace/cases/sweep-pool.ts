@@ -16,6 +16,8 @@ interface Slot {
   post(req: SweepRequest): void;
   terminate(): void;
   busy: boolean;
+  /** The job whose setup this worker has (sent with its first chunk of that job). */
+  job?: number;
 }
 
 export interface SweepJob {
@@ -126,7 +128,10 @@ export class SweepPool {
       const start = next;
       next = Math.min(job.points.length, next + size);
       s.busy = true;
-      s.post({ kind: 'chunk', job: id, start, circuit: job.circuit, paths: job.paths, points: job.points.slice(start, next), outputs: job.outputs });
+      // the circuit goes to each worker once per sweep, with its first chunk
+      const setup = s.job === id ? undefined : { circuit: job.circuit, paths: job.paths, outputs: job.outputs };
+      s.job = id;
+      s.post({ kind: 'chunk', job: id, start, points: job.points.slice(start, next), ...(setup ? { setup } : {}) });
     };
     this.failure = (m) => {
       finished = true;

@@ -6,15 +6,24 @@ import type { PackedRows } from './sweep-store.ts';
 import type { EnvelopeOptions, LostNeutralEnvelope } from '../../../../shared/engine/index.ts';
 import type { OutputSpec } from '../../../../shared/review/sweep-outputs.ts';
 
-/** A chunk of sweep points: the circuit (a case already applied), the parameter paths, the points (values per path) from `start`. */
+/** What stays the same for every chunk of one sweep: the circuit (a case already applied), the parameter paths, the outputs. */
+export interface SweepSetup {
+  circuit: unknown;
+  paths: string[];
+  outputs: OutputSpec[];
+}
+
+/**
+ * A chunk of sweep points (values per path) from `start`. The first chunk of a sweep a worker gets
+ * carries the sweep's `setup`; the worker keeps it (and the circuit validated and expanded from it)
+ * for the later chunks of the same job, which carry only their points.
+ */
 export interface SweepChunk {
   kind: 'chunk';
   job: number;
   start: number;
-  circuit: unknown;
-  paths: string[];
   points: number[][];
-  outputs: OutputSpec[];
+  setup?: SweepSetup;
 }
 
 /** One solved point: the outputs in request order, or why the point could not be solved. */

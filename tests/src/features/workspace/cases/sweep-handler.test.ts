@@ -13,7 +13,7 @@ describe('sweep worker handler', () => {
   it('each point equals solving the swept circuit directly; a failing point is reported in its row', () => {
     const handle = createSweepHandler();
     const points = sweepPoints([{ from: 0.5, to: 6, steps: 5 }]).concat([[-1e9]]);
-    const res = handle({ kind: 'chunk', job: 1, start: 0, circuit: openNeutral, paths: ['KITCHEN.each.kw'], points, outputs: outputs.map((o) => o.spec) });
+    const res = handle({ kind: 'chunk', job: 1, start: 0, points, setup: { circuit: openNeutral, paths: ['KITCHEN.each.kw'], outputs: outputs.map((o) => o.spec) } });
     if (res.kind !== 'chunk') throw new Error('expected rows');
     // packed point-major in one Float64Array (moved to the page, not copied)
     expect(res.rows.count).toBe(6);
@@ -29,6 +29,61 @@ describe('sweep worker handler', () => {
     expect(store.row(5)!.error).toBeTruthy();
     expect(store.row(5)!.outputs.every((v) => v === null)).toBe(true);
     expect(store.failed).toBe(1);
+  });
+
+  it('the setup comes with the first chunk of a sweep only: later chunks of that job use it; a chunk of another job without one is refused in every row', () => {
+    const handle = createSweepHandler();
+    const setup = { circuit: openNeutral, paths: ['KITCHEN.each.kw'], outputs: outputs.map((o) => o.spec) };
+    const points = sweepPoints([{ from: 0.5, to: 6, steps: 6 }]);
+    const first = handle({ kind: 'chunk', job: 7, start: 0, points: points.slice(0, 3), setup });
+    const later = handle({ kind: 'chunk', job: 7, start: 3, points: points.slice(3) });
+    const store = new SweepStore(6, outputs.length);
+    for (const res of [first, later]) {
+      if (res.kind !== 'chunk') throw new Error('expected rows');
+      store.put(res.start, res.rows);
+    }
+    expect(store.done).toBe(6);
+    expect(store.failed).toBe(0);
+    points.forEach((p, i) => {
+      const direct = solveCircuit(sweepCircuit(openNeutral, ['KITCHEN.each.kw'], p));
+      outputs.forEach((o, k) => expect(store.row(i)!.outputs[k]).toBeCloseTo(outputValue(direct, o.spec) as number, 9));
+    });
+    const stray = handle({ kind: 'chunk', job: 8, start: 0, points: points.slice(0, 2) });
+    if (stray.kind !== 'chunk') throw new Error('expected rows');
+    expect(stray.rows.count).toBe(2);
+    expect(stray.rows.errors.map(([p]) => p)).toEqual([0, 1]);
+    expect(stray.rows.errors[0][1]).toMatch(/run the sweep again/);
+  });
+
+  it('the pool sends each worker the circuit once per sweep, with its first chunk', async () => {
+    const pool = new SweepPool(2);
+    const sent: { job: number; setup: boolean }[] = [];
+    const points = sweepPoints([{ from: 1, to: 4, steps: 30 }]);
+    const run = () =>
+      new Promise<void>((resolve, reject) =>
+        pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: () => {}, onDone: resolve, onFailure: reject }),
+      );
+    // watch what the page posts to each (in-page) worker
+    const slots = (pool as unknown as { slots: ({ post(r: unknown): void } | null)[] }).slots;
+    pool.warm();
+    slots.forEach((s) => {
+      const post = s!.post;
+      s!.post = (r) => {
+        const req = r as { job: number; setup?: unknown };
+        sent.push({ job: req.job, setup: !!req.setup });
+        post(r);
+      };
+    });
+    await run();
+    await run();
+    const jobs = [...new Set(sent.map((x) => x.job))];
+    expect(jobs).toHaveLength(2);
+    for (const job of jobs) {
+      const mine = sent.filter((x) => x.job === job);
+      expect(mine.length).toBe(Math.ceil(points.length / chunkSize(points.length, 2)));
+      expect(mine.filter((x) => x.setup)).toHaveLength(2);
+    }
+    pool.dispose();
   });
 
   it('CSV: the caution first, units in the header, one row per point with its status', () => {
