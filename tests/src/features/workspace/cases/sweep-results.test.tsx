@@ -1,0 +1,40 @@
+/**
+ * The sweep results box while points arrive: the progress row and each line chart are relayout
+ * boundaries (size and layout containment, and block children: a flex or grid item never is one),
+ * so a redraw lays out and repaints only them, not the results tables above; the progress and the
+ * lines follow the points handed over.
+ */
+import { act, render, screen } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
+import { drawArrived, runData, SweepResults, type Run } from '../../../../../src/features/workspace/cases/sweep-results.tsx';
+
+const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05] };
+
+function run(n: number): Run {
+  const axes = [Array.from({ length: n }, (_, i) => i)];
+  const points = axes[0].map((v) => [v]);
+  return { paramLabels: ['K every phase › P (kW)'], parameters: [{ elementId: 'K', path: 'each.kw' }], axes, log: [false], points, outputs: [output], ...runData(points, axes, [false], [output]), status: 'running', started: 0 };
+}
+
+const isFlexOrGrid = (el: Element | null) => !!el && /(^|\s)(flex|grid|inline-flex|inline-grid)(\s|$)/.test(el.className);
+
+describe('sweep results while a sweep runs', () => {
+  it('the progress row and the chart boxes are strict-contained block children; a redraw shows the points handed over', () => {
+    const r = run(10);
+    render(<SweepResults run={r} picked={null} onPick={() => {}} onMakeCase={null} />);
+    const row = screen.getByRole('progressbar', { name: 'Sweep progress' }).parentElement!;
+    expect(row.style.contain).toBe('strict');
+    expect(isFlexOrGrid(row.parentElement)).toBe(false);
+    const chart = screen.getByRole('img', { name: /^K terminal voltage \(pu\) against/ });
+    const box = chart.closest('figure')!.parentElement!;
+    expect(box.style.contain).toBe('strict');
+    expect(isFlexOrGrid(box.parentElement)).toBe(false);
+
+    r.store.put(0, { count: 4, values: Float64Array.from([1, 1.01, 1.02, 1.03]), errors: [] });
+    act(() => drawArrived(r, [[0, 4]]));
+    expect(screen.getByRole('status').textContent).toBe('Solving: 4 of 10 points');
+    expect(screen.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('value')).toBe('4');
+    expect(chart.querySelector('path')!.getAttribute('d')).toMatch(/^M.*L.*L.*L/);
+  });
+});
