@@ -131,8 +131,10 @@ export const SweepLineChart = memo(function SweepLineChart({ xLabel, series, ver
             </text>
           </g>
         ))}
-        {y.ticks.map((t) => (
-          <g key={`y${t}`}>
+        {y.ticks.map((t, i) => (
+          // keyed by place, not value: as the range grows while points arrive, the tick elements are
+          // moved and relabelled rather than removed and inserted again (each insertion is style and layout work)
+          <g key={`y${i}`}>
             <line x1={M.l} x2={M.l + IW} y1={y(t)} y2={y(t)} stroke="#e4e1d8" />
             <text x={M.l - 4} y={y(t) + 3} textAnchor="end" fontSize={10} fill="#5b6369">
               {tick(t)}
