@@ -472,8 +472,11 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           </div>
 
           <div className="overflow-auto">
-            <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
-            <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
+            {/* a paint layer of their own (isolation clips nothing): a sweep chart redrawn below them does not repaint the tables */}
+            <div className="isolate">
+              <ResultsPanel status={live.status} result={live.result} error={live.error} stale={live.stale} ms={live.ms} selection={panelSelection} onSelect={selectById} standard={doc.settings.wiringStandard} privateMarker={PRIVATE_SEP} perUnit={doc.settings.perUnit} />
+              <CasesCompare circuit={circuit} privateMarker={PRIVATE_SEP} />
+            </div>
             <StudyExplorations circuit={shownCircuit} base={circuit} cases={cases} activeCase={activeCase} result={live.result} onCases={readOnly ? null : setCases} onActivate={setActiveCase} server={serverSweeps} />
           </div>
         </div>
