@@ -96,6 +96,18 @@ describe('cases, sweeps and the envelope in a real browser', () => {
       expect(cells[cells.length - 1]).toBe('ok');
     }
     await screenshot(page, 'sweep-1d');
+    // the results tables are painted in a layer of their own (an isolated ancestor the sweep panel is outside of), so a redrawn sweep chart does not repaint them
+    const layers = await page.evaluate(() => {
+      const isolatedAncestor = (el: Element | null) => {
+        for (let e = el?.parentElement ?? null; e; e = e.parentElement) if (getComputedStyle(e).isolation === 'isolate') return e;
+        return null;
+      };
+      const table = document.querySelector('table[aria-label="Bus voltages"]');
+      const sweepPanel = document.querySelector('section[aria-label="Sweeps and envelope"]');
+      const wrap = isolatedAncestor(table);
+      return { tableIsolated: !!wrap, sweepInside: !!wrap && !!sweepPanel && wrap.contains(sweepPanel), sweepFound: !!sweepPanel };
+    });
+    expect(layers).toEqual({ tableIsolated: true, sweepInside: false, sweepFound: true });
 
     // ---- the picked point becomes a case ----
     const chart = sweep.getByRole('img', { name: /^KITCHEN terminal voltage/ });
