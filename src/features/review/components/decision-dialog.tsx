@@ -1,9 +1,8 @@
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import type { RevisionRisk } from '../../../../shared/review/risk.ts';
 import { Button } from '../../../components/button.tsx';
 import { Dialog } from '../../../components/dialog.tsx';
 import { TextAreaField } from '../../../components/field.tsx';
-import { Notice } from '../../../components/notice.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { useReviewAction } from '../api/review-action.ts';
 import { RiskNotice } from '../../../components/risk-notice.tsx';
@@ -40,6 +39,9 @@ export function DecisionDialog({
   const serverAck = isApiError(action.error) ? action.error.fields.acknowledgeViolations : undefined;
   // The server may know of violations the page has not loaded yet: then the box appears with its answer.
   const showAck = mustAcknowledge || serverAck !== undefined;
+  const formErrorId = useId();
+  // The server's refusal of the whole decision (not of one field): the form's own error, in its words.
+  const formError = action.isError && !serverAck && !(isApiError(action.error) && action.error.fields.message) ? action.error.message : null;
   const what = mustAcknowledge ? (risk!.violationCount === 1 ? 'violation' : `${risk!.violationCount} violations`) : 'violations';
   return (
     <Dialog
@@ -51,6 +53,7 @@ export function DecisionDialog({
     >
       <form
         className="flex flex-col gap-3"
+        aria-describedby={formError ? formErrorId : undefined}
         onSubmit={(e) => {
           e.preventDefault();
           setTried(true);
@@ -93,7 +96,12 @@ export function DecisionDialog({
           aria-required={!approve}
           error={tried && missing ? 'Say what should change' : isApiError(action.error) ? action.error.fields.message : undefined}
         />
-        {action.isError && !serverAck ? <Notice tone="error" title={approve ? 'Could not approve.' : 'Could not request changes.'}>{action.error.message}</Notice> : null}
+        {formError ? (
+          <p id={formErrorId} role="alert" className="text-[13px] text-danger">
+            <span aria-hidden="true">✕ </span>
+            {formError}
+          </p>
+        ) : null}
         <div className="flex justify-end gap-2">
           <Button onClick={onClose}>Cancel</Button>
           <Button type="submit" variant={approve ? 'primary' : 'danger'} busy={action.isPending} busyText="Sending…">

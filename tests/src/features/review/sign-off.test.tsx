@@ -69,6 +69,20 @@ describe('approve dialog', () => {
     expect(within(dialog).getByRole('checkbox', { name: /I have read the violations of revision 2/ })).not.toBeChecked();
   });
 
+  it('shows a server refusal as the form\'s error: the message itself, tied to the form, with no "Error:" word before it', async () => {
+    const refusal = 'Revision 2 is no longer under review: the study moved on to revision 3.';
+    setupReview({ ...RISK, violationCount: 0, worst: null }, () => apiError(409, 'conflict', refusal));
+    const user = userEvent.setup();
+    await user.click(await screen.findByRole('button', { name: 'Approve' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Approve revision 2?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Approve' }));
+    const alert = await within(dialog).findByRole('alert');
+    expect(alert.textContent).not.toMatch(/error\s*:/i);
+    expect(alert.textContent).toContain(refusal);
+    // The form names its error, as a field names its own.
+    expect(dialog.querySelector('form')).toHaveAccessibleDescription(expect.stringContaining(refusal));
+  });
+
   it('needs no acknowledgement for a revision without violations', async () => {
     const posted = setupReview({ ...RISK, violationCount: 0, worst: null }, () => ({ body: reviewState({ status: 'approved', approvedRevision: 2 }) }));
     const user = userEvent.setup();
