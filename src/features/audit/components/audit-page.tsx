@@ -88,7 +88,7 @@ export function AuditPage() {
       {audit.isError ? <Notice tone="error" title="The audit trail could not be loaded.">{audit.error.message}</Notice> : null}
       {audit.data && audit.data.items.length === 0 ? <Notice>No events match these filters.</Notice> : null}
       {audit.data && audit.data.items.length > 0 ? (
-        <div className="overflow-x-auto rounded-[4px] border border-rule bg-panel">
+        <div className="relative overflow-x-auto rounded-[4px] border border-rule bg-panel">
           <table aria-label="Audit events" className="w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-3 [&_td]:py-1.5 [&_td]:align-top [&_th]:px-3 [&_th]:py-1.5 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted">
             <thead>
               <tr>

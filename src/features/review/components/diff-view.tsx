@@ -74,7 +74,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
         {diff.results.length === 0 ? (
           <Empty>No key result changed by more than 0.05 of its unit.</Empty>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table aria-label="Result changes" className={TABLE}>
               <thead>
                 <tr>
@@ -152,7 +152,7 @@ export function DiffView({ diff }: { diff: RevisionDiff }) {
           </p>
         ) : null}
         {elements.changed.map((e) => (
-          <div key={e.id} className="overflow-x-auto">
+          <div key={e.id} className="relative overflow-x-auto">
             <ChangesTable label={`Changes to ${e.id}`} first="Parameter" diff={diff} changes={e.changes}>
               <caption className="text-left text-sm font-semibold">
                 <span className="num">{e.id}</span> <span className="font-normal text-ink-muted">({e.typeLabel})</span>

@@ -34,7 +34,7 @@ export function HistoryPage({ studyId, role }: { studyId: string; role: Role }) 
       {revisions.isError ? <Notice tone="error" title="The history could not be loaded.">{revisions.error.message}</Notice> : null}
       {revisions.data && revisions.data.items.length === 0 ? <Notice>No revision has been saved yet.</Notice> : null}
       {revisions.data && revisions.data.items.length > 0 ? (
-        <div className="overflow-x-auto rounded-[4px] border border-rule bg-panel">
+        <div className="relative overflow-x-auto rounded-[4px] border border-rule bg-panel">
           <table aria-label="Revisions" className="w-full border-collapse text-[13px] [&_td]:border-t [&_td]:border-rule [&_td]:px-3 [&_td]:py-1.5 [&_td]:align-top [&_th]:px-3 [&_th]:py-1.5 [&_th]:text-left [&_th]:font-semibold [&_th]:text-ink-muted">
             <thead>
               <tr>

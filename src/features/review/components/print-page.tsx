@@ -45,6 +45,8 @@ function PrintTable({ table, columns, title }: { table: ResultTable; columns?: n
       {table.rows.length === 0 ? (
         <p className="text-[12px] text-ink-muted">None.</p>
       ) : (
+        // A narrow screen scrolls a wide table inside its own box; paper shows it whole.
+        <div className="relative overflow-x-auto print:overflow-visible">
         <table aria-label={title ?? table.title} className={TABLE}>
           <thead>
             <tr>
@@ -67,6 +69,7 @@ function PrintTable({ table, columns, title }: { table: ResultTable; columns?: n
             ))}
           </tbody>
         </table>
+        </div>
       )}
     </section>
   );
@@ -119,7 +122,7 @@ export function PrintPage({ studyId, n, units = 'si', caseId }: { studyId: strin
   return (
     <article aria-label="Study report" className="relative mx-auto max-w-[900px] bg-panel p-6 text-[13px] print:max-w-none print:p-0">
       {approved ? null : (
-        <div aria-hidden="true" className="pointer-events-none fixed inset-0 flex items-center justify-center print:z-50">
+        <div aria-hidden="true" className="pointer-events-none fixed inset-0 flex items-center justify-center overflow-hidden print:z-50">
           <span className="-rotate-45 text-[64px] font-semibold text-ink opacity-[0.07]">DRAFT — not reviewed</span>
         </div>
       )}

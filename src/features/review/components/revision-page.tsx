@@ -50,7 +50,7 @@ export function ResultsSummaryTables({ summary, names = circuitNames(null) }: { 
   const phases = [...new Set(summary.buses.flatMap((b) => Object.keys(b.phaseVolts)))].sort();
   return (
     <div className="flex flex-col gap-3">
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table aria-label="Bus voltages at this revision" className={TABLE}>
           <thead>
             <tr>
@@ -91,7 +91,7 @@ export function ResultsSummaryTables({ summary, names = circuitNames(null) }: { 
         </table>
       </div>
       {neutralCurrents.length > 0 ? (
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table aria-label="Neutral currents at this revision" className={TABLE}>
             <thead>
               <tr>
@@ -179,7 +179,7 @@ export function RevisionPage({ studyId, n, role }: { studyId: string; n: number;
               ) : null}
             </div>
           </div>
-          <div className="grid gap-4 md:grid-cols-[20rem_1fr]">
+          <div className="grid grid-cols-[minmax(0,1fr)] gap-4 md:grid-cols-[20rem_minmax(0,1fr)]">
             <section aria-labelledby="rev-record" className="rounded-[4px] border border-rule bg-panel px-4 py-3">
               <h2 id="rev-record" className="text-[12px] uppercase tracking-wide text-ink-muted">
                 Record

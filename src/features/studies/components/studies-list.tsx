@@ -110,7 +110,7 @@ export function StudiesList({ role }: { role: Role }) {
   const pageCount = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
   return (
-    <div className="mx-auto max-w-7xl">
+    <div className="mx-auto w-full max-w-7xl">
       <div className="flex flex-wrap items-end gap-3">
         <div>
           <h1 className="text-lg">Studies</h1>
@@ -148,7 +148,7 @@ export function StudiesList({ role }: { role: Role }) {
         </div>
       ) : null}
 
-      <div className="mt-4 overflow-x-auto rounded-[4px] border border-rule bg-panel">
+      <div className="mt-4 relative overflow-x-auto rounded-[4px] border border-rule bg-panel">
         {studies.isPending ? (
           <Loading label="Loading studies…" />
         ) : studies.isError ? (

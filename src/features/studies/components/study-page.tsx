@@ -71,7 +71,7 @@ export function StudyPage({ id, role }: { id: string; role: Role }) {
       </div>
       {clone.isError ? <Notice tone="error" title={`Could not copy the study: ${clone.error.message}`} /> : null}
 
-      <div className="grid gap-4 md:grid-cols-[1fr_20rem]">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 md:grid-cols-[minmax(0,1fr)_20rem]">
         <section aria-labelledby="about-title" className="rounded-[4px] border border-rule bg-panel px-4 py-3">
           <h2 id="about-title" className="sr-only">
             About this study

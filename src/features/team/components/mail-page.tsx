@@ -40,7 +40,7 @@ export function MailPage() {
         <h1 className="text-lg">Outgoing mail</h1>
         <p className="text-[13px] text-ink-muted">Every message this server sent or is sending, newest first. Without a mail server set up, they go to a local stand-in that keeps them here and delivers nothing.</p>
       </div>
-      <div className="grid gap-4 md:grid-cols-[22rem_1fr]">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 md:grid-cols-[22rem_minmax(0,1fr)]">
         <section aria-labelledby="mail-list-title" className="rounded-[4px] border border-rule bg-panel">
           <h2 id="mail-list-title" className="border-b border-rule px-4 py-2 text-[13px] uppercase tracking-wide text-ink-muted">
             Messages {mail.data ? <span className="num">({mail.data.items.length})</span> : null}

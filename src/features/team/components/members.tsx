@@ -31,6 +31,8 @@ export function Members({ members, meId, canManage }: { members: Member[]; meId:
       <h2 id="members-title" className="border-b border-rule px-4 py-2 text-[13px] uppercase tracking-wide text-ink-muted">
         Members <span className="num">({members.length})</span>
       </h2>
+      {/* A narrow screen scrolls the table, never the page. */}
+      <div className="relative overflow-x-auto">
       <table className="w-full border-collapse text-sm">
         <thead>
           <tr className="border-b border-rule-strong text-left text-[12px] uppercase tracking-wide text-ink-muted">
@@ -86,6 +88,7 @@ export function Members({ members, meId, canManage }: { members: Member[]; meId:
           ))}
         </tbody>
       </table>
+      </div>
       {updateRole.isSuccess && !rowError ? (
         <div className="px-4 pb-3 pt-1">
           <Notice tone="ok" role="status" title="Role changed." />

@@ -33,7 +33,7 @@ export function TeamPage({ me }: { me: Me }) {
           ) : null}
         </p>
       </div>
-      <div className={canManage ? 'grid gap-4 lg:grid-cols-[1fr_22rem]' : ''}>
+      <div className={canManage ? 'grid grid-cols-[minmax(0,1fr)] gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]' : ''}>
         <div className="flex flex-col gap-4">
           <Members members={t.members} meId={me.user.id} canManage={canManage} />
           {canManage ? <PendingInvites invites={t.invites} /> : null}

@@ -45,7 +45,7 @@ export function conductorWords(c: Conductor): string {
 /** Memoised: the workspace re-renders on every frame of a drag, the panel only when its props change. */
 export const PropertyPanel = memo(function PropertyPanel({ selection, readOnly, wiringStandard, busNames, onElement, onBus, onToggleOpen, perUnit }: Props) {
   return (
-    <section aria-label="Properties" className="flex w-[250px] shrink-0 flex-col gap-2 overflow-y-auto border-l border-rule bg-panel p-2.5">
+    <section aria-label="Properties" className="flex w-[250px] shrink-0 flex-col gap-2 overflow-y-auto border-l border-rule bg-panel p-2.5 max-md:max-h-[50vh] max-md:w-full max-md:border-l-0 max-md:border-t">
       {selection === null ? (
         <p className="text-[12px] text-ink-muted">Select a bus, element or connection to see its properties.</p>
       ) : selection.kind === 'element' ? (
