@@ -257,6 +257,10 @@ describe('the workspace shows exactly what is solved', () => {
     await za.press('Enter');
     await expect.poll(() => page.getByText(/^Stale values/).count(), { timeout: 15_000 }).toBe(1);
     expect(await page.getByLabel('Bus HOUSE', { exact: true }).locator('[data-stale]').count()).toBe(1);
+    // The note covers nothing drawn: it sits outside the diagram's area, not over its corner.
+    const note = (await page.getByText(/^Stale values/).boundingBox())!;
+    const diagram = (await page.getByLabel('Diagram', { exact: true }).boundingBox())!;
+    expect(overlap(note, diagram), `the note ${JSON.stringify(note)} lies over the diagram ${JSON.stringify(diagram)}`).toBe(false);
     await screenshot(page, 'trust-stale');
     await page.getByRole('button', { name: 'Undo' }).click();
     await expect.poll(() => page.getByText(/^Stale values/).count(), { timeout: 15_000 }).toBe(0);

@@ -407,14 +407,22 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
           <CaseEditor cases={cases} circuit={circuit} active={activeCase} onActivate={setActiveCase} onChange={readOnly ? null : setCases} error={caseError} />
           {save.isError && !conflictOf(save.error) && dialog !== 'save' ? <p role="alert" className="text-[13px] text-danger">✕ The study was not saved: {save.error.message}</p> : null}
 
-          {/* The alert sits above the diagram, not over it (it hides nothing drawn), within the diagram's
-              height (the page does not grow: the canvas and its minimap stay in the window). */}
-          <div className="flex h-[68vh] min-h-[460px] flex-col gap-2">
-            {stale ? null : <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />}
-            <div className="flex min-h-0 flex-1 overflow-hidden rounded-[3px] border border-rule bg-paper">
+          {/* The alert, or the note that the values drawn are stale, sits above the diagram, not over it
+              (it hides nothing drawn), within the diagram's height (the page does not grow: the canvas
+              and its minimap stay in the window). Below md (a phone) the palette runs in a row above
+              the diagram and the properties come under it, so the diagram keeps the full width. */}
+          <div className="flex h-[68vh] min-h-[460px] flex-col gap-2 max-md:h-auto max-md:min-h-0">
+            {stale ? (
+              <p role="status" className="rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
+                Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
+              </p>
+            ) : (
+              <NeutralHazardAlert result={live.result} privateMarker={PRIVATE_SEP} />
+            )}
+            <div className="flex min-h-0 flex-1 overflow-hidden rounded-[3px] border border-rule bg-paper max-md:flex-col">
               {locked ? null : <Palette onAdd={addItem} />}
               {/* A dragged node gets its own compositor layer, so moving it does not repaint the nodes around it (\_ keeps Tailwind from reading _ as a space). */}
-              <div ref={canvasRef} className="relative min-w-0 flex-1 [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
+              <div ref={canvasRef} className="relative min-w-0 flex-1 max-md:h-[60vh] max-md:min-h-[320px] max-md:flex-none [&_.react-flow\_\_node.dragging]:will-change-transform" aria-label="Diagram">
                 <ReactFlow<WorkspaceNode, WorkspaceEdge>
                   nodes={nodes}
                   edges={edges}
@@ -446,11 +454,6 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
                   <Background gap={20} size={1} color="#d3d0c6" />
                   <MiniMap pannable zoomable ariaLabel="Minimap of the diagram" style={MINIMAP_STYLE} nodeColor={minimapColor} />
                 </ReactFlow>
-                {stale ? (
-                  <p role="status" className="pointer-events-none absolute left-2 top-2 z-10 max-w-[60%] rounded-[2px] border border-caution bg-caution-soft px-2 py-1 text-[12px] font-semibold text-caution">
-                    Stale values: the last edit cannot be solved, so the voltages and currents drawn are from before it, not for the circuit shown.
-                  </p>
-                ) : null}
                 {shownCase ? <CaseOverlay c={shownCase} circuit={circuit} /> : null}
                 {doc.nodes.length === 0 ? (
                   <p className="pointer-events-none absolute inset-x-0 top-1/3 text-center text-sm text-ink-muted">
