@@ -104,4 +104,39 @@ describe('diff view', () => {
     expect(region).toHaveTextContent('Revision 2 does not solve: Bus HOUSE is floating');
     expect(region).toHaveTextContent('No key result changed');
   });
+
+  describe('an address the revisions do not fit', () => {
+    function stub() {
+      return stubApi({
+        'GET /api/auth/me': () => ({ body: me('viewer') }),
+        'GET /api/studies/:id': () => ({ body: studyDetail({ id: STUDY_ID }) }),
+        'GET /api/studies/:id/revisions': () => ({ body: { items: [revision(5), revision(4), revision(3), revision(2), revision(1)] } }),
+        'GET /api/studies/:id/diff': (req) => ({ body: diff(Number(req.url.searchParams.get('from')), Number(req.url.searchParams.get('to'))) }),
+      });
+    }
+    const diffCalls = (api: ReturnType<typeof stubApi>) => api.calls.filter((c) => c.url.pathname.endsWith('/diff')).map((c) => `${c.url.searchParams.get('from')}→${c.url.searchParams.get('to')}`);
+
+    it('from newer than to: compares older → newer, the selects show the same, and the page says it turned them round', async () => {
+      const api = stub();
+      const { router } = renderApp(`/studies/${STUDY_ID}/diff?from=5&to=1`);
+      expect(await screen.findByRole('region', { name: 'Changes from revision 1 to revision 5' })).toBeInTheDocument();
+      expect(screen.getByLabelText('From revision')).toHaveValue('1');
+      expect(screen.getByLabelText('To revision')).toHaveValue('5');
+      expect(screen.getByRole('status')).toHaveTextContent('Revision 5 is newer than revision 1, so the changes are shown from revision 1 to revision 5.');
+      expect(diffCalls(api)).toEqual(['1→5']);
+      expect(router.state.location.search).toBe('?from=1&to=5');
+    });
+
+    it('a revision that does not exist: a clear message, no comparison, and selects that show no other revision as chosen', async () => {
+      const api = stub();
+      renderApp(`/studies/${STUDY_ID}/diff?from=9&to=2`);
+      expect(await screen.findByRole('alert')).toHaveTextContent('This study has no revision 9: its revisions are 1 to 5. Choose the two to compare.');
+      const from = screen.getByLabelText('From revision') as HTMLSelectElement;
+      expect(from.value).toBe('');
+      expect(from.selectedOptions[0].textContent).toBe('Choose a revision');
+      expect(screen.getByLabelText('To revision')).toHaveValue('2');
+      expect(screen.queryByRole('region', { name: /Changes from revision/ })).not.toBeInTheDocument();
+      expect(diffCalls(api)).toEqual([]);
+    });
+  });
 });
