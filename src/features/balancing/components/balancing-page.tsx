@@ -198,7 +198,17 @@ export function BalancingPage({ study, canApply, onApply }: BalancingPageProps) 
               <label className="text-[13px] font-semibold" htmlFor="customers-file">
                 Customer list (CSV)
               </label>
-              <input id="customers-file" type="file" accept=".csv,text/csv" onChange={(e) => void pick(e.target.files?.[0])} className="text-sm" />
+              {/* Emptied on click: a browser reports only a changed choice, so the same file, edited and chosen again, is read again. */}
+              <input
+                id="customers-file"
+                type="file"
+                accept=".csv,text/csv"
+                onClick={(e) => {
+                  e.currentTarget.value = '';
+                }}
+                onChange={(e) => void pick(e.target.files?.[0])}
+                className="text-sm"
+              />
               {file?.read.ok ? <p className="text-[13px] text-ink-muted">{file.name}: {file.read.customers.length} customer{file.read.customers.length === 1 ? '' : 's'} read.</p> : null}
               {file && !file.read.ok ? (
                 <Notice tone="error" title={`${file.name} has problems`}>

@@ -5,7 +5,7 @@
  * streamed mode and shows each progress line in words beside Cancel (in a live region), and an error
  * that arrives after streaming began; the server's stream is stood in for at the fetch boundary.
  */
-import { screen } from '@testing-library/react';
+import { fireEvent, screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { apiError, stubApi } from '../../helpers/fake-api.ts';
@@ -139,6 +139,26 @@ describe('balancing page: an answer belongs to the customers it was run on', () 
     expect(screen.getByText(/Correct the customer list first/)).toBeInTheDocument();
     expect(screen.queryByText(/no single-phase kW loads/)).not.toBeInTheDocument();
     expect(posts(api)).toHaveLength(1);
+  });
+});
+
+describe('balancing page: choosing the same file again', () => {
+  it('empties the file box when it is clicked, so the same file, edited, is read again (a browser reports only a changed choice)', async () => {
+    const user = userEvent.setup();
+    setup();
+    await user.click(await screen.findByLabelText(/A customer list \(CSV/));
+    const input = screen.getByLabelText('Customer list (CSV)') as HTMLInputElement;
+    await user.upload(input, new File(['customer,bus,phase,kw,kvar\nH1,P1,A,2,0\n'], 'lane.csv', { type: 'text/csv' }));
+    expect(await screen.findByText('lane.csv: 1 customer read.')).toBeInTheDocument();
+    expect(input.files).toHaveLength(1);
+    // Opening the file chooser again: the box forgets its choice, so picking lane.csv again is a change.
+    fireEvent.click(input);
+    expect(input.files).toHaveLength(0);
+    expect(input.value).toBe('');
+    // What was read stays until another file is chosen.
+    expect(screen.getByText('lane.csv: 1 customer read.')).toBeInTheDocument();
+    await user.upload(input, new File(['customer,bus,phase,kw,kvar\nH1,P1,A,2,0\nH2,P1,B,1,0\n'], 'lane.csv', { type: 'text/csv' }));
+    expect(await screen.findByText('lane.csv: 2 customers read.')).toBeInTheDocument();
   });
 });
 
