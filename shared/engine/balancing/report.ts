@@ -9,13 +9,19 @@ import type { BalanceFigures } from './figures.ts';
 export const MOVES_CAUTION =
   'CAUTION: Wyeward is an engineering aid; results are only as good as the model. Phase moves are work on live equipment: follow local codes and licensed practice. A lost or open neutral puts dangerous voltages on equipment and people.';
 
-const cell = (s: string) => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+/** A CSV field: quoted when it holds a comma, quote or line break; a leading = + @ (or a non-numeric -) made text so spreadsheets do not run it (P). */
+const cell = (s: string) => {
+  const guarded = /^[=+@]/.test(s) || (/^-/.test(s) && !/^-?\d/.test(s)) ? `'${s}` : s;
+  return /[",\n\r]/.test(guarded) ? `"${guarded.replace(/"/g, '""')}"` : guarded;
+};
 
-/** CSV of the moves: customer,bus,from,to, then the caution as a last line starting with '#'. */
+/**
+ * CSV of the moves, as every results CSV is written (shared/report/csv.ts): the caution first, as a
+ * comment line "# Caution: …" read before any move, then customer,bus,from,to; CRLF line ends.
+ */
 export function movesCsv(moves: BalanceMove[]): string {
-  const rows = ['customer,bus,from,to', ...moves.map((m) => [m.customer, m.bus, m.from, m.to].map(cell).join(','))];
-  rows.push(cell(`# ${MOVES_CAUTION}`));
-  return `${rows.join('\n')}\n`;
+  const rows = [`# Caution: ${MOVES_CAUTION.replace(/^CAUTION:\s*/, '')}`, 'customer,bus,from,to', ...moves.map((m) => [m.customer, m.bus, m.from, m.to].map(cell).join(','))];
+  return `${rows.join('\r\n')}\r\n`;
 }
 
 /** The rows of a before/after table: label, unit and how to read each figure. */
