@@ -18,7 +18,8 @@ export function Notice({ tone = 'info', title, children, role }: { tone?: Tone; 
         {t.sign}
       </span>
       <div className="min-w-0">
-        <span className="sr-only">{t.label}: </span>
+        {/* The kind in words for screen readers, unless the title already is that word. */}
+        {title === t.label ? null : <span className="sr-only">{t.label}: </span>}
         {title ? <p className="font-semibold">{title}</p> : null}
         {children ? <div className={title ? 'mt-0.5' : ''}>{children}</div> : null}
       </div>
