@@ -1,7 +1,8 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
+// Read-only text boxes are greyed; a select always matches CSS :read-only, so it is left out (it would look disabled).
 const CONTROL =
-  'rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint read-only:bg-sunken read-only:text-ink-muted aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
+  'rounded-[3px] border border-rule-strong bg-panel px-2 py-1 text-sm text-ink placeholder:text-ink-faint [&:read-only:not(select)]:bg-sunken [&:read-only:not(select)]:text-ink-muted aria-[invalid=true]:border-danger aria-[invalid=true]:bg-danger-soft/40';
 
 interface FieldShellProps {
   id: string;

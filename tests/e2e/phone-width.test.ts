@@ -4,6 +4,8 @@
  * page is visited as the owner, who sees them all, on a study with two revisions (so the history,
  * the diff and the print view have something to show). When a page overflows, the test names the
  * elements that stick out past the right edge. Screenshots land in test-artifacts/phone-*.png.
+ * Then, on the same product: a select people can change looks like a field they can change, not
+ * greyed as a read-only one (CSS `:read-only` matches every select).
  */
 import { expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
@@ -97,4 +99,19 @@ it('every main page fits a 390 px wide screen: no sideways scroll of the page', 
 
   expect(failures, failures.join('\n')).toEqual([]);
   expect(errors).toEqual([]);
+});
+
+it('a select people can change looks as editable as a text box beside it, not greyed as read-only', async () => {
+  const context = await browser.newContext({ viewport: { width: 1360, height: 900 } });
+  const page = await context.newPage();
+  await signIn(page, product.baseUrl, 'owner@wyeward.test');
+  await page.waitForURL(`${product.baseUrl}/`);
+  const look = (selector: string) => page.locator(selector).first().evaluate((el) => ({ background: getComputedStyle(el).backgroundColor, color: getComputedStyle(el).color }));
+  await page.goto(`${product.baseUrl}/team`);
+  await page.getByLabel('E-mail').waitFor();
+  const textBox = await look('input[type=email]');
+  // The invitation's role and each member's role: both can be changed by the owner.
+  expect(await look('select[aria-label^="Role of"]')).toEqual(textBox);
+  expect(await page.getByLabel('Role', { exact: true }).evaluate((el) => ({ background: getComputedStyle(el).backgroundColor, color: getComputedStyle(el).color }))).toEqual(textBox);
+  await context.close();
 });
