@@ -1,11 +1,15 @@
 /**
  * IBM Plex for the PDF report, from the @fontsource packages the app already ships (WOFF files of
- * the Latin subset). pdfkit could read the WOFF files, but would inflate every table again for each
- * report; so each is unpacked once into a plain TrueType file (WOFF 1.0: the same tables, zlib
- * compressed) under node_modules/.cache/wyeward-report-fonts (the system temp directory when that
- * cannot be written), and pdfkit embeds a subset of it. No network: pdfmake may open these files
- * and nothing else (its URL and local-file policies refuse the rest).
- * The Latin subset has no ∠, Ω or arrows: `pdfText` writes those in plain characters.
+ * each subset: Latin, Latin Extended, Greek, Cyrillic, Cyrillic Extended, Vietnamese). pdfkit could
+ * read the WOFF files, but would inflate every table again for each report; so each is unpacked once
+ * into a plain TrueType file (WOFF 1.0: the same tables, zlib compressed) under
+ * node_modules/.cache/wyeward-report-fonts (the system temp directory when that cannot be written),
+ * and pdfkit embeds a subset of it. No network: pdfmake may open these files and nothing else (its
+ * URL and local-file policies refuse the rest).
+ * Each subset is its own pdfmake family; `pdfText` sets each run of letters in the family whose
+ * cmap holds them. Signs none holds (∠, arrows) are written in plain characters; letters of scripts
+ * no shipped font covers (Chinese, Japanese, Korean, Arabic, Hebrew, Indic…) print as "?", and the
+ * report then says so on its first page (the print view shows them as written).
  */
 import { mkdirSync, readFileSync, renameSync, existsSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -81,14 +85,78 @@ function ttf(woffPath: string): string {
   return file;
 }
 
+/** The code points a TrueType font maps to glyphs (its cmap: format 4 and 12 subtables, Unicode encodings). */
+export function cmapCodePoints(sfnt: Buffer): Set<number> {
+  const out = new Set<number>();
+  const numTables = sfnt.readUInt16BE(4);
+  let cmap = -1;
+  for (let i = 0; i < numTables; i++) {
+    const at = 12 + i * 16;
+    if (sfnt.toString('latin1', at, at + 4) === 'cmap') cmap = sfnt.readUInt32BE(at + 8);
+  }
+  if (cmap < 0) return out;
+  const subtables = sfnt.readUInt16BE(cmap + 2);
+  for (let i = 0; i < subtables; i++) {
+    const platform = sfnt.readUInt16BE(cmap + 4 + i * 8);
+    const encoding = sfnt.readUInt16BE(cmap + 6 + i * 8);
+    if (!(platform === 0 || (platform === 3 && (encoding === 1 || encoding === 10)))) continue;
+    const at = cmap + sfnt.readUInt32BE(cmap + 8 + i * 8);
+    const format = sfnt.readUInt16BE(at);
+    if (format === 4) {
+      const segments = sfnt.readUInt16BE(at + 6) / 2;
+      const ends = at + 14;
+      const starts = ends + segments * 2 + 2;
+      const deltas = starts + segments * 2;
+      const offsets = deltas + segments * 2;
+      for (let k = 0; k < segments; k++) {
+        const end = sfnt.readUInt16BE(ends + k * 2);
+        const start = sfnt.readUInt16BE(starts + k * 2);
+        const delta = sfnt.readInt16BE(deltas + k * 2);
+        const rangeOffset = sfnt.readUInt16BE(offsets + k * 2);
+        for (let c = start; c <= end && c !== 0xffff; c++) {
+          const glyph = rangeOffset === 0 ? (c + delta) & 0xffff : sfnt.readUInt16BE(offsets + k * 2 + rangeOffset + (c - start) * 2);
+          if (glyph !== 0) out.add(c);
+        }
+      }
+    } else if (format === 12) {
+      const groups = sfnt.readUInt32BE(at + 12);
+      for (let k = 0; k < groups; k++) {
+        const g = at + 16 + k * 12;
+        const first = sfnt.readUInt32BE(g + 4);
+        for (let c = first; c <= sfnt.readUInt32BE(g); c++) if (sfnt.readUInt32BE(g + 8) + (c - first) !== 0) out.add(c);
+      }
+    }
+  }
+  return out;
+}
+
+/** The four styles of one subset of IBM Plex Sans (pdfmake's bold is the 600 weight, as on screen). */
+function sansFamily(subset: string) {
+  return {
+    normal: ttf(path.join(sans, `ibm-plex-sans-${subset}-400-normal.woff`)),
+    bold: ttf(path.join(sans, `ibm-plex-sans-${subset}-600-normal.woff`)),
+    italics: ttf(path.join(sans, `ibm-plex-sans-${subset}-400-italic.woff`)),
+    bolditalics: ttf(path.join(sans, `ibm-plex-sans-${subset}-600-italic.woff`)),
+  };
+}
+
+/**
+ * The shipped subsets of IBM Plex Sans, each a pdfmake family, in the order a letter is looked for:
+ * Latin first (the report's own font, `Plex`), then Latin Extended, Greek, Cyrillic, Cyrillic
+ * Extended and Vietnamese. A run of text in another subset's letters is set in that subset's family.
+ */
+const SUBSETS = [
+  { family: 'Plex', subset: 'latin' },
+  { family: 'PlexLatinExt', subset: 'latin-ext' },
+  { family: 'PlexGreek', subset: 'greek' },
+  { family: 'PlexCyrillic', subset: 'cyrillic' },
+  { family: 'PlexCyrillicExt', subset: 'cyrillic-ext' },
+  { family: 'PlexVietnamese', subset: 'vietnamese' },
+] as const;
+
 /** Font families as pdfmake takes them (absolute file paths). */
-export const REPORT_FONTS = {
-  Plex: {
-    normal: ttf(path.join(sans, 'ibm-plex-sans-latin-400-normal.woff')),
-    bold: ttf(path.join(sans, 'ibm-plex-sans-latin-600-normal.woff')),
-    italics: ttf(path.join(sans, 'ibm-plex-sans-latin-400-italic.woff')),
-    bolditalics: ttf(path.join(sans, 'ibm-plex-sans-latin-600-italic.woff')),
-  },
+export const REPORT_FONTS: Record<string, Record<'normal' | 'bold' | 'italics' | 'bolditalics', string>> = {
+  ...Object.fromEntries(SUBSETS.map(({ family, subset }) => [family, sansFamily(subset)])),
   PlexMono: {
     normal: ttf(path.join(mono, 'ibm-plex-mono-latin-400-normal.woff')),
     bold: ttf(path.join(mono, 'ibm-plex-mono-latin-400-normal.woff')),
@@ -100,37 +168,60 @@ export const REPORT_FONTS = {
 /** Every font file the report may read. */
 export const FONT_FILES: ReadonlySet<string> = new Set(Object.values(REPORT_FONTS).flatMap((f) => Object.values(f)));
 
-/** Characters outside the Latin subset, in plain characters. */
-const REPLACE: Record<string, string> = { '∠': ' at ', 'Ω': 'ohm', '√': 'sqrt', '≤': '<=', '≥': '>=', '→': '->', 'Δ': 'delta ', '▲': '(high)', '▼': '(low)', '✖': '(x)', '⚠': '(!)', 'π': 'pi' };
+/** What each subset's family draws: the code points both its regular and its bold file map (read from their cmaps). */
+const COVERAGE = SUBSETS.map(({ family }) => {
+  const regular = cmapCodePoints(readFileSync(REPORT_FONTS[family].normal));
+  const bold = cmapCodePoints(readFileSync(REPORT_FONTS[family].bold));
+  return { family, has: new Set([...regular].filter((c) => bold.has(c))) };
+});
 
-/** True for a code point the Latin subset of IBM Plex holds (the subset's published unicode-range). */
-function inLatinSubset(cp: number): boolean {
-  return (
-    cp <= 0xff ||
-    cp === 0x131 ||
-    cp === 0x152 ||
-    cp === 0x153 ||
-    cp === 0x2bb ||
-    cp === 0x2bc ||
-    cp === 0x2c6 ||
-    cp === 0x2da ||
-    cp === 0x2dc ||
-    (cp >= 0x2000 && cp <= 0x206f) ||
-    cp === 0x20ac ||
-    cp === 0x2122 ||
-    cp === 0x2191 ||
-    cp === 0x2193 ||
-    cp === 0x2212 ||
-    cp === 0x2215
-  );
+/** The family that draws a code point (null: no shipped subset has it). */
+export function familyOf(cp: number): string | null {
+  for (const c of COVERAGE) if (c.has.has(cp)) return c.family;
+  return null;
 }
 
-/** Text the embedded font can draw: known signs in plain characters, anything else as "?". */
-export function pdfText(s: string): string {
-  let out = '';
+/** Signs no shipped subset holds, in plain characters. */
+const REPLACE: Record<string, string> = { '∠': ' at ', '√': 'sqrt', '≤': '<=', '≥': '>=', '→': '->', '▲': '(high)', '▼': '(low)', '✖': '(x)', '⚠': '(!)' };
+
+/** A run of text in one family (no `font`: the surrounding text's own, Latin). */
+export type PdfRun = { text: string; font?: string };
+
+let unprintable = 0;
+
+/** Starts counting the letters no shipped font can print (one report at a time: its content is built synchronously). */
+export function resetUnprintable(): void {
+  unprintable = 0;
+}
+
+/** How many letters since resetUnprintable() were printed as "?". */
+export function unprintableCount(): number {
+  return unprintable;
+}
+
+/**
+ * Text the embedded fonts can draw, for pdfmake's `text`: a plain string when the Latin font draws
+ * it all, else runs, each in the subset that holds its letters (Greek, Cyrillic, Vietnamese…).
+ * Signs no subset holds are written in plain characters; a letter no shipped font has (Chinese,
+ * Japanese, Arabic, Hebrew, Devanagari…) prints as "?" and is counted, so the report can say so.
+ */
+export function pdfText(s: string): string | PdfRun[] {
+  const runs: PdfRun[] = [];
   for (const ch of s) {
     const cp = ch.codePointAt(0)!;
-    out += inLatinSubset(cp) ? ch : (REPLACE[ch] ?? '?');
+    let family = familyOf(cp);
+    let text = ch;
+    if (family === null) {
+      const plain = REPLACE[ch];
+      if (plain === undefined) unprintable += 1;
+      text = plain ?? '?';
+      family = 'Plex';
+    }
+    const font = family === 'Plex' ? undefined : family;
+    const last = runs[runs.length - 1];
+    if (last && last.font === font) last.text += text;
+    else runs.push(font ? { text, font } : { text });
   }
-  return out;
+  if (runs.length === 0) return '';
+  return runs.length === 1 && runs[0].font === undefined ? runs[0].text : runs;
 }

@@ -15,7 +15,7 @@ import { oneLineSvg } from '../../shared/report/one-line.ts';
 import { phasorLegend, phasorSvg } from '../../shared/report/phasor-svg.ts';
 import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-unit.ts';
 import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../shared/report/tables.ts';
-import { FONT_FILES, pdfText, REPORT_FONTS } from './fonts.ts';
+import { FONT_FILES, pdfText, REPORT_FONTS, resetUnprintable, unprintableCount } from './fonts.ts';
 
 pdfmake.setUrlAccessPolicy(() => false);
 pdfmake.setLocalAccessPolicy((p) => FONT_FILES.has(p));
@@ -43,7 +43,7 @@ const day = (iso: string) => iso.slice(0, 10);
 
 function tableNode(t: ResultTable, opts: { fontSize?: number; columns?: number[]; widths?: (number | string)[] } = {}): Node[] {
   const cols = opts.columns ?? t.columns.map((_, i) => i);
-  const body = [cols.map((i) => ({ text: pdfText(t.columns[i]), bold: true })), ...t.rows.map((r) => cols.map((i) => pdfText(r[i] ?? '')))];
+  const body = [cols.map((i) => ({ text: pdfText(t.columns[i]), bold: true })), ...t.rows.map((r) => cols.map((i) => ({ text: pdfText(r[i] ?? '') })))];
   const out: Node[] = [{ text: pdfText(t.title), style: 'h3' }];
   if (t.rows.length === 0) out.push({ text: 'None.', style: 'small' });
   else out.push({ table: { headerRows: 1, dontBreakRows: true, widths: opts.widths ?? cols.map(() => '*'), body }, layout: 'lightHorizontalLines', fontSize: opts.fontSize ?? 7, margin: [0, 2, 0, 2] });
@@ -55,7 +55,7 @@ function inputTables(circuit: unknown): Node[] {
   return inputGroups(circuit).flatMap(({ title, rows }) => [
     { text: pdfText(title), style: 'h3' },
     {
-      table: { headerRows: 1, dontBreakRows: true, widths: [90, '*'], body: [[{ text: 'Name', bold: true }, { text: 'Parameters', bold: true }], ...rows.map(([id, p]) => [pdfText(id), pdfText(p)])] },
+      table: { headerRows: 1, dontBreakRows: true, widths: [90, '*'], body: [[{ text: 'Name', bold: true }, { text: 'Parameters', bold: true }], ...rows.map(([id, p]) => [{ text: pdfText(id) }, { text: pdfText(p) }])] },
       layout: 'lightHorizontalLines',
       fontSize: 7.5,
       margin: [0, 2, 0, 6],
@@ -72,6 +72,8 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
   // One line at the foot of every page, whatever the names' length: a long one would push the page number off the page.
   const footerWords = `${shorten(title, 60)} — Revision ${input.revision.number}${caseName ? `, case "${shorten(caseName, 30)}"` : ''}`;
 
+  resetUnprintable();
+  const footerText = pdfText(footerWords);
   const content: Node[] = [
     { text: pdfText(title), style: 'h1' },
     {
@@ -87,7 +89,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
           ...(input.review.approved ? [['Approved by', `${input.review.approver ?? ''}${input.review.approvedAt ? ` on ${day(input.review.approvedAt)}` : ''}`]] : []),
           ['Units', input.units === 'pu' ? `per unit. ${'(bases below)'}` : 'volts, amperes, kW and kvar'],
           ['Report made', day(input.madeAt)],
-        ].map(([k, v]) => [{ text: pdfText(k), bold: true }, pdfText(v)]),
+        ].map(([k, v]) => [{ text: pdfText(k), bold: true }, { text: pdfText(v) }]),
       },
       layout: 'noBorders',
       fontSize: 9,
@@ -95,7 +97,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     },
     { text: pdfText(`Caution. ${SAFETY_CAUTION}`), style: 'caution' },
     { text: 'Scope and assumptions', style: 'h2' },
-    { ul: scopeLines(circuit, result, caseName).map(pdfText), fontSize: 9 },
+    { ul: scopeLines(circuit, result, caseName).map((l) => ({ text: pdfText(l) })), fontSize: 9 },
   ];
 
   // The drawing and its labels are placed at the same absolute spot of their own page (the labels as
@@ -152,11 +154,21 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
   }
   content.push({ text: 'Caution', style: 'h2' });
   content.push({ text: pdfText(SAFETY_CAUTION), style: 'caution' });
+  // Letters of a script no shipped font covers were printed as "?": say so under the title block.
+  const missed = unprintableCount();
+  if (missed > 0) {
+    content.splice(2, 0, {
+      text: `${missed === 1 ? 'One letter' : `${missed} letters`} of the names in this report ${missed === 1 ? 'is' : 'are'} in a script the report's font cannot print and ${missed === 1 ? 'is' : 'are'} shown as "?". The study's print view shows every name as written.`,
+      style: 'small',
+      margin: [0, 0, 0, 6],
+    });
+  }
 
   const doc: Record<string, unknown> = {
     pageSize: 'A4',
     pageMargins: [40, 40, 40, 50],
-    info: { title: pdfText(`${title} — ${revisionWords}`), creator: 'Wyeward', producer: 'Wyeward' },
+    // PDF metadata is Unicode text (pdfkit writes it as UTF-16): the name as written.
+    info: { title: `${title} — ${revisionWords}`, creator: 'Wyeward', producer: 'Wyeward' },
     defaultStyle: { font: 'Plex', fontSize: 9 },
     styles: {
       h1: { fontSize: 18, bold: true, margin: [0, 0, 0, 8] },
@@ -168,7 +180,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     content,
     footer: (page: number, pages: number) => ({
       columns: [
-        { text: pdfText(footerWords), alignment: 'left', noWrap: true },
+        { text: footerText, alignment: 'left', noWrap: true },
         { text: `Page ${page} of ${pages}`, alignment: 'right', width: 80 },
       ],
       fontSize: 7,

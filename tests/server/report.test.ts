@@ -143,11 +143,11 @@ describe('GET /api/studies/:id/report.pdf', () => {
 
   it('answers 4xx with a message for a bad revision, case or units, 404 to another team and 401 without a session', async () => {
     const cases: [string, number, RegExp][] = [
-      ['revision=abc', 400, /revision must be a whole number/],
-      ['revision=0', 400, /revision must be at least 1/],
+      ['revision=abc', 400, /^Revision must be a whole number/],
+      ['revision=0', 400, /^Revision must be at least 1/],
       ['revision=7', 404, /no revision 7; its latest is revision 1/],
       ['case=lost-n', 400, /no study cases/],
-      ['units=kV', 400, /units must be "si" or "pu"/],
+      ['units=kV', 400, /^Units must be "si" or "pu"/],
     ];
     for (const [q, status, message] of cases) {
       const res = await viewer.get(`/api/studies/${studyId}/report.pdf?${q}`);
@@ -197,6 +197,27 @@ describe('GET /api/studies/:id/report.pdf', () => {
     expect(text).toContain('One-line diagram Nothing is drawn in this revision yet.');
     expect(text).toContain('Circuit inputs Nothing is drawn in this revision yet.');
     expect(text).toContain(SAFETY_CAUTION);
+  });
+
+  it('prints Greek, Cyrillic and Vietnamese names in the shipped IBM Plex subsets, and says so when a script has no font', async () => {
+    // Names in Greek, Cyrillic (with «» and №) and Vietnamese, on the study, a bus and an element.
+    const name = 'Υποσταθμός Άλφα — Подстанция «Север» № 2 — Trạm biến áp Đông';
+    const renamed = JSON.parse(JSON.stringify(openNeutral).replaceAll('"HOUSE"', '"ΣΠΙΤΙ"').replaceAll('"HOUSE.n"', '"ΣΠΙΤΙ.n"').replaceAll('"KITCHEN"', '"Кухня"'));
+    const s = await engineer.post('/api/studies').send({ name, content: { circuit: renamed } });
+    expect(s.status, JSON.stringify(s.body)).toBe(201);
+    const text = pdfWords((await getBinary(viewer, `/api/studies/${s.body.id}/report.pdf`)).body as Buffer, 'scripts.pdf');
+    expect(text).toContain(name);
+    expect(text).toContain('ΣΠΙΤΙ');
+    expect(text).toContain('Кухня');
+    expect(text).not.toContain('?');
+    expect(text).not.toContain('cannot print');
+    expect(text).toContain(SAFETY_CAUTION);
+
+    // Chinese: no shipped font has it. The letters print as "?", and page 1 says so.
+    const cjk = await engineer.post('/api/studies').send({ name: '北区变电站 feeder', content: { circuit: openNeutral } });
+    const other = pdfWords((await getBinary(viewer, `/api/studies/${cjk.body.id}/report.pdf`)).body as Buffer, 'cjk.pdf');
+    expect(other).toContain('????? feeder');
+    expect(other).toMatch(/letters of the names in this report are in a script the report's font cannot print and are shown as "\?"\. The study's print view shows every name as written\./);
   });
 
   it('names the downloads after the study and the case as people wrote them, accents and scripts kept', async () => {
@@ -267,6 +288,6 @@ describe('GET /api/studies/:id/results.csv', () => {
   it('refuses an unknown table', async () => {
     const res = await viewer.get(`/api/studies/${studyId}/results.csv?table=sweeps`);
     expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(/table must be one of buses, loads, elements, flags/);
+    expect(res.body.error.message).toMatch(/^Table must be one of buses, loads, elements, flags/);
   });
 });
