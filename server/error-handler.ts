@@ -9,6 +9,7 @@ import type { ErrorRequestHandler, Request } from 'express';
 import { z } from 'zod';
 import type { ErrorBody, ErrorCode } from '../shared/api/common.ts';
 import { AppError, databaseErrorCode } from './errors.ts';
+import { issueWords } from './issue-words.ts';
 import { logEvent } from './log.ts';
 
 /** `path.to.field` → first message, from a zod error. */
@@ -96,10 +97,17 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     );
   }
   if (err instanceof z.ZodError) {
-    const fields = zodFields(err);
-    const first = Object.entries(fields)[0];
-    const message = first ? (first[0] === '_' ? first[1] : `${first[0]}: ${first[1]}`) : 'The request is not valid.';
-    return send(400, { code: 'validation', message, fields });
+    // In the words of the form (issue-words.ts): a label people see, never a path or a validator's phrasing.
+    const fields: Record<string, string> = {};
+    let message = '';
+    for (const issue of err.issues) {
+      const key = issue.path.length > 0 ? issue.path.map(String).join('.') : '_';
+      if (fields[key] !== undefined) continue;
+      const said = issueWords(issue, req.originalUrl, req.body);
+      fields[key] = said.text;
+      message ||= said.message;
+    }
+    return send(400, { code: 'validation', message: message || 'The request is not valid.', fields });
   }
   const bp = (err ?? {}) as BodyParserError;
   if (bp.type === 'entity.parse.failed') {

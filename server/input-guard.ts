@@ -9,9 +9,13 @@
 import type { RequestHandler } from 'express';
 import { BAD_TEXT_MESSAGE, findJsonProblem, isBadText } from '../shared/api/limits.ts';
 import { AppError } from './errors.ts';
+import { fieldWords } from './issue-words.ts';
 
-function refuse(field: string, message: string): AppError {
-  return new AppError(400, 'validation', field === '_' ? `The request body: ${message.toLowerCase()}.` : `${field}: ${message}.`, { fields: { [field]: message } });
+/** 400 naming the field by the label people see (issue-words.ts); `fields` keeps the path for the client. */
+function refuse(field: string, message: string, url: string): AppError {
+  if (field === '_') return new AppError(400, 'validation', `The request body: ${message.toLowerCase()}.`, { fields: { [field]: message } });
+  const said = fieldWords(field, message, url);
+  return new AppError(400, 'validation', `${said.message}.`, { fields: { [field]: message } });
 }
 
 /** Checks the path and query string; mount before the routes. */
@@ -22,9 +26,9 @@ export const guardUrl: RequestHandler = (req, _res, next) => {
   } catch {
     throw new AppError(400, 'validation', 'The address contains an invalid %-escape.');
   }
-  if (isBadText(path)) throw refuse('path', BAD_TEXT_MESSAGE);
+  if (isBadText(path)) throw refuse('path', BAD_TEXT_MESSAGE, req.originalUrl);
   const q = findJsonProblem(req.query, 8);
-  if (q) throw refuse(q.path, q.message);
+  if (q) throw refuse(q.path, q.message, req.originalUrl);
   next();
 };
 
@@ -32,7 +36,7 @@ export const guardUrl: RequestHandler = (req, _res, next) => {
 export const guardBody: RequestHandler = (req, _res, next) => {
   if (req.body !== undefined) {
     const p = findJsonProblem(req.body);
-    if (p) throw refuse(p.path, p.message);
+    if (p) throw refuse(p.path, p.message, req.originalUrl);
   }
   next();
 };
