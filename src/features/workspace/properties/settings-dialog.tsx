@@ -49,7 +49,24 @@ const schema = z.object({
 });
 type Values = z.infer<typeof schema>;
 
-export function SettingsDialog({ open, settings, buses, readOnly, onClose, onApply }: { open: boolean; settings: StudySettings; buses: BusVoltage[]; readOnly: boolean; onClose: () => void; onApply: (s: StudySettings, kv: Record<string, number | undefined>) => void }) {
+interface SettingsDialogProps {
+  open: boolean;
+  settings: StudySettings;
+  buses: BusVoltage[];
+  readOnly: boolean;
+  onClose: () => void;
+  onApply: (s: StudySettings, kv: Record<string, number | undefined>) => void;
+}
+
+/**
+ * The form exists only while the dialog is open: a closed one would otherwise build its values and
+ * reset its form (one field per bus) on every edit of the study, since the bus list follows every edit.
+ */
+export function SettingsDialog(props: SettingsDialogProps) {
+  return props.open ? <SettingsForm {...props} /> : null;
+}
+
+function SettingsForm({ open, settings, buses, readOnly, onClose, onApply }: SettingsDialogProps) {
   // Voltage levels: the distinct nominal voltages the buses are given (and any level already based).
   const levels = useMemo(
     () => [...new Set([...buses.flatMap((b) => (b.kvLL !== undefined ? [levelKey(b.kvLL * 1000)] : [])), ...Object.keys(settings.perUnit?.baseKv ?? {})])].sort((a, b) => Number(a) - Number(b)),
