@@ -41,12 +41,12 @@ import { casesOf, changedElements, setStudyCases } from './cases/case-model.ts';
 import { CaseOverlay } from './cases/case-overlay.tsx';
 import { StudyExplorations } from './cases/study-explorations.tsx';
 import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog } from './editing/dialogs.tsx';
-import { historyReducer, initHistory } from './editing/history.ts';
+import { historyReducer, initHistory, type HistoryAction } from './editing/history.ts';
 import { useShortcuts } from './editing/use-shortcuts.ts';
 import { useUnsavedGuard } from './editing/use-unsaved-guard.ts';
 import { PRIVATE_SEP } from './model/canvas-to-circuit.ts';
 import { wireLabel } from './model/circuit-to-canvas.ts';
-import { compareCircuits, contentOf, docKey, docOf } from './model/conversion.ts';
+import { compareCircuits, contentOf, convert, docKey, docOf, json } from './model/conversion.ts';
 import type { PaletteItem } from './model/defaults.ts';
 import * as commands from './model/document.ts';
 import type { Clip, WorkspaceDoc } from './model/document.ts';
@@ -99,12 +99,18 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const readOnly = !can(role, 'study:edit');
   const rf = useReactFlow<WorkspaceNode, WorkspaceEdge>();
   const canvasRef = useRef<HTMLDivElement>(null);
-  const [hist, dispatch] = useReducer(historyReducer<WorkspaceDoc>, study, (s) => initHistory(docOf(s)));
+  const [hist, dispatchNow] = useReducer(historyReducer<WorkspaceDoc>, study, (s) => initHistory(docOf(s)));
   const doc = hist.present;
   const docRef = useRef(doc);
   docRef.current = doc;
+  // An edit held for its answer (see runAhead below) goes first: every other change commits it before its own.
+  const flushAhead = useRef<() => void>(() => {});
+  const dispatch = useCallback((a: HistoryAction<WorkspaceDoc>) => {
+    flushAhead.current();
+    dispatchNow(a);
+  }, []);
   /** Applies a document command as one undoable edit. */
-  const run = useCallback(<A extends unknown[]>(fn: (d: WorkspaceDoc, ...args: A) => WorkspaceDoc, ...args: A) => dispatch({ type: 'apply', fn: (d) => fn(d, ...args) }), []);
+  const run = useCallback(<A extends unknown[]>(fn: (d: WorkspaceDoc, ...args: A) => WorkspaceDoc, ...args: A) => dispatch({ type: 'apply', fn: (d) => fn(d, ...args) }), [dispatch]);
   const viewport = useCallback(() => visibleArea(rf, canvasRef.current), [rf]);
 
   // ---- save, dirty mark, conflicts ----
@@ -133,8 +139,32 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const locked = readOnly || shownCase !== undefined;
   const serverSweeps = useMemo(() => (readOnly ? null : { studyId: study.id, revision: study.revision ?? null, dirty }), [readOnly, study.id, study.revision, dirty]);
   const { conversion, circuit, live, overlays, problems, shifts, stale, shownCircuit, caseError } = useWorkspaceSolve(doc, activeCase);
+  flushAhead.current = live.flushAhead;
+  const solveAhead = live.solveAhead;
+  const shownCircuitRef = useRef(shownCircuit);
+  shownCircuitRef.current = shownCircuit;
+  const activeCaseRef = useRef(activeCase);
+  activeCaseRef.current = activeCase;
+  /**
+   * Runs a value edit (a property, a bus, a conductor opened or closed) like `run`, but sends the
+   * circuit it makes to the solver first and draws the edit together with its answer: one render
+   * and one frame instead of the edit's and then the answer's (see `solveAhead`). Edits that do not
+   * change what is solved (or while a case is shown) are dispatched at once.
+   */
+  const runAhead = useCallback(
+    <A extends unknown[]>(fn: (d: WorkspaceDoc, ...args: A) => WorkspaceDoc, ...args: A) => {
+      const base = docRef.current;
+      const next = fn(base, ...args);
+      const action: HistoryAction<WorkspaceDoc> = { type: 'apply', fn: (d) => (d === base ? next : fn(d, ...args)) };
+      const was = shownCircuitRef.current;
+      const nextCircuit = next !== base && was && activeCaseRef.current === BASE_CASE_ID ? convert(next).circuit : null;
+      if (!nextCircuit || !was || nextCircuit.elements.length === 0 || json(nextCircuit) === json(was)) return dispatch(action);
+      solveAhead(nextCircuit, () => dispatchNow(action));
+    },
+    [dispatch, solveAhead],
+  );
 
-  const toggleOpen = useCallback((edgeId: string, c: Conductor) => run(commands.toggleOpen, edgeId, c), [run]);
+  const toggleOpen = useCallback((edgeId: string, c: Conductor) => runAhead(commands.toggleOpen, edgeId, c), [runAhead]);
 
   const view = useMemo<CanvasView>(
     () => ({ readOnly: locked, pins: Object.fromEntries((pins ?? []).map((p) => [p.elementId, p.count])), wiringStandard: doc.settings.wiringStandard, toggleOpen: locked ? null : toggleOpen }),
@@ -210,8 +240,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     },
     [run, viewport],
   );
-  const updateElement = useCallback((id: string, next: CircuitElementInput) => run(commands.updateElement, id, next), [run]);
-  const updateBus = useCallback((id: string, next: BusNodeData) => run(commands.updateBus, id, next), [run]);
+  const updateElement = useCallback((id: string, next: CircuitElementInput) => runAhead(commands.updateElement, id, next), [runAhead]);
+  const updateBus = useCallback((id: string, next: BusNodeData) => runAhead(commands.updateBus, id, next), [runAhead]);
   const clipboard = useRef<Clip | null>(null);
   const applySettings = useCallback(
     (s: StudySettings, kv: Record<string, number | undefined>) => {

@@ -5,9 +5,10 @@
  * drops answers to requests that a newer edit has overtaken, and keeps the last good result on
  * screen while the next one is computed or when the edit failed (`stale` then says so).
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { CircuitInput, CircuitResult, LimitsInput } from '../../../../shared/engine/index.ts';
+import { json } from '../model/conversion.ts';
 import { createDefaultPort, type PortFailure, type PortListener, type SolvePort } from './solve-port.ts';
 import type { LiveSolveError, SolveResponse } from './solve-protocol.ts';
 
@@ -23,6 +24,22 @@ export interface LiveSolveState {
   ms?: number;
   /** True when `result` belongs to an earlier edit than the one shown as failing or solving. */
   stale?: boolean;
+}
+
+/**
+ * Solves `next` (the circuit an edit is about to make) before the edit is rendered, and calls
+ * `commit` (which dispatches the edit) together with the answer, so the edit and its results are
+ * rendered and painted once, in the answer's task, instead of the page drawing the edit while the
+ * answer waits. `commit` is called without the answer when the answer is not back within the time
+ * the last answers took (plus a margin), or when `flushAhead` is called (before any other change, so
+ * changes stay in order). A render whose circuit equals `next` posts nothing: it takes this request.
+ */
+export type SolveAhead = (next: CircuitInput, commit: () => void) => void;
+
+export interface LiveSolveControls {
+  solveAhead: SolveAhead;
+  /** Commits an edit held by `solveAhead` now (call before dispatching any other change). */
+  flushAhead: () => void;
 }
 
 export interface LiveSolveOptions {
@@ -42,13 +59,27 @@ interface SolvedRequest {
   limits: LimitsInput | undefined;
 }
 
-/** The latest answer, with the request it answers ('failed': the port itself failed, nothing is pending). */
+/** The latest answer, with the request it answers ('failed': the port itself failed, nothing is pending; `key`: the JSON of a circuit solved ahead of its render). */
 interface AnsweredState extends LiveSolveState {
-  answers?: SolvedRequest | 'failed';
+  answers?: SolvedRequest | { key: string; limits: LimitsInput | undefined } | 'failed';
 }
 
+/** A request posted by `solveAhead`, its edit held (`commit`) until the answer or the deadline. */
+interface AheadRequest {
+  id: number;
+  key: string;
+  limitsKey: string;
+  limits: LimitsInput | undefined;
+  commit: (() => void) | null;
+  timer: ReturnType<typeof setTimeout> | undefined;
+}
+
+/** How long an edit is held for its answer: the recent round trips with a margin, within bounds (ms). */
+const AHEAD_MIN_MS = 25;
+const AHEAD_MAX_MS = 250;
+
 /** Live solve of a circuit in the engine's format; `null` means nothing to solve yet. */
-export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOptions = {}): LiveSolveState {
+export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOptions = {}): LiveSolveState & LiveSolveControls {
   const { debounceMs = 50, limits, createPort = createDefaultPort } = options;
   const [state, setState] = useState<AnsweredState>({ status: 'idle' });
   /** The circuit and limits of the latest request (what an answer to `latestId` belongs to). */
@@ -64,13 +95,62 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   // Limits compared by value, so an inline object literal does not re-solve on every render.
   const limitsKey = JSON.stringify(limits ?? null);
   const stableLimits = useMemo(() => limits, [limitsKey]);
+  const current = useRef({ limitsKey, limits: stableLimits });
+  current.current = { limitsKey, limits: stableLimits };
+  const ahead = useRef<AheadRequest | null>(null);
+  /** When the latest request was posted, and the worker round trip of recent answers (ms, smoothed). */
+  const postedAt = useRef(new Map<number, number>());
+  const roundTrip = useRef<number | null>(null);
+  const post = (port: SolvePort, req: { id: number; circuit: CircuitInput; limits: LimitsInput | undefined }) => {
+    postedAt.current.clear();
+    postedAt.current.set(req.id, performance.now());
+    port.post(req);
+  };
+
+  const flushAhead = useCallback(() => {
+    const a = ahead.current;
+    if (!a?.commit) return;
+    const commit = a.commit;
+    a.commit = null;
+    clearTimeout(a.timer);
+    commit();
+  }, []);
+
+  const solveAhead = useCallback<SolveAhead>(
+    (next, commit) => {
+      flushAhead();
+      const port = portRef.current;
+      if (!port) return commit();
+      const id = ++latestId.current;
+      lastChange.current = performance.now();
+      const { limitsKey: lk, limits: lim } = current.current;
+      const wait = Math.min(AHEAD_MAX_MS, Math.max(AHEAD_MIN_MS, roundTrip.current === null ? AHEAD_MIN_MS : 1.5 * roundTrip.current + 10));
+      const a: AheadRequest = { id, key: json(next), limitsKey: lk, limits: lim, commit, timer: undefined };
+      // Past the deadline the edit is drawn without its answer (rendered at once, as an answer would be).
+      a.timer = setTimeout(() => {
+        if (a.commit && ahead.current === a) flushSync(flushAhead);
+      }, wait);
+      ahead.current = a;
+      post(port, { id, circuit: next, limits: lim });
+    },
+    [flushAhead],
+  );
 
   useEffect(() => {
     const onResponse = (res: SolveResponse) => {
       if (res.id !== latestId.current) return; // a newer edit is on its way: drop this answer
-      const answers = latestRequest.current ?? undefined;
+      const sent = postedAt.current.get(res.id);
+      if (sent !== undefined) {
+        const rt = performance.now() - sent;
+        roundTrip.current = roundTrip.current === null ? rt : 0.5 * roundTrip.current + 0.5 * rt;
+      }
+      const a = ahead.current;
+      // An edit held for this answer: the edit and its answer are rendered together.
+      const held = a && a.id === res.id && a.commit ? a : null;
+      const answers = held ? { key: held.key, limits: held.limits } : (latestRequest.current ?? undefined);
       // Rendered at once, in the message's own task, rather than in one the scheduler queues behind it.
       flushSync(() => {
+        if (held) flushAhead();
         if (res.ok) setState({ status: 'ok', result: res.result, ms: res.ms, answers });
         else setState((s) => ({ status: 'error', result: s.result, error: res.error, ms: res.ms, stale: s.result !== undefined, answers }));
       });
@@ -82,7 +162,10 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
     return () => {
       port.terminate();
       portRef.current = null;
+      clearTimeout(ahead.current?.timer);
+      ahead.current = null;
     };
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- flushAhead is stable
   }, []);
 
   // A change after a quiet spell goes to the worker from this render, before the components below
@@ -92,12 +175,20 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   const preposted = useRef<{ circuit: CircuitInput; id: number } | null>(null);
   if (circuit !== null && portRef.current && preposted.current?.circuit !== circuit && lastCircuit.current !== circuit) {
     const t = performance.now();
-    if (t - lastChange.current >= debounceMs && limitsKey === postedLimitsKey.current) {
+    const a = ahead.current;
+    if (a && a.id === latestId.current && a.limitsKey === limitsKey && a.key === json(circuit)) {
+      // Solved ahead (see solveAhead): this render takes that request, answered or still on its way.
+      ahead.current = null;
+      preposted.current = { circuit, id: a.id };
+      latestRequest.current = { circuit, limits: stableLimits };
+    } else if (a?.commit) {
+      // An earlier edit committed by a newer one held for its answer: the newer one follows at once, nothing to post.
+    } else if (t - lastChange.current >= debounceMs && limitsKey === postedLimitsKey.current) {
       const id = ++latestId.current;
       lastChange.current = t;
       preposted.current = { circuit, id };
       latestRequest.current = { circuit, limits: stableLimits };
-      portRef.current.post({ id, circuit, limits: stableLimits });
+      post(portRef.current, { id, circuit, limits: stableLimits });
     }
   }
 
@@ -111,10 +202,11 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
       return;
     }
     if (preposted.current?.circuit === circuit && preposted.current.id === latestId.current) return; // posted by the render above
+    if (ahead.current?.commit) return; // a newer edit is held for its answer (solveAhead): this one is overtaken
     // The id is taken at edit time, so an answer to an older edit that lands during the debounce is dropped too.
     const id = ++latestId.current;
     latestRequest.current = { circuit, limits: stableLimits };
-    const send = () => portRef.current?.post({ id, circuit, limits: stableLimits });
+    const send = () => portRef.current && post(portRef.current, { id, circuit, limits: stableLimits });
     const t = performance.now();
     const quiet = t - lastChange.current;
     lastChange.current = t;
@@ -129,11 +221,12 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
 
   // "Solving" is read off the state rather than set: the state answers another circuit (or other
   // limits) than the one given. So an edit costs no render of its own to say so.
-  return useMemo<LiveSolveState>(() => {
+  return useMemo<LiveSolveState & LiveSolveControls>(() => {
     const { answers, ...shown } = state;
-    if (circuit === null || answers === 'failed' || (answers && answers.circuit === circuit && answers.limits === stableLimits)) return shown;
-    if (state.status === 'idle' && answers === undefined && state.result === undefined) return { status: 'solving' };
-    return { ...shown, status: 'solving', stale: state.result !== undefined };
-  }, [state, circuit, stableLimits]);
+    const controls = { solveAhead, flushAhead };
+    if (circuit === null || answers === 'failed' || (answers && answers.limits === stableLimits && ('circuit' in answers ? answers.circuit === circuit : answers.key === json(circuit)))) return { ...shown, ...controls };
+    if (state.status === 'idle' && answers === undefined && state.result === undefined) return { status: 'solving', ...controls };
+    return { ...shown, status: 'solving', stale: state.result !== undefined, ...controls };
+  }, [state, circuit, stableLimits, solveAhead, flushAhead]);
 }
 

@@ -1,10 +1,11 @@
 import { act, renderHook, waitFor } from '@testing-library/react';
+import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
 import { demoCircuits, solveCircuit, type CircuitInput } from '../../../../../shared/engine/index.ts';
 import { createSolveHandler } from '../../../../../src/features/workspace/solve/solve-handler.ts';
 import { createInThreadPort, type PortListener, type SolvePort } from '../../../../../src/features/workspace/solve/solve-port.ts';
 import type { SolveRequest, SolveResponse } from '../../../../../src/features/workspace/solve/solve-protocol.ts';
-import { useLiveSolve } from '../../../../../src/features/workspace/solve/use-live-solve.ts';
+import { useLiveSolve, type LiveSolveOptions } from '../../../../../src/features/workspace/solve/use-live-solve.ts';
 
 const openNeutral = demoCircuits.find((d) => d.key === 'open-neutral-208y120')!.circuit;
 const withHeater = (kw: number): CircuitInput => ({
@@ -103,5 +104,88 @@ describe('useLiveSolve', () => {
   it('is idle with nothing to solve', () => {
     const { result } = renderHook(() => useLiveSolve(null, { createPort: createInThreadPort }));
     expect(result.current.status).toBe('idle');
+  });
+
+  describe('solveAhead: an edit solved before it is drawn', () => {
+    /** The circuit lives in state (as the workspace document does); every render's circuit and status is recorded. */
+    function useHarness(initial: CircuitInput, options: LiveSolveOptions, seen: { c: CircuitInput; status: string }[]) {
+      const [c, setC] = useState(initial);
+      const live = useLiveSolve(c, options);
+      seen.push({ c, status: live.status });
+      return { c, setC, live };
+    }
+    /** A port that answers only when told (`release`), with the real handler. */
+    function manualPort(posted: SolveRequest[]) {
+      const handle = createSolveHandler();
+      const out = { deliver: (() => {}) as PortListener, release: (i: number) => out.deliver(handle(posted[i])) };
+      const create = (onResponse: PortListener): SolvePort => {
+        out.deliver = onResponse;
+        return { post: (r) => void posted.push(r), terminate: () => {} };
+      };
+      return { out, create };
+    }
+
+    it('draws the edit only together with its answer: no render shows it unsolved, and it is posted once', async () => {
+      const posted: SolveRequest[] = [];
+      const seen: { c: CircuitInput; status: string }[] = [];
+      const { result } = renderHook(() => useHarness(withHeater(1), { createPort: countingPort(posted), debounceMs: 1 }, seen));
+      await waitFor(() => expect(result.current.live.status).toBe('ok'));
+      const next = withHeater(6);
+      let commits = 0;
+      act(() => result.current.live.solveAhead(next, () => (commits++, result.current.setC(next))));
+      expect(commits).toBe(0); // held until the answer
+      expect(result.current.c).not.toBe(next);
+      await waitFor(() => expect(result.current.c).toBe(next));
+      expect(commits).toBe(1);
+      expect(result.current.live.status).toBe('ok');
+      expect(result.current.live.result!.buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(next), 9);
+      expect(seen.filter((s) => s.c === next).map((s) => s.status)).not.toContain('solving');
+      await new Promise((r) => setTimeout(r, 20));
+      expect(posted).toHaveLength(2); // the render that shows the edit took the request sent ahead
+      expect(posted[1].circuit).toBe(next);
+    });
+
+    it('draws the edit without its answer when the answer is late, and the answer when it comes', async () => {
+      const posted: SolveRequest[] = [];
+      const { out, create } = manualPort(posted);
+      const seen: { c: CircuitInput; status: string }[] = [];
+      const { result } = renderHook(() => useHarness(withHeater(1), { createPort: create, debounceMs: 1 }, seen));
+      await waitFor(() => expect(posted).toHaveLength(1));
+      act(() => out.release(0));
+      expect(result.current.live.status).toBe('ok');
+      const next = withHeater(4);
+      act(() => result.current.live.solveAhead(next, () => result.current.setC(next)));
+      expect(posted).toHaveLength(2);
+      // No answer: the edit is committed by the deadline (at most 250 ms), shown as solving.
+      await waitFor(() => expect(result.current.c).toBe(next), { timeout: 1000 });
+      expect(result.current.live.status).toBe('solving');
+      expect(posted).toHaveLength(2);
+      act(() => out.release(1));
+      expect(result.current.live.status).toBe('ok');
+      expect(result.current.live.result!.buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(next), 9);
+    });
+
+    it('keeps edits in order: another change commits the held edit first (flushAhead)', async () => {
+      const posted: SolveRequest[] = [];
+      const { out, create } = manualPort(posted);
+      const { result } = renderHook(() => useHarness(withHeater(1), { createPort: create, debounceMs: 1 }, []));
+      await waitFor(() => expect(posted).toHaveLength(1));
+      act(() => out.release(0));
+      const order: string[] = [];
+      const a = withHeater(2);
+      const b = withHeater(3);
+      act(() => result.current.live.solveAhead(a, () => (order.push('a'), result.current.setC(a))));
+      act(() => result.current.live.solveAhead(b, () => (order.push('b'), result.current.setC(b))));
+      expect(order).toEqual(['a']); // the first edit was committed when the second came
+      act(() => out.release(1)); // the answer to the first edit: overtaken, dropped
+      expect(result.current.c).toBe(a);
+      act(() => out.release(2));
+      expect(order).toEqual(['a', 'b']);
+      expect(result.current.c).toBe(b);
+      expect(result.current.live.status).toBe('ok');
+      expect(result.current.live.result!.buses.find((x) => x.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(b), 9);
+      act(() => result.current.live.flushAhead()); // nothing held: nothing happens
+      expect(order).toEqual(['a', 'b']);
+    });
   });
 });
