@@ -18,8 +18,11 @@
  * Builds the client into a temporary directory and starts the product on it (bench-server.ts, fresh
  * data, demo accounts), like drag.ts. Run: `node --import tsx tests/bench/workspace/edit-latency.ts`
  * (EDIT_RUNS=n edits per study, default 15; EDIT_STUDIES=<regex> picks studies by name; EDIT_PROFILE=1 prints
- * a CPU profile and a timeline of the main thread per study).
+ * a CPU profile and a timeline of the main thread per study; EDIT_CPU=1 the main thread's CPU time
+ * from input to paint per edit, from a light trace; with EDIT_PROFILE=1 and EDIT_TRACE=<path prefix> also
+ * writes each study's trace as <prefix>-<study>.json).
  */
+import { writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import type { Page } from 'playwright-core';
 import { startBenchProduct } from './bench-product.ts';
@@ -34,6 +37,12 @@ const ONLY = process.env.EDIT_STUDIES ? new RegExp(process.env.EDIT_STUDIES, 'i'
  * (script, style, layout, paint).
  */
 const PROFILE = process.env.EDIT_PROFILE === '1';
+/**
+ * EDIT_CPU=1: a light trace (top-level tasks only) of each study's edits, and per edit the CPU time of
+ * the page's main thread from input to paint (thread time of its tasks, so waiting for a core on a
+ * loaded machine is not counted) — a figure to compare code before and after when the load varies.
+ */
+const CPU = process.env.EDIT_CPU === '1' && !PROFILE;
 const median = (xs: number[]) => {
   const s = xs.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
   if (s.length === 0) return NaN;
@@ -86,6 +95,27 @@ interface EditFigures {
   total: number[];
   /** Input → the frame after the last change the answer made (every table updated). */
   settled: number[];
+  /** EDIT_CPU=1: CPU time of the page's main thread from input to paint, per edit. */
+  mainCpu?: number[];
+}
+
+/** Per edit (lat-input → lat-paint), the thread time of the main thread's top-level tasks that start in that window, ms. */
+function mainThreadCpu(events: TraceEvent[]): number[] {
+  const busy = new Map<string, number>();
+  for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && e.dur) busy.set(`${e.pid}:${e.tid}`, (busy.get(`${e.pid}:${e.tid}`) ?? 0) + e.dur);
+  const main = [...busy].sort((a, b) => b[1] - a[1])[0]?.[0];
+  const marks = events.filter((e) => e.name === 'lat-input' || e.name === 'lat-paint').sort((a, b) => a.ts - b.ts);
+  const out: number[] = [];
+  for (let i = 0; i < marks.length; i++) {
+    if (marks[i].name !== 'lat-input') continue;
+    const end = marks.slice(i + 1).find((m) => m.name === 'lat-paint' || m.name === 'lat-input');
+    if (!end || end.name !== 'lat-paint') continue;
+    let cpu = 0;
+    // The task the input mark falls in started just before it: tasks are taken from 1 ms before the mark.
+    for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && `${e.pid}:${e.tid}` === main && e.ts >= marks[i].ts - 1000 && e.ts < end.ts) cpu += (e.tdur ?? e.dur ?? 0) / 1000;
+    out.push(cpu);
+  }
+  return out;
 }
 
 /** Open a study, pick a load with a kW field, apply RUNS edits and collect the marks. */
@@ -120,9 +150,12 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
   if (!inputId) return `${name}: no kW field`;
   const input = page.locator(`[id="${inputId}"]`);
   const start = Number((await input.inputValue()).replace(/[^\d.eE+-]/g, '')) || 1;
-  const cdp = PROFILE ? await page.context().newCDPSession(page) : null;
+  const cdp = PROFILE || CPU ? await page.context().newCDPSession(page) : null;
   const traceEvents: TraceEvent[] = [];
-  if (cdp) {
+  if (cdp && CPU) {
+    cdp.on('Tracing.dataCollected', (e) => void traceEvents.push(...(e.value as unknown as TraceEvent[])));
+    await cdp.send('Tracing.start', { categories: 'toplevel,blink.user_timing', transferMode: 'ReportEvents' });
+  } else if (cdp) {
     await cdp.send('Profiler.enable');
     await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
     await cdp.send('Profiler.start');
@@ -159,12 +192,23 @@ async function measureStudy(page: Page, base: string, id: string, name: string):
     out.settled.push(m.settled - m.input);
     await page.waitForTimeout(100);
   }
-  if (cdp) {
+  if (cdp && CPU) {
+    const done = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
+    await cdp.send('Tracing.end');
+    await done;
+    out.mainCpu = mainThreadCpu(traceEvents);
+    await cdp.detach();
+  } else if (cdp) {
     const { profile } = (await cdp.send('Profiler.stop')) as { profile: CpuProfile };
     const done = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
     await cdp.send('Tracing.end');
     await done;
     printProfile(name, profile, traceEvents, out.total.length);
+    if (process.env.EDIT_TRACE) {
+      const file = `${process.env.EDIT_TRACE}-${name.replace(/[^A-Za-z0-9]+/g, '-').slice(0, 40)}.json`;
+      writeFileSync(file, JSON.stringify({ traceEvents }));
+      console.log(`trace written to ${file} (open it in chrome://tracing or the Performance panel)`);
+    }
     await cdp.detach();
   }
   return out;
@@ -180,6 +224,8 @@ interface TraceEvent {
   name: string;
   ph: string;
   dur?: number;
+  /** Thread (CPU) time, µs. */
+  tdur?: number;
   ts: number;
   tid: number;
   pid: number;
@@ -265,6 +311,11 @@ try {
   console.log('\n| study | elements | edits | input→post | post→answer | of which in the worker | answer→commit | commit→paint | input→paint (median) | target | input→settled (median) |');
   console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---|---:|');
   for (const r of results) console.log(`| ${r.study} | ${r.elements} | ${r.total.length} | ${f(r.inputToPost)} ms | ${f(r.roundTrip)} ms | ${f(r.inWorker)} ms | ${f(r.answerToCommit)} ms | ${f(r.commitToPaint)} ms | ${f(r.total)} ms | ${r.elements >= 250 ? '≤ 100 ms' : '≤ 50 ms'} | ${f(r.settled)} ms |`);
+  if (CPU) {
+    console.log('\n| study | edits traced | main-thread CPU, input → paint (median) | min | max |');
+    console.log('|---|---:|---:|---:|---:|');
+    for (const r of results) if (r.mainCpu) console.log(`| ${r.study} | ${r.mainCpu.length} | ${f(r.mainCpu)} ms | ${Math.min(...r.mainCpu).toFixed(1)} ms | ${Math.max(...r.mainCpu).toFixed(1)} ms |`);
+  }
   console.log(`\nmachine: ${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (headless chromium, software rendering)`);
 } finally {
   await product.close();
