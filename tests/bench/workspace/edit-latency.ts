@@ -101,18 +101,25 @@ interface EditFigures {
 
 /** Per edit (lat-input → lat-paint), the thread time of the main thread's top-level tasks that start in that window, ms. */
 function mainThreadCpu(events: TraceEvent[]): number[] {
-  const busy = new Map<string, number>();
-  for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && e.dur) busy.set(`${e.pid}:${e.tid}`, (busy.get(`${e.pid}:${e.tid}`) ?? 0) + e.dur);
-  const main = [...busy].sort((a, b) => b[1] - a[1])[0]?.[0];
   const marks = events.filter((e) => e.name === 'lat-input' || e.name === 'lat-paint').sort((a, b) => a.ts - b.ts);
+  if (marks.length === 0) return [];
+  // The page's main thread is the one the marks are made on.
+  const main = `${marks[0].pid}:${marks[0].tid}`;
+  const isTask = (e: TraceEvent) => e.ph === 'X' && (e.name === 'ThreadControllerImpl::RunTask' || e.name === 'RunTask') && `${e.pid}:${e.tid}` === main;
+  const tasks = events.filter(isTask).sort((a, b) => a.ts - b.ts);
   const out: number[] = [];
   for (let i = 0; i < marks.length; i++) {
     if (marks[i].name !== 'lat-input') continue;
     const end = marks.slice(i + 1).find((m) => m.name === 'lat-paint' || m.name === 'lat-input');
     if (!end || end.name !== 'lat-paint') continue;
     let cpu = 0;
+    let until = -Infinity; // tasks nested in one already counted are skipped
     // The task the input mark falls in started just before it: tasks are taken from 1 ms before the mark.
-    for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && `${e.pid}:${e.tid}` === main && e.ts >= marks[i].ts - 1000 && e.ts < end.ts) cpu += (e.tdur ?? e.dur ?? 0) / 1000;
+    for (const e of tasks) {
+      if (e.ts < marks[i].ts - 1000 || e.ts >= end.ts || e.ts < until) continue;
+      cpu += (e.tdur ?? e.dur ?? 0) / 1000;
+      until = e.ts + (e.dur ?? 0);
+    }
     out.push(cpu);
   }
   return out;
