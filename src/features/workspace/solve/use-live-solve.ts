@@ -32,7 +32,9 @@ export interface LiveSolveState {
  * rendered and painted once, in the answer's task, instead of the page drawing the edit while the
  * answer waits. `commit` is called without the answer when the answer is not back within the time
  * the last answers took (plus a margin), or when `flushAhead` is called (before any other change, so
- * changes stay in order). A render whose circuit equals `next` posts nothing: it takes this request.
+ * changes stay in order), and at once when the worker's recent solves took longer than 30 ms (the
+ * page then draws the edit while the worker solves). A render whose circuit equals `next` posts
+ * nothing: it takes this request.
  */
 export type SolveAhead = (next: CircuitInput, commit: () => void) => void;
 
@@ -77,6 +79,12 @@ interface AheadRequest {
 /** How long an edit is held for its answer: the recent round trips with a margin, within bounds (ms). */
 const AHEAD_MIN_MS = 25;
 const AHEAD_MAX_MS = 250;
+/**
+ * An edit is held only while the worker's own time for recent answers is at most this (ms): a longer
+ * solve leaves the page time to draw the edit meanwhile, so the edit is drawn at once (its request
+ * still goes out first) and the answer follows, as holding it would only add the edit's render after the wait.
+ */
+const AHEAD_HOLD_MAX_WORKER_MS = 30;
 
 /** Live solve of a circuit in the engine's format; `null` means nothing to solve yet. */
 export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOptions = {}): LiveSolveState & LiveSolveControls {
@@ -101,6 +109,8 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   /** When the latest request was posted, and the worker round trip of recent answers (ms, smoothed). */
   const postedAt = useRef(new Map<number, number>());
   const roundTrip = useRef<number | null>(null);
+  /** The worker's own time of recent answers (ms, smoothed). */
+  const workerMs = useRef<number | null>(null);
   const post = (port: SolvePort, req: { id: number; circuit: CircuitInput; limits: LimitsInput | undefined }) => {
     postedAt.current.clear();
     postedAt.current.set(req.id, performance.now());
@@ -132,6 +142,8 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
       }, wait);
       ahead.current = a;
       post(port, { id, circuit: next, limits: lim });
+      // A slow solve: the edit is drawn while the worker solves (the render takes the request posted above).
+      if (workerMs.current !== null && workerMs.current > AHEAD_HOLD_MAX_WORKER_MS) flushAhead();
     },
     [flushAhead],
   );
@@ -144,6 +156,7 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
         const rt = performance.now() - sent;
         roundTrip.current = roundTrip.current === null ? rt : 0.5 * roundTrip.current + 0.5 * rt;
       }
+      workerMs.current = workerMs.current === null ? res.ms : 0.5 * workerMs.current + 0.5 * res.ms;
       const a = ahead.current;
       // An edit held for this answer: the edit and its answer are rendered together.
       const held = a && a.id === res.id && a.commit ? a : null;

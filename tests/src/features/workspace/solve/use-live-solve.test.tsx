@@ -165,6 +165,26 @@ describe('useLiveSolve', () => {
       expect(result.current.live.result!.buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(next), 9);
     });
 
+    it('draws the edit at once, its request already sent, when recent solves took the worker long', async () => {
+      const posted: SolveRequest[] = [];
+      const { out, create } = manualPort(posted);
+      const { result } = renderHook(() => useHarness(withHeater(1), { createPort: create, debounceMs: 1 }, []));
+      await waitFor(() => expect(posted).toHaveLength(1));
+      const handle = createSolveHandler();
+      act(() => out.deliver({ ...handle(posted[0]), ms: 120 })); // as a large study's solve would report
+      const next = withHeater(5);
+      let commits = 0;
+      act(() => result.current.live.solveAhead(next, () => (commits++, result.current.setC(next))));
+      expect(commits).toBe(1); // not held
+      expect(result.current.c).toBe(next);
+      expect(result.current.live.status).toBe('solving');
+      await new Promise((r) => setTimeout(r, 20));
+      expect(posted).toHaveLength(2); // sent before the render, which took it
+      act(() => out.release(1));
+      expect(result.current.live.status).toBe('ok');
+      expect(result.current.live.result!.buses.find((b) => b.bus === 'HOUSE')!.neutralToEarth!.mag).toBeCloseTo(shiftOf(next), 9);
+    });
+
     it('keeps edits in order: another change commits the held edit first (flushAhead)', async () => {
       const posted: SolveRequest[] = [];
       const { out, create } = manualPort(posted);
