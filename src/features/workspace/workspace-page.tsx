@@ -145,6 +145,17 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   shownCircuitRef.current = shownCircuit;
   const activeCaseRef = useRef(activeCase);
   activeCaseRef.current = activeCase;
+  // The user's next key or pointer press commits a held edit first, so nothing they do next (a link
+  // followed, another field, a drag) meets the document without it: the unsaved-changes guard included.
+  useEffect(() => {
+    const commitHeld = () => flushAhead.current();
+    document.addEventListener('pointerdown', commitHeld, true);
+    document.addEventListener('keydown', commitHeld, true);
+    return () => {
+      document.removeEventListener('pointerdown', commitHeld, true);
+      document.removeEventListener('keydown', commitHeld, true);
+    };
+  }, []);
   /**
    * Runs a value edit (a property, a bus, a conductor opened or closed) like `run`, but sends the
    * circuit it makes to the solver first and draws the edit together with its answer: one render
