@@ -1,7 +1,7 @@
 /** Flags: bus voltages, load terminal voltages, unbalance, neutral shift and transformer loading against a limit set. */
 import type { FloatingIsland } from '../types.ts';
 import type { BusResult, ElementResult, Flag, LoadResult, NeutralCause } from '../results/types.ts';
-import { UNBALANCE_METRICS, type LimitSet, type UnbalanceMetric } from './limit-sets.ts';
+import { UNBALANCE_METRICS, type LimitSet, type UnbalanceMetric } from './limit-values.ts';
 
 /** Names of the unbalance definitions, as flags and reports word them. */
 export const UNBALANCE_NAMES: Record<UnbalanceMetric, string> = { iec: 'IEC |V2|/|V1|', nema: 'line-voltage (NEMA)', ieee: 'phase-voltage (IEEE)' };

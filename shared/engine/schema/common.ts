@@ -3,6 +3,7 @@
  * node and bus names, earthing. zod 4 numbers already reject NaN and ±Infinity.
  */
 import { z } from 'zod';
+import { CONDUCTORS } from '../conductors.ts';
 
 /** A finite number. */
 export const num = z.number();
@@ -53,12 +54,9 @@ export const busSchema = z
   .regex(/^[^.\s]+$/, 'a bus name must not contain dots or spaces')
   .refine((s) => s !== 'earth', 'a bus cannot be named "earth"');
 
-/** Conductor letters of a three-phase bus and of a split-phase bus. */
-export const CONDUCTORS = ['a', 'b', 'c', 'n', '1', '2'] as const;
-export type Conductor = (typeof CONDUCTORS)[number];
+/** Conductor letters of a three-phase bus and of a split-phase bus (../conductors.ts). */
+export { CONDUCTORS, PHASES, type Conductor, type Phase } from '../conductors.ts';
 export const conductorSchema = z.enum(CONDUCTORS);
-export const PHASES = ['a', 'b', 'c'] as const;
-export type Phase = (typeof PHASES)[number];
 
 /** Earthing of a star point: solid, unearthed, or through an impedance (ohms). */
 export const earthingSchema = z

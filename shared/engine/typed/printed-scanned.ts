@@ -13,11 +13,11 @@
  * the general path, which gives its own result or error message.
  */
 import type { Cx, Primitive } from '../types.ts';
-import { resolveLimits } from '../limits/limit-sets.ts';
+import { ANSI_C84_1 } from '../limits/limit-values.ts';
 import { computeFlags } from '../limits/flags.ts';
 import { primitivePowers, resultConventions, splitBusNode, TotalsSum } from '../results/build-results.ts';
 import type { BusResult } from '../results/types.ts';
-import { CONDUCTORS } from '../schema/common.ts';
+import { CONDUCTORS } from '../conductors.ts';
 import { sub, toPhasor, ZERO } from '../phasor.ts';
 import { sequenceComponents } from '../metrics/sequence.ts';
 import { iecUnbalancePercent, maxDeviationUnbalancePercent } from '../metrics/unbalance.ts';
@@ -63,7 +63,7 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
     cIm,
     totals: totals.result(sol.maxKclResidualAmps),
     floating: [],
-    flags: computeFlags(buses, [], [], resolveLimits(undefined, undefined), []),
+    flags: computeFlags(buses, [], [], ANSI_C84_1 /* what resolveLimits() gives a file without settings */, []),
     iterations: 1,
   };
 }
