@@ -17,6 +17,16 @@
  * build cannot run (esbuild missing, a syntax error), the launcher falls back to tsx, which then
  * reports the real problem. WYEWARD_CLI_CACHE overrides the cache folder (default
  * node_modules/.cache/wyeward-cli); WYEWARD_CLI_NO_BUNDLE=1 forces the tsx path.
+ *
+ * Lean start: a CLI may have a lean entry (LEAN below: `solve` → server/cli/solve-lean.ts, the typed
+ * path of `--json` for primitive-only files, ~0.1 MB without zod or the general engine), bundled and
+ * cached the same way and loaded first. Its main(argv) returns undefined when it did the whole run;
+ * otherwise the full bundle runs with main(argv, handOver) (handOver: what the lean start already
+ * did, e.g. the file's text). WYEWARD_CLI_NO_LEAN=1 skips the lean start.
+ *
+ * zod's locales: the bundles carry only the English messages zod uses by default (classic/schemas.js
+ * imports locales/en.js itself); the `locales` namespace, which nothing here reads, is replaced by
+ * one that holds `en` only (ZOD_LOCALES_EN), which takes ~0.36 MB out of ~1 MB.
  */
 import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -34,7 +44,9 @@ const pathsOf = (name) => ({
   metaPath: path.join(cacheDir, `${name}.meta.json`),
 });
 /** Changing the build options below must change this key (it invalidates older bundles). */
-const OPTIONS_KEY = 'cjs-node20-bundle-codecache-v2';
+const OPTIONS_KEY = 'cjs-node20-bundle-codecache-v3-zod-en';
+/** The lean entry loaded before a CLI's full bundle (see the module comment). */
+const LEAN = { solve: 'solve-lean' };
 /** Files outside the import graph that still change what the bundle contains. */
 const EXTRA_INPUTS = ['package-lock.json'];
 
@@ -60,6 +72,15 @@ function isFresh({ bundlePath, metaPath }) {
   return true;
 }
 
+/** esbuild plugin: zod's locales/index.js (every language) → a module exporting `en` only. */
+const ZOD_LOCALES_EN = {
+  name: 'zod-locales-en',
+  setup(b) {
+    b.onResolve({ filter: /^\.\.\/locales\/index\.js$/ }, (args) => (/[\\/]zod[\\/]v4[\\/](classic|core)$/.test(args.resolveDir) ? { path: path.join(args.resolveDir, '../locales/en.js'), namespace: 'zod-locales-en' } : undefined));
+    b.onLoad({ filter: /.*/, namespace: 'zod-locales-en' }, (args) => ({ contents: `export { default as en } from ${JSON.stringify(args.path)};`, resolveDir: path.dirname(args.path), loader: 'js' }));
+  },
+};
+
 /** Build the bundle with esbuild's JS API; returns false when it cannot. */
 async function build({ entry, bundlePath, codeCachePath, metaPath }) {
   let esbuild;
@@ -83,6 +104,7 @@ async function build({ entry, bundlePath, codeCachePath, metaPath }) {
       metafile: true,
       logLevel: 'silent',
       legalComments: 'none',
+      plugins: [ZOD_LOCALES_EN],
     });
     const inputs = Object.keys(result.metafile.inputs).filter((p) => !p.startsWith('node_modules/') && !p.includes('/node_modules/'));
     renameSync(tmp, bundlePath);
@@ -102,7 +124,7 @@ async function build({ entry, bundlePath, codeCachePath, metaPath }) {
  * run included); later runs skip parsing and compiling ~1 MB of JavaScript. V8 rejects a cache
  * that does not match the source or the V8 version, and a new one is written.
  */
-function loadBundle({ entry, bundlePath, codeCachePath }) {
+function loadBundle({ entry, bundlePath, codeCachePath }, { storeWhen = () => true } = {}) {
   const code = readFileSync(bundlePath, 'utf8');
   let cachedData;
   try {
@@ -116,7 +138,7 @@ function loadBundle({ entry, bundlePath, codeCachePath }) {
   // balance) are found in the project's node_modules wherever the cache folder is
   script.runInThisContext().call(mod.exports, mod.exports, createRequire(entry), mod, bundlePath, path.dirname(bundlePath));
   const storeCache = () => {
-    if (cachedData !== undefined && !script.cachedDataRejected) return;
+    if ((cachedData !== undefined && !script.cachedDataRejected) || !storeWhen()) return;
     try {
       const tmp = `${codeCachePath}.${process.pid}.tmp`;
       writeFileSync(tmp, script.createCachedData());
@@ -135,9 +157,29 @@ async function loadCli(paths) {
   return { cli: await import(pathToFileURL(paths.entry).href), storeCache: () => {} };
 }
 
+/**
+ * The lean start of CLI `name`, if it has one: undefined when it did the whole run, else what it
+ * hands to the full CLI ({} when it could not run: no bundle, no esbuild).
+ */
+async function leanStart(name, argv) {
+  const lean = LEAN[name];
+  if (!lean || process.env.WYEWARD_CLI_NO_BUNDLE === '1' || process.env.WYEWARD_CLI_NO_LEAN === '1') return {};
+  const paths = pathsOf(lean);
+  if (!isFresh(paths) && !(await build(paths))) return {};
+  let handOver;
+  // its code cache is written after a run it took, so that it holds the compiled typed path
+  const { cli, storeCache } = loadBundle(paths, { storeWhen: () => handOver === undefined });
+  handOver = cli.main(argv);
+  storeCache();
+  return handOver;
+}
+
 /** Run the CLI `name` (server/cli/<name>.ts, which exports main(argv)) on this process's arguments. */
 export async function launch(name) {
+  const argv = process.argv.slice(2);
+  const handOver = await leanStart(name, argv);
+  if (handOver === undefined) return;
   const { cli, storeCache } = await loadCli(pathsOf(name));
-  cli.main(process.argv.slice(2));
+  cli.main(argv, handOver);
   storeCache();
 }

@@ -4,7 +4,8 @@
  * sources, one writer (writePrintedResult): the typed path's printedPrimitiveResultOfText
  * (shared/engine/typed, from the file's text) and, for primitive-only files it declines,
  * printedPrimitiveResults of the general solver's solution (shared/engine/results/printed-primitives.ts).
- * Text is gathered into ~64 K-character chunks before each write.
+ * Text is gathered into ~64 K-character chunks before each write. The writer itself is in
+ * printed-write.ts (no engine modules: the lean bundle of the typed path loads it).
  *
  * How: each entry is one template string, the numbers written by JavaScript's number-to-text
  * conversion, which is JSON.stringify's (the shortest text that reads back to the same double;
@@ -16,19 +17,15 @@
  * "__proto__" (kept as a key in a null-prototype object, but the general path's records are
  * plain objects): a file with such an element id or node name takes the general path.
  */
-import { isPrimitiveOnly, printedPrimitiveResults, toPhasor, type PreparedCircuit, type PrimitiveSolution, type PrintedPrimitiveResult } from '../../shared/engine/index.ts';
+import { isPrimitiveOnly, printedPrimitiveResults } from '../../shared/engine/results/printed-primitives.ts';
+import type { PreparedCircuit } from '../../shared/engine/solve-circuit.ts';
+import type { PrimitiveSolution } from '../../shared/engine/types.ts';
+import { writePrintedResult } from './printed-write.ts';
+
+export { writePrintedResult };
 
 /** Keys whose place in a plain object differs from insertion order (or that do not become keys). */
 const isSpecialKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d{0,9})$/.test(k);
-
-/** A number as JSON.stringify writes it (the shortest text that reads back to it; not finite: null). */
-const numText = (x: number): string => (Number.isFinite(x) ? `${x}` : 'null');
-
-/** The JSON text of toPhasor({ re, im }), as JSON.stringify writes it. */
-function phasorText(re: number, im: number): string {
-  const p = toPhasor({ re, im });
-  return `{"re":${numText(p.re)},"im":${numText(p.im)},"mag":${numText(p.mag)},"angleDeg":${numText(p.angleDeg)}}`;
-}
 
 /**
  * Write the `--json` result of `prepared` (solved as `sol` by solvePrimitives) through `write`
@@ -43,53 +40,4 @@ export function writePrintedPrimitiveJson(prepared: PreparedCircuit, sol: Primit
   for (const n of r.nodeNames) if (isSpecialKey(n)) return false;
   writePrintedResult(r, write, chunkChars);
   return true;
-}
-
-/**
- * Write `r` (from printedPrimitiveResults, or printedPrimitiveResultOfText for the typed path) as
- * the `--json` text through `write`. Its ids and node names must not be special keys (see above).
- */
-export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: string) => void, chunkChars = 1 << 16): void {
-  let buf = '';
-  const push = (s: string) => {
-    buf += s;
-    if (buf.length >= chunkChars) {
-      write(buf);
-      buf = '';
-    }
-  };
-  // the keys in jsonResult's order; each record by a function of its own (see writeNodes)
-  push(`{"format":"wyeward-result","version":1,"conventions":${JSON.stringify(r.conventions)},"nodes":{`);
-  writeNodes(r, push);
-  push('},"elements":{');
-  writeElements(r, push);
-  // a primitive-only circuit has no faults
-  push(`},"faults":[],"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${JSON.stringify(r.iterations)}}\n`);
-  if (buf) write(buf);
-}
-
-/**
- * The entries of `nodes`. A function of its own, like writeElements: a single run executes each
- * loop once, and one function holding both loops was optimized for the first, then deoptimized
- * at the second for want of type feedback and compiled again.
- */
-function writeNodes(r: PrintedPrimitiveResult, push: (s: string) => void): void {
-  const { nodeNames, vRe, vIm } = r;
-  for (let i = 0; i < nodeNames.length; i++) push(`${i ? ',' : ''}${JSON.stringify(nodeNames[i])}:${phasorText(vRe[i], vIm[i])}`);
-}
-
-/** The entries of `elements`: type and currents. */
-function writeElements(r: PrintedPrimitiveResult, push: (s: string) => void): void {
-  const { elementIds, elementTypes, cRe, cIm, currentStart, currentCount } = r;
-  // the type part of each element's text, once per type name
-  const typeText = new Map<string, string>();
-  for (let k = 0; k < elementIds.length; k++) {
-    const type = elementTypes[k];
-    let head = typeText.get(type);
-    if (head === undefined) typeText.set(type, (head = `:{"type":${JSON.stringify(type)},"currents":[`));
-    let text = `${k ? ',' : ''}${JSON.stringify(elementIds[k])}${head}`;
-    const start = currentStart[k];
-    for (let c = 0; c < currentCount[k]; c++) text += `${c ? ',' : ''}${phasorText(cRe[start + c], cIm[start + c])}`;
-    push(`${text}]}`);
-  }
 }

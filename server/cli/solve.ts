@@ -21,7 +21,17 @@
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { writePrintedPrimitiveJson, writePrintedResult } from './printed-json.ts';
-import { BASE_CASE_ID, EngineError, applyCase, caseLabel, circuitCases, circuitResults, prepareCircuit, printedPrimitiveResultOfText, solvePrimitives, type CircuitResult, type Phasor, type StudyCase } from '../../shared/engine/index.ts';
+import { printTimings } from './timings.ts';
+// the engine's modules one by one, not its index: the index also loads the demo circuits and the
+// balancing code at start-up, which this CLI never uses
+import { EngineError } from '../../shared/engine/errors.ts';
+import { circuitResults, prepareCircuit } from '../../shared/engine/solve-circuit.ts';
+import { solvePrimitives } from '../../shared/engine/solver/index.ts';
+import { applyCase, caseLabel, circuitCases } from '../../shared/engine/cases/apply-case.ts';
+import { BASE_CASE_ID, type StudyCase } from '../../shared/engine/schema/cases.ts';
+import { printedPrimitiveResultOfText } from '../../shared/engine/typed/printed-scanned.ts';
+import type { Phasor } from '../../shared/engine/phasor.ts';
+import type { CircuitResult } from '../../shared/engine/results/types.ts';
 
 export const CAUTION =
   'CAUTION: Wyeward is an engineering aid. Results are only as good as the model; designs must follow local codes and be checked under licensed practice. Lost-neutral conditions put dangerous voltages on equipment.';
@@ -183,8 +193,12 @@ export function writeJson(value: Record<string, unknown>, write: (chunk: string)
   if (buf) write(buf);
 }
 
-/** Run the CLI on its arguments (exits the process on errors). Called directly or by solve-launcher.mjs. */
-export function main(argv: string[]): void {
+/**
+ * Run the CLI on its arguments (exits the process on errors). Called directly or by
+ * solve-launcher.mjs, after the lean start (solve-lean.ts) declined the run: `handOver.text` is then
+ * the file's text, already read and already declined by the typed path.
+ */
+export function main(argv: string[], handOver?: { text?: string }): void {
   const t0 = performance.now();
   const switches = new Set(['--json', '--full', '--timings', '--all-cases']);
   const args: string[] = [];
@@ -209,15 +223,19 @@ export function main(argv: string[]): void {
   const marks: [string, number][] = [];
   const mark = (label: string) => marks.push([label, performance.now()]);
   let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (e) {
-    fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  const declined = handOver?.text !== undefined;
+  if (declined) text = handOver.text!;
+  else {
+    try {
+      text = readFileSync(file, 'utf8');
+    } catch (e) {
+      fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+    }
   }
   mark('read');
   // --json of a primitive-only file: the typed path from the text (same bytes as the general path;
   // it declines anything else, which then takes the general path below)
-  if (asJson && !full && !allCases && caseId === undefined) {
+  if (asJson && !full && !allCases && caseId === undefined && !declined) {
     const before = marks.length;
     let printed: ReturnType<typeof printedPrimitiveResultOfText>;
     try {
@@ -281,18 +299,6 @@ export function main(argv: string[]): void {
     mark('report');
   }
   if (timings) printTimings(t0, marks);
-}
-
-/** The --timings line on stderr: time since process start (node + loader + imports) first, then each step. */
-function printTimings(t0: number, marks: [string, number][]): void {
-  const startup = t0; // performance.now() counts from the process's time origin
-  const parts = [`start-up + imports ${startup.toFixed(0)} ms`];
-  let prev = t0;
-  for (const [label, t] of marks) {
-    parts.push(`${label} ${(t - prev).toFixed(0)} ms`);
-    prev = t;
-  }
-  process.stderr.write(`solve timings: ${parts.join(', ')}; total ${prev.toFixed(0)} ms since process start\n`);
 }
 
 const USAGE = 'usage: solve <file.json> [--json [--full]] [--case <id> | --all-cases]';

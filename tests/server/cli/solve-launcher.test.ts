@@ -1,7 +1,9 @@
 /**
  * The solve CLI's fast launcher (server/cli/solve-launcher.mjs): builds the bundle on first use,
  * reuses it while fresh, rebuilds when a source is newer than the build, prints exactly what the
- * tsx path prints, keeps the exit codes, and falls back to tsx when asked.
+ * tsx path prints, keeps the exit codes, and falls back to tsx when asked. The lean start
+ * (solve-lean.ts, loaded first): takes `--json` of a primitive-only file alone, hands every other
+ * file to the full bundle with the same bytes, and is rebuilt when stale like the full bundle.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
@@ -9,6 +11,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { demoCircuits } from '../../../shared/engine/index.ts';
+import { primitiveFeeder } from '../../bench/primitive-feeder.ts';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-cli-launcher-'));
@@ -28,6 +31,10 @@ const circuitFile = path.join(dir, 'bank.json');
 writeFileSync(circuitFile, JSON.stringify(demo.circuit));
 const bundle = path.join(cache, 'solve.cjs');
 const meta = path.join(cache, 'solve.meta.json');
+const leanBundle = path.join(cache, 'solve-lean.cjs');
+const leanMeta = path.join(cache, 'solve-lean.meta.json');
+const primitiveFile = path.join(dir, 'primitive.json');
+writeFileSync(primitiveFile, JSON.stringify(primitiveFeeder(30)));
 
 describe('solve CLI launcher', () => {
   it('builds the bundle on first use and prints exactly what the tsx path prints (JSON and report)', () => {
@@ -87,6 +94,66 @@ describe('solve CLI launcher', () => {
     expect(r.code).toBe(0);
     expect(r.stderr).toMatch(/^solve timings: start-up \+ imports \d+ ms, read \d+ ms, JSON parse \d+ ms, validate \+ expand \d+ ms, solve \d+ ms, results \d+ ms, JSON write \d+ ms; total \d+ ms since process start\n$/);
     expect(JSON.parse(r.stdout).format).toBe('wyeward-result');
+  });
+
+  it('the lean start takes --json of a primitive-only file without the full bundle, same bytes', () => {
+    const other = path.join(dir, 'lean-only-cache');
+    const r = launch([primitiveFile, '--json', '--timings'], { WYEWARD_CLI_CACHE: other });
+    expect(r.code).toBe(0);
+    expect(r.stderr).toMatch(/^solve timings: start-up \+ imports \d+ ms, read \d+ ms, scan \(parse \+ validate\) \d+ ms, solve \d+ ms, results \+ JSON write \d+ ms; total \d+ ms since process start\n$/);
+    expect(existsSync(path.join(other, 'solve-lean.cjs'))).toBe(true);
+    expect(existsSync(path.join(other, 'solve.cjs'))).toBe(false); // never needed
+    const inputs: string[] = JSON.parse(readFileSync(path.join(other, 'solve-lean.meta.json'), 'utf8')).inputs;
+    expect(inputs).toContain('server/cli/solve-lean.ts');
+    expect(inputs).toContain('shared/engine/typed/scan-primitive-file.ts');
+    expect(inputs.filter((p) => p.startsWith('shared/engine/schema/') || p.startsWith('shared/engine/blocks/'))).toEqual([]);
+    expect(readFileSync(path.join(other, 'solve-lean.cjs'), 'utf8')).not.toMatch(/node_modules[\\/]zod/);
+    const general = viaTsx([primitiveFile, '--json']).stdout;
+    expect(r.stdout).toBe(general);
+    expect(launch([primitiveFile, '--json'], { WYEWARD_CLI_NO_LEAN: '1' }).stdout).toBe(general);
+  });
+
+  it('the lean start hands a file with building blocks, and other options, to the full bundle (same bytes)', () => {
+    const other = path.join(dir, 'fallback-cache');
+    const r = launch([circuitFile, '--json', '--timings'], { WYEWARD_CLI_CACHE: other });
+    expect(r.code).toBe(0);
+    expect(r.stderr).toMatch(/^solve timings: start-up \+ imports \d+ ms, read \d+ ms, JSON parse \d+ ms, validate/);
+    expect(existsSync(path.join(other, 'solve-lean.cjs'))).toBe(true);
+    expect(existsSync(path.join(other, 'solve.cjs'))).toBe(true);
+    expect(r.stdout).toBe(viaTsx([circuitFile, '--json']).stdout);
+    // its code cache is kept only after a run it took (so that it holds the typed path)
+    expect(existsSync(path.join(other, 'solve-lean.cjs.v8cache'))).toBe(false);
+    expect(launch([primitiveFile, '--json'], { WYEWARD_CLI_CACHE: other }).code).toBe(0);
+    expect(existsSync(path.join(other, 'solve-lean.cjs.v8cache'))).toBe(true);
+    // --full, a case, or the report: the full CLI's output
+    for (const args of [[primitiveFile, '--json', '--full'], [primitiveFile], [primitiveFile, '--json', '--case', 'base']]) {
+      expect(launch(args, { WYEWARD_CLI_CACHE: other }).stdout).toBe(viaTsx(args).stdout);
+    }
+  });
+
+  it('rebuilds a lean bundle older than its sources', () => {
+    launch([primitiveFile, '--json']);
+    const builtAt = statSync(leanBundle).mtimeMs;
+    const m = JSON.parse(readFileSync(leanMeta, 'utf8'));
+    writeFileSync(leanMeta, JSON.stringify({ ...m, builtFrom: 0 }));
+    const r = launch([primitiveFile, '--json']);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(readFileSync(leanMeta, 'utf8')).builtFrom).toBeGreaterThan(0);
+    expect(statSync(leanBundle).mtimeMs).not.toBe(builtAt);
+    expect(r.stdout).toBe(viaTsx([primitiveFile, '--json']).stdout);
+  });
+
+  it('the full bundle carries zod’s English messages only', () => {
+    launch([circuitFile, '--json']);
+    const text = readFileSync(bundle, 'utf8');
+    expect(text).toMatch(/zod[\\/]v4[\\/]locales[\\/]en\.js/);
+    expect(text).not.toMatch(/zod[\\/]v4[\\/]locales[\\/]de\.js/);
+    // and a schema error still reads as before (zod's English message through the engine)
+    const bad = path.join(dir, 'bad.json');
+    writeFileSync(bad, JSON.stringify({ format: 'wyeward-circuit', version: 1, frequencyHz: 'sixty', elements: [] }));
+    const r = launch([bad, '--json']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toBe(viaTsx([bad, '--json']).stderr);
   });
 
   it('WYEWARD_CLI_NO_BUNDLE=1 runs the TypeScript through tsx, same output', () => {
