@@ -11,7 +11,7 @@
  * reports it with its message and exit code) or a file the typed path declines go to the full CLI.
  * Same bytes as the full CLI in every case (tests/server/cli/solve-launcher.test.ts).
  */
-import { readFileSync } from 'node:fs';
+import { readText } from './read-text.ts';
 import { printedPrimitiveResultOfText } from '../../shared/engine/typed/printed-scanned.ts';
 import { writePrintedResult } from './printed-write.ts';
 import { printTimings } from './timings.ts';
@@ -35,7 +35,7 @@ export function main(argv: string[]): HandOver | undefined {
   if (!asJson || file === undefined) return {};
   let text: string;
   try {
-    text = readFileSync(file, 'utf8');
+    text = readText(file);
   } catch {
     return {}; // the full CLI reports it
   }

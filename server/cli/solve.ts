@@ -18,10 +18,10 @@
  * solution. Kept light on purpose (it is benchmarked against ngspice): file → parse → solve →
  * write, importing only the engine.
  */
-import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { writePrintedPrimitiveJson, writePrintedResult } from './printed-json.ts';
 import { printTimings } from './timings.ts';
+import { readText } from './read-text.ts';
 // the engine's modules one by one, not its index: the index also loads the demo circuits and the
 // balancing code at start-up, which this CLI never uses
 import { EngineError } from '../../shared/engine/errors.ts';
@@ -227,7 +227,7 @@ export function main(argv: string[], handOver?: { text?: string }): void {
   if (declined) text = handOver.text!;
   else {
     try {
-      text = readFileSync(file, 'utf8');
+      text = readText(file);
     } catch (e) {
       fail(2, `cannot read ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
     }
