@@ -167,8 +167,12 @@ async function leanStart(name, argv) {
   const paths = pathsOf(lean);
   if (!isFresh(paths) && !(await build(paths))) return {};
   let handOver;
-  // its code cache is written after a run it took, so that it holds the compiled typed path
-  const { cli, storeCache } = loadBundle(paths, { storeWhen: () => handOver === undefined });
+  // Its code cache is written by a run it hands over: then it holds what every run needs (the
+  // bundle's top level, main, the scan up to where it declined; 29 KB), and the typed path is
+  // compiled when it runs. Measured: a cache written by a run it took (85 KB, the typed path
+  // compiled too) cost the 10-element file ~300 more page faults (5 700 against 5 400 without
+  // the lean start) and made no measurable difference to the 5 000-bus primitive-only file.
+  const { cli, storeCache } = loadBundle(paths, { storeWhen: () => handOver !== undefined });
   handOver = cli.main(argv);
   storeCache();
   return handOver;
