@@ -11,10 +11,12 @@
  * Exit codes: 0 solved; 2 invalid input (unreadable file, malformed JSON, schema errors);
  * 3 a network that cannot be solved. Errors are one short stderr line naming the element or node,
  * never a stack trace. `--timings` adds one stderr line splitting the run (start-up and imports,
- * read, JSON parse, validate + expand, solve, results, output). Big JSON results are written in
+ * read, JSON parse, validate + expand, solve, results, output; after the lean start handed the
+ * run over, its read and its scan count in start-up, and read shows 0 ms). Big JSON results are written in
  * chunks (see writeJson); a primitive-only file's --json is written straight from arrays
  * (printed-json.ts), by the typed path from the file's text when it takes the file
- * (shared/engine/typed: no JSON.parse, no element objects), else from the general solver's
+ * (shared/engine/typed: no JSON.parse, no element objects; through the launcher that is the
+ * lean start, solve-lean.ts, before this module is even loaded), else from the general solver's
  * solution. Kept light on purpose (it is benchmarked against ngspice): file → parse → solve →
  * write, importing only the engine.
  */
