@@ -19,7 +19,7 @@
  * node_modules/.cache/wyeward-cli); WYEWARD_CLI_NO_BUNDLE=1 forces the tsx path.
  *
  * Lean start: a CLI may have a lean entry (LEAN below: `solve` → server/cli/solve-lean.ts, the typed
- * path of `--json` for primitive-only files, ~0.1 MB without zod or the general engine), bundled and
+ * path of `--json` for primitive-only files, 62 KB: no zod, no general engine), bundled and
  * cached the same way and loaded first. Its main(argv) returns undefined when it did the whole run;
  * otherwise the full bundle runs with main(argv, handOver) (handOver: what the lean start already
  * did, e.g. the file's text). WYEWARD_CLI_NO_LEAN=1 skips the lean start.
