@@ -115,6 +115,45 @@ class ThreadSocket extends Duplex {
   }
 }
 
+/** Most distinct statement texts given a name (and so kept parsed in the database session); later ones run unnamed. */
+export const MAX_NAMED_STATEMENTS = 400;
+
+const statementNames = new Map<string, string>();
+
+/** The name under which `text` is kept prepared (the same text always gets the same name), or undefined past the cap. */
+function statementName(text: string): string | undefined {
+  let name = statementNames.get(text);
+  if (name === undefined && statementNames.size < MAX_NAMED_STATEMENTS) {
+    name = `w${statementNames.size + 1}`;
+    statementNames.set(text, name);
+  }
+  return name;
+}
+
+/**
+ * A node-postgres client that gives every parameterised query (the ones it already sends with the
+ * extended protocol: Parse, Bind, Execute) a statement name from its text. node-postgres then sends
+ * Parse only the first time a connection runs that text, and PGlite keeps the parsed statement and
+ * its plan instead of parsing, analysing and planning it again on every request: the embedded
+ * database's thread is what limits the request rate. Queries without parameters (migrations, which
+ * may hold several statements) stay on the simple protocol, unnamed. A new connection starts with
+ * no statements (pglite-thread.ts deallocates the previous connection's).
+ */
+class NamingClient extends pg.Client {
+  // @ts-expect-error one implementation for node-postgres's overloads
+  override query(config: unknown, values?: unknown, callback?: unknown) {
+    if (typeof config === 'string' || (config !== null && typeof config === 'object' && !('submit' in config))) {
+      const c = (typeof config === 'string' ? { text: config } : config) as pg.QueryConfig;
+      const params = Array.isArray(values) ? values : c.values;
+      if (!c.name && typeof c.text === 'string' && Array.isArray(params) && params.length > 0) {
+        const name = statementName(c.text);
+        if (name) config = { ...c, name };
+      }
+    }
+    return (super.query as (...args: unknown[]) => unknown)(config, values, callback);
+  }
+}
+
 /** Starts the thread, waits until PGlite is open, and returns its pool and controls. */
 export async function startPgliteThread(options: PgliteThreadOptions): Promise<PgliteThread> {
   const state = new SharedArrayBuffer(8);
@@ -178,6 +217,7 @@ export async function startPgliteThread(options: PgliteThreadOptions): Promise<P
 
   const pool = new pg.Pool({
     max: 1,
+    Client: NamingClient as unknown as typeof pg.Client,
     // Never dropped for idleness: the connection costs nothing to keep, and PGlite has only the one session.
     idleTimeoutMillis: 0,
     user: 'postgres',

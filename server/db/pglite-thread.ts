@@ -62,6 +62,8 @@ let txStatus = 'I';
 let atBoundary = true;
 /** The connection whose messages PGlite executed last. */
 let owner: MessagePort | null = null;
+/** Connections started so far (the first finds no prepared statements; later ones must not find their predecessors'). */
+let startups = 0;
 
 async function exec(message: Uint8Array): Promise<Uint8Array> {
   Atomics.store(state, SINCE, Date.now() - data.epoch);
@@ -110,6 +112,7 @@ function serve(conn: MessagePort): void {
   };
   const take = () => {
     const batches: Buffer[] = [];
+    let startupMessage: Buffer | null = null;
     let terminate = false;
     for (;;) {
       if (!started) {
@@ -125,6 +128,7 @@ function serve(conn: MessagePort): void {
         }
         if (code === CANCEL_REQUEST) continue;
         started = true;
+        startupMessage = msg;
         batches.push(msg); // the StartupMessage: PGlite answers it like a server (authentication ok, parameters, ready)
         continue;
       }
@@ -144,7 +148,11 @@ function serve(conn: MessagePort): void {
       break;
     }
     for (const bytes of batches) {
-      serially(() => {
+      const startup = bytes === startupMessage;
+      serially(async () => {
+        // node-postgres names prepared statements per connection (pglite-client.ts): a new connection
+        // begins without any, as on a server, so the previous connection's are dropped first.
+        if (startup && startups++ > 0) await exec(queryMessage('deallocate all'));
         owner = conn;
         return exec(bytes);
       }).then(send, (err: unknown) => {

@@ -134,3 +134,42 @@ export function clusterCpuMs(postmasterPid: number): number {
   }
   return total;
 }
+
+/**
+ * CPU time in ms of each thread of a process, by thread id, from /proc/<pid>/task (the main thread's
+ * id is the pid; the embedded database's thread is the other busy one). Thread names are the
+ * kernel's (`comm`), e.g. "node", "V8 DefaultWorke", "libuv-worker".
+ */
+export function threadCpuMs(pid: number): Map<number, { name: string; ms: number }> {
+  const out = new Map<number, { name: string; ms: number }>();
+  let tids: string[] = [];
+  try {
+    tids = readdirSync(`/proc/${pid}/task`);
+  } catch {
+    return out;
+  }
+  for (const tid of tids) {
+    try {
+      const stat = readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8');
+      const name = stat.slice(stat.indexOf('(') + 1, stat.lastIndexOf(')'));
+      const f = stat.slice(stat.lastIndexOf(') ') + 2).split(' ');
+      out.set(Number(tid), { name, ms: (Number(f[11]) + Number(f[12])) * 10 });
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return out;
+}
+
+/**
+ * The busiest threads between two `threadCpuMs` readings, as "main 3.1, thread 2.9, …" ms per request:
+ * the main thread first, then the others by CPU (the embedded database's thread is normally second).
+ */
+export function threadSplit(pid: number, before: Map<number, { name: string; ms: number }>, after: Map<number, { name: string; ms: number }>, requests: number): string {
+  const rows = [...after].map(([tid, a]) => ({ tid, name: a.name, ms: a.ms - (before.get(tid)?.ms ?? 0) })).filter((r) => r.ms > 0);
+  const main = rows.find((r) => r.tid === pid);
+  const others = rows.filter((r) => r.tid !== pid).sort((a, b) => b.ms - a.ms);
+  const fmt = (r: { name: string; ms: number }, label: string) => `${label} ${(r.ms / requests).toFixed(2)}`;
+  const rest = others.slice(3).reduce((s, r) => s + r.ms, 0);
+  return [main ? fmt(main, 'main thread') : null, ...others.slice(0, 3).map((r) => fmt(r, `"${r.name}"`)), rest > 0 ? `others ${(rest / requests).toFixed(2)}` : null].filter(Boolean).join(', ');
+}

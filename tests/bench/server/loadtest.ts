@@ -17,7 +17,7 @@ import { Agent, request } from 'node:http';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { LOCAL_S3_CREDENTIALS, startLocalS3 } from '../../../server/storage/local-s3.ts';
-import { clusterCpuMs, cpuMs, machineLoad, percentile, rssMb, session, startServer, type BenchServer } from './harness.ts';
+import { clusterCpuMs, cpuMs, machineLoad, percentile, rssMb, session, startServer, threadCpuMs, threadSplit, type BenchServer } from './harness.ts';
 
 const RATE = Number(process.env.LOADTEST_RATE ?? 150);
 const SECONDS = Math.min(900, Number(process.env.LOADTEST_SECONDS ?? 30));
@@ -88,6 +88,7 @@ try {
   const rssBefore = servers.map((s) => rssMb(s.pid));
   const appCpu = () => servers.reduce((sum, s) => sum + cpuMs(s.pid), 0);
   const cpuBefore = appCpu();
+  const threadsBefore = threadCpuMs(server.pid);
   const dbCpuBefore = server.postmasterPid ? clusterCpuMs(server.postmasterPid) : 0;
   const latencies: number[] = [];
   let errors = 0;
@@ -124,12 +125,14 @@ try {
   clearInterval(rssTimer);
   const elapsed = (performance.now() - start) / 1000;
   const cpu = appCpu() - cpuBefore;
+  const threadsAfter = threadCpuMs(server.pid);
   const dbCpu = server.postmasterPid ? clusterCpuMs(server.postmasterPid) - dbCpuBefore : 0;
   const rssAfter = servers.map((s) => rssMb(s.pid));
   const mb = (xs: number[]) => xs.map((x) => x.toFixed(0)).join(' + ');
   console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users); database: ${server.database}${servers.length > 1 ? `; ${servers.length} instances on it with one shared bucket` : ''}`);
   console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (${JSON.stringify([...statuses])})`);
   console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests${servers.length > 1 ? ', all instances' : ''}); RSS ${mb(rssIdle)} MB idle after start, ${mb(rssBefore)} MB after warm-up → ${mb(rssAfter)} MB after the run`);
+  console.log(`  by thread${servers.length > 1 ? ' (first instance)' : ''}, ms per request: ${threadSplit(server.pid, threadsBefore, threadsAfter, total / servers.length)}`);
   if (server.postmasterPid) console.log(`database server CPU ${(dbCpu / total).toFixed(2)} ms per request (${(dbCpu / 1000).toFixed(1)} s)`);
   console.log(machineLoad());
 } finally {

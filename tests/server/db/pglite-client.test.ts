@@ -52,6 +52,19 @@ describe('PGlite in its own thread', () => {
     expect(await queryRows(db, 'select v from left_open order by v')).toEqual([{ v: 2 }]);
   });
 
+  it('keeps parameterised statements prepared per connection, and a new connection starts without the last one’s', async () => {
+    const text = 'select $1::int + 1 as n';
+    const names = async () => (await queryRows<{ name: string; statement: string }>(db, 'select name, statement from pg_prepared_statements')).filter((r) => r.statement === text);
+    expect(await queryRows(db, text, [1])).toEqual([{ n: 2 }]);
+    expect(await queryRows(db, text, [2])).toEqual([{ n: 3 }]);
+    expect(await names()).toHaveLength(1); // parsed once, used twice
+    const client = await poolOf(db).connect();
+    client.release(new Error('connection dropped'));
+    // The next connection names the same text the same way: without the deallocation, PGlite would refuse it as existing.
+    expect(await queryRows(db, text, [3])).toEqual([{ n: 4 }]);
+    expect(await names()).toHaveLength(1);
+  });
+
   it('answers the health probe between statements and inside another connection’s transaction', async () => {
     await expect(pingDb(db)).resolves.toBeUndefined();
     const client = await poolOf(db).connect();
