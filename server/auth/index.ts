@@ -2,7 +2,7 @@
  * Sign-in state for every request: lucia sessions, the caller's team and role, role checks and
  * the same-origin rule. Routes use `requireUser` / `requireRole(min)`; nothing else touches lucia.
  */
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import type { Session, User } from 'lucia';
 import { roleAtLeast, type Role } from '../../shared/api/common.ts';
@@ -52,6 +52,26 @@ const SESSION_ID_RE = /^[a-z0-9]{20,64}$/;
 export function sessionMiddleware(db: Db, lucia: AuthLucia, { maxDays, idleHours }: { maxDays: number; idleHours: number }): RequestHandler {
   const maxMs = maxDays * 24 * 60 * 60 * 1000;
   const idleMs = idleHours * 60 * 60 * 1000;
+  // Built once: the SQL of the one query every signed-in request makes is not assembled again each time.
+  const sessionQuery = db
+    .select({
+      id: sessions.id,
+      userId: sessions.userId,
+      expiresAt: sessions.expiresAt,
+      createdAt: sessions.createdAt,
+      name: users.name,
+      email: users.email,
+      teamId: memberships.teamId,
+      role: memberships.role,
+      teamName: teams.name,
+    })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .leftJoin(memberships, eq(memberships.userId, sessions.userId))
+    .leftJoin(teams, eq(teams.id, memberships.teamId))
+    .where(eq(sessions.id, sql.placeholder('id')))
+    .limit(1)
+    .prepare('session_by_id');
   return async (req, res, next) => {
     res.locals.user = null;
     res.locals.session = null;
@@ -71,24 +91,7 @@ export function sessionMiddleware(db: Db, lucia: AuthLucia, { maxDays, idleHours
     // One query for the session, its user and their team and role (lucia's validateSession and a
     // separate team lookup took two on every request); lucia's rules are kept: an expired session
     // is deleted, one in the second half of its idle span is renewed and its cookie re-sent.
-    const [row] = await db
-      .select({
-        id: sessions.id,
-        userId: sessions.userId,
-        expiresAt: sessions.expiresAt,
-        createdAt: sessions.createdAt,
-        name: users.name,
-        email: users.email,
-        teamId: memberships.teamId,
-        role: memberships.role,
-        teamName: teams.name,
-      })
-      .from(sessions)
-      .innerJoin(users, eq(users.id, sessions.userId))
-      .leftJoin(memberships, eq(memberships.userId, sessions.userId))
-      .leftJoin(teams, eq(teams.id, memberships.teamId))
-      .where(eq(sessions.id, sessionId))
-      .limit(1);
+    const [row] = await sessionQuery.execute({ id: sessionId });
     const now = Date.now();
     if (!row || row.expiresAt.getTime() <= now || now - row.createdAt.getTime() > maxMs) {
       // Unknown, idle past its expiry, or past the absolute maximum however recently used.

@@ -1,6 +1,6 @@
 /**
  * The request thread's side of the embedded database: starts PGlite in its own worker thread
- * (pglite-thread.ts) and connects node-postgres to it, so the app reaches PGlite through the same
+ * (pglite-thread.mjs) and connects node-postgres to it, so the app reaches PGlite through the same
  * driver, pool and Drizzle client as a PostgreSQL server. A connection is a `Duplex` over a
  * MessagePort (node-postgres accepts any stream in place of its socket); the pool holds one, since
  * PGlite has one session (transactions take turns, as before).
@@ -9,6 +9,7 @@
  * other request for its whole length.
  */
 import { Duplex } from 'node:stream';
+import v8 from 'node:v8';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, Worker, type MessagePort } from 'node:worker_threads';
 import pg from 'pg';
@@ -19,6 +20,12 @@ export interface PgliteThreadOptions {
   loadDataDir?: Blob;
   settings: string[];
 }
+
+/** Young generation of the database thread's JavaScript heap (V8's default grows it to 16–48 MB). */
+const YOUNG_GENERATION_MB = 4;
+
+/** Answers, and batches of messages, of at least this many bytes are moved to the other thread (transferred); smaller ones are copied, which costs less. */
+const MOVE_BYTES = 16 * 1024;
 
 /** A statement running for longer than this makes the health probe wait for the thread (and so time out when stuck). */
 export const BUSY_HEALTHY_MS = 1000;
@@ -92,14 +99,14 @@ class ThreadSocket extends Duplex {
   private flushQueued() {
     if (!this.port || this.queued.length === 0) return;
     const total = this.queued.reduce((n, c) => n + c.byteLength, 0);
-    const bytes = new Uint8Array(total); // its own ArrayBuffer (a Buffer may be a slice of a shared pool): moved, not copied
+    const bytes = new Uint8Array(total); // its own ArrayBuffer (a Buffer may be a slice of a shared pool), so a large batch can be moved
     let at = 0;
     for (const c of this.queued) {
       bytes.set(c, at);
       at += c.byteLength;
     }
     this.queued = [];
-    this.port.postMessage(bytes, [bytes.buffer]);
+    this.port.postMessage(bytes, bytes.byteLength >= MOVE_BYTES ? [bytes.buffer] : []);
   }
 
   _final(done: (err?: Error | null) => void) {
@@ -137,7 +144,7 @@ function statementName(text: string): string | undefined {
  * its plan instead of parsing, analysing and planning it again on every request: the embedded
  * database's thread is what limits the request rate. Queries without parameters (migrations, which
  * may hold several statements) stay on the simple protocol, unnamed. A new connection starts with
- * no statements (pglite-thread.ts deallocates the previous connection's).
+ * no statements (pglite-thread.mjs deallocates the previous connection's).
  */
 class NamingClient extends pg.Client {
   // @ts-expect-error one implementation for node-postgres's overloads
@@ -160,11 +167,19 @@ export async function startPgliteThread(options: PgliteThreadOptions): Promise<P
   const flags = new Int32Array(state);
   const epoch = Date.now();
   const loadDataDir = options.loadDataDir ? await options.loadDataDir.arrayBuffer() : undefined;
-  const data: ThreadData = { dataDir: options.dataDir, loadDataDir, settings: options.settings, state, epoch };
-  const worker = new Worker(fileURLToPath(new URL('./pglite-thread-entry.cjs', import.meta.url)), {
+  const data: ThreadData = { dataDir: options.dataDir, loadDataDir, settings: options.settings, state, slots: { busy: BUSY, since: SINCE }, epoch };
+  // PGlite's WebAssembly module is 9 MB, most of which a running app never calls: compiled lazily
+  // (each function when first called, as newer V8 versions do by default) its machine code takes tens
+  // of MB less than compiling all of it at start. A V8 flag of the whole process, read when a module is compiled.
+  v8.setFlagsFromString('--wasm-lazy-compilation');
+  const worker = new Worker(fileURLToPath(new URL('./pglite-thread.mjs', import.meta.url)), {
     workerData: data,
     transferList: loadDataDir ? [loadDataDir] : [],
-    execArgv: ['--import', 'tsx'],
+    // Plain JavaScript: no TypeScript loader in this thread (the process's `--import tsx` is not passed on).
+    execArgv: [],
+    // The thread's own JavaScript is small (PGlite's memory is WebAssembly, outside this heap): a
+    // small young generation keeps it from holding tens of MB it rarely needs.
+    resourceLimits: { maxYoungGenerationSizeMb: YOUNG_GENERATION_MB },
   });
 
   let exited = false;

@@ -1,4 +1,4 @@
-/** What the request thread and the embedded database's thread (pglite-client.ts, pglite-thread.ts) say to each other, besides the wire protocol. */
+/** What the request thread and the embedded database's thread (pglite-client.ts, pglite-thread.mjs) say to each other, besides the wire protocol. */
 import type { MessagePort } from 'node:worker_threads';
 
 export interface ThreadData {
@@ -9,6 +9,8 @@ export interface ThreadData {
   settings: string[];
   /** Int32Array over it: [BUSY] 1 while a statement runs, [SINCE] when it started (ms after `epoch`). */
   state: SharedArrayBuffer;
+  /** Which slots of `state` hold what (BUSY, SINCE below: the thread is plain JavaScript and takes them from here). */
+  slots: { busy: number; since: number };
   epoch: number;
 }
 

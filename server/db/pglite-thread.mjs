@@ -9,29 +9,49 @@
  *
  * `state` (shared memory) tells the request thread, without a round trip, whether a statement is
  * running and since when (the health check reads it; see pglite-client.ts).
+ *
+ * Plain JavaScript on purpose (types in JSDoc, the messages' in pglite-messages.ts): the thread starts
+ * without a TypeScript loader, which would otherwise be loaded into it for this one file (tsx and
+ * its compiled copies: ~14 MB of the idle server's memory, and start-up time).
  */
-import { parentPort, workerData, type MessagePort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
 import { PGlite } from '@electric-sql/pglite';
-import { BUSY, SINCE, type ControlAnswer, type ControlMessage, type ThreadData } from './pglite-messages.ts';
+
+/** @typedef {import('node:worker_threads').MessagePort} MessagePort */
+/** @typedef {import('./pglite-messages.ts').ThreadData} ThreadData */
+/** @typedef {import('./pglite-messages.ts').ControlMessage} ControlMessage */
+/** @typedef {import('./pglite-messages.ts').ControlAnswer} ControlAnswer */
+
+
+/** Answers of at least this many bytes are moved to the request thread (transferred), smaller ones copied. */
+const MOVE_BYTES = 16 * 1024;
 
 const SSL_REQUEST = 80877103;
 const GSS_REQUEST = 80877104;
 const CANCEL_REQUEST = 80877102;
 
-const data = workerData as ThreadData;
+/** @type {ThreadData} */
+const data = workerData;
 const state = new Int32Array(data.state);
-const port = parentPort!;
+const { busy: BUSY, since: SINCE } = data.slots;
+const port = /** @type {import('node:worker_threads').MessagePort} */ (parentPort);
 
 /** One statement (or batch of protocol messages) at a time, in arrival order, whatever the connection. */
-let queue: Promise<unknown> = Promise.resolve();
-function serially<T>(job: () => Promise<T>): Promise<T> {
+/** @type {Promise<unknown>} */
+let queue = Promise.resolve();
+/**
+ * @template T
+ * @param {() => Promise<T>} job
+ * @returns {Promise<T>}
+ */
+function serially(job) {
   const next = queue.then(job);
   queue = next.catch(() => {});
   return next;
 }
 
-/** A simple-protocol Query message. */
-function queryMessage(text: string): Uint8Array {
+/** A simple-protocol Query message. @param {string} text @returns {Uint8Array} */
+function queryMessage(text) {
   const body = Buffer.from(`${text}\0`, 'utf8');
   const m = Buffer.alloc(5 + body.length);
   m[0] = 0x51; // 'Q'
@@ -41,7 +61,8 @@ function queryMessage(text: string): Uint8Array {
 }
 
 /** Whether an answer holds an ErrorResponse, and the transaction status of its closing ReadyForQuery ('' when it has none). */
-function inspect(reply: Uint8Array): { error: boolean; status: string } {
+/** @param {Uint8Array} reply @returns {{ error: boolean, status: string }} */
+function inspect(reply) {
   const b = Buffer.from(reply.buffer, reply.byteOffset, reply.byteLength);
   let error = false;
   let status = '';
@@ -55,17 +76,20 @@ function inspect(reply: Uint8Array): { error: boolean; status: string } {
   return { error, status };
 }
 
-let pglite: PGlite;
+/** @type {PGlite} */
+let pglite;
 /** The session's transaction status after the last ReadyForQuery ('I' idle, 'T' in a transaction, 'E' failed). */
 let txStatus = 'I';
 /** True when the last answer ended with ReadyForQuery: nothing half-sent (a parse without its sync) is pending. */
 let atBoundary = true;
 /** The connection whose messages PGlite executed last. */
-let owner: MessagePort | null = null;
+/** @type {MessagePort | null} */
+let owner = null;
 /** Connections started so far (the first finds no prepared statements; later ones must not find their predecessors'). */
 let startups = 0;
 
-async function exec(message: Uint8Array): Promise<Uint8Array> {
+/** @param {Uint8Array} message @returns {Promise<Uint8Array>} */
+async function exec(message) {
   Atomics.store(state, SINCE, Date.now() - data.epoch);
   Atomics.store(state, BUSY, 1);
   try {
@@ -73,7 +97,8 @@ async function exec(message: Uint8Array): Promise<Uint8Array> {
     // results it never empties (about 0.5 kB of heap per statement, never freed: 60 MB after ten
     // minutes of a busy team); this one hands over the bytes only. Each chunk is a view of WASM
     // memory: copied at once.
-    const parts: Uint8Array[] = [];
+    /** @type {Uint8Array[]} */
+    const parts = [];
     await pglite.execProtocolRawStream(message, { onRawData: (chunk) => parts.push(chunk.slice()) });
     const reply = parts.length === 1 ? parts[0] : Buffer.concat(parts);
     const { status } = inspect(reply);
@@ -86,7 +111,7 @@ async function exec(message: Uint8Array): Promise<Uint8Array> {
 }
 
 /** Leaves no transaction open behind a connection that has gone (so the next one starts clean). */
-async function resetSession(): Promise<void> {
+async function resetSession() {
   if (txStatus !== 'I' || !atBoundary) {
     if (!atBoundary) await exec(Buffer.from([0x53, 0, 0, 0, 4])); // Sync: ends a half-sent extended query
     if (txStatus !== 'I') await exec(queryMessage('rollback'));
@@ -94,8 +119,9 @@ async function resetSession(): Promise<void> {
 }
 
 /** One connection: bytes in, whole messages to PGlite, answers out. */
-function serve(conn: MessagePort): void {
-  let pending: Buffer = Buffer.alloc(0);
+/** @param {MessagePort} conn */
+function serve(conn) {
+  let pending = Buffer.alloc(0);
   let started = false;
   let closed = false;
   const finish = () => {
@@ -107,12 +133,16 @@ function serve(conn: MessagePort): void {
       if (owner === conn) await resetSession();
     }).catch(() => {});
   };
-  const send = (reply: Uint8Array) => {
-    if (!closed && reply.byteLength > 0) conn.postMessage(reply, [reply.buffer as ArrayBuffer]);
+  /** @param {Uint8Array} reply */
+  const send = (reply) => {
+    // A small answer is copied: moving an ArrayBuffer to another thread costs more than copying a few kB.
+    if (!closed && reply.byteLength > 0) conn.postMessage(reply, reply.byteLength >= MOVE_BYTES ? [reply.buffer] : []);
   };
   const take = () => {
-    const batches: Buffer[] = [];
-    let startupMessage: Buffer | null = null;
+    /** @type {Buffer[]} */
+    const batches = [];
+    /** @type {Buffer | null} */
+    let startupMessage = null;
     let terminate = false;
     for (;;) {
       if (!started) {
@@ -155,7 +185,7 @@ function serve(conn: MessagePort): void {
         if (startup && startups++ > 0) await exec(queryMessage('deallocate all'));
         owner = conn;
         return exec(bytes);
-      }).then(send, (err: unknown) => {
+      }).then(send, (/** @type {unknown} */ err) => {
         // PGlite itself failed (not an SQL error, which comes back as an ErrorResponse): drop the connection.
         if (!closed) conn.postMessage({ error: err instanceof Error ? err.message : String(err) });
         finish();
@@ -163,7 +193,7 @@ function serve(conn: MessagePort): void {
     }
     if (terminate) finish();
   };
-  conn.on('message', (chunk: Uint8Array) => {
+  conn.on('message', (/** @type {Uint8Array} */ chunk) => {
     if (closed) return;
     pending = pending.length === 0 ? Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength) : Buffer.concat([pending, chunk]);
     take();
@@ -172,17 +202,19 @@ function serve(conn: MessagePort): void {
 }
 
 /** The health probe: runs `select 1` when the session is between statements (even inside a transaction). */
-async function ping(): Promise<{ ok: boolean; message?: string }> {
+/** @returns {Promise<{ ok: boolean, message?: string }>} */
+async function ping() {
   if (!atBoundary || txStatus === 'E') return { ok: true }; // a client's statement is half-sent: the thread answering is the proof
   const { error } = inspect(await exec(queryMessage('select 1')));
   return error ? { ok: false, message: 'select 1 failed' } : { ok: true };
 }
 
-function answer(a: ControlAnswer, transfer: ArrayBuffer[] = []) {
+/** @param {ControlAnswer} a @param {ArrayBuffer[]} [transfer] */
+function answer(a, transfer = []) {
   port.postMessage(a, transfer);
 }
 
-port.on('message', (m: ControlMessage) => {
+port.on('message', (/** @type {ControlMessage} */ m) => {
   if (m.type === 'connect') return serve(m.port);
   const job =
     m.type === 'ping'
@@ -194,15 +226,15 @@ port.on('message', (m: ControlMessage) => {
             return { ok: true };
           };
   serially(job).then(
-    (r: { ok: boolean; message?: string; dump?: ArrayBuffer }) => {
+    (/** @type {{ ok: boolean, message?: string, dump?: ArrayBuffer }} */ r) => {
       answer({ type: 'done', id: m.id, ...r }, r.dump ? [r.dump] : []);
       if (m.type === 'close') port.close();
     },
-    (err: unknown) => answer({ type: 'done', id: m.id, ok: false, message: err instanceof Error ? err.message : String(err) }),
+    (/** @type {unknown} */ err) => answer({ type: 'done', id: m.id, ok: false, message: err instanceof Error ? err.message : String(err) }),
   );
 });
 
-async function open(): Promise<void> {
+async function open() {
   try {
     pglite = new PGlite({ dataDir: data.dataDir, loadDataDir: data.loadDataDir ? new Blob([data.loadDataDir]) : undefined, postgresqlconf: data.settings });
     await pglite.waitReady;
