@@ -93,6 +93,8 @@ try {
   const latencies: number[] = [];
   let errors = 0;
   const statuses = new Map<number, number>();
+  /** Requests that got no HTTP answer, by the client's error code (ECONNRESET, EPIPE…). */
+  const failures = new Map<string, number>();
   const inFlight: Promise<void>[] = [];
   const start = performance.now();
   const total = RATE * SECONDS;
@@ -115,8 +117,10 @@ try {
           statuses.set(status, (statuses.get(status) ?? 0) + 1);
           if (status >= 400) errors++;
         })
-        .catch(() => {
+        .catch((e: unknown) => {
           errors++;
+          const code = String((e as { code?: unknown }).code ?? (e as Error).message ?? e);
+          failures.set(code, (failures.get(code) ?? 0) + 1);
           latencies.push(performance.now() - t);
         }),
     );
@@ -130,7 +134,7 @@ try {
   const rssAfter = servers.map((s) => rssMb(s.pid));
   const mb = (xs: number[]) => xs.map((x) => x.toFixed(0)).join(' + ');
   console.log(`mixed workload, ${RATE} req/s offered for ${SECONDS} s over ${CONNECTIONS} keep-alive connections (4 demo users); database: ${server.database}${servers.length > 1 ? `; ${servers.length} instances on it with one shared bucket` : ''}`);
-  console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (${JSON.stringify([...statuses])})`);
+  console.log(`achieved ${(total / elapsed).toFixed(1)} req/s; latency p50 ${percentile(latencies, 50).toFixed(1)} ms, p99 ${percentile(latencies, 99).toFixed(1)} ms; errors ${errors} (answers by status ${JSON.stringify([...statuses])}${failures.size ? `; no answer: ${JSON.stringify([...failures])}` : ''})`);
   console.log(`server CPU ${(cpu / total).toFixed(2)} ms per request (${(cpu / 1000).toFixed(1)} s over ${total} requests${servers.length > 1 ? ', all instances' : ''}); RSS ${mb(rssIdle)} MB idle after start, ${mb(rssBefore)} MB after warm-up → ${mb(rssAfter)} MB after the run`);
   console.log(`  by thread${servers.length > 1 ? ' (first instance)' : ''}, ms per request: ${threadSplit(server.pid, threadsBefore, threadsAfter, total / servers.length)}`);
   if (server.postmasterPid) console.log(`database server CPU ${(dbCpu / total).toFixed(2)} ms per request (${(dbCpu / 1000).toFixed(1)} s)`);
