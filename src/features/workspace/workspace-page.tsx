@@ -42,6 +42,7 @@ import { CaseOverlay } from './cases/case-overlay.tsx';
 import { StudyExplorations } from './cases/study-explorations.tsx';
 import { ConflictDialog, LeaveDialog, SaveDialog, ShortcutsDialog } from './editing/dialogs.tsx';
 import { historyReducer, initHistory, type HistoryAction } from './editing/history.ts';
+import { useCommitHeld } from './editing/use-commit-held.ts';
 import { useShortcuts } from './editing/use-shortcuts.ts';
 import { useUnsavedGuard } from './editing/use-unsaved-guard.ts';
 import { PRIVATE_SEP } from './model/canvas-to-circuit.ts';
@@ -104,7 +105,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   const docRef = useRef(doc);
   docRef.current = doc;
   // An edit held for its answer (see runAhead below) goes first: every other change commits it before its own.
-  const flushAhead = useRef<() => void>(() => {});
+  const flushAhead = useRef<() => boolean>(() => false);
   const dispatch = useCallback((a: HistoryAction<WorkspaceDoc>) => {
     flushAhead.current();
     dispatchNow(a);
@@ -145,17 +146,8 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
   shownCircuitRef.current = shownCircuit;
   const activeCaseRef = useRef(activeCase);
   activeCaseRef.current = activeCase;
-  // The user's next key or pointer press commits a held edit first, so nothing they do next (a link
-  // followed, another field, a drag) meets the document without it: the unsaved-changes guard included.
-  useEffect(() => {
-    const commitHeld = () => flushAhead.current();
-    document.addEventListener('pointerdown', commitHeld, true);
-    document.addEventListener('keydown', commitHeld, true);
-    return () => {
-      document.removeEventListener('pointerdown', commitHeld, true);
-      document.removeEventListener('keydown', commitHeld, true);
-    };
-  }, []);
+  // An edit held for its answer reaches the document before anything the user does next (editing/use-commit-held.ts).
+  useCommitHeld(flushAhead);
   /**
    * Runs a value edit (a property, a bus, a conductor opened or closed) like `run`, but sends the
    * circuit it makes to the solver first and draws the edit together with its answer: one render

@@ -40,8 +40,8 @@ export type SolveAhead = (next: CircuitInput, commit: () => void) => void;
 
 export interface LiveSolveControls {
   solveAhead: SolveAhead;
-  /** Commits an edit held by `solveAhead` now (call before dispatching any other change). */
-  flushAhead: () => void;
+  /** Commits an edit held by `solveAhead` now (call before dispatching any other change); true when there was one. */
+  flushAhead: () => boolean;
 }
 
 export interface LiveSolveOptions {
@@ -119,11 +119,12 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
 
   const flushAhead = useCallback(() => {
     const a = ahead.current;
-    if (!a?.commit) return;
+    if (!a?.commit) return false;
     const commit = a.commit;
     a.commit = null;
     clearTimeout(a.timer);
     commit();
+    return true;
   }, []);
 
   const solveAhead = useCallback<SolveAhead>(
