@@ -43,7 +43,7 @@ export function DiffPage({ studyId }: { studyId: string }) {
   const from = readRevision(search.get('from')) ?? (to !== undefined ? Math.max(1, to - 1) : undefined);
   const known = revisions.data ? new Set(revisions.data.items.map((r) => r.number)) : null;
   const missing = known ? [...new Set([from, to].filter((n): n is number => n !== undefined && !known.has(n)))] : [];
-  const backwards = missing.length === 0 && from !== undefined && to !== undefined && from > to;
+  const backwards = known !== null && missing.length === 0 && from !== undefined && to !== undefined && from > to;
   const diff = useDiff(studyId, from, to, revisions.isSuccess && to !== undefined && missing.length === 0 && !backwards);
   // What the address asked for before it was turned round (kept in the history entry, not the address).
   const turned = (location.state as { turned?: { from: number; to: number } } | null)?.turned;

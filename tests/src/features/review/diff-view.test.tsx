@@ -1,6 +1,6 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import type { RevisionDiff } from '../../../../shared/api/revisions.ts';
 import { stubApi } from '../../helpers/fake-api.ts';
 import { me, studyDetail } from '../../helpers/fixtures.ts';
@@ -129,6 +129,12 @@ describe('diff view', () => {
 
     it('a revision that does not exist: a clear message, no comparison, and selects that show no other revision as chosen', async () => {
       const api = stub();
+      // The history arrives after the page's first render and effects: 9 > 2 must not be turned round before it is known that 9 does not exist.
+      const answer = globalThis.fetch;
+      vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+        if (String(input).includes('/revisions')) await new Promise((r) => setTimeout(r, 50));
+        return answer(input, init);
+      });
       renderApp(`/studies/${STUDY_ID}/diff?from=9&to=2`);
       expect(await screen.findByRole('alert')).toHaveTextContent('This study has no revision 9: its revisions are 1 to 5. Choose the two to compare.');
       const from = screen.getByLabelText('From revision') as HTMLSelectElement;
