@@ -15,19 +15,30 @@ function phasorText(re: number, im: number): string {
   return `{"re":${numText(p.re)},"im":${numText(p.im)},"mag":${numText(p.mag)},"angleDeg":${numText(p.angleDeg)}}`;
 }
 
+/** Text pushed in pieces, handed to `write` in chunks of about `chunkChars`; `end` writes the rest. */
+export function chunkedWriter(write: (chunk: string) => void, chunkChars: number): { push: (s: string) => void; end: () => void } {
+  let buf = '';
+  return {
+    push(s) {
+      buf += s;
+      if (buf.length >= chunkChars) {
+        write(buf);
+        buf = '';
+      }
+    },
+    end() {
+      if (buf) write(buf);
+      buf = '';
+    },
+  };
+}
+
 /**
  * Write `r` (from printedPrimitiveResults, or printedPrimitiveResultOfText for the typed path) as
  * the `--json` text through `write`. Its ids and node names must not be special keys (see printed-json.ts).
  */
 export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: string) => void, chunkChars = 1 << 16): void {
-  let buf = '';
-  const push = (s: string) => {
-    buf += s;
-    if (buf.length >= chunkChars) {
-      write(buf);
-      buf = '';
-    }
-  };
+  const { push, end } = chunkedWriter(write, chunkChars);
   // the keys in jsonResult's order; each record by a function of its own (see writeNodes)
   push(`{"format":"wyeward-result","version":1,"conventions":${JSON.stringify(r.conventions)},"nodes":{`);
   writeNodes(r, push);
@@ -35,7 +46,7 @@ export function writePrintedResult(r: PrintedPrimitiveResult, write: (chunk: str
   writeElements(r, push);
   // a primitive-only circuit has no faults
   push(`},"faults":[],"totals":${JSON.stringify(r.totals)},"floating":${JSON.stringify(r.floating)},"flags":${JSON.stringify(r.flags)},"iterations":${JSON.stringify(r.iterations)}}\n`);
-  if (buf) write(buf);
+  end();
 }
 
 /**

@@ -22,6 +22,7 @@
  */
 import { pathToFileURL } from 'node:url';
 import { writePrintedPrimitiveJson, writePrintedResult } from './printed-json.ts';
+import { chunkedWriter } from './printed-write.ts';
 import { printTimings } from './timings.ts';
 import { readText } from './read-text.ts';
 // the engine's modules one by one, not its index: the index also loads the demo circuits and the
@@ -148,14 +149,7 @@ const BATCH = 256;
  * a batch of entries at a time, so a 20 000-bus result (~32 MB) never exists as one string and one buffer.
  */
 export function writeJson(value: Record<string, unknown>, write: (chunk: string) => void, chunkChars = 1 << 20, end = '\n'): void {
-  let buf = '';
-  const push = (s: string) => {
-    buf += s;
-    if (buf.length >= chunkChars) {
-      write(buf);
-      buf = '';
-    }
-  };
+  const { push, end: finish } = chunkedWriter(write, chunkChars);
   push('{');
   let first = true;
   for (const [key, v] of Object.entries(value)) {
@@ -192,7 +186,7 @@ export function writeJson(value: Record<string, unknown>, write: (chunk: string)
     push('}');
   }
   push(`}${end}`);
-  if (buf) write(buf);
+  finish();
 }
 
 /**
