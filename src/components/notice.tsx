@@ -9,9 +9,13 @@ const TONE: Record<Tone, { box: string; sign: string; label: string }> = {
   ok: { box: 'border-ok/40 bg-ok-soft text-ink', sign: '✓', label: 'Done' },
 };
 
-/** A boxed message with a sign and a word for its kind, so colour is never the only cue. */
-export function Notice({ tone = 'info', title, children, role }: { tone?: Tone; title?: ReactNode; children?: ReactNode; role?: 'alert' | 'status' }) {
-  const t = TONE[tone];
+/**
+ * A boxed message with a sign and a word for its kind, so colour is never the only cue. `kind`
+ * replaces that word where the tone's own one would misname the message (a revision's violations
+ * are shown in the error colours but are a warning about the study, not an error of the page).
+ */
+export function Notice({ tone = 'info', kind, title, children, role }: { tone?: Tone; kind?: string; title?: ReactNode; children?: ReactNode; role?: 'alert' | 'status' }) {
+  const t = { ...TONE[tone], ...(kind ? { label: kind } : {}) };
   return (
     <div role={role ?? (tone === 'error' ? 'alert' : undefined)} className={`flex gap-2 rounded-[3px] border px-3 py-2 text-sm ${t.box}`}>
       <span aria-hidden="true" className="num mt-px inline-flex h-4 w-4 shrink-0 items-center justify-center rounded-full border border-current text-[10px] leading-none">

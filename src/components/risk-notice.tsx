@@ -22,7 +22,7 @@ export function RiskNotice({ risk, compact = false }: { risk: RevisionRisk; comp
   return (
     <div className="flex flex-col gap-1.5" data-testid="revision-risk">
       {danger ? (
-        <Notice tone="error" role="status" title={!risk.solved ? `Revision ${risk.revision} does not solve.` : `Revision ${risk.revision} has ${risk.violationCount} violation${risk.violationCount === 1 ? '' : 's'}.`}>
+        <Notice tone="error" kind="Warning" role="status" title={!risk.solved ? `Revision ${risk.revision} does not solve.` : `Revision ${risk.revision} has ${risk.violationCount} violation${risk.violationCount === 1 ? '' : 's'}.`}>
           {!risk.solved ? risk.error : <>The worst: {risk.worst}</>}
         </Notice>
       ) : (
