@@ -5,14 +5,13 @@
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoCircuits } from '../../shared/engine/index.ts';
 import { INT32_MAX, JSON_MAX_DEPTH } from '../../shared/api/limits.ts';
-import { closeDb, type Db } from '../../server/db/index.ts';
-import { accountMail, APP_URL, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
-import { openTestDb } from './test-db.ts';
+import type { Db } from '../../server/db/index.ts';
+import { accountMail, APP_URL, type TestApp } from './helpers.ts';
+import { closeTeamStudy, openTeamStudy, teamStudyCircuit } from './team-study.ts';
 import { deep, toJson } from './fuzz/fuzz-kit.ts';
 
-const circuit = demoCircuits.find((d) => d.key === 'split-phase-120-240')!.circuit;
+const circuit = teamStudyCircuit;
 
 let db: Db;
 let t: TestApp;
@@ -21,18 +20,10 @@ let engineer: TestAgent;
 let studyId: string;
 
 beforeAll(async () => {
-  db = await openTestDb();
-  t = makeApp(db);
-  const team = await makeTeam(db, 'Boundary team');
-  owner = await signedIn(t.app, (await makeUser(db, team, 'owner')).email);
-  engineer = await signedIn(t.app, (await makeUser(db, team, 'engineer')).email);
-  studyId = (await engineer.post('/api/studies').set('Origin', APP_URL).send({ name: 'Boundary study', content: { circuit } })).body.id;
+  ({ db, t, owner, engineer, studyId } = await openTeamStudy('Boundary team', 'Boundary study'));
 });
 
-afterAll(async () => {
-  await t.mailer.close();
-  await closeDb(db);
-});
+afterAll(() => closeTeamStudy({ db, t }));
 
 const json = (agent: TestAgent, method: 'post' | 'patch', url: string, body: string) =>
   agent[method](url).set('Origin', APP_URL).set('Content-Type', 'application/json').send(body);

@@ -8,12 +8,11 @@
  */
 import type TestAgent from 'supertest/lib/agent.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoCircuits } from '../../shared/engine/index.ts';
-import { closeDb, type Db } from '../../server/db/index.ts';
-import { APP_URL, makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
-import { openTestDb } from './test-db.ts';
+import type { Db } from '../../server/db/index.ts';
+import { APP_URL, type TestApp } from './helpers.ts';
+import { closeTeamStudy, openTeamStudy, teamStudyCircuit } from './team-study.ts';
 
-const circuit = demoCircuits.find((d) => d.key === 'split-phase-120-240')!.circuit;
+const circuit = teamStudyCircuit;
 
 let db: Db;
 let t: TestApp;
@@ -22,18 +21,10 @@ let engineer: TestAgent;
 let studyId: string;
 
 beforeAll(async () => {
-  db = await openTestDb();
-  t = makeApp(db);
-  const team = await makeTeam(db, 'Words team');
-  owner = await signedIn(t.app, (await makeUser(db, team, 'owner')).email);
-  engineer = await signedIn(t.app, (await makeUser(db, team, 'engineer')).email);
-  studyId = (await engineer.post('/api/studies').set('Origin', APP_URL).send({ name: 'Words study', content: { circuit } })).body.id;
+  ({ db, t, owner, engineer, studyId } = await openTeamStudy('Words team', 'Words study'));
 });
 
-afterAll(async () => {
-  await t.mailer.close();
-  await closeDb(db);
-});
+afterAll(() => closeTeamStudy({ db, t }));
 
 /** What a person must never read in an error message. */
 const INTERNAL: RegExp[] = [
