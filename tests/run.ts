@@ -7,10 +7,13 @@
  *    setup starts a throwaway cluster from /usr/lib/postgresql/<version>/bin). Running as root with apt-get available, it
  *    installs the missing ones; otherwise it names exactly what is missing and fails. It never
  *    skips those tests silently.
- * 2. Runs every vitest project (shared, server, server-pg, client, e2e) and prints the plain closing line
+ * 2. Runs ESLint over the repository (eslint.config.js: the architecture's import boundaries, the
+ *    TanStack Query and React hooks rules); its result counts as one check, passed or failed.
+ * 3. Runs every vitest project (shared, server, server-pg, client, e2e) and prints the plain closing line
  *    `N passed, N failed` that CI reads.
  *
- * Extra arguments go to vitest (`npm test -- --project shared`).
+ * Extra arguments go to vitest (`npm test -- --project shared`); such a partial run says that it
+ * leaves the lint out (`npm run lint` runs it alone).
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
@@ -54,6 +57,19 @@ if (absent.length > 0) {
   }
 }
 
+let lintPassed = 0;
+let lintFailed = 0;
+if (process.argv.length > 2) {
+  console.log('Lint not run: only part of the suite was asked for (`npm run lint` runs it).');
+} else {
+  console.log('Lint: eslint . (eslint.config.js)');
+  const eslint = path.join(root, 'node_modules', 'eslint', 'bin', 'eslint.js');
+  const lint = spawnSync(process.execPath, [eslint, '.', '--max-warnings=0'], { stdio: 'inherit', cwd: root });
+  if (lint.status === 0) lintPassed = 1;
+  else lintFailed = 1;
+  console.log(lint.status === 0 ? 'Lint passed.' : 'Lint FAILED (see above).');
+}
+
 const resultFile = path.join(root, '.vitest-result.json');
 rmSync(resultFile, { force: true });
 const vitest = path.join(root, 'node_modules', 'vitest', 'vitest.mjs');
@@ -70,6 +86,9 @@ if (existsSync(resultFile)) {
   passed = r.numPassedTests;
   failed = r.numFailedTests;
 }
+const testsRan = passed > 0;
+passed += lintPassed;
+failed += lintFailed;
 console.log(`${passed} passed, ${failed} failed`);
 const rc = run.status ?? 1;
-process.exit(rc !== 0 ? rc : failed > 0 || passed === 0 ? 1 : 0);
+process.exit(rc !== 0 ? rc : failed > 0 || !testsRan ? 1 : 0);

@@ -39,10 +39,11 @@ export function useStudySave(study: StudyDetail, content: (d: WorkspaceDoc) => S
   const [theirs, setTheirs] = useState<StudyDetail | null>(null);
   const [pendingMessage, setPendingMessage] = useState<string | undefined>(undefined);
 
+  const { mutate: saveMutate } = save;
   const doSave = useCallback(
     (snapshot: WorkspaceDoc, message: string | undefined, version: number, onDone?: () => void) => {
       setPendingMessage(message);
-      save.mutate(
+      saveMutate(
         { version, content: content(snapshot), ...(message ? { message } : {}) },
         {
           onSuccess: (saved) => {
@@ -61,7 +62,7 @@ export function useStudySave(study: StudyDetail, content: (d: WorkspaceDoc) => S
         },
       );
     },
-    [save, content],
+    [saveMutate, content],
   );
 
   const loadTheirs = useCallback(() => {

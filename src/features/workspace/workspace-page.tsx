@@ -116,7 +116,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
 
   // ---- save, dirty mark, conflicts ----
   const content = useCallback((d: WorkspaceDoc) => contentOf(d, rf.getViewport()), [rf]);
-  const onLoadTheirs = useCallback((next: WorkspaceDoc) => dispatch({ type: 'reset', next }), []);
+  const onLoadTheirs = useCallback((next: WorkspaceDoc) => dispatch({ type: 'reset', next }), [dispatch]);
   const saving = useStudySave(study, content, onLoadTheirs);
   const { save, baseVersion, theirs } = saving;
   // True while a node is dragged: the dirty key (JSON of the circuit and of every position) is then
@@ -211,13 +211,13 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       if (editable.length === 0) return;
       dispatch({ type: 'update', fn: (cur) => ({ ...cur, nodes: applyNodeChanges(editable, cur.nodes) }) });
     },
-    [locked],
+    [locked, dispatch],
   );
   const onEdgesChange = useCallback((changes: EdgeChange<WorkspaceEdge>[]) => {
     const selects = changes.filter((c) => c.type === 'select');
     if (selects.length === 0) return;
     dispatch({ type: 'update', fn: (cur) => ({ ...cur, edges: applyEdgeChanges(selects, cur.edges) }) });
-  }, []);
+  }, [dispatch]);
   const onConnect = useCallback(
     (c: Connection) => {
       if (locked) return;
@@ -283,10 +283,10 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     save.reset();
     setDialog('save');
   }, [readOnly, save]);
-  const undo = useCallback(() => dispatch({ type: 'undo' }), []);
+  const undo = useCallback(() => dispatch({ type: 'undo' }), [dispatch]);
   /** Set by undo and redo for the render they cause (see the results panel's selection below). */
   const historyMove = useRef(false);
-  const redo = useCallback(() => dispatch({ type: 'redo' }), []);
+  const redo = useCallback(() => dispatch({ type: 'redo' }), [dispatch]);
 
   useShortcuts(locked, {
     undo: () => ((historyMove.current = true), undo()),
@@ -344,7 +344,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
       const nodeId = conversion.map.busToNode[id] ?? conversion.map.elementToNode[id] ?? id;
       dispatch({ type: 'update', fn: (cur) => commands.selectOnly(cur, nodeId) });
     },
-    [conversion.map],
+    [conversion.map, dispatch],
   );
 
   // The conversion is reused while node data and ids stay the same (a drag), so it keys the bus list.
@@ -360,7 +360,7 @@ function Workspace({ study, role, onSelectionChange, pins }: WorkspacePageProps)
     if (dragStart.current) dispatch({ type: 'mark', before: dragStart.current });
     dragStart.current = null;
     setDragging(false);
-  }, []);
+  }, [dispatch]);
 
   const layout = useMemo(() => readLayout(study.content.layout), [study.content.layout]);
   // A study opened empty starts at 100 % (a fit would blow its first node up to the fit's maximum zoom).

@@ -125,7 +125,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
     } catch (e) {
       return { problem: (e as Error).message };
     }
-  }, [params, outputs, chosenKeys]);
+  }, [params, outputs, chosenKeys, server]);
 
   const start = (where: 'browser' | 'server' = 'browser') => {
     if (!('specs' in plan) || !plan.specs || !circuit) return;

@@ -102,6 +102,7 @@ export function useLiveSolve(circuit: CircuitInput | null, options: LiveSolveOpt
   const postedLimitsKey = useRef<string | null>(null);
   // Limits compared by value, so an inline object literal does not re-solve on every render.
   const limitsKey = JSON.stringify(limits ?? null);
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- limitsKey is the limits' value: a new object with the same value keeps the memo
   const stableLimits = useMemo(() => limits, [limitsKey]);
   const current = useRef({ limitsKey, limits: stableLimits });
   current.current = { limitsKey, limits: stableLimits };
