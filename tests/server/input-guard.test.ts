@@ -13,15 +13,8 @@ import { deep, toJson } from './fuzz/fuzz-kit.ts';
 
 const circuit = teamStudyCircuit;
 
-let db: Db;
-let t: TestApp;
-let owner: TestAgent;
-let engineer: TestAgent;
-let studyId: string;
-
-beforeAll(async () => {
-  ({ db, t, owner, engineer, studyId } = await openTeamStudy('Boundary team', 'Boundary study'));
-});
+let db: Db, t: TestApp, owner: TestAgent, engineer: TestAgent, studyId: string;
+beforeAll(async () => void ({ db, t, owner, engineer, studyId } = await openTeamStudy('Boundary team', 'Boundary study')));
 
 afterAll(() => closeTeamStudy({ db, t }));
 

@@ -14,15 +14,8 @@ import { closeTeamStudy, openTeamStudy, teamStudyCircuit } from './team-study.ts
 
 const circuit = teamStudyCircuit;
 
-let db: Db;
-let t: TestApp;
-let owner: TestAgent;
-let engineer: TestAgent;
-let studyId: string;
-
-beforeAll(async () => {
-  ({ db, t, owner, engineer, studyId } = await openTeamStudy('Words team', 'Words study'));
-});
+let db: Db, t: TestApp, owner: TestAgent, engineer: TestAgent, studyId: string;
+beforeAll(async () => void ({ db, t, owner, engineer, studyId } = await openTeamStudy('Words team', 'Words study')));
 
 afterAll(() => closeTeamStudy({ db, t }));
 
