@@ -80,7 +80,11 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     expect(await sweep.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('value')).toBe('12');
 
     const [download] = await Promise.all([page.waitForEvent('download'), sweep.getByRole('link', { name: 'Export CSV' }).click()]);
-    const csv = readFileSync((await download.path())!, 'utf8').trim().split('\n');
+    const text1 = readFileSync((await download.path())!, 'utf8');
+    // CRLF line ends, as the product's other CSV exports; no bare CR or LF
+    expect(text1.endsWith('\r\n')).toBe(true);
+    expect(text1.replace(/\r\n/g, '')).not.toMatch(/[\r\n]/);
+    const csv = text1.slice(0, -2).split('\r\n');
     expect(csv[0]).toMatch(/^# Caution: .*lost neutral/i);
     const header = csv[1].split(',');
     expect(header[0]).toBe('KITCHEN every phase › P (kW)');
@@ -176,7 +180,7 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     expect(await heat.locator('image').count()).toBe(1);
     expect(await heat.locator('rect').count()).toBeLessThanOrEqual(1);
     const [download3] = await Promise.all([page.waitForEvent('download'), sweep3.getByRole('link', { name: 'Export CSV' }).click()]);
-    const csv3 = readFileSync((await download3.path())!, 'utf8').trim().split('\n');
+    const csv3 = readFileSync((await download3.path())!, 'utf8').slice(0, -2).split('\r\n');
     const h3 = csv3[1].split(',');
     expect(h3.slice(0, 2)).toEqual(['KITCHEN every phase › P (kW)', 'HEATER every phase › P (kW)']);
     const heaterCol = h3.indexOf('HEATER terminal voltage (pu)');

@@ -88,11 +88,18 @@ describe('sweep worker handler', () => {
 
   it('CSV: the caution first, units in the header, one row per point with its status', () => {
     const csv = sweepCsv(['KITCHEN every phase › P (kW)'], outputs.slice(0, 1), [[1], [2]], [{ outputs: [0.98] }, { outputs: [null], error: 'cannot be solved' }]);
-    const lines = csv.trim().split('\n');
+    // CRLF line ends, as the product's other CSV exports (shared/report/csv.ts); no bare CR or LF
+    expect(csv.endsWith('\r\n')).toBe(true);
+    expect(csv.replace(/\r\n/g, '')).not.toMatch(/[\r\n]/);
+    const lines = csv.slice(0, -2).split('\r\n');
+    expect(lines).toHaveLength(4);
     expect(lines[0]).toBe(CSV_CAUTION);
     expect(lines[1]).toBe(`KITCHEN every phase › P (kW),${outputs[0].label} (${outputs[0].unit}),status`);
     expect(lines[2]).toBe('1,0.98,ok');
     expect(lines[3]).toBe('2,,does not solve: cannot be solved');
+    // a message with a line break or a quote stays in its one quoted cell
+    const broken = sweepCsv(['x'], outputs.slice(0, 1), [[1]], [{ outputs: [null], error: 'one\rtwo\r\nthree, "four"' }]);
+    expect(broken.endsWith('1,,"does not solve: one\rtwo\r\nthree, ""four"""\r\n')).toBe(true);
   });
 });
 
