@@ -100,6 +100,15 @@ describe('cases, sweeps and the envelope in a real browser', () => {
       expect(cells[cells.length - 1]).toBe('ok');
     }
     await screenshot(page, 'sweep-1d');
+    // the line chart is drawn on its canvas: pixels of the line's colour (#1f5f8b) along it
+    const linePixels = await sweep.getByRole('img', { name: /^KITCHEN terminal voltage \(pu\) against/ }).evaluate((el) => {
+      const c = el as HTMLCanvasElement;
+      const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
+      let n = 0;
+      for (let i = 0; i < d.length; i += 4) if (Math.abs(d[i] - 0x1f) < 24 && Math.abs(d[i + 1] - 0x5f) < 24 && Math.abs(d[i + 2] - 0x8b) < 24) n++;
+      return n;
+    });
+    expect(linePixels).toBeGreaterThan(100);
     // the results tables are painted in a layer of their own (an isolated ancestor the sweep panel is outside of), so a redrawn sweep chart does not repaint them
     const layers = await page.evaluate(() => {
       const isolatedAncestor = (el: Element | null) => {

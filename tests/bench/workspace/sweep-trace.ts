@@ -66,7 +66,8 @@ export function printTrace(events: TraceEvent[], gaps: Gap[], log: (s: string) =
   }
   const onMain = events.filter((e) => e.tid === main.tid && e.pid === main.pid && e.ph === 'X' && e.dur !== undefined);
   const t0 = mark.ts;
-  const tasks = onMain.filter((e) => (e.name === 'ThreadControllerImpl::RunTask' || e.name === 'RunTask') && e.ts >= t0).sort((a, b) => a.ts - b.ts);
+  // from the task the Run click ran in (the mark is made inside it)
+  const tasks = onMain.filter((e) => (e.name === 'ThreadControllerImpl::RunTask' || e.name === 'RunTask') && e.ts + (e.dur ?? 0) >= t0).sort((a, b) => a.ts - b.ts);
   // nested RunTask events (a task inside a task) are counted once, by the outer one
   const top: TraceEvent[] = [];
   for (const t of tasks) if (!top.length || t.ts >= top[top.length - 1].ts + (top[top.length - 1].dur ?? 0)) top.push(t);
@@ -84,25 +85,31 @@ export function printTrace(events: TraceEvent[], gaps: Gap[], log: (s: string) =
   }
   log('  main thread by event (inclusive, ms on a core / in all):');
   for (const [k, [c, a]] of [...sums].sort((x, y) => y[1][0] - x[1][0]).slice(0, 14)) log(`    ${c.toFixed(0).padStart(6)} / ${a.toFixed(0).padStart(6)}  ${k}`);
+  // a task's largest parts, each as time on a core / in all (ms)
   const parts = (t: TraceEvent) => {
     const inside = onMain.filter((e) => e !== t && e.ts >= t.ts && e.ts + (e.dur ?? 0) <= t.ts + (t.dur ?? 0) && e.name !== 'ThreadControllerImpl::RunTask' && e.name !== 'RunTask');
     return inside
-      .sort((a, b) => (b.dur ?? 0) - (a.dur ?? 0))
-      .slice(0, 5)
-      .map((e) => `${words(e)} ${((e.dur ?? 0) / 1000).toFixed(0)}`)
+      .sort((a, b) => (b.tdur ?? b.dur ?? 0) - (a.tdur ?? a.dur ?? 0))
+      .slice(0, 6)
+      .map((e) => `${words(e)} ${((e.tdur ?? 0) / 1000).toFixed(1)}/${((e.dur ?? 0) / 1000).toFixed(0)}`)
       .join('; ');
   };
+  const ms = (t: TraceEvent) => `${((t.tdur ?? 0) / 1000).toFixed(1)} ms on a core, ${((t.dur ?? 0) / 1000).toFixed(0)} ms in all`;
   const long = top.filter((t) => (t.dur ?? 0) > 50_000);
   log(`  main-thread tasks > 50 ms: ${long.length}`);
-  for (const t of long) log(`    +${((t.ts - t0) / 1000).toFixed(0)} ms: ${((t.dur ?? 0) / 1000).toFixed(0)} ms — ${parts(t)}`);
+  for (const t of long) log(`    +${((t.ts - t0) / 1000).toFixed(0)} ms: ${ms(t)} — ${parts(t)}`);
+  const heavy = top.filter((t) => (t.tdur ?? 0) > 8_000);
+  log(`  main-thread tasks over 8 ms on a core: ${heavy.length}`);
+  for (const t of heavy) log(`    +${((t.ts - t0) / 1000).toFixed(0)} ms: ${ms(t)} — ${parts(t)}`);
   const late = gaps.filter((g) => g.ms > 50);
   log(`  late frames (gap > 50 ms): ${late.length}`);
   for (const g of late) {
     const a = t0 + (g.at - g.ms) * 1000;
     const b = t0 + g.at * 1000;
     const over = top.filter((t) => t.ts < b && t.ts + (t.dur ?? 0) > a);
-    const ms = over.reduce((n, t) => n + (Math.min(b, t.ts + (t.dur ?? 0)) - Math.max(a, t.ts)) / 1000, 0);
+    const busy = over.reduce((n, t) => n + (Math.min(b, t.ts + (t.dur ?? 0)) - Math.max(a, t.ts)) / 1000, 0);
     const big = over.sort((x, y) => (y.dur ?? 0) - (x.dur ?? 0))[0];
-    log(`    +${(g.at - g.ms).toFixed(0)}…${g.at.toFixed(0)} ms (${g.ms.toFixed(0)} ms): main thread busy ${ms.toFixed(0)} ms${big ? `; largest task ${((big.dur ?? 0) / 1000).toFixed(0)} ms — ${parts(big)}` : ''}`);
+    const cpu = over.reduce((n, t) => n + (t.tdur ?? 0) / 1000, 0);
+    log(`    +${(g.at - g.ms).toFixed(0)}…${g.at.toFixed(0)} ms (${g.ms.toFixed(0)} ms): main thread busy ${busy.toFixed(0)} ms (its tasks ${cpu.toFixed(1)} ms on a core)${big ? `; largest task ${ms(big)} — ${parts(big)}` : ''}`);
   }
 }

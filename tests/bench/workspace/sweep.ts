@@ -12,10 +12,11 @@
  * Frame gaps are reported as a distribution (longest, count over 50 ms, p50/p95/p99, buckets) and
  * counted from the Run click until the finished run has been painted.
  * Run: `node --import tsx tests/bench/workspace/sweep.ts` (SWEEP_RUNS=n runs per size, default 2;
- * SWEEP_LATE=1 lists when each late frame happened; SWEEP_TRACE=1 (or =<points>) also prints where
+ * SWEEP_LATE=1 lists when each late frame happened; every run prints chromium's CPU by kind of thread
+ * from /proc (SWEEP_THREADS=1: by thread); SWEEP_TRACE=1 (or =<points>) also prints where
  * the page's main thread spent a 10 000-point run, from a chromium trace: its tasks over 50 ms and,
  * per late frame, how busy the main thread was; SWEEP_TRACE_FILE=<path> writes the
- * trace's events there; SWEEP_CONTAIN=<selector> gives those elements paint
+ * trace's events there, SWEEP_TRACE_CATEGORIES=<list> sets the trace categories; SWEEP_CONTAIN=<selector> gives those elements paint
  * containment (experiments); SWEEP_2D=1 sweeps two parameters instead, 100 × 100 points (heat maps); SWEEP_PROFILE=1 the page's JavaScript by function).
  */
 import { execSync } from 'node:child_process';
@@ -24,6 +25,7 @@ import { cpus } from 'node:os';
 import type { Page } from 'playwright-core';
 import { startBenchProduct } from './bench-product.ts';
 import { study300 } from './study-300.ts';
+import { chromiumThreadCpu, threadCpuDelta } from './proc-threads.ts';
 import { gapStats, printTrace, type Gap, type GapStats, type TraceEvent } from './sweep-trace.ts';
 
 const RUNS = Number(process.env.SWEEP_RUNS ?? 2);
@@ -43,6 +45,29 @@ interface Measured {
   gaps: Gap[];
   stats: GapStats;
   tasks: number[];
+  /** CPU ms of chromium's threads from the Run click to the end, by thread. */
+  threads: [string, number][];
+}
+
+/** Chromium's CPU by kind of thread: the page's main thread, the sweep workers, the compositor, raster, the GPU process, the rest. */
+function threadSummary(threads: [string, number][]): string {
+  const groups: [string, RegExp][] = [
+    ['main', /^renderer:\d+ (CrRendererMain|chromium)$/],
+    ['sweep workers', /^renderer:\d+ (DedicatedWorker|wyeward-sweep)/],
+    ['compositor', /^renderer:\d+ Compositor$/],
+    ['raster', /^renderer:\d+ CompositorTile/],
+    ['thread pool (V8 GC and compilation, raster)', /^renderer:\d+ ThreadPool/],
+    ['GPU process', /^gpu-process:/],
+    ['browser', /^browser:/],
+  ];
+  const sums = groups.map(() => 0);
+  let other = 0;
+  for (const [k, ms] of threads) {
+    const g = groups.findIndex(([, re]) => re.test(k));
+    if (g >= 0) sums[g] += ms;
+    else other += ms;
+  }
+  return [...groups.map(([name], i) => `${name} ${sums[i]}`), `other ${other}`].join(', ') + ' ms';
 }
 
 /** Runs a sweep of `points` in all (one parameter of that many points, or with SWEEP_2D two of its square root each). */
@@ -55,6 +80,7 @@ async function sweep(page: Page, points: number): Promise<Measured> {
   } else await panel.getByLabel('Parameter 1 points').fill(String(points));
   const marks = (await page.evaluate(`performance.getEntriesByName('sweep-done').length`)) as number;
   await page.evaluate(`(() => { window.__frames.gaps = []; window.__frames.tasks = []; window.__frames.last = 0; window.__frames.armed = true; })()`);
+  const cpu0 = chromiumThreadCpu();
   await panel.getByRole('button', { name: `Run sweep (${points} points)` }).click();
   // while it runs, only a cheap look at the page's marks (a query over the whole page every poll would be work on the page's thread)
   await page.waitForFunction((n) => performance.getEntriesByName('sweep-done').length > n, marks, { timeout: 600_000, polling: 250 });
@@ -65,9 +91,10 @@ async function sweep(page: Page, points: number): Promise<Measured> {
   const { gaps, tasks, start } = (await page.evaluate(
     `(() => { window.__frames.armed = false; const m = performance.getEntriesByName('sweep-start'); return { gaps: window.__frames.gaps, tasks: window.__frames.tasks, start: m.length ? m[m.length - 1].startTime : 0 }; })()`,
   )) as { gaps: [number, number][]; tasks: number[]; start: number };
+  const threads = threadCpuDelta(cpu0, chromiumThreadCpu());
   const text = await panel.getByRole('status').first().textContent();
   const seconds = Number(/in ([\d.]+) s/.exec(text ?? '')?.[1]);
-  return { seconds, gaps: gaps.map(([t, ms]) => ({ at: t - start, ms })), stats: gapStats(gaps.map((g) => g[1])), tasks };
+  return { seconds, gaps: gaps.map(([t, ms]) => ({ at: t - start, ms })), stats: gapStats(gaps.map((g) => g[1])), tasks, threads };
 }
 
 const product = await startBenchProduct('sweep', { initScript: FRAMES });
@@ -106,7 +133,7 @@ try {
     const events: TraceEvent[] = [];
     cdp.on('Tracing.dataCollected', (e) => void events.push(...(e.value as unknown as TraceEvent[])));
     const finished = new Promise((r) => cdp.once('Tracing.tracingComplete', r));
-    await cdp.send('Tracing.start', { categories: 'toplevel,devtools.timeline,blink.user_timing', transferMode: 'ReportEvents' });
+    await cdp.send('Tracing.start', { categories: process.env.SWEEP_TRACE_CATEGORIES ?? 'toplevel,devtools.timeline,blink.user_timing', transferMode: 'ReportEvents' });
     const m = await sweep(page, Number(process.env.SWEEP_TRACE) > 1 ? Number(process.env.SWEEP_TRACE) : 10000);
     await cdp.send('Tracing.end');
     await finished;
@@ -141,6 +168,8 @@ try {
       const line = `| ${n.toLocaleString('en')} | ${m.seconds.toFixed(2)} s | ${Math.round(n / m.seconds)} | ${s.max.toFixed(0)} ms | ${s.over50} of ${s.frames} | ${s.p50.toFixed(0)} / ${s.p95.toFixed(0)} / ${s.p99.toFixed(0)} ms | ${s.buckets.join(', ')} | ${m.tasks.length}, longest ${Math.max(0, ...m.tasks).toFixed(0)} ms | ${uptime().replace(/.*load average: /, '')} |`;
       rows.push(line);
       console.log(line);
+      console.log(`    CPU by thread (/proc, Run to painted): ${threadSummary(m.threads)}`);
+      if (process.env.SWEEP_THREADS) for (const [k, ms] of m.threads) console.log(`      ${String(ms).padStart(6)} ms  ${k}`);
       if (process.env.SWEEP_LATE) for (const g of m.gaps.filter((x) => x.ms > 50)) console.log(`    late frame: +${(g.at - g.ms).toFixed(0)}…${g.at.toFixed(0)} ms after Run (${g.ms.toFixed(0)} ms)`);
     }
   }

@@ -9,20 +9,59 @@
  * from the sweep's store. Pure (no DOM).
  */
 
-export interface LineSeriesOptions {
-  /** The pixel column of a parameter value (the chart's x scale, rounded). */
-  column: (x: number) => number;
-  /** Up to this many points, every point is drawn (each is its own column). */
-  keepAll: number;
+/**
+ * The points grouped by pixel column (in point order): what every output's series over the same
+ * parameter values shares, so a chart per output costs one pass over the points, not one each.
+ */
+export interface Columns {
+  /** First point of each column, and one past the last. */
+  readonly starts: Int32Array;
+  /** Column of each point. */
+  readonly colOf: Int32Array;
+  /** The chart's x scale the columns were made with (pixels of the drawing), when known. */
+  readonly scale?: (x: number) => number;
+}
+
+/**
+ * Groups points by the pixel column their parameter value falls in (`column`: the chart's x scale,
+ * rounded); up to `keepAll` points, each is its own column (every point drawn).
+ */
+export function columnsOf(xs: readonly number[], column: (x: number) => number, keepAll: number, scale?: (x: number) => number): Columns {
+  const n = xs.length;
+  const colOf = new Int32Array(n);
+  const starts: number[] = [];
+  let last = NaN;
+  for (let i = 0; i < n; i++) {
+    const c = n <= keepAll ? i : column(xs[i]);
+    if (i === 0 || c !== last) starts.push(i);
+    last = c;
+    colOf[i] = starts.length - 1;
+  }
+  starts.push(n);
+  return { starts: Int32Array.from(starts), colOf, ...(scale ? { scale } : {}) };
+}
+
+export type LineSeriesOptions = (
+  | {
+      /** The pixel column of a parameter value (the chart's x scale, rounded). */
+      column: (x: number) => number;
+      /** Up to this many points, every point is drawn (each is its own column). */
+      keepAll: number;
+      columns?: undefined;
+    }
+  | { columns: Columns }
+) & {
   /** Whether a value breaks the output's limit (the first such point is called out). */
   breaks?: (v: number) => boolean;
-}
+};
 
 export class LineSeries {
   /** First point of each column (columns in point order), and one past the last. */
-  private readonly starts: number[] = [];
+  private readonly starts: Int32Array;
   /** Column of each point. */
   private readonly colOf: Int32Array;
+  /** The chart's x scale, when the columns were made with one. */
+  readonly scale?: (x: number) => number;
   private readonly seen: Uint8Array;
   private readonly arrived: Int32Array;
   private readonly finite: Int32Array;
@@ -44,15 +83,11 @@ export class LineSeries {
     options: LineSeriesOptions,
   ) {
     const n = xs.length;
-    this.colOf = new Int32Array(n);
-    let last = NaN;
-    for (let i = 0; i < n; i++) {
-      const c = n <= options.keepAll ? i : options.column(xs[i]);
-      if (i === 0 || c !== last) this.starts.push(i);
-      last = c;
-      this.colOf[i] = this.starts.length - 1;
-    }
-    this.starts.push(n);
+    const columns = options.columns ?? columnsOf(xs, options.column, options.keepAll);
+    if (columns.colOf.length !== n) throw new RangeError(`columns made for ${columns.colOf.length} points, not ${n}`);
+    this.starts = columns.starts;
+    this.colOf = columns.colOf;
+    this.scale = columns.scale;
     const cols = this.starts.length - 1;
     this.seen = new Uint8Array(n);
     this.arrived = new Int32Array(cols);

@@ -1,13 +1,14 @@
 /**
- * Sweep charts, one per recorded output: a line (d3-shape) over one parameter, or a heat map over
- * two, with the limit set's bands drawn (warning band amber, beyond the violation limit red) and,
- * on a line, the first point that breaks the limit called out. A click picks the nearest point
- * (line) or the cell (heat map), so it can be made a case.
+ * Sweep charts, one per recorded output: a line (d3-shape, drawn on a canvas) over one parameter,
+ * or a heat map over two, with the limit set's bands drawn (warning band amber, beyond the
+ * violation limit red) and, on a line, the first point that breaks the limit called out (and named
+ * in the caption). A click picks the nearest point (line) or the cell (heat map), so it can be made
+ * a case.
  */
 import { line } from 'd3-shape';
-import { memo, useMemo, type MouseEvent } from 'react';
+import { memo, useLayoutEffect, useMemo, useRef, type MouseEvent } from 'react';
 import { breaksLimit, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
-import { LineSeries } from './line-series.ts';
+import { columnsOf, LineSeries, type Columns } from './line-series.ts';
 
 const W = 460;
 const H = 210;
@@ -52,9 +53,14 @@ export const xScale = (xs: readonly number[], log?: boolean): Scale => {
  * A line series for one output (see line-series.ts) at this chart's resolution: every point when
  * there are few, else at most about four per pixel column. `ys` is the store's array (NaN: none).
  */
-export function lineSeries(xs: readonly number[], ys: ArrayLike<number>, output: Pick<SweepOutput, 'violation'>, log?: boolean): LineSeries {
+export function lineSeries(xs: readonly number[], ys: ArrayLike<number>, output: Pick<SweepOutput, 'violation'>, log?: boolean, columns: Columns = lineColumns(xs, log)): LineSeries {
+  return new LineSeries(xs, ys, { columns, breaks: (v) => breaksLimit(output, v) });
+}
+
+/** A line chart's pixel columns over these parameter values (shared by the series of every output of one sweep). */
+export function lineColumns(xs: readonly number[], log?: boolean): Columns {
   const x = xScale(xs, log);
-  return new LineSeries(xs, ys, { column: (v) => Math.round(x(v)), keepAll: 2 * IW, breaks: (v) => breaksLimit(output, v) });
+  return columnsOf(xs, (v) => Math.round(x(v)), 2 * IW, x);
 }
 
 /** The points a line over these values draws (all of them when there are few; per pixel column of `x` the first, lowest, highest and last). */
@@ -75,89 +81,199 @@ export interface LineChartProps {
   onPick?: (index: number) => void;
 }
 
-export const SweepLineChart = memo(function SweepLineChart({ xLabel, series, version, output, log, picked, onPick }: LineChartProps) {
+/** A limit band: the part of the plot between two values of the output (pixels of the drawing). */
+export interface Band {
+  y: number;
+  height: number;
+  fill: string;
+}
+
+/** What a line chart draws, in the drawing's pixels (W × H): computed from the series, drawn on a canvas. Pure. */
+export interface LineGeometry {
+  x: Scale;
+  y: Scale;
+  /** Limit bands: beyond the violation limits red, between a violation and a warning limit amber. */
+  bands: Band[];
+  /** The line as runs of points without a gap between them, each point [x, y]. */
+  runs: [number, number][][];
+  /** The first point (in point order) whose value breaks the limit; -1 when none. */
+  first: number;
+}
+
+const VIOLATION_FILL = '#f3d3cf';
+const WARNING_FILL = '#f6e7c4';
+
+/**
+ * The geometry of a line chart: scales (the y range takes in the nearest limits when they are close
+ * to the data), limit bands, the line as runs between gaps (points not solved yet, or that failed),
+ * and the first limit crossing. O(points drawn): the series keeps at most about four points per
+ * pixel column, so this costs the same for 1 000 and 10 000 points.
+ */
+export function lineGeometry(series: LineSeries, output: Pick<SweepOutput, 'violation' | 'warning'>, log?: boolean): LineGeometry {
   const { xs, ys } = series;
-  const g = useMemo(() => {
-    let lo = series.lo;
-    let hi = series.hi;
-    if (!(hi >= lo)) [lo, hi] = [0, 1];
-    // show the nearest limit lines when they are close to the data
-    const span = Math.max(hi - lo, Math.abs(hi) * 0.02, 1e-9);
-    for (const b of [...output.violation, ...(output.warning ?? [])]) if (Number.isFinite(b) && b > lo - span && b < hi + span) [lo, hi] = [Math.min(lo, b), Math.max(hi, b)];
-    const pad = (hi - lo) * 0.06 || Math.abs(hi) * 0.05 || 1;
-    const x = xScale(xs, log);
-    const y = scale(lo - pad, hi + pad, M.t + IH, M.t);
-    const path = line<number>()
-      .defined((i) => Number.isFinite(ys[i]))
-      .x((i) => x(xs[i]))
-      .y((i) => y(ys[i]))(series.indices());
-    return { x, y, path, first: series.firstBreak, y0: lo - pad, y1: hi + pad };
-    // eslint-disable-next-line react-hooks/exhaustive-deps -- version stands for the points added to the series in place
-  }, [series, version, output, log]);
-  const { x, y } = g;
-  const band = (a: number, b: number, fill: string, key: string) => {
-    const top = Math.max(Math.min(a, b), g.y0);
-    const bot = Math.min(Math.max(a, b), g.y1);
-    if (!(bot > top)) return null;
-    return <rect key={key} x={M.l} width={IW} y={y(bot)} height={y(top) - y(bot)} fill={fill} />;
+  let lo = series.lo;
+  let hi = series.hi;
+  if (!(hi >= lo)) [lo, hi] = [0, 1];
+  // show the nearest limit lines when they are close to the data
+  const span = Math.max(hi - lo, Math.abs(hi) * 0.02, 1e-9);
+  for (const b of [...output.violation, ...(output.warning ?? [])]) if (Number.isFinite(b) && b > lo - span && b < hi + span) [lo, hi] = [Math.min(lo, b), Math.max(hi, b)];
+  const pad = (hi - lo) * 0.06 || Math.abs(hi) * 0.05 || 1;
+  const x = (series.scale as Scale | undefined) ?? xScale(xs, log);
+  const y0 = lo - pad;
+  const y1 = hi + pad;
+  const y = scale(y0, y1, M.t + IH, M.t);
+  const bands: Band[] = [];
+  const band = (a: number, b: number, fill: string) => {
+    const top = Math.max(Math.min(a, b), y0);
+    const bot = Math.min(Math.max(a, b), y1);
+    if (bot > top) bands.push({ y: y(bot), height: y(top) - y(bot), fill });
   };
   const [vlo, vhi] = output.violation;
-  const w = output.warning;
-  const pick = (clientX: number, svg: SVGSVGElement) => {
-    const box = svg.getBoundingClientRect();
-    const px = ((clientX - box.left) / box.width) * W;
-    let best = 0;
-    xs.forEach((v, i) => (Math.abs(x(v) - px) < Math.abs(x(xs[best]) - px) ? (best = i) : null));
-    onPick?.(best);
+  band(-Infinity, vlo, VIOLATION_FILL);
+  band(vhi, Infinity, VIOLATION_FILL);
+  if (output.warning) {
+    band(vlo, output.warning[0], WARNING_FILL);
+    band(output.warning[1], vhi, WARNING_FILL);
+  }
+  const runs: [number, number][][] = [];
+  let run: [number, number][] | null = null;
+  for (const i of series.indices()) {
+    const v = ys[i];
+    if (!Number.isFinite(v)) {
+      run = null;
+      continue;
+    }
+    if (!run) runs.push((run = []));
+    run.push([x(xs[i]), y(v)]);
+  }
+  return { x, y, bands, runs, first: series.firstBreak };
+}
+
+/** The index of the point nearest to a pixel column of the drawing (a click on the chart). */
+export function nearestPoint(xs: readonly number[], x: (v: number) => number, px: number): number {
+  let best = 0;
+  let dist = Infinity;
+  for (let i = 0; i < xs.length; i++) {
+    const d = Math.abs(x(xs[i]) - px);
+    if (d < dist) [best, dist] = [i, d];
+  }
+  return best;
+}
+
+const INK = '#1c2226';
+const MUTED = '#5b6369';
+const GRID = '#e4e1d8';
+const LINE = '#1f5f8b';
+const ALARM = '#a3261b';
+const FONT = 'system-ui, -apple-system, "Segoe UI", sans-serif';
+
+/** Draws a line chart's geometry on a 2-D canvas context whose units are the drawing's pixels (W × H). */
+function paintLineChart(ctx: CanvasRenderingContext2D, g: LineGeometry, series: LineSeries, xLabel: string, output: SweepOutput, picked: number | null | undefined) {
+  const { x, y } = g;
+  const { xs, ys } = series;
+  ctx.clearRect(0, 0, W, H);
+  for (const b of g.bands) {
+    ctx.fillStyle = b.fill;
+    ctx.fillRect(M.l, b.y, IW, b.height);
+  }
+  ctx.strokeStyle = GRID;
+  ctx.lineWidth = 1;
+  ctx.beginPath();
+  for (const t of x.ticks) {
+    ctx.moveTo(Math.round(x(t)) + 0.5, M.t);
+    ctx.lineTo(Math.round(x(t)) + 0.5, M.t + IH);
+  }
+  for (const t of y.ticks) {
+    ctx.moveTo(M.l, Math.round(y(t)) + 0.5);
+    ctx.lineTo(M.l + IW, Math.round(y(t)) + 0.5);
+  }
+  ctx.stroke();
+  ctx.font = `10px ${FONT}`;
+  ctx.fillStyle = MUTED;
+  ctx.textAlign = 'center';
+  for (const t of x.ticks) ctx.fillText(tick(t), x(t), M.t + IH + 14);
+  ctx.textAlign = 'right';
+  for (const t of y.ticks) ctx.fillText(tick(t), M.l - 4, y(t) + 3);
+  ctx.strokeStyle = LINE;
+  ctx.lineWidth = 1.6;
+  ctx.beginPath();
+  const path = line().context(ctx);
+  for (const r of g.runs) path(r);
+  ctx.stroke();
+  if (g.first >= 0) {
+    ctx.strokeStyle = ALARM;
+    ctx.lineWidth = 2;
+    ctx.beginPath();
+    ctx.arc(x(xs[g.first]), y(ys[g.first]), 4, 0, 2 * Math.PI);
+    ctx.stroke();
+    ctx.fillStyle = ALARM;
+    ctx.textAlign = 'left';
+    ctx.fillText(`limit first broken at ${tick(xs[g.first])}`, Math.min(x(xs[g.first]) + 6, M.l + IW - 120), M.t + 12);
+  }
+  if (picked !== null && picked !== undefined && Number.isFinite(ys[picked])) {
+    ctx.fillStyle = LINE;
+    ctx.beginPath();
+    ctx.arc(x(xs[picked]), y(ys[picked]), 4, 0, 2 * Math.PI);
+    ctx.fill();
+  }
+  ctx.font = `11px ${FONT}`;
+  ctx.fillStyle = INK;
+  ctx.textAlign = 'center';
+  ctx.fillText(xLabel, M.l + IW / 2, H - 6);
+  ctx.save();
+  ctx.translate(12, M.t + IH / 2);
+  ctx.rotate(-Math.PI / 2);
+  ctx.fillText(`${output.label} (${output.unit})`, 0, 0);
+  ctx.restore();
+}
+
+/**
+ * A line chart drawn on a canvas: a redraw while points arrive is a few hundred canvas calls on the
+ * page's thread (no elements rebuilt, laid out or painted again), so it stays a small part of a
+ * frame however many points the sweep has. Its words stay in the page: the chart's name (output and
+ * parameter) and the first limit crossing in its caption.
+ */
+export const SweepLineChart = memo(function SweepLineChart({ xLabel, series, version, output, log, picked, onPick }: LineChartProps) {
+  const canvas = useRef<HTMLCanvasElement>(null);
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- version stands for the points added to the series in place
+  const g = useMemo(() => lineGeometry(series, output, log), [series, version, output, log]);
+  useLayoutEffect(() => {
+    const el = canvas.current;
+    if (!el) return;
+    let ctx: CanvasRenderingContext2D | null = null;
+    try {
+      ctx = el.getContext('2d');
+    } catch {
+      ctx = null;
+    }
+    if (!ctx) return; // no 2-D canvas (component tests): the geometry is tested on its own
+    const dpr = Math.min(3, Math.max(1, typeof window !== 'undefined' ? window.devicePixelRatio || 1 : 1));
+    if (el.width !== Math.round(W * dpr)) [el.width, el.height] = [Math.round(W * dpr), Math.round(H * dpr)];
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    paintLineChart(ctx, g, series, xLabel, output, picked);
+  }, [g, series, xLabel, output, picked]);
+  const pick = (e: MouseEvent<HTMLCanvasElement>) => {
+    const box = e.currentTarget.getBoundingClientRect();
+    onPick?.(nearestPoint(series.xs, g.x, ((e.clientX - box.left) / box.width) * W));
   };
+  const first = g.first;
   return (
     <figure className="m-0">
-      <svg
+      <canvas
+        ref={canvas}
         role="img"
         aria-label={`${output.label} (${output.unit}) against ${xLabel}`}
-        viewBox={`0 0 ${W} ${H}`}
-        className="w-full max-w-[460px] cursor-crosshair bg-paper"
-        onClick={(e) => pick(e.clientX, e.currentTarget)}
-      >
-        {band(-Infinity, vlo, '#f3d3cf', 'vlo')}
-        {band(vhi, Infinity, '#f3d3cf', 'vhi')}
-        {w ? band(vlo, w[0], '#f6e7c4', 'wlo') : null}
-        {w ? band(w[1], vhi, '#f6e7c4', 'whi') : null}
-        {x.ticks.map((t) => (
-          <g key={`x${t}`}>
-            <line x1={x(t)} x2={x(t)} y1={M.t} y2={M.t + IH} stroke="#e4e1d8" />
-            <text x={x(t)} y={M.t + IH + 14} textAnchor="middle" fontSize={10} fill="#5b6369">
-              {tick(t)}
-            </text>
-          </g>
-        ))}
-        {y.ticks.map((t, i) => (
-          // keyed by place, not value: as the range grows while points arrive, the tick elements are
-          // moved and relabelled rather than removed and inserted again (each insertion is style and layout work)
-          <g key={`y${i}`}>
-            <line x1={M.l} x2={M.l + IW} y1={y(t)} y2={y(t)} stroke="#e4e1d8" />
-            <text x={M.l - 4} y={y(t) + 3} textAnchor="end" fontSize={10} fill="#5b6369">
-              {tick(t)}
-            </text>
-          </g>
-        ))}
-        <path d={g.path ?? ''} fill="none" stroke="#1f5f8b" strokeWidth={1.6} />
-        {g.first >= 0 ? (
-          <g>
-            <circle cx={x(xs[g.first])} cy={y(ys[g.first])} r={4} fill="none" stroke="#a3261b" strokeWidth={2} />
-            <text x={Math.min(x(xs[g.first]) + 6, M.l + IW - 120)} y={M.t + 12} fontSize={10} fill="#a3261b">
-              limit first broken at {tick(xs[g.first])}
-            </text>
-          </g>
-        ) : null}
-        {picked !== null && picked !== undefined && Number.isFinite(ys[picked]) ? <circle cx={x(xs[picked])} cy={y(ys[picked])} r={4} fill="#1f5f8b" /> : null}
-        <text x={M.l + IW / 2} y={H - 6} textAnchor="middle" fontSize={11} fill="#1c2226">
-          {xLabel}
-        </text>
-        <text transform={`translate(12 ${M.t + IH / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1c2226">
-          {output.label} ({output.unit})
-        </text>
-      </svg>
+        width={W}
+        height={H}
+        className="block w-full max-w-[460px] cursor-crosshair bg-paper"
+        style={{ aspectRatio: `${W} / ${H}` }}
+        onClick={pick}
+      />
+      {first >= 0 ? (
+        <figcaption className="text-[11px] text-danger">
+          <span>limit first broken at {tick(series.xs[first])}</span>
+        </figcaption>
+      ) : null}
     </figure>
   );
 });

@@ -11,7 +11,7 @@ import type { SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { Button } from '../../../components/button.tsx';
 import type { LineSeries } from './line-series.ts';
 import type { Range } from './sweep-batcher.ts';
-import { lineSeries, SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
+import { lineColumns, lineSeries, SweepHeatMap, SweepLineChart } from './sweep-chart.tsx';
 import { SweepStore } from './sweep-store.ts';
 
 /** While points arrive, a heat map is drawn again at most this often, ms (a line chart at every redraw: only its new points cost). */
@@ -45,7 +45,8 @@ export interface Run {
 /** A run's store and, for one parameter, its line series (empty: nothing arrived yet). */
 export function runData(points: number[][], axes: number[][], log: boolean[], outputs: SweepOutput[]): Pick<Run, 'store' | 'lines' | 'version'> {
   const store = new SweepStore(points.length, outputs.length);
-  const lines = axes.length === 1 ? outputs.map((o, k) => lineSeries(axes[0], store.values[k], o, log[0])) : null;
+  const columns = axes.length === 1 ? lineColumns(axes[0], log[0]) : null;
+  const lines = columns ? outputs.map((o, k) => lineSeries(axes[0], store.values[k], o, log[0], columns)) : null;
   return { store, lines, version: 0 };
 }
 

@@ -1,7 +1,7 @@
 /** Sweep charts: the line keeps every peak at the chart's resolution; a chart names its output and parameter; the first limit crossing is called out. */
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { drawn, heatCellAt, heatPixels, hslToRgb, lineSeries, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
+import { drawn, heatCellAt, heatPixels, hslToRgb, lineGeometry, lineSeries, nearestPoint, SweepHeatMap, SweepLineChart } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
 import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05], warning: [0.95, 1.042] };
@@ -39,14 +39,48 @@ describe('sweep charts', () => {
     };
     fill(0, 1000);
     fill(2000, 3000);
-    const { container, rerender } = render(<SweepLineChart xLabel="x" series={series} version={series.version} output={output} />);
-    const d = () => container.querySelector('path')!.getAttribute('d')!;
-    expect(d().match(/M/g)).toHaveLength(2);
+    const { rerender } = render(<SweepLineChart xLabel="x" series={series} version={series.version} output={output} />);
+    const before = lineGeometry(series, output);
+    expect(before.runs).toHaveLength(2);
+    // each run lies in the plot, left to right, and ends where the points do
+    const [x0, x1] = [before.x(0), before.x(2999)];
+    expect(before.runs[0][0][0]).toBeCloseTo(x0, 9);
+    expect(before.runs[1][before.runs[1].length - 1][0]).toBeCloseTo(x1, 9);
+    expect(before.runs[0][before.runs[0].length - 1][0]).toBeLessThan(before.x(1000));
+    expect(before.runs[1][0][0]).toBeGreaterThan(before.x(1999));
     fill(1000, 2000);
     rerender(<SweepLineChart xLabel="x" series={series} version={series.version} output={output} />);
-    expect(d().match(/M/g)).toHaveLength(1);
+    const after = lineGeometry(series, output);
+    expect(after.runs).toHaveLength(1);
     // at most about four points per pixel column of the 392-pixel plot
-    expect(d().split('L').length).toBeLessThanOrEqual(4 * 393);
+    expect(after.runs[0].length).toBeLessThanOrEqual(4 * 393);
+    for (let k = 1; k < after.runs[0].length; k++) expect(after.runs[0][k][0]).toBeGreaterThanOrEqual(after.runs[0][k - 1][0]);
+    // the chart is one canvas named by its output and parameter (drawn where a 2-D canvas exists)
+    expect(screen.getByRole('img', { name: 'K terminal voltage (pu) against x' }).tagName).toBe('CANVAS');
+  });
+
+  it('bands: red beyond the violation limits, amber between them and the warning limits, inside the plot; the y range takes in a limit close to the data', () => {
+    const xs = [1, 2, 3, 4];
+    const series = lineSeries(xs, Float64Array.from([0.97, 0.99, 1.01, 1.03]), output);
+    series.add(0, 4);
+    const g = lineGeometry(series, output);
+    // 0.95 (warning) and 1.042 / 1.05 are near the data: all inside the y range
+    for (const v of [0.95, 1.042, 1.05]) expect(g.y(v)).toBeGreaterThanOrEqual(12 - 1e-9), expect(g.y(v)).toBeLessThanOrEqual(12 + 158 + 1e-9);
+    const fills = g.bands.map((b) => b.fill);
+    expect(fills.filter((f) => f === '#f3d3cf').length).toBeGreaterThanOrEqual(1); // above 1.05
+    expect(fills.filter((f) => f === '#f6e7c4')).toHaveLength(2); // 0.9–0.95 (part in range) and 1.042–1.05
+    for (const b of g.bands) {
+      expect(b.height).toBeGreaterThan(0);
+      expect(b.y).toBeGreaterThanOrEqual(12 - 1e-9);
+      expect(b.y + b.height).toBeLessThanOrEqual(12 + 158 + 1e-9);
+    }
+    // the amber band above: from the warning limit up to the violation limit
+    const upper = g.bands.find((b) => b.fill === '#f6e7c4' && Math.abs(b.y - g.y(1.05)) < 1e-9)!;
+    expect(upper.height).toBeCloseTo(g.y(1.042) - g.y(1.05), 9);
+    expect(g.first).toBe(-1);
+    // a click picks the point whose column is nearest
+    expect(nearestPoint(xs, g.x, g.x(2.4))).toBe(1);
+    expect(nearestPoint(xs, g.x, 10_000)).toBe(3);
   });
 
   it('a large heat map is one image whose pixels are the colours the cells are drawn in', () => {
