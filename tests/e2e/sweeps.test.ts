@@ -77,7 +77,7 @@ describe('cases, sweeps and the envelope in a real browser', () => {
     await sweep.getByRole('button', { name: 'Run sweep (12 points)' }).click();
     await expect.poll(() => sweep.getByRole('status').first().textContent(), { timeout: 30_000 }).toMatch(/^Done: 12 points/);
     expect(await sweep.getByRole('img', { name: /^KITCHEN terminal voltage \(pu\) against KITCHEN every phase › P \(kW\)/ }).count()).toBe(1);
-    expect(await sweep.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('value')).toBe('12');
+    expect(await sweep.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('aria-valuenow')).toBe('12');
 
     const [download] = await Promise.all([page.waitForEvent('download'), sweep.getByRole('link', { name: 'Export CSV' }).click()]);
     const text1 = readFileSync((await download.path())!, 'utf8');

@@ -5,7 +5,7 @@
  * chart (one parameter) or a heat map (two) with its limit band; the points export as CSV with the
  * caution; a picked point becomes a new case.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState, type CSSProperties } from 'react';
 import { sweepPoints, sweepValues, type CircuitResult, type StudyCase } from '../../../../shared/engine/index.ts';
 import { MAX_SERVER_SWEEP_POINTS } from '../../../../shared/api/sweeps.ts';
 import { parameterWords } from '../../../../shared/review/parameter-words.ts';
@@ -13,7 +13,7 @@ import { Button } from '../../../components/button.tsx';
 import { cancelServerSweep, getServerSweep, startServerSweep } from '../api/sweeps.ts';
 import { caseFromPoint, drawnElementsOf, numericParameters } from './case-model.ts';
 import { sweepCsv } from './sweep-csv.ts';
-import { availableOutputs } from '../../../../shared/review/sweep-outputs.ts';
+import { availableOutputs, type SweepOutput } from '../../../../shared/review/sweep-outputs.ts';
 import { SweepPool } from './sweep-pool.ts';
 import { drawArrived, runData, SweepResults, type Run } from './sweep-results.tsx';
 import { createBatcher, type Batcher } from './sweep-batcher.ts';
@@ -67,6 +67,36 @@ export interface SweepPanelProps {
   server?: { studyId: string; revision: number | null; dirty: boolean } | null;
 }
 
+/**
+ * The Run and Cancel buttons change colour at once: a colour transition would repaint the page in
+ * every frame of the first ~150 ms of a sweep (each repaint walks the whole document).
+ */
+const NO_TRANSITION: CSSProperties = { transition: 'none' };
+
+/**
+ * The outputs a sweep may record, as checkboxes (hundreds on a large study): a component of its
+ * own, so starting, redrawing and ending a run does not render them again.
+ */
+const OutputChoices = memo(function OutputChoices({ outputs, chosenKeys, onChosen }: { outputs: SweepOutput[]; chosenKeys: string[]; onChosen: (keys: string[]) => void }) {
+  return (
+    <fieldset className="flex flex-wrap gap-x-3 gap-y-0.5 text-[12px]">
+      <legend className="mb-0.5 text-[13px] font-semibold">Outputs to record (at most {MAX_OUTPUTS})</legend>
+      {outputs.length === 0 ? <span className="text-ink-muted">Solve the circuit first: the outputs come from its results.</span> : null}
+      {outputs.map((o) => (
+        <label key={o.key} className="flex items-center gap-1">
+          <input
+            type="checkbox"
+            checked={chosenKeys.includes(o.key)}
+            disabled={!chosenKeys.includes(o.key) && chosenKeys.length >= MAX_OUTPUTS}
+            onChange={(e) => onChosen(e.target.checked ? [...chosenKeys, o.key] : chosenKeys.filter((k) => k !== o.key))}
+          />
+          {o.label} ({o.unit})
+        </label>
+      ))}
+    </fieldset>
+  );
+});
+
 /** How often a running server sweep is asked for its progress and new points, ms. */
 const SERVER_POLL_MS = 1000;
 
@@ -75,7 +105,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
   const [params, setParams] = useState<ParamForm[]>([emptyParam()]);
   const outputs = useMemo(() => (result ? availableOutputs(result) : []), [result]);
   const [chosen, setChosen] = useState<string[] | null>(null);
-  const chosenKeys = chosen ?? outputs.filter((o) => o.spec.kind === 'load').slice(0, 3).map((o) => o.key);
+  const chosenKeys = useMemo(() => chosen ?? outputs.filter((o) => o.spec.kind === 'load').slice(0, 3).map((o) => o.key), [chosen, outputs]);
   const [run, setRun] = useState<Run | null>(null);
   const [picked, setPicked] = useState<number | null>(null);
   const [startError, setStartError] = useState<string | null>(null);
@@ -350,23 +380,9 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
           </Button>
         </div>
       ) : null}
-      <fieldset className="flex flex-wrap gap-x-3 gap-y-0.5 text-[12px]">
-        <legend className="mb-0.5 text-[13px] font-semibold">Outputs to record (at most {MAX_OUTPUTS})</legend>
-        {outputs.length === 0 ? <span className="text-ink-muted">Solve the circuit first: the outputs come from its results.</span> : null}
-        {outputs.map((o) => (
-          <label key={o.key} className="flex items-center gap-1">
-            <input
-              type="checkbox"
-              checked={chosenKeys.includes(o.key)}
-              disabled={!chosenKeys.includes(o.key) && chosenKeys.length >= MAX_OUTPUTS}
-              onChange={(e) => setChosen(e.target.checked ? [...chosenKeys, o.key] : chosenKeys.filter((k) => k !== o.key))}
-            />
-            {o.label} ({o.unit})
-          </label>
-        ))}
-      </fieldset>
+      <OutputChoices outputs={outputs} chosenKeys={chosenKeys} onChosen={setChosen} />
       <div className="flex flex-wrap items-center gap-2 text-[13px]">
-        <Button size="sm" variant="primary" onClick={() => start('browser')} disabled={'problem' in plan || !circuit || run?.status === 'running'}>
+        <Button size="sm" variant="primary" style={NO_TRANSITION} onClick={() => start('browser')} disabled={'problem' in plan || !circuit || run?.status === 'running'}>
           Run sweep{'total' in plan && plan.total ? ` (${plan.total} points)` : ''}
         </Button>
         {'onServer' in plan && plan.onServer && server ? (
@@ -376,7 +392,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
         ) : null}
         {'onServer' in plan && plan.onServer && server?.dirty ? <span className="text-[12px] text-caution">The server sweeps the study as last saved: save first to include your latest edits.</span> : null}
         {run?.status === 'running' ? (
-          <Button size="sm" variant="danger" onClick={cancel}>
+          <Button size="sm" variant="danger" style={NO_TRANSITION} onClick={cancel}>
             Cancel sweep
           </Button>
         ) : null}

@@ -17,6 +17,14 @@ import { SweepStore } from './sweep-store.ts';
 /** While points arrive, a heat map is drawn again at most this often, ms (a line chart at every redraw: only its new points cost). */
 const HEAT_MAP_REDRAW_MS = 1000;
 
+/**
+ * While points arrive, the count in words ("Solving: 1200 of 10000 points") is written again at
+ * most this often, ms: new text is laid out and repaints the page (its paint and layerization walk
+ * the whole document), while the bar (a transform of a layer of its own), the aria-valuenow and the
+ * line charts (canvases) follow every redraw without any paint of the page.
+ */
+export const STATUS_TEXT_MS = 1000;
+
 /** The points table is shown for sweeps up to this size (larger ones: CSV). */
 const TABLE_MAX = 200;
 
@@ -65,6 +73,7 @@ export function drawArrived(run: Run, ranges: readonly Range[]) {
  * siblings), so these boxes are block children: the results box lays its rows out as blocks.
  */
 const running: CSSProperties = { contain: 'strict', height: '1.25rem' };
+const barTrack: CSSProperties = { width: '12rem', height: '0.5rem', overflow: 'hidden' };
 const chartBox: CSSProperties = { contain: 'strict', width: '100%', maxWidth: 460, aspectRatio: '460 / 210' };
 
 export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; picked: number | null; onPick: (i: number) => void; onMakeCase: (() => void) | null }) {
@@ -86,9 +95,13 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
     heat.current = { at: now, version: run.version, status: run.status, run };
   }
   const heatVersion = heat.current.version;
+  // the count in words follows at most every STATUS_TEXT_MS while points arrive (the bar follows every redraw)
+  const said = useRef({ at: now, done: 0, run });
+  if (said.current.run !== run) said.current = { at: now, done: store.done, run };
+  else if (store.done !== said.current.done && now - said.current.at >= STATUS_TEXT_MS) said.current = { at: now, done: store.done, run };
   const status =
     run.status === 'running'
-      ? `Solving: ${store.done} of ${total} points`
+      ? `Solving: ${said.current.done} of ${total} points`
       : run.status === 'done'
         ? `Done: ${total} points in ${((run.ms ?? 0) / 1000).toFixed(2)} s${failed ? `; ${failed} could not be solved (see the CSV)` : ''}`
         : run.status === 'cancelled'
@@ -99,7 +112,10 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
   return (
     <div className="space-y-2" style={{ contain: 'content' }}>
       <div className="flex items-center gap-2 text-[12px]" style={run.status === 'running' ? running : undefined}>
-        <progress aria-label="Sweep progress" max={total} value={store.done} className="w-48" />
+        <div role="progressbar" aria-label="Sweep progress" aria-valuemin={0} aria-valuemax={total} aria-valuenow={store.done} className="shrink-0 rounded-full bg-sunken" style={barTrack}>
+          {/* its own layer: a new width is a transform the compositor applies, no layout or paint of the page */}
+          <div className="h-full w-full origin-left bg-accent" style={{ transform: `scaleX(${total ? store.done / total : 0})`, willChange: run.status === 'running' ? 'transform' : undefined }} />
+        </div>
         <span role="status">{status}</span>
       </div>
       <div className="grid grid-cols-1 gap-3 lg:grid-cols-2">

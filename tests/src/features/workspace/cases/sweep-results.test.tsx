@@ -5,10 +5,10 @@
  * lines follow the points handed over.
  */
 import { act, render, screen } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import type { SweepOutput } from '../../../../../shared/review/sweep-outputs.ts';
 import { lineGeometry } from '../../../../../src/features/workspace/cases/sweep-chart.tsx';
-import { drawArrived, runData, SweepResults, type Run } from '../../../../../src/features/workspace/cases/sweep-results.tsx';
+import { drawArrived, runData, STATUS_TEXT_MS, SweepResults, type Run } from '../../../../../src/features/workspace/cases/sweep-results.tsx';
 
 const output: SweepOutput = { key: 'load:K:an', spec: { kind: 'load', load: 'K', branch: 'an' }, label: 'K terminal voltage', unit: 'pu', violation: [0.9, 1.05] };
 
@@ -32,10 +32,31 @@ describe('sweep results while a sweep runs', () => {
     expect(box.style.contain).toBe('strict');
     expect(isFlexOrGrid(box.parentElement)).toBe(false);
 
-    r.store.put(0, { count: 4, values: Float64Array.from([1, 1.01, 1.02, 1.03]), errors: [] });
-    act(() => drawArrived(r, [[0, 4]]));
-    expect(screen.getByRole('status').textContent).toBe('Solving: 4 of 10 points');
-    expect(screen.getByRole('progressbar', { name: 'Sweep progress' }).getAttribute('value')).toBe('4');
+    const bar = screen.getByRole('progressbar', { name: 'Sweep progress' });
+    const fill = bar.firstElementChild as HTMLElement;
+    expect([bar.getAttribute('aria-valuemax'), bar.getAttribute('aria-valuenow')]).toEqual(['10', '0']);
+    // the bar follows every redraw (a transform of its own layer); the count in words at most every STATUS_TEXT_MS
+    let clock = performance.now() + STATUS_TEXT_MS;
+    const now = vi.spyOn(performance, 'now').mockImplementation(() => clock);
+    try {
+      r.store.put(0, { count: 2, values: Float64Array.from([1, 1.01]), errors: [] });
+      act(() => drawArrived(r, [[0, 2]]));
+      expect(bar.getAttribute('aria-valuenow')).toBe('2');
+      expect(fill.style.transform).toBe('scaleX(0.2)');
+      expect(fill.style.willChange).toBe('transform');
+      expect(screen.getByRole('status').textContent).toBe('Solving: 2 of 10 points');
+      clock += STATUS_TEXT_MS / 2;
+      r.store.put(2, { count: 2, values: Float64Array.from([1.02, 1.03]), errors: [] });
+      act(() => drawArrived(r, [[2, 2]]));
+      expect(bar.getAttribute('aria-valuenow')).toBe('4');
+      expect(fill.style.transform).toBe('scaleX(0.4)');
+      expect(screen.getByRole('status').textContent).toBe('Solving: 2 of 10 points');
+      clock += STATUS_TEXT_MS / 2;
+      act(() => drawArrived(r, []));
+      expect(screen.getByRole('status').textContent).toBe('Solving: 4 of 10 points');
+    } finally {
+      now.mockRestore();
+    }
     // the line (drawn on the chart's canvas) runs through the four points handed over
     expect(chart.tagName).toBe('CANVAS');
     const g = lineGeometry(r.lines![0], output);
