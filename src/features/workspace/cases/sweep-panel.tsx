@@ -5,7 +5,7 @@
  * chart (one parameter) or a heat map (two) with its limit band; the points export as CSV with the
  * caution; a picked point becomes a new case.
  */
-import { memo, useEffect, useMemo, useRef, useState, type CSSProperties } from 'react';
+import { memo, startTransition, useEffect, useMemo, useRef, useState, type CSSProperties } from 'react';
 import { sweepPoints, sweepValues, type CircuitResult, type StudyCase } from '../../../../shared/engine/index.ts';
 import { MAX_SERVER_SWEEP_POINTS } from '../../../../shared/api/sweeps.ts';
 import { parameterWords } from '../../../../shared/review/parameter-words.ts';
@@ -183,8 +183,11 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
       status: 'running',
       started: performance.now(),
     };
-    setPicked(null);
-    setRun(next);
+    // rendered as a transition (in slices of a few ms, not one long task in the Run click), while the workers already solve
+    startTransition(() => {
+      setPicked(null);
+      setRun(next);
+    });
     // Points land in the run's store as they arrive; its results box (not this panel) is drawn again at most once per frame.
     batcher.current?.cancel();
     const batch = createBatcher((ranges) => drawArrived(next, ranges), { minInterval: REDRAW_MS, backoff: REDRAW_BACKOFF, maxInterval: REDRAW_MAX_MS });
@@ -208,7 +211,7 @@ export function SweepPanel({ circuit, base, cases, onCase, result, onCases, onAc
           next.status = 'done';
           next.ms = performance.now() - next.started;
           running.current = null;
-          setRun({ ...next });
+          startTransition(() => setRun({ ...next }));
         },
         onFailure(message) {
           batch.flushNow();
