@@ -125,6 +125,30 @@ describe('sweep pool (in the page thread where Workers do not exist)', () => {
     pool.dispose();
   });
 
+  it('cancel stops every worker of the pool that is running a chunk, and the next run starts them afresh', async () => {
+    const pool = new SweepPool(2);
+    pool.warm();
+    const slots = (pool as unknown as { slots: ({ terminate(): void } | null)[] }).slots;
+    const stopped: number[] = [];
+    slots.forEach((s, i) => {
+      const terminate = s!.terminate;
+      s!.terminate = () => (stopped.push(i), terminate());
+    });
+    const points = sweepPoints([{ from: 1, to: 4, steps: 40 }]);
+    let seen = 0;
+    const run = pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: (_a, rs) => (seen += rs.count), onDone: () => {}, onFailure: () => {} });
+    run.cancel();
+    expect(stopped.sort()).toEqual([0, 1]);
+    expect(slots).toEqual([null, null]);
+    await new Promise((r) => setTimeout(r, 50));
+    expect(seen).toBe(0);
+    // a new run gets new workers and every point
+    const store = new SweepStore(points.length, 1);
+    await new Promise<void>((resolve, reject) => pool.run({ circuit: openNeutral, paths: ['HEATER.each.kw'], points, outputs: [outputs[0].spec] }, { onRows: (at, rs) => void store.put(at, rs), onDone: resolve, onFailure: reject }));
+    expect(store.done).toBe(points.length);
+    pool.dispose();
+  });
+
   it('cancel stops the run: no more rows and no completion', async () => {
     const pool = new SweepPool(1);
     const points = sweepPoints([{ from: 1, to: 4, steps: 40 }]);
