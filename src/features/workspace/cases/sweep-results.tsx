@@ -97,7 +97,7 @@ export function SweepResults({ run, picked, onPick, onMakeCase }: { run: Run; pi
   }
   const heatVersion = heat.current.version;
   // the count in words follows at most every STATUS_TEXT_MS while points arrive (the bar follows every redraw)
-  const said = useRef({ at: now, done: 0, run });
+  const said = useRef({ at: now, done: store.done, run });
   if (said.current.run !== run) said.current = { at: now, done: store.done, run };
   else if (store.done !== said.current.done && now - said.current.at >= STATUS_TEXT_MS) said.current = { at: now, done: store.done, run };
   const status =
