@@ -7,6 +7,7 @@
 export * from './types.ts';
 export * from './errors.ts';
 export { solveCircuit, prepareCircuit, circuitResults, type SolveCircuitOptions, type PreparedCircuit } from './solve-circuit.ts';
+export { prepareChanged, type PreparedChange } from './prepare-changed.ts';
 export { parseCircuit, formatPath, type CircuitIssue } from './schema/parse-circuit.ts';
 export {
   circuitSchema,

@@ -19,16 +19,14 @@
  */
 import { EngineError } from '../errors.ts';
 import type { Cx, PrimitiveSolution } from '../types.ts';
-import type { ExpandContext, Expansion } from '../blocks/expansion.ts';
-import { expandElement } from '../blocks/expand.ts';
 import { resolveLimits, type LimitSet } from '../limits/limit-sets.ts';
 import type { BusResult, LoadResult } from '../results/types.ts';
 import { busResults, splitBusNode } from '../results/build-results.ts';
 import { loadResults } from '../results/load-results.ts';
-import { primitiveNodes } from '../results/terminal-currents.ts';
 import { elementSchemas, type Circuit, type CircuitInput, type ElementType } from '../schema/circuit.ts';
 import { parseCircuit } from '../schema/parse-circuit.ts';
 import { prepareCircuit, prepareParsedCircuit, type PreparedCircuit } from '../solve-circuit.ts';
+import { expansionShape, primitivePositions, SETS_NOMINALS, swapExpanded, type PreparedChange } from '../prepare-changed.ts';
 import { createNetwork, solutionArrays, type Network } from '../solver/index.ts';
 import { resolveParameter } from './set-path.ts';
 import { sweepCircuit } from './sweep-points.ts';
@@ -59,19 +57,7 @@ export function sweepOutputValue(r: { buses: readonly BusResult[]; loads: readon
 type Obj = Record<string, unknown>;
 
 /** A point's circuit ready for the solver; `changed`: positions in `primitives` that differ from the batch's (undefined: any may). */
-interface PointCircuit extends PreparedCircuit {
-  changed?: number[];
-}
-
-/** Elements whose values set bus nominals (expandContext): a point changing one is expanded whole. */
-const SETS_NOMINALS = new Set<ElementType>(['source', 'splitPhaseSource', 'transformer', 'splitPhaseTransformer']);
-
-/** What decides the earth-bond merge, the id check and the switch-node check of an expansion: per primitive its kind, id, role, nodes and switch state. */
-function shape(e: Expansion): string {
-  let s = '';
-  for (const t of e.primitives) s += `${t.prim.type}|${t.prim.id}|${t.role ?? ''}|${primitiveNodes(t.prim).join(',')}|${t.prim.type === 'switch' ? t.prim.closed : ''};`;
-  return s;
-}
+type PointCircuit = PreparedChange;
 
 /** A batch: the circuit (validated and expanded once) and how a point's values become its circuit. */
 interface Batch {
@@ -94,13 +80,9 @@ function createBatch(raw: CircuitInput, paths: readonly string[]): Batch {
   const at = ids.map((id) => rawEls.findIndex((e) => e.id === id));
   const own = { elements: at.map((i) => rawEls[i]) } as unknown as CircuitInput;
   // where each changed element's primitives sit in the batch's list (-1: merged into an earlier earth bond, not solved)
-  const positions = new Map<number, number[]>();
-  let p = 0;
-  base.expansions.forEach((e, i) => {
-    const mine = e.primitives.map((t) => (t.mergedInto === undefined ? p++ : -1));
-    if (at.includes(i)) positions.set(i, mine);
-  });
-  const shapes = at.map((i) => shape(base.expansions[i]));
+  const all = primitivePositions(base.expansions);
+  const positions = new Map<number, number[]>(at.map((i) => [i, all[i]]));
+  const shapes = at.map((i) => expansionShape(base.expansions[i]));
   const local = at.every((i) => !SETS_NOMINALS.has(base.circuit.elements[i].type));
   const limits = resolveLimits(base.circuit.limits);
   const prepare = (values: readonly number[]): PointCircuit => {
@@ -113,31 +95,7 @@ function createBatch(raw: CircuitInput, paths: readonly string[]): Batch {
     }
     const circuit: Circuit = { ...base.circuit, elements };
     if (!local) return prepareParsedCircuit(circuit);
-    const context: ExpandContext = { ...base.context, circuit };
-    const expansions = base.expansions.slice();
-    const primitives = base.primitives.slice();
-    const moved: number[] = [];
-    for (let k = 0; k < at.length; k++) {
-      const i = at[k];
-      let e: Expansion;
-      try {
-        e = expandElement(elements[i], context);
-      } catch {
-        return prepareParsedCircuit(circuit); // its error, as the whole circuit's expansion words it
-      }
-      if (shape(e) !== shapes[k]) return prepareParsedCircuit(circuit);
-      const was = base.expansions[i].primitives;
-      const pos = positions.get(i)!;
-      e.primitives.forEach((t, j) => {
-        if (was[j].mergedInto !== undefined) t.mergedInto = was[j].mergedInto;
-        else {
-          primitives[pos[j]] = t.prim;
-          moved.push(pos[j]);
-        }
-      });
-      expansions[i] = e;
-    }
-    return { circuit, context, expansions, primitives, changed: moved };
+    return swapExpanded(base, circuit, at, (i) => positions.get(i)!, (i) => shapes[at.indexOf(i)]) ?? prepareParsedCircuit(circuit);
   };
   return { raw, pathsKey: paths.join('\n'), limits, prepare };
 }

@@ -112,6 +112,24 @@ export function parseCircuit(input: unknown): Circuit {
   return { ...(top.data as Omit<Circuit, 'elements'>), elements };
 }
 
+/**
+ * One element as `parseCircuit` validates it inside a circuit (finite numbers, a known type, the
+ * primitives' fast path, else its zod schema): the parsed element, or null when it has any issue
+ * (the caller then validates the whole circuit for the issues' wording and paths).
+ */
+export function parseElement(el: unknown): Circuit['elements'][number] | null {
+  if (el === null || typeof el !== 'object' || Array.isArray(el)) return null;
+  const issues: CircuitIssue[] = [];
+  nonFinite(el, [], issues);
+  if (issues.length > 0) return null;
+  const type = (el as { type?: unknown }).type;
+  if (typeof type !== 'string' || !(ELEMENT_TYPES as string[]).includes(type)) return null;
+  const fast = fastParsePrimitive(el as Record<string, unknown>);
+  if (fast) return fast as Circuit['elements'][number];
+  const parsed = elementSchemas[type as ElementType].safeParse(el);
+  return parsed.success ? (parsed.data as Circuit['elements'][number]) : null;
+}
+
 function invalid(issues: CircuitIssue[]): InvalidCircuitError {
   const first = issues[0];
   const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';

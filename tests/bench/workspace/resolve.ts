@@ -2,7 +2,8 @@
  * Benchmark (prints figures, asserts nothing): re-solve time of the live-solve worker's handler on
  * a 300-element study, in Node. Run: `node --import tsx tests/bench/workspace/resolve.ts`.
  * - cold: a fresh handler's first request (JIT cold, analysis included);
- * - warm value edit: one load's kW changes each time (the topology is reused), median of N;
+ * - warm value edit: one load's kW changes each time (the topology is reused), median of N; sent as
+ *   the page sends it (only the changed element, re-validated and re-expanded alone), and whole;
  * - warm topology edit: a service neutral opens and closes in turn (re-analysis each time);
  * - the parts of a warm request: validate + expand, solver, results; and structuredClone of the
  *   response (what postMessage pays to copy it back to the page).
@@ -11,6 +12,7 @@
 import { prepareCircuit, resolveLimits, solveCircuit, createNetwork, type CircuitInput, type CircuitElementInput } from '../../../shared/engine/index.ts';
 import { buildResults } from '../../../shared/engine/results/build-results.ts';
 import { createSolveHandler } from '../../../src/features/workspace/solve/solve-handler.ts';
+import { createRequestEncoder } from '../../../src/features/workspace/solve/solve-request.ts';
 import { editedStudy, study300 } from './study-300.ts';
 import { cpus, loadavg } from 'node:os';
 
@@ -39,22 +41,29 @@ console.log(`cold first request (fresh handler, JIT cold): ${f(coldRes.ms)}`);
 
 // Warm up the JIT, then measure value edits on one handler (topology reused).
 const handler = createSolveHandler();
-for (let i = 0; i < 10; i++) handler({ id: i, circuit: editedStudy(base, i) });
+const encode = createRequestEncoder();
+for (let i = 0; i < 10; i++) handler(encode({ id: i, circuit: editedStudy(base, i) }));
 const valueEdit: number[] = [];
+const wholeEdit: number[] = [];
 const analyze: number[] = [];
 const clone: number[] = [];
+const whole = createSolveHandler();
+for (let i = 0; i < 10; i++) whole({ id: i, circuit: editedStudy(base, i) });
 for (let i = 0; i < N; i++) {
   const c = editedStudy(base, i + 100);
-  const res = handler({ id: 1000 + i, circuit: c });
+  const res = handler(structuredClone(encode({ id: 1000 + i, circuit: c })));
   if (!res.ok) throw new Error(res.error.message);
   valueEdit.push(res.ms);
   analyze.push(res.timings.analyzeMs);
+  const w = whole({ id: 1000 + i, circuit: c });
+  if (!w.ok) throw new Error(w.error.message);
+  wholeEdit.push(w.ms);
 }
 const last = handler({ id: 9999, circuit: base });
 for (let i = 0; i < Math.min(N, 15); i++) clone.push(t(() => structuredClone(last)));
 const json: number[] = [];
 for (let i = 0; i < Math.min(N, 15); i++) json.push(t(() => JSON.parse(JSON.stringify(last))));
-console.log(`warm value edit, handler (validate + expand + solve + results): median ${f(median(valueEdit))}, min ${f(Math.min(...valueEdit))}, max ${f(Math.max(...valueEdit))} (analysis ${f(median(analyze))})`);
+console.log(`warm value edit, handler (the changed element validated + expanded, solve, results): median ${f(median(valueEdit))}, min ${f(Math.min(...valueEdit))}, max ${f(Math.max(...valueEdit))} (analysis ${f(median(analyze))}); the whole circuit sent each time: median ${f(median(wholeEdit))}`);
 console.log(`structuredClone of the response (postMessage copy, ${(JSON.stringify(last).length / 1e6).toFixed(2)} MB as JSON): median ${f(median(clone))}; JSON round trip ${f(median(json))}`);
 
 // Topology edits: open / close the first service neutral in turn.
@@ -66,7 +75,7 @@ const toggled = (open: boolean): CircuitInput => {
 };
 const topoEdit: number[] = [];
 for (let i = 0; i < N; i++) {
-  const res = handler({ id: 5000 + i, circuit: toggled(i % 2 === 0) });
+  const res = handler(structuredClone(encode({ id: 5000 + i, circuit: toggled(i % 2 === 0) })));
   if (!res.ok) throw new Error(res.error.message);
   topoEdit.push(res.ms);
 }

@@ -5,7 +5,7 @@
  * it the circuit being edited.
  */
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
-import { applyCase, BASE_CASE_ID, caseLabel, circuitCases, type CircuitResult } from '../../../../shared/engine/index.ts';
+import { applyCase, BASE_CASE_ID, caseLabel, circuitCases, type CircuitInput, type CircuitResult } from '../../../../shared/engine/index.ts';
 import { createDefaultPort, type SolvePort } from '../solve/solve-port.ts';
 import type { SolveResponse } from '../solve/solve-protocol.ts';
 import { compareCases, type CaseOutcome, type CompareRow } from './cases-compare-model.ts';
@@ -97,7 +97,7 @@ function useCaseOutcomes(circuit: unknown): CaseOutcome[] | null {
           return;
         }
         pending++;
-        port.current?.post({ id: first + i, circuit: edited });
+        port.current?.post({ id: first + i, circuit: edited as CircuitInput });
       });
       done();
     }, COMPARE_DEBOUNCE_MS);

@@ -1,9 +1,10 @@
 /**
  * The solve worker's message handler, as a plain function so it runs (and is tested) outside a
- * Worker too. It keeps the solver's network between calls: when only values change (a load's kW,
- * a line length), the ordering and symbolic factorisation are reused (`Network.update`).
+ * Worker too. It keeps the prepared circuit and the solver's network between calls: an edit
+ * re-validates and re-expands only the elements it changed, and when only values change (a load's
+ * kW, a line length), the ordering and symbolic factorisation are reused (`Network.update`).
  */
-import { EngineError, InvalidCircuitError, createNetwork, prepareCircuit, resolveLimits, type Network } from '../../../../shared/engine/index.ts';
+import { EngineError, InvalidCircuitError, createNetwork, prepareChanged, prepareCircuit, resolveLimits, type CircuitInput, type Network, type PreparedChange, type PreparedCircuit, type Primitive } from '../../../../shared/engine/index.ts';
 // Not part of the engine's index: the result builder is what `solveCircuit` runs after the solver.
 import { buildResults } from '../../../../shared/engine/results/build-results.ts';
 import { circuitIssueFields } from '../../../../shared/review/circuit-issues.ts';
@@ -38,29 +39,65 @@ export function elementIdsFromIssues(circuit: unknown, issues: readonly { path: 
   return [...ids];
 }
 
-/** A stateful handler: request in, response out (never throws). */
+/**
+ * A stateful handler: request in, response out (never throws). It keeps the circuit it was sent
+ * (a request may carry only the elements that changed: solve-request.ts), the circuit as last
+ * prepared (validated and expanded) and the elements changed since, so an edit re-validates and
+ * re-expands only those (`prepareChanged`), and the solver's network, told which primitives changed.
+ */
 export function createSolveHandler(): (req: SolveRequest) => SolveResponse {
   let network: Network | null = null;
+  /** The primitive list the network was last updated with. */
+  let networkHolds: readonly Primitive[] | null = null;
+  /** The circuit as sent (whole, then with each request's changes applied). */
+  let raw: CircuitInput | null = null;
+  /** The last circuit prepared, and the positions of the elements changed in `raw` since (null: prepare whole). */
+  let prepared: PreparedCircuit | null = null;
+  const dirty = new Set<number>();
   return (req) => {
     const t0 = now();
     try {
-      const prepared = prepareCircuit(req.circuit);
-      const limits = resolveLimits(prepared.circuit.limits, req.limits);
-      if (network) network.update(prepared.primitives);
-      else network = createNetwork(prepared.primitives);
+      if (req.changes) {
+        if (!raw) throw new Error('a change arrived before any circuit');
+        const elements = (raw.elements as unknown[]).slice();
+        req.changes.at.forEach((i, k) => {
+          elements[i] = req.changes!.elements[k];
+          dirty.add(i);
+        });
+        raw = { ...raw, elements } as CircuitInput;
+      } else {
+        raw = req.circuit as CircuitInput;
+        prepared = null;
+        dirty.clear();
+      }
+    } catch (e) {
+      return { id: req.id, ok: false, error: toLiveSolveError(e), ms: now() - t0 };
+    }
+    const circuit = raw;
+    try {
+      const base = prepared;
+      const next: PreparedChange = base ? prepareChanged(base, circuit, [...dirty]) : prepareCircuit(circuit);
+      prepared = next;
+      dirty.clear();
+      const limits = resolveLimits(next.circuit.limits, req.limits);
+      if (network && next.changed && base && networkHolds === base.primitives) network.update(next.primitives, next.changed);
+      else if (network) network.update(next.primitives);
+      else network = createNetwork(next.primitives);
+      networkHolds = next.primitives;
       const solution = network.solve();
-      const result = buildResults(prepared.circuit, prepared.context, prepared.expansions, solution, limits);
+      const result = buildResults(next.circuit, next.context, next.expansions, solution, limits);
       return { id: req.id, ok: true, result, ms: now() - t0, timings: network.lastTimings() };
     } catch (e) {
       // A failed update may leave the cached network unusable: start afresh next time.
       network = null;
+      networkHolds = null;
       const error = toLiveSolveError(e);
       if (error.issues) {
-        if (error.elementIds.length === 0) error.elementIds = elementIdsFromIssues(req.circuit, error.issues);
+        if (error.elementIds.length === 0) error.elementIds = elementIdsFromIssues(circuit, error.issues);
         // Worded here, where the circuit is at hand: the element a path points into is named as drawn,
         // and a number typed as text is reported as such (not as the union the validator tried).
         const byPath = new Map(error.issues.map((i) => [i.path, i.message]));
-        error.issues = Object.entries(circuitIssueFields(req.circuit, error.issues)).map(([path, text]) => ({ path, message: byPath.get(path) ?? text, text }));
+        error.issues = Object.entries(circuitIssueFields(circuit, error.issues)).map(([path, text]) => ({ path, message: byPath.get(path) ?? text, text }));
       }
       return { id: req.id, ok: false, error, ms: now() - t0 };
     }

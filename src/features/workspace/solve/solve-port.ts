@@ -3,10 +3,19 @@
  * (after a macrotask, so the page still paints) where Workers do not exist (tests, old runtimes).
  */
 import { createSolveHandler } from './solve-handler.ts';
-import type { SolveRequest, SolveResponse } from './solve-protocol.ts';
+import type { CircuitInput, LimitsInput } from '../../../../shared/engine/index.ts';
+import type { SolveResponse } from './solve-protocol.ts';
+import { createRequestEncoder } from './solve-request.ts';
+
+/** What the page asks: the circuit to solve (the port sends the worker only what changed since its last request). */
+export interface PortRequest {
+  id: number;
+  circuit: CircuitInput;
+  limits?: LimitsInput;
+}
 
 export interface SolvePort {
-  post(req: SolveRequest): void;
+  post(req: PortRequest): void;
   /** Stop the worker; later responses are never delivered. */
   terminate(): void;
 }
@@ -23,18 +32,21 @@ export function createWorkerPort(onResponse: PortListener, onFailure: PortFailur
     e.preventDefault();
     onFailure(e.message || 'the solve worker could not start');
   };
-  return { post: (req) => worker.postMessage(req), terminate: () => worker.terminate() };
+  const encode = createRequestEncoder();
+  return { post: (req) => worker.postMessage(encode(req)), terminate: () => worker.terminate() };
 }
 
 /** The same handler on the main thread, one macrotask later (requests stay in order). */
 export function createInThreadPort(onResponse: PortListener): SolvePort {
   const handle = createSolveHandler();
+  const encode = createRequestEncoder();
   let alive = true;
   return {
     post(req) {
+      const message = encode(req);
       setTimeout(() => {
         if (!alive) return;
-        const res = handle(req);
+        const res = handle(message);
         if (alive) onResponse(res);
       }, 0);
     },

@@ -1,10 +1,16 @@
 /** Messages between the page and the solve worker (structured-clone safe: plain data only). */
 import type { CircuitResult, LimitsInput, SolveTimings } from '../../../../shared/engine/index.ts';
 
-/** A solve request; `id` increases with every edit so stale answers can be dropped. */
+/**
+ * A solve request; `id` increases with every edit so stale answers can be dropped. It carries
+ * either the whole circuit, or only the elements that differ from the previous request's circuit
+ * (`changes`: their positions and new values; same number of elements, every other field the
+ * same), which the worker applies to the circuit it holds (see solve-request.ts).
+ */
 export interface SolveRequest {
   id: number;
-  circuit: unknown;
+  circuit?: unknown;
+  changes?: { at: number[]; elements: unknown[] };
   limits?: LimitsInput;
 }
 
