@@ -8,7 +8,8 @@ import { memo } from 'react';
 import { phaseStyle } from '../results/phase-style.ts';
 import { busConductors, type BusNode } from '../model/types.ts';
 import { useCanvasValue, useCanvasView } from './canvas-context.tsx';
-import { BusPhaseVoltages, flagWords, severitySign } from '../results/diagram-marks.tsx';
+import { BusPhaseVoltages, busPhaseVoltagesShown, flagShown, flagWords, severitySign } from '../results/diagram-marks.tsx';
+import type { BusOverlay } from '../results/overlays.ts';
 
 export const BUS_WIDTH = 260;
 const HANDLE = 'h-3! w-3! rounded-full! border-2! border-panel!';
@@ -17,10 +18,18 @@ function fmt(v: number): string {
   return v >= 100 ? v.toFixed(1) : v >= 10 ? v.toFixed(2) : v.toFixed(3);
 }
 
+/** What the node draws of its overlay, as text (every value as formatted below). */
+function busShown(ov: BusOverlay): string {
+  return `${busPhaseVoltagesShown(ov)}|${ov.neutralShiftV !== undefined ? fmt(ov.neutralShiftV) : '-'}|${ov.neutralShiftPercent !== undefined && ov.neutralShiftPercent > 10}|${ov.floating}|${flagShown(ov.worstFlag)}`;
+}
+
+/** Two overlays the node draws alike: a solve that changes this bus's values only below the digits shown does not re-render it. */
+export const sameBusShown = (a: BusOverlay | undefined, b: BusOverlay | undefined): boolean => a === b || (a !== undefined && b !== undefined && busShown(a) === busShown(b));
+
 export const BusNodeView = memo(function BusNodeView({ data, selected }: NodeProps<BusNode>) {
   const view = useCanvasView();
-  // Only this bus's overlay: a solve that leaves it unchanged does not re-render the node.
-  const ov = useCanvasValue((v) => v.overlays?.buses[data.name]);
+  // Only this bus's overlay: a solve that leaves what it shows unchanged does not re-render the node.
+  const ov = useCanvasValue((v) => v.overlays?.buses[data.name], sameBusShown);
   const stale = useCanvasValue((v) => v.stale);
   const conds = busConductors(data.splitPhase);
   const flag = ov?.worstFlag;

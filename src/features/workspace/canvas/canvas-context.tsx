@@ -8,7 +8,7 @@
  *   the nodes whose values changed, not the whole diagram.
  * Node data stays plain parameters and custom nodes stay memoised.
  */
-import { createContext, useContext, useSyncExternalStore } from 'react';
+import { createContext, useContext, useRef, useSyncExternalStore } from 'react';
 import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import type { DiagramOverlays } from '../results/overlays.ts';
 import type { WiringStandard } from '../model/layout.ts';
@@ -84,8 +84,19 @@ export const CanvasValuesContext = createContext<CanvasValuesStore>(createCanvas
 /**
  * One entry of the canvas values. `select` must return something already held in the values (an
  * overlay, an array, a string), never a new object, so an unchanged entry compares equal.
+ * `same` (optional): a new entry that it finds equal to the one last returned is not taken (the
+ * last one is returned again, and the node does not re-render) — nodes pass one that compares what
+ * they show of an overlay, so a solve that moves a value only below the digits shown redraws nothing.
  */
-export function useCanvasValue<T>(select: (v: CanvasValues) => T): T {
+export function useCanvasValue<T>(select: (v: CanvasValues) => T, same?: (a: T, b: T) => boolean): T {
   const store = useContext(CanvasValuesContext);
-  return useSyncExternalStore(store.subscribe, () => select(store.get()));
+  const last = useRef<{ value: T } | null>(null);
+  const snapshot = () => {
+    const next = select(store.get());
+    const prev = last.current;
+    if (prev && (prev.value === next || (same !== undefined && same(prev.value, next)))) return prev.value;
+    last.current = { value: next };
+    return next;
+  };
+  return useSyncExternalStore(store.subscribe, snapshot);
 }

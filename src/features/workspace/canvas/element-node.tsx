@@ -9,7 +9,9 @@ import type { CircuitElementInput } from '../../../../shared/engine/index.ts';
 import { elementPorts, type PortSide } from '../model/ports.ts';
 import type { ElementNode } from '../model/types.ts';
 import { useCanvasValue, useCanvasView, type ShiftReading } from './canvas-context.tsx';
-import { flagWords, LoadVoltageNote, severitySign } from '../results/diagram-marks.tsx';
+import { flagShown, flagWords, LoadVoltageNote, loadVoltageNoteShown, severitySign } from '../results/diagram-marks.tsx';
+import type { ElementOverlay } from '../results/overlays.ts';
+import type { WiringStandard } from '../results/phase-style.ts';
 import { ELEMENT_WORDS, ElementSymbol } from './symbols.tsx';
 
 const NO_PROBLEMS: string[] = [];
@@ -50,10 +52,19 @@ export function elementSummary(el: CircuitElementInput, wired = true): string {
   }
 }
 
+/** What the node draws of its overlay, as text (every value as formatted below). */
+function elementShown(ov: ElementOverlay, standard: WiringStandard): string {
+  return `${loadVoltageNoteShown(ov, standard)}|${ov.loadingPercent !== undefined ? ov.loadingPercent.toFixed(0) : '-'}|${flagShown(ov.worstFlag)}`;
+}
+
+/** Two overlays the node draws alike: a solve that changes this element's values only below the digits shown does not re-render it. */
+export const sameElementShown = (standard: WiringStandard) => (a: ElementOverlay | undefined, b: ElementOverlay | undefined): boolean =>
+  a === b || (a !== undefined && b !== undefined && elementShown(a, standard) === elementShown(b, standard));
+
 export const ElementNodeView = memo(function ElementNodeView({ id, data, selected }: NodeProps<ElementNode>) {
   const view = useCanvasView();
-  // Only this element's entries: a solve or an edit elsewhere that leaves them unchanged does not re-render the node.
-  const ov = useCanvasValue((v) => v.overlays?.elements[id]);
+  // Only this element's entries: a solve or an edit elsewhere that leaves what it shows of them unchanged does not re-render the node.
+  const ov = useCanvasValue((v) => v.overlays?.elements[id], sameElementShown(view.wiringStandard));
   const stale = useCanvasValue((v) => v.stale);
   const problems = useCanvasValue((v) => v.problems[id]) ?? NO_PROBLEMS;
   const wired = useCanvasValue((v) => v.wiredOf[id]);

@@ -6,6 +6,7 @@
  */
 import { BaseEdge, EdgeLabelRenderer, getSmoothStepPath, type EdgeProps } from '@xyflow/react';
 import { memo } from 'react';
+import type { ElementOverlay } from '../results/overlays.ts';
 import { phaseStyle } from '../results/phase-style.ts';
 import { elementPorts, isBundleHandle } from '../model/ports.ts';
 import type { Conductor, WorkspaceEdge } from '../model/types.ts';
@@ -15,11 +16,21 @@ function amps(a: number): string {
   return a >= 100 ? a.toFixed(0) : a >= 10 ? a.toFixed(1) : a.toFixed(2);
 }
 
+/** What a wire draws of its element's overlay, as text: every current (port, conductor, amps as formatted below). */
+function wireShown(ov: ElementOverlay): string {
+  let s = '';
+  for (const c of ov.currents) s += `${c.port}|${c.conductor}|${amps(c.mag)};`;
+  return s;
+}
+
+/** Two overlays a wire draws alike: a solve that changes its currents only below the digits shown does not re-render it. */
+export const sameWireShown = (a: ElementOverlay | undefined, b: ElementOverlay | undefined): boolean => a === b || (a !== undefined && b !== undefined && wireShown(a) === wireShown(b));
+
 export const WireEdgeView = memo(function WireEdgeView(props: EdgeProps<WorkspaceEdge>) {
   const { id, source, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, targetHandleId, sourceHandleId, data, selected } = props;
   const view = useCanvasView();
-  // Only the entries of this wire's element and bus: a solve that leaves them unchanged does not re-render the wire.
-  const ov = useCanvasValue((v) => v.overlays?.elements[source]);
+  // Only the entries of this wire's element and bus: a solve that leaves what it shows of them unchanged does not re-render the wire.
+  const ov = useCanvasValue((v) => v.overlays?.elements[source], sameWireShown);
   const element = useCanvasValue((v) => v.elementOf[source]);
   const busName = useCanvasValue((v) => v.busNameOf[props.target]) ?? '';
   const stale = useCanvasValue((v) => v.stale);

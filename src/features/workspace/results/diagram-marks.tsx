@@ -60,6 +60,21 @@ export function BusPhaseVoltages({ overlay, standard }: { overlay: BusOverlay; s
   );
 }
 
+/** What `BusPhaseVoltages` draws of an overlay, as text: overlays with the same text are drawn alike. */
+export function busPhaseVoltagesShown(overlay: BusOverlay): string {
+  let s = '';
+  for (const [ph, v] of Object.entries(overlay.vln)) {
+    const flag = overlay.flags.find((f) => (f.code === 'voltage-high' || f.code === 'voltage-low') && f.conductor === ph);
+    s += `${ph} ${fmt(v)}|${flag ? `${flag.code}|${flag.severity}|${flag.message}` : ''};`;
+  }
+  return s;
+}
+
+/** What a flag mark draws of a flag (sign, words, the message as its title), as text. */
+export function flagShown(flag: Flag | undefined): string {
+  return flag ? `${flag.severity}|${flagWords(flag)}|${flag.message}` : '';
+}
+
 /** A load's own terminal voltage per branch: "167.3 V = 1.39 pu ✖". */
 export function LoadVoltageNote({ overlay, standard }: { overlay: ElementOverlay | undefined; standard: WiringStandard }) {
   const branches = overlay?.loadBranches;
@@ -85,4 +100,13 @@ export function LoadVoltageNote({ overlay, standard }: { overlay: ElementOverlay
       })}
     </div>
   );
+}
+
+/** What `LoadVoltageNote` draws of an overlay, as text: overlays with the same text are drawn alike. */
+export function loadVoltageNoteShown(overlay: ElementOverlay | undefined, standard: WiringStandard): string {
+  const branches = overlay?.loadBranches;
+  if (!branches || branches.length === 0) return '';
+  let s = `${overlay.id}:${branches.length}:`;
+  for (const b of branches) s += `${b.branch}|${branchLabel(b, standard)}|${b.status}|${fmt(b.voltage.mag)}|${b.pu !== undefined ? formatPu(b.pu) : '-'};`;
+  return s;
 }

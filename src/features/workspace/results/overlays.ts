@@ -62,9 +62,21 @@ export function worstFlag(flags: readonly Flag[]): Flag | undefined {
 
 /** Overlay data for every bus and element of a result. */
 export function diagramOverlays(result: CircuitResult): DiagramOverlays {
+  // The flags by bus (those naming no element) and by element, in their order: one pass over them.
+  const busFlags = new Map<string, Flag[]>();
+  const elementFlags = new Map<string, Flag[]>();
+  const into = (m: Map<string, Flag[]>, k: string, f: Flag) => {
+    const list = m.get(k);
+    if (list) list.push(f);
+    else m.set(k, [f]);
+  };
+  for (const f of result.flags) {
+    if (f.elementId) into(elementFlags, f.elementId, f);
+    else if (f.bus !== undefined) into(busFlags, f.bus, f);
+  }
   const buses: Record<string, BusOverlay> = {};
   for (const b of result.buses) {
-    const flags = result.flags.filter((f) => f.bus === b.bus && !f.elementId);
+    const flags = busFlags.get(b.bus) ?? [];
     const vln: Record<string, number> = {};
     for (const [ph, v] of Object.entries(b.lineToNeutral)) vln[ph] = v.mag;
     buses[b.bus] = {
@@ -80,7 +92,7 @@ export function diagramOverlays(result: CircuitResult): DiagramOverlays {
   const elements: Record<string, ElementOverlay> = {};
   const loadsById = new Map((result.loads ?? []).map((l) => [l.id, l] as const));
   for (const e of Object.values(result.elements)) {
-    const flags = result.flags.filter((f) => f.elementId === e.id);
+    const flags = elementFlags.get(e.id) ?? [];
     const currents: ConductorCurrent[] = [];
     if (e.ports && e.ports.length > 0) {
       e.ports.forEach((p, port) =>
