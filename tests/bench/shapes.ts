@@ -4,9 +4,12 @@
  * - the primitive-only feeder (./primitive-feeder.ts: ~8.4 impedances per bus, 42 000 at 5 000 buses);
  * - the block-heavy benchmark feeder (./feeder.ts: coupled 4×4 line sections);
  * at 5 000 and 20 000 buses (BENCH_SHAPE_SIZES). Per file: `ngspice -b` on the same network (AC
- * netlist of the expanded primitives, binary raw output), then the CLI started as a new process,
- * `node server/cli/solve-launcher.mjs f.json --json` and `npm run -s solve -- f.json --json`, best
- * of 3, side by side in this one run; the ratios; and the CLI's own `--timings` split of its stages.
+ * netlist of the expanded primitives, binary raw output), then the CLI started as a new process
+ * three ways: its entry `server/cli/solve.sh f.json --json` (what `npm run solve` runs: node without
+ * NODE_EXTRA_CA_CERTS, see solve.sh; the figure the targets are read on), the plain
+ * `node server/cli/solve-launcher.mjs f.json --json` under this environment (with the variable when
+ * it is set, so the difference shows), and `npm run -s solve -- f.json --json`, best of 3, side by
+ * side in this one run; the ratios; and the CLI's own `--timings` split of its stages.
  * Wall time and CPU time (user + system, from /usr/bin/time): on a loaded machine the wall time
  * mostly measures the wait for a core, the CPU time much less so.
  * The machine load (`uptime`) is printed before and after: on a shared machine every figure moves
@@ -76,6 +79,7 @@ export function benchShapes(): void {
   const limit = Number(process.env.BENCH_SPICE_TIMEOUT_S ?? 900) * 1000;
   const dir = mkdtempSync(path.join(tmpdir(), 'wyeward-shapes-'));
   const launcher = path.join(root, 'server/cli/solve-launcher.mjs');
+  const entry = path.join(root, 'server/cli/solve.sh');
   const files: { label: string; file: object; target: string }[] = [{ label: '10-element file', file: tinyCircuit, target: '≤ 150 ms' }];
   for (const n of sizes) {
     const target = n >= 20000 ? '≥ 20×' : '≥ 5×';
@@ -83,6 +87,7 @@ export function benchShapes(): void {
     files.push({ label: `block-heavy ${n.toLocaleString('en-US')} buses`, file: radialFeeder(n), target });
   }
   console.log(`\nCLI whole process by file shape — ${uptime()}`);
+  console.log(`NODE_EXTRA_CA_CERTS ${process.env.NODE_EXTRA_CA_CERTS ? `is set (${process.env.NODE_EXTRA_CA_CERTS}): the plain launcher's node loads it, solve.sh's does not` : 'is not set'}`);
   // warm the launcher's bundle and code cache once (a build is not part of any figure)
   spawnSync(process.execPath, [launcher, '--timings'], { cwd: root, stdio: 'ignore' });
   const rows: string[] = [];
@@ -100,22 +105,23 @@ export function benchShapes(): void {
         if (!spice.ok && !spice.stopped) console.log(`  ${label}: ngspice failed: ${spice.stderr.split('\n').slice(-3).join(' ')}`);
       }
       const runs = prims.length > 100000 ? 2 : 3;
-      const direct = best(process.execPath, [launcher, json, '--json', '--timings'], runs);
+      const viaEntry = best(entry, [json, '--json', '--timings'], runs);
+      const direct = best(process.execPath, [launcher, json, '--json'], runs);
       const npm = best('npm', ['run', '-s', 'solve', '--', json, '--json'], runs);
       const stop = spice?.stopped ? '> ' : '';
       const ratio = (a: number | undefined, b: number | undefined) => (a === undefined || b === undefined ? '—' : `${stop}${(a / b).toFixed(a / b < 1 ? 2 : 1)}×`);
-      const row = `| ${label} | ${prims.length} | ${stop}${ms(spice?.wall)} (cpu ${ms(spice?.cpu)}) | ${ms(direct.wall)} (cpu ${ms(direct.cpu)}) | ${ms(npm.wall)} (cpu ${ms(npm.cpu)}) | ${ratio(spice?.wall, direct.wall)} | ${ratio(spice?.cpu, direct.cpu)} | ${ratio(spice?.wall, npm.wall)} | ${target} |${direct.ok && npm.ok ? '' : ' (CLI failed)'}`;
+      const row = `| ${label} | ${prims.length} | ${stop}${ms(spice?.wall)} (cpu ${ms(spice?.cpu)}) | ${ms(viaEntry.wall)} (cpu ${ms(viaEntry.cpu)}) | ${ms(direct.wall)} (cpu ${ms(direct.cpu)}) | ${ms(npm.wall)} (cpu ${ms(npm.cpu)}) | ${ratio(spice?.wall, viaEntry.wall)} | ${ratio(spice?.cpu, viaEntry.cpu)} | ${ratio(spice?.wall, direct.wall)} | ${ratio(spice?.wall, npm.wall)} | ${target} |${viaEntry.ok && direct.ok && npm.ok ? '' : ' (CLI failed)'}`;
       rows.push(row);
-      splits.push(`  ${label}: ${direct.stderr.trim().replace(/^solve timings: /, '')}`);
+      splits.push(`  ${label}: ${viaEntry.stderr.trim().replace(/^solve timings: /, '')}`);
       console.log(row);
     }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-  console.log('\n| file | primitives | ngspice -b, wall (cpu) | CLI `node solve-launcher.mjs --json`, wall (cpu) | CLI `npm run -s solve --json`, wall (cpu) | ngspice / CLI, wall (launcher) | ngspice / CLI, cpu (launcher) | ngspice / CLI, wall (npm) | target |');
-  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---|');
+  console.log('\n| file | primitives | ngspice -b, wall (cpu) | CLI `solve.sh --json`, wall (cpu) | CLI `node solve-launcher.mjs --json`, wall (cpu) | CLI `npm run -s solve --json`, wall (cpu) | ngspice / CLI, wall (solve.sh) | ngspice / CLI, cpu (solve.sh) | ngspice / CLI, wall (launcher) | ngspice / CLI, wall (npm) | target |');
+  console.log('|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|');
   for (const r of rows) console.log(r);
-  console.log('\nStages of the fastest launcher run (--timings):');
+  console.log('\nStages of the fastest solve.sh run (--timings):');
   for (const s of splits) console.log(s);
   console.log(`\nAfter: ${uptime()}`);
 }

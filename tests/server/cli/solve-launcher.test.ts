@@ -4,6 +4,8 @@
  * tsx path prints, keeps the exit codes, and falls back to tsx when asked. The lean start
  * (solve-lean.ts, loaded first): takes `--json` of a primitive-only file alone, hands every other
  * file to the full bundle with the same bytes, and is rebuilt when stale like the full bundle.
+ * The sh entry (server/cli/solve.sh, what `npm run solve` runs): the launcher's bytes and exit
+ * codes, with NODE_EXTRA_CA_CERTS unset for node.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
@@ -155,6 +157,26 @@ describe('solve CLI launcher', () => {
     const r = launch([bad, '--json']);
     expect(r.code).toBe(2);
     expect(r.stderr).toBe(viaTsx([bad, '--json']).stderr);
+  });
+
+  it('the sh entry prints what the launcher prints, keeps its exit codes and starts node without NODE_EXTRA_CA_CERTS', () => {
+    const env = { ...process.env, WYEWARD_CLI_CACHE: cache, NODE_EXTRA_CA_CERTS: path.join(dir, 'no-such-bundle.pem') };
+    const sh = (args: string[], cwd = root, entry = 'server/cli/solve.sh') => spawnSync(entry, args, { cwd, encoding: 'utf8', env });
+    for (const args of [[circuitFile, '--json'], [primitiveFile, '--json'], [circuitFile]]) {
+      const r = sh(args);
+      expect(r.stderr).toBe('');
+      expect(r.status).toBe(0);
+      expect(r.stdout).toBe(launch(args).stdout);
+    }
+    // started from its own folder, and through sh by name
+    expect(spawnSync('sh', ['solve.sh', primitiveFile, '--json'], { cwd: path.join(root, 'server/cli'), encoding: 'utf8', env }).stdout).toBe(launch([primitiveFile, '--json']).stdout);
+    const missing = sh([path.join(dir, 'nope.json'), '--json']);
+    expect(missing.status).toBe(2);
+    expect(missing.stderr).toMatch(/^solve: cannot read .*nope\.json: ENOENT\n$/);
+    // node warns about an unreadable NODE_EXTRA_CA_CERTS at start-up; through the sh entry it never reads it
+    const direct = spawnSync(process.execPath, ['server/cli/solve-launcher.mjs', circuitFile, '--json'], { cwd: root, encoding: 'utf8', env });
+    expect(direct.stderr).toMatch(/extra certs from .*no-such-bundle\.pem/);
+    expect(JSON.parse(readFileSync(path.join(root, 'package.json'), 'utf8')).scripts.solve).toBe('server/cli/solve.sh');
   });
 
   it('WYEWARD_CLI_NO_BUNDLE=1 runs the TypeScript through tsx, same output', () => {
