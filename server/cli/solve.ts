@@ -270,7 +270,7 @@ export function main(argv: string[], handOver?: { text?: string }): void {
     mark('apply case');
   }
   let result: CircuitResult | undefined;
-  const write = (chunk: string) => process.stdout.write(chunk);
+  const write = (chunk: string | Uint8Array) => process.stdout.write(chunk);
   try {
     // solveCircuit's steps, one by one so that --timings can split them
     const prepared = prepareCircuit(input);

@@ -22,10 +22,9 @@ function both(file: unknown): { general: string; fast: string | null; flagCodes:
   const result = circuitResults(prepared, sol);
   let general = '';
   writeJson(jsonResult(result), (c) => (general += c));
-  let fast = '';
-  const chunks: string[] = [];
+  const chunks: Uint8Array[] = [];
   const taken = writePrintedPrimitiveJson(prepared, sol, (c) => chunks.push(c), 4096);
-  fast = chunks.join('');
+  const fast = Buffer.concat(chunks).toString('utf8');
   return { general, fast: taken ? fast : (expect(fast).toBe(''), null), flagCodes: result.flags.map((f) => f.code) };
 }
 
@@ -111,6 +110,31 @@ describe('primitive-only --json fast path: same bytes as the general path', () =
   });
   it('declines on a file with building blocks', () => {
     expect(both(tinyCircuit).fast).toBeNull();
+  });
+  it('the byte writer gives the same bytes at every chunk size, with names to escape and in other scripts', () => {
+    // quotes, backslash, a control character, a lone surrogate, DEL, Latin-1, Cyrillic, CJK and an astral character
+    const names = ['a"q', 'b\\s', 'c\nl', 'd\ud800x', 'e\u007f', 'Überlandwerk', 'шина', '母線', '𝔸-bus'];
+    const file = primitiveFeeder(12, 3);
+    file.elements.forEach((e, k) => {
+      if (k % 5 === 0) e.id = `${names[k % names.length]}#${k}`;
+    });
+    const rename = (n: string) => (n.startsWith('b3.') ? `${names[(n.charCodeAt(3) + 1) % names.length]}.${n.slice(3)}` : n);
+    for (const e of file.elements) {
+      if ('from' in e) Object.assign(e, { from: rename(e.from), to: rename(e.to) });
+      else Object.assign(e, { plus: rename(e.plus), minus: rename(e.minus) });
+    }
+    const prepared = prepareCircuit(file);
+    const sol = solvePrimitives(prepared.primitives);
+    let general = '';
+    writeJson(jsonResult(circuitResults(prepared, sol)), (c) => (general += c));
+    for (const n of names) expect(general).toContain(JSON.stringify(n).slice(1, -1));
+    for (const size of [1, 2, 3, 5, 64, 4096, undefined]) {
+      const chunks: Uint8Array[] = [];
+      expect(writePrintedPrimitiveJson(prepared, sol, (c) => chunks.push(c), size)).toBe(true);
+      if (size !== undefined && size <= 64) expect(chunks.length).toBeGreaterThan(100); // many chunk borders crossed
+      const bytes = Buffer.concat(chunks);
+      expect(bytes.equals(Buffer.from(general, 'utf8')), `chunks of ${size}`).toBe(true);
+    }
   });
 });
 

@@ -31,9 +31,9 @@ function generalText(text: string): string {
 function typedText(text: string): string | null {
   const r = printedPrimitiveResultOfText(text);
   if (!r) return null;
-  const chunks: string[] = [];
+  const chunks: Uint8Array[] = [];
   writePrintedResult(r, (c) => chunks.push(c), 4096);
-  return chunks.join('');
+  return Buffer.concat(chunks).toString('utf8');
 }
 
 describe('typed --json path: the general path’s bytes', () => {
