@@ -120,8 +120,8 @@ describe('primitive-only --json fast path: same bytes as the general path', () =
     });
     const rename = (n: string) => (n.startsWith('b3.') ? `${names[(n.charCodeAt(3) + 1) % names.length]}.${n.slice(3)}` : n);
     for (const e of file.elements) {
-      if ('from' in e) Object.assign(e, { from: rename(e.from), to: rename(e.to) });
-      else Object.assign(e, { plus: rename(e.plus), minus: rename(e.minus) });
+      if (e.type === 'impedance' || e.type === 'currentSource') Object.assign(e, { from: rename(e.from), to: rename(e.to) });
+      else if (e.type === 'voltageSource') Object.assign(e, { plus: rename(e.plus), minus: rename(e.minus) });
     }
     const prepared = prepareCircuit(file);
     const sol = solvePrimitives(prepared.primitives);
