@@ -13,7 +13,7 @@
  * the general path, which gives its own result or error message.
  */
 import type { Cx, Primitive } from '../types.ts';
-import { ANSI_C84_1 } from '../limits/limit-values.ts';
+import { ANSI_C84_1, type LimitSet } from '../limits/limit-values.ts';
 import { computeFlags } from '../limits/flags.ts';
 import { primitivePowers, resultConventions, splitBusNode, TotalsSum } from '../results/build-results.ts';
 import type { BusResult } from '../results/types.ts';
@@ -47,7 +47,8 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
   const totals = elementTotals(f, sol);
   const elementTypes = new Array<string>(count);
   for (let k = 0; k < count; k++) elementTypes[k] = TYPE_NAMES[kind[k]];
-  const buses = flagBuses(f, vRe, vIm);
+  const limits = ANSI_C84_1; // what resolveLimits() gives a file without settings
+  const buses = flagBuses(f, vRe, vIm, limits);
   const currentStart = new Int32Array(count);
   for (let k = 0; k < count; k++) currentStart[k] = k;
   return {
@@ -63,7 +64,7 @@ function printedOfScanned(f: ScannedPrimitives, sol: ScannedSolution): PrintedPr
     cIm,
     totals: totals.result(sol.maxKclResidualAmps),
     floating: [],
-    flags: computeFlags(buses, [], [], ANSI_C84_1 /* what resolveLimits() gives a file without settings */, []),
+    flags: computeFlags(buses, [], [], limits, []),
     iterations: 1,
   };
 }
@@ -112,9 +113,12 @@ function elementTotals(f: ScannedPrimitives, sol: ScannedSolution): TotalsSum {
  * the nominal), and there are no floating parts here; only the unbalance of three-phase buses (a, b
  * and c present, no split-phase legs) remains. Those buses, in busResults' order (first named by a
  * node, in node order), with the same numbers from the same functions; the others are left out,
- * since they raise nothing.
+ * since they raise nothing: buses of fewer conductors, and those whose three unbalance figures are
+ * all within `limits` (computeFlags raises an unbalance flag only for a figure above its limit; a
+ * NaN is above none). Building a bus's result only when it flags matters on big files: ~5 000
+ * three-phase buses, few or none flagged, each a dozen phasor objects and computeFlags' work.
  */
-function flagBuses(f: ScannedPrimitives, vRe: Float64Array, vIm: Float64Array): BusResult[] {
+function flagBuses(f: ScannedPrimitives, vRe: Float64Array, vIm: Float64Array, limits: LimitSet): BusResult[] {
   const busIndex = new Map<string, number>();
   const busNames: string[] = [];
   const NC = CONDUCTORS.length;
@@ -149,6 +153,11 @@ function flagBuses(f: ScannedPrimitives, vRe: Float64Array, vIm: Float64Array): 
     const lineToNeutral = { a: toPhasor(sub(va, vn)), b: toPhasor(sub(vb, vn)), c: toPhasor(sub(vc, vn)) };
     const lineToLine = { ab: toPhasor(sub(va, vb)), bc: toPhasor(sub(vb, vc)), ca: toPhasor(sub(vc, va)) };
     const s = sequenceComponents(va, vb, vc, f.sequence);
+    const iec = iecUnbalancePercent(s.positive, s.negative);
+    const nema = maxDeviationUnbalancePercent([lineToLine.ab.mag, lineToLine.bc.mag, lineToLine.ca.mag]);
+    const ieee = maxDeviationUnbalancePercent([lineToNeutral.a.mag, lineToNeutral.b.mag, lineToNeutral.c.mag]);
+    const u = limits.unbalanceLimits;
+    if (!(iec > u.iec) && !(nema > u.nema) && !(ieee > u.ieee)) continue;
     const r: BusResult = {
       bus: busNames[b],
       kind: 'threePhase',
@@ -158,9 +167,9 @@ function flagBuses(f: ScannedPrimitives, vRe: Float64Array, vIm: Float64Array): 
       lnReference: hasN ? 'neutral' : 'earth',
       lineToLine,
       floating: false,
-      iecUnbalancePercent: iecUnbalancePercent(s.positive, s.negative),
-      nemaUnbalancePercent: maxDeviationUnbalancePercent([lineToLine.ab.mag, lineToLine.bc.mag, lineToLine.ca.mag]),
-      ieeeUnbalancePercent: maxDeviationUnbalancePercent([lineToNeutral.a.mag, lineToNeutral.b.mag, lineToNeutral.c.mag]),
+      iecUnbalancePercent: iec,
+      nemaUnbalancePercent: nema,
+      ieeeUnbalancePercent: ieee,
     };
     if (hasN) r.neutralToEarth = toPhasor(vn);
     out.push(r);
