@@ -1,5 +1,5 @@
 /**
- * The lean start of `solve` (launcher.mjs loads this bundle before the full one): `--json` of a
+ * The lean start of `solve` (launcher.cjs loads this bundle before the full one): `--json` of a
  * primitive-only file by the typed path (printedPrimitiveResultOfText, shared/engine/typed), with
  * nothing else loaded: no zod, no schemas, no building blocks, no general solver. Its bundle is
  * about a tenth of the full CLI's, so a file the typed path takes never pays for loading the rest.

@@ -1,7 +1,7 @@
 /**
  * What `npm run sweep` runs: `node server/cli/sweep-launcher.mjs <file.json> --set <path>=<from>:<to>:<steps> …`,
- * server/cli/sweep.ts from its cached bundle (see launcher.mjs for how and why).
+ * server/cli/sweep.ts from its cached bundle (see launcher.cjs for how and why).
  */
-import { launch } from './launcher.mjs';
+import { launch } from './launcher.cjs';
 
 await launch('sweep');

@@ -1,5 +1,6 @@
 /**
- * Fast start for the CLIs: `launch('solve')` (server/cli/solve-launcher.mjs, `npm run solve`) runs
+ * Fast start for the CLIs: `launch('solve')` (server/cli/solve-launcher.cjs, which `npm run solve`
+ * runs through solve.sh; solve-launcher.mjs for `node server/cli/solve-launcher.mjs`) runs
  * server/cli/solve.ts, `launch('sweep')` (sweep-launcher.mjs) server/cli/sweep.ts, `launch('balance')`
  * (balance-launcher.mjs) server/cli/balance.ts, each from its own
  * prebuilt single-file CommonJS bundle, rebuilt on demand with
@@ -9,7 +10,10 @@
  * Why: measured on this machine, `node --import tsx server/cli/solve.ts` spent ~1.7 s before reading
  * the file (tsx's loader transforming and resolving ~60 modules), against ~0.3 s for the bundle;
  * that start-up dominated the CLI at every size below 5 000 buses. Plain JavaScript on purpose: the
- * launcher itself must start without a TypeScript loader.
+ * launcher itself must start without a TypeScript loader. CommonJS on purpose: an ES module as the
+ * entry makes node set up its ES module loader first (measured: an empty .mjs file ~15 ms more CPU
+ * than an empty .cjs one and ~130 more page faults, at load ~12), so the entries that matter for
+ * speed (solve-launcher.cjs) are CommonJS; the .mjs launchers import this file.
  *
  * Freshness: the bundle's metafile lists every source it was built from; the bundle is fresh when
  * none of them (nor package-lock.json) is newer than the build, and the build options are the same.
@@ -28,13 +32,14 @@
  * imports locales/en.js itself); the `locales` namespace, which nothing here reads, is replaced by
  * one that holds `en` only (ZOD_LOCALES_EN), which takes ~0.36 MB out of ~1 MB.
  */
-import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import path from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import vm from 'node:vm';
+'use strict';
+const { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } = require('node:fs');
+const { createRequire } = require('node:module');
+const path = require('node:path');
+const { pathToFileURL } = require('node:url');
+const vm = require('node:vm');
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const root = path.resolve(__dirname, '../..');
 const cacheDir = process.env.WYEWARD_CLI_CACHE ? path.resolve(process.env.WYEWARD_CLI_CACHE) : path.join(root, 'node_modules/.cache/wyeward-cli');
 /** Paths of one CLI: its TypeScript entry and its bundle, code cache and build metadata. */
 const pathsOf = (name) => ({
@@ -85,7 +90,7 @@ const ZOD_LOCALES_EN = {
 async function build({ entry, bundlePath, codeCachePath, metaPath }) {
   let esbuild;
   try {
-    esbuild = await import('esbuild');
+    esbuild = require('esbuild');
   } catch {
     return false;
   }
@@ -179,7 +184,7 @@ async function leanStart(name, argv) {
 }
 
 /** Run the CLI `name` (server/cli/<name>.ts, which exports main(argv)) on this process's arguments. */
-export async function launch(name) {
+async function launch(name) {
   const argv = process.argv.slice(2);
   const handOver = await leanStart(name, argv);
   if (handOver === undefined) return;
@@ -187,3 +192,5 @@ export async function launch(name) {
   cli.main(argv, handOver);
   storeCache();
 }
+
+exports.launch = launch;
