@@ -481,8 +481,9 @@ function scan(s: string): ScannedPrimitives {
           if (!(Math.abs(zr) <= MAX_MAGNITUDE && Math.abs(zi) <= MAX_MAGNITUDE)) throw NO;
           if (type === S_IMPEDANCE && !(Math.max(Math.abs(zr), Math.abs(zi)) >= MIN_IMPEDANCE)) throw NO;
           const id = s.slice(idFrom, idTo);
-          if (idSet.has(id) || isSpecialKey(id)) throw NO;
-          idSet.add(id);
+          const known = idSet.size;
+          idSet.add(id); // one lookup: a repeated id leaves the size as it was
+          if (idSet.size === known || isSpecialKey(id)) throw NO;
           if (count === cap) {
             cap *= 2;
             [kind, n1, n2, vre, vim] = [grown(kind, new Uint8Array(cap)), grown(n1, new Int32Array(cap)), grown(n2, new Int32Array(cap)), grown(vre, new Float64Array(cap)), grown(vim, new Float64Array(cap))];
