@@ -15,6 +15,7 @@ import { readText } from './read-text.ts';
 import { printedPrimitiveResultOfText } from '../../shared/engine/typed/printed-scanned.ts';
 import { writePrintedResult } from './printed-write.ts';
 import { printTimings } from './timings.ts';
+import { writeOut } from './stdout.ts';
 
 /** What the lean start hands to the full CLI: the file's text when it has read it. */
 export interface HandOver {
@@ -47,7 +48,7 @@ export function main(argv: string[]): HandOver | undefined {
     printed = undefined; // never expected; the general path then reports in its own words
   }
   if (!printed) return { text };
-  writePrintedResult(printed, (chunk) => process.stdout.write(chunk));
+  writePrintedResult(printed, writeOut);
   marks.push(['results + JSON write', performance.now()]);
   if (timings) printTimings(t0, marks);
   return undefined;

@@ -25,6 +25,7 @@ import { writePrintedPrimitiveJson, writePrintedResult } from './printed-json.ts
 import { chunkedWriter } from './printed-write.ts';
 import { printTimings } from './timings.ts';
 import { readText } from './read-text.ts';
+import { writeOut } from './stdout.ts';
 // the engine's modules one by one, not its index: the index also loads the demo circuits and the
 // balancing code at start-up, which this CLI never uses
 import { EngineError } from '../../shared/engine/errors.ts';
@@ -240,7 +241,7 @@ export function main(argv: string[], handOver?: { text?: string }): void {
       printed = undefined; // never expected; the general path then reports in its own words
     }
     if (printed) {
-      writePrintedResult(printed, (chunk) => process.stdout.write(chunk));
+      writePrintedResult(printed, writeOut);
       mark('results + JSON write');
       if (timings) printTimings(t0, marks);
       return;
@@ -270,7 +271,7 @@ export function main(argv: string[], handOver?: { text?: string }): void {
     mark('apply case');
   }
   let result: CircuitResult | undefined;
-  const write = (chunk: string | Uint8Array) => process.stdout.write(chunk);
+  const write = writeOut;
   try {
     // solveCircuit's steps, one by one so that --timings can split them
     const prepared = prepareCircuit(input);
@@ -291,7 +292,7 @@ export function main(argv: string[], handOver?: { text?: string }): void {
     writeJson(jsonResult(result, full), write);
     mark('JSON write');
   } else if (result) {
-    process.stdout.write((studyCase ? `${caseHeading(studyCase)}\n` : '') + formatReport(result));
+    writeOut((studyCase ? `${caseHeading(studyCase)}\n` : '') + formatReport(result));
     mark('report');
   }
   if (timings) printTimings(t0, marks);
@@ -329,7 +330,7 @@ function solveAllCases(input: unknown, asJson: boolean, full: boolean): void {
     if (e instanceof EngineError) fail(2, e.message);
     throw e;
   }
-  const write = (chunk: string) => process.stdout.write(chunk);
+  const write = writeOut;
   const failures: { label: string; error: EngineError }[] = [];
   const entries: [string, StudyCase | undefined][] = [[BASE_CASE_ID, undefined], ...cases.map((c): [string, StudyCase] => [c.id, c])];
   if (asJson) write('{"cases":{');

@@ -179,6 +179,20 @@ describe('solve CLI launcher', () => {
     expect(JSON.parse(readFileSync(path.join(root, 'package.json'), 'utf8')).scripts.solve).toBe('server/cli/solve.sh');
   });
 
+  it('writes standard output whole through a pipe, and stops quietly when the reader goes away', () => {
+    const big = path.join(dir, 'big.json');
+    writeFileSync(big, JSON.stringify(primitiveFeeder(400, 3)));
+    const env = { ...process.env, WYEWARD_CLI_CACHE: cache };
+    const whole = launch([big, '--json']).stdout;
+    expect(whole.length).toBeGreaterThan(300_000); // more than a pipe holds
+    const piped = spawnSync('sh', ['-c', `server/cli/solve.sh '${big}' --json | cat`], { cwd: root, encoding: 'utf8', env, maxBuffer: 1 << 26 });
+    expect(piped.stdout).toBe(whole);
+    for (const args of [`'${big}' --json`, `'${big}' --json --full`, `'${big}'`]) {
+      const cut = spawnSync('sh', ['-c', `server/cli/solve.sh ${args} | head -c 100 >/dev/null`], { cwd: root, encoding: 'utf8', env });
+      expect(cut.stderr).toBe('');
+    }
+  });
+
   it('WYEWARD_CLI_NO_BUNDLE=1 runs the TypeScript through tsx, same output', () => {
     const other = path.join(dir, 'unused-cache');
     const r = launch([circuitFile, '--json'], { WYEWARD_CLI_NO_BUNDLE: '1', WYEWARD_CLI_CACHE: other });
