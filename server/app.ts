@@ -1,5 +1,6 @@
 /** Builds the Express app without listening: used by index.ts, dev.ts and the supertest tests. */
 import { randomUUID } from 'node:crypto';
+import type { IncomingMessage } from 'node:http';
 import express, { type Express } from 'express';
 import { originCheck, sessionMiddleware } from './auth/index.ts';
 import { createLucia } from './auth/lucia.ts';
@@ -41,6 +42,14 @@ export interface AppDeps {
   healthChecks?: Record<string, HealthCheck>;
 }
 
+/** A JSON body in UTF-8 (no charset named, or utf-8): read as bytes on the import path. */
+function isUtf8Json(req: IncomingMessage): boolean {
+  const type = req.headers['content-type'];
+  if (!type || type.split(';')[0].trim().toLowerCase() !== 'application/json') return false;
+  const charset = /;\s*charset\s*=\s*"?([^";\s]+)/i.exec(type)?.[1]?.toLowerCase();
+  return charset === undefined || charset === 'utf-8' || charset === 'utf8';
+}
+
 /** Largest accepted JSON body; a study's circuit and layout fit easily. */
 export const JSON_LIMIT = '2mb';
 
@@ -69,9 +78,10 @@ export function createApp({ db, config, mailer, objects, sweeps, mountClient, de
   });
   api.use(guardUrl);
   api.use(originCheck(config.appUrl));
-  // A study file is read as text and parsed with the rest of its checks in the work pool
-  // (services/transfer.ts): parsing and walking 2 MB here would stall every other request.
-  api.use('/studies/import', express.text({ type: 'application/json', limit: JSON_LIMIT }));
+  // A study file is kept as the bytes received and moved to the work pool, which decodes, parses
+  // and checks it (services/transfer.ts): decoding, checking or parsing 2 MB here would stall every
+  // other request. A body declared in another character set than UTF-8 is decoded here as text.
+  api.use('/studies/import', express.raw({ type: isUtf8Json, limit: JSON_LIMIT }), express.text({ type: 'application/json', limit: JSON_LIMIT }));
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(guardBody);
   api.use(sessionMiddleware(db, lucia, { maxDays: config.sessionMaxDays, idleHours: config.sessionIdleHours }));

@@ -32,9 +32,14 @@ export const guardUrl: RequestHandler = (req, _res, next) => {
   next();
 };
 
-/** Checks a parsed JSON body (mount right after express.json). */
+/**
+ * Checks a parsed JSON body (mount right after express.json). An uploaded study file (bytes or
+ * text, on the import path only) is checked where it is parsed, in the work pool
+ * (server/work/import-file.ts, the same checks): here it would cost the request thread a walk of
+ * up to 2 MB.
+ */
 export const guardBody: RequestHandler = (req, _res, next) => {
-  if (req.body !== undefined) {
+  if (req.body !== undefined && !Buffer.isBuffer(req.body) && typeof req.body !== 'string') {
     const p = findJsonProblem(req.body);
     if (p) throw refuse(p.path, p.message, req.originalUrl);
   }

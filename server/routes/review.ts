@@ -47,8 +47,10 @@ export function reviewRoutes({ db, mailer, config, objects }: RouteContext): Rou
 
   r.post('/import', write, async (req, res) => {
     const { name } = importQuerySchema.parse(req.query);
-    // The body arrives as text (app.ts): the file is parsed and checked in the work pool.
-    res.status(201).json(await importStudy(db, actorOf(res), typeof req.body === 'string' ? req.body : undefined, name));
+    // The body arrives as its bytes (or, in another character set, as text: app.ts): the file is
+    // decoded, parsed and checked in the work pool.
+    const body: unknown = req.body;
+    res.status(201).json(await importStudy(db, actorOf(res), Buffer.isBuffer(body) || typeof body === 'string' ? body : undefined, name));
   });
 
   // Revisions

@@ -62,7 +62,7 @@ async function nextRevisionNumber(db: Conn, studyId: string): Promise<number> {
   return (n ?? 0) + 1;
 }
 
-function revisionValues(r: Omit<RevisionInput, 'content'>, number: number, summary: ResultsSummary) {
+function revisionValues(r: Omit<RevisionInput, 'content' | 'summary'>, number: number) {
   return {
     studyId: r.studyId,
     teamId: r.teamId,
@@ -70,20 +70,19 @@ function revisionValues(r: Omit<RevisionInput, 'content'>, number: number, summa
     message: r.message ?? (r.restoredFrom ? `Restored revision ${r.restoredFrom}` : ''),
     authorId: r.authorId,
     engineVersion: ENGINE_VERSION,
-    summary,
     restoredFrom: r.restoredFrom ?? null,
     ...(r.at ? { createdAt: r.at } : {}),
   };
 }
 
-async function auditRevision(db: Conn, r: Omit<RevisionInput, 'content'>, number: number, summary: ResultsSummary): Promise<void> {
+async function auditRevision(db: Conn, r: Omit<RevisionInput, 'content' | 'summary'>, number: number, solved: boolean): Promise<void> {
   if (r.audit === false) return;
   await recordAudit(db, {
     teamId: r.teamId,
     actorId: r.authorId,
     action: r.restoredFrom ? 'revision.restore' : 'revision.create',
     studyId: r.studyId,
-    detail: { revision: number, ...(r.restoredFrom ? { restoredFrom: r.restoredFrom } : {}), solved: summary.ok },
+    detail: { revision: number, ...(r.restoredFrom ? { restoredFrom: r.restoredFrom } : {}), solved },
   });
 }
 
@@ -97,9 +96,9 @@ export async function appendRevision(db: Conn, r: RevisionInput): Promise<Revisi
   const summary = r.summary ?? summarizeCircuit(r.content.circuit);
   const [row] = await db
     .insert(studyRevisions)
-    .values({ ...revisionValues(r, number, summary), content: r.content })
+    .values({ ...revisionValues(r, number), summary, content: r.content })
     .returning();
-  await auditRevision(db, r, number, summary);
+  await auditRevision(db, r, number, summary.ok);
   return row;
 }
 
@@ -108,10 +107,19 @@ export async function appendRevision(db: Conn, r: RevisionInput): Promise<Revisi
  * import: its content arrives already serialised, and up to 2 MB of JSON is neither sent a second
  * time nor read back). Returns the revision's number.
  */
-export async function appendRevisionOfStoredContent(db: Conn, r: Omit<RevisionInput, 'content' | 'summary'> & { summary: ResultsSummary }): Promise<number> {
+export async function appendRevisionOfStoredContent(
+  db: Conn,
+  r: Omit<RevisionInput, 'content' | 'summary'> & { summaryJson: string; summaryOk: boolean },
+): Promise<number> {
   const number = await nextRevisionNumber(db, r.studyId);
-  await db.insert(studyRevisions).values({ ...revisionValues(r, number, r.summary), content: sql`(select content from studies where id = ${r.studyId})` });
-  await auditRevision(db, r, number, r.summary);
+  // The summary arrives as JSON text from the work pool (a large study's is over a megabyte): cast
+  // in the database, not serialised here.
+  await db.insert(studyRevisions).values({
+    ...revisionValues(r, number),
+    summary: sql`${r.summaryJson}::jsonb`,
+    content: sql`(select content from studies where id = ${r.studyId})`,
+  });
+  await auditRevision(db, r, number, r.summaryOk);
   return number;
 }
 

@@ -230,7 +230,7 @@ export async function createStudy(db: Db, actor: Actor, input: CreateStudyReques
 export async function createImportedStudy(
   db: Db,
   actor: Actor,
-  v: { name: string; description: string; contentJson: string; format: string; summary: ResultsSummary },
+  v: { name: string; description: string; contentJson: string; format: string; summaryJson: string; summaryOk: boolean },
 ): Promise<CreatedStudy> {
   return db.transaction(async (tx) => {
     const [row] = await tx
@@ -244,7 +244,7 @@ export async function createImportedStudy(
         updatedBy: actor.userId,
       })
       .returning({ id: studies.id, version: studies.version });
-    await appendRevisionOfStoredContent(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, message: `Imported from a ${v.format} file`, summary: v.summary });
+    await appendRevisionOfStoredContent(tx, { studyId: row.id, teamId: actor.teamId, authorId: actor.userId, message: `Imported from a ${v.format} file`, summaryJson: v.summaryJson, summaryOk: v.summaryOk });
     await recordAudit(tx, { teamId: actor.teamId, actorId: actor.userId, action: 'study.import', studyId: row.id, detail: { name: v.name, format: v.format } });
     return row;
   });

@@ -32,12 +32,20 @@ export async function exportStudy(db: Db, actor: Actor, id: string): Promise<{ f
 }
 
 /**
- * Creates a study from an uploaded file's text (the request body as sent; undefined when it was not
- * JSON). Reading and checking it (parse, input boundary, schema, the engine's check and solve) runs
- * in the work pool; a problem is a 400 listing every field by its path in the file.
+ * Creates a study from an uploaded file (the request body as sent: its UTF-8 bytes, which are moved
+ * to the work pool, or its text; undefined when it was not JSON). Reading and checking it (decode,
+ * parse, input boundary, schema, the engine's check and solve, the JSON text to store) runs in the
+ * work pool; a problem is a 400 listing every field by its path in the file.
  */
-export async function importStudy(db: Db, actor: Actor, text: string | undefined, nameOverride?: string): Promise<CreatedStudy> {
-  const file = await work().readStudyFile(text);
+export async function importStudy(db: Db, actor: Actor, body: Uint8Array | string | undefined, nameOverride?: string): Promise<CreatedStudy> {
+  const file = await work().readStudyFile(body);
   if (!file.ok) throw new AppError(400, 'validation', file.message, { fields: file.fields });
-  return createImportedStudy(db, actor, { name: nameOverride ?? file.name, description: file.description, contentJson: file.contentJson, format: file.format, summary: file.summary });
+  return createImportedStudy(db, actor, {
+    name: nameOverride ?? file.name,
+    description: file.description,
+    contentJson: file.contentJson,
+    format: file.format,
+    summaryJson: file.summaryJson,
+    summaryOk: file.summaryOk,
+  });
 }

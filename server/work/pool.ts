@@ -36,8 +36,11 @@ export interface WorkPoolOptions {
 
 export interface WorkPool {
   prepare(circuit: unknown): Promise<Prepared>;
-  /** An uploaded study file from its text to what is stored (import-file.ts). */
-  readStudyFile(text: string | undefined): Promise<StudyFileReading>;
+  /**
+   * An uploaded study file from its bytes (UTF-8) or text to what is stored (import-file.ts). Bytes
+   * are moved to the thread, not copied: the caller must not use them afterwards.
+   */
+  readStudyFile(body: Uint8Array | string | undefined): Promise<StudyFileReading>;
   diff(from: DiffSide, to: DiffSide): Promise<RevisionDiff>;
   /**
    * Phase balancing, always on a worker thread; `signal` cancels it (the thread's job is stopped);
@@ -99,9 +102,12 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
       if (elementCount(circuit) < INLINE_ELEMENTS) return prepare(circuit);
       return run<Prepared>({ kind: 'prepare', circuit });
     },
-    async readStudyFile(text) {
-      if (text === undefined || text.length < INLINE_FILE_CHARS) return readStudyFile(text);
-      return run<StudyFileReading>({ kind: 'import', text });
+    async readStudyFile(body) {
+      if (body === undefined || body.length < INLINE_FILE_CHARS) return readStudyFile(body);
+      if (typeof body === 'string') return run<StudyFileReading>({ kind: 'import', body });
+      // Moved, not cloned: a view of part of a larger buffer is first copied into one of its own.
+      const own = body.byteOffset === 0 && body.byteLength === body.buffer.byteLength && body.buffer instanceof ArrayBuffer ? body : new Uint8Array(body);
+      return run<StudyFileReading>({ kind: 'import', body: own }, undefined, timeoutMs, [own.buffer as ArrayBuffer]);
     },
     async balance(task, signal, onProgress) {
       if (!onProgress) return run<BalanceOutcome>(task, signal);

@@ -5,6 +5,6 @@ import { readStudyFile, type ImportTask } from './import-file.ts';
 
 export default function work(task: Task | BalanceTask | ImportTask) {
   if (task.kind === 'balance') return runBalance(task);
-  if (task.kind === 'import') return readStudyFile(task.text);
+  if (task.kind === 'import') return readStudyFile(task.body);
   return runTask(task);
 }

@@ -16,6 +16,7 @@ import { startMailSink } from '../../server/mail/sink.ts';
 import { rawMail, TEAM_HEADER } from '../../server/mail/store.ts';
 import { jobs } from '../../server/db/schema.ts';
 import { createJobRunner } from '../../server/jobs/index.ts';
+import { prepare } from '../../server/work/tasks.ts';
 import { eq, sql } from 'drizzle-orm';
 import { makeApp, makeTeam, makeUser, signedIn, type TestApp } from './helpers.ts';
 import { openTestDb } from './test-db.ts';
@@ -123,6 +124,9 @@ describe('attachments', () => {
   });
 });
 
+/** Sends a Buffer body as its bytes (superagent would otherwise write a JSON-typed Buffer as JSON). */
+const asSent = (body: unknown) => body as string;
+
 describe('export and import', () => {
   it('exports a wyeward-study file with the circuit, layout and settings, and imports it back', async () => {
     const res = await viewer.get(`/api/studies/${studyId}/export`);
@@ -137,6 +141,45 @@ describe('export and import', () => {
     const s = await engineer.get(`/api/studies/${imported.body.id}`);
     expect(s.body).toMatchObject({ name: 'Imported farm', description: 'Split-phase', revision: 1, content: { circuit, layout: file.layout, settings: file.settings } });
     expect((await viewer.post('/api/studies/import').send(file)).status).toBe(403);
+  });
+
+  it('imports a file large enough for the work pool, sent as UTF-8 bytes, and stores its content as sent (the same JSON values; jsonb keeps its own key order)', async () => {
+    // Over 32 kB, so the bytes are moved to a work thread, decoded there and stored as the JSON text it makes;
+    // names in several scripts, so the UTF-8 decoding is exercised on multi-byte characters.
+    const load = circuit.elements.find((e) => e.type === 'load')!;
+    const big = { ...circuit, elements: [...circuit.elements, ...Array.from({ length: 600 }, (_, i) => ({ ...load, id: `Ström-Ω-電-${i}` }))] };
+    const layout = { note: 'Straße — façade ✓', at: { x: 1.5, y: -2.25 } };
+    const file = { format: 'wyeward-study', version: 1, name: 'Grosse Datei Ω', circuit: big, layout, settings: { grid: 20 } };
+    const bytes = Buffer.from(JSON.stringify(file), 'utf8');
+    expect(bytes.length).toBeGreaterThan(32 * 1024);
+    const res = await engineer.post('/api/studies/import').set('Content-Type', 'application/json').serialize(asSent).send(bytes);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const stored = await engineer.get(`/api/studies/${res.body.id}`);
+    expect(stored.body.name).toBe('Grosse Datei Ω');
+    expect(stored.body.content.circuit).toStrictEqual(big);
+    expect(stored.body.content.layout).toStrictEqual(layout);
+    const exported = await engineer.get(`/api/studies/${res.body.id}/export`);
+    expect(JSON.parse(exported.text).circuit).toStrictEqual(big);
+    // The first revision holds the same content and the summary the work thread solved and serialised.
+    const revisions = await engineer.get(`/api/studies/${res.body.id}/revisions`);
+    expect(revisions.body.items).toHaveLength(1);
+    expect(revisions.body.items[0].results).toMatchObject({ ok: true });
+    const first = await engineer.get(`/api/studies/${res.body.id}/revisions/1`);
+    expect(first.body.content.circuit).toStrictEqual(big);
+    const inline = prepare(big);
+    expect(inline.ok).toBe(true);
+    expect(first.body.summary).toStrictEqual(inline.ok ? inline.summary : null);
+  });
+
+  it('reads a file declared in another character set as text, and one starting with a byte-order mark', async () => {
+    const latin1 = Buffer.from(JSON.stringify({ ...circuit, name: 'Façade' }), 'latin1');
+    const res = await engineer.post('/api/studies/import').set('Content-Type', 'application/json; charset=iso-8859-1').serialize(asSent).send(latin1);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect((await engineer.get(`/api/studies/${res.body.id}`)).body.name).toBe('Façade');
+    const withMark = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(JSON.stringify({ ...circuit, name: 'Marked' }), 'utf8')]);
+    const marked = await engineer.post('/api/studies/import').set('Content-Type', 'application/json').serialize(asSent).send(withMark);
+    expect(marked.status, JSON.stringify(marked.body)).toBe(201);
+    expect((await engineer.get(`/api/studies/${marked.body.id}`)).body.name).toBe('Marked');
   });
 
   it('imports a bare wyeward-circuit file, named after the circuit', async () => {
