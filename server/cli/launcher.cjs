@@ -63,15 +63,18 @@ const mtime = (p) => {
   }
 };
 
-/** True when the bundle exists and none of its sources is newer than its build. */
-function isFresh({ bundlePath, metaPath }) {
+/**
+ * True when the bundle exists and none of its sources is newer than its build. `key`: the build
+ * options' key (server/start.mjs builds the server with its own).
+ */
+function isFresh({ bundlePath, metaPath }, key = OPTIONS_KEY) {
   let meta;
   try {
     meta = JSON.parse(readFileSync(metaPath, 'utf8'));
   } catch {
     return false;
   }
-  if (meta.key !== OPTIONS_KEY || !Array.isArray(meta.inputs) || !(meta.builtFrom >= 0)) return false;
+  if (meta.key !== key || !Array.isArray(meta.inputs) || !(meta.builtFrom >= 0)) return false;
   if (mtime(bundlePath) === Infinity) return false;
   for (const rel of [...meta.inputs, ...EXTRA_INPUTS]) if (mtime(path.join(root, rel)) > meta.builtFrom) return false;
   return true;
@@ -86,8 +89,11 @@ const ZOD_LOCALES_EN = {
   },
 };
 
-/** Build the bundle with esbuild's JS API; returns false when it cannot. */
-async function build({ entry, bundlePath, codeCachePath, metaPath }) {
+/**
+ * Build the bundle with esbuild's JS API; returns false when it cannot. `key` and `options` (more
+ * esbuild options, e.g. another format and plugins) for bundles other than the CLIs' (server/start.mjs).
+ */
+async function build({ entry, bundlePath, codeCachePath, metaPath }, { key = OPTIONS_KEY, options = {} } = {}) {
   let esbuild;
   try {
     esbuild = require('esbuild');
@@ -95,7 +101,8 @@ async function build({ entry, bundlePath, codeCachePath, metaPath }) {
     return false;
   }
   const started = Date.now(); // taken before the build: a file saved during it triggers the next one
-  const tmp = path.join(cacheDir, `${path.basename(bundlePath, '.cjs')}.${process.pid}.${started}.tmp.cjs`);
+  const ext = path.extname(bundlePath);
+  const tmp = path.join(cacheDir, `${path.basename(bundlePath, ext)}.${process.pid}.${started}.tmp${ext}`);
   try {
     mkdirSync(cacheDir, { recursive: true });
     const result = await esbuild.build({
@@ -110,12 +117,13 @@ async function build({ entry, bundlePath, codeCachePath, metaPath }) {
       logLevel: 'silent',
       legalComments: 'none',
       plugins: [ZOD_LOCALES_EN],
+      ...options,
     });
     const inputs = Object.keys(result.metafile.inputs).filter((p) => !p.startsWith('node_modules/') && !p.includes('/node_modules/'));
     renameSync(tmp, bundlePath);
     rmSync(codeCachePath, { force: true });
     const metaTmp = `${metaPath}.${process.pid}.tmp`;
-    writeFileSync(metaTmp, JSON.stringify({ key: OPTIONS_KEY, builtFrom: started - 1, inputs }));
+    writeFileSync(metaTmp, JSON.stringify({ key, builtFrom: started - 1, inputs }));
     renameSync(metaTmp, metaPath);
     return true;
   } catch {
@@ -194,3 +202,7 @@ async function launch(name) {
 }
 
 exports.launch = launch;
+// for server/start.mjs, which builds and caches the server's own bundle the same way
+exports.cacheDir = cacheDir;
+exports.isFresh = isFresh;
+exports.build = build;

@@ -8,6 +8,9 @@ import { mkdtempSync, openSync, readdirSync, readFileSync, rmSync } from 'node:f
 import { createServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
+import { ensureClientBuild } from '../../../server/client-build.ts';
+// @ts-expect-error plain JavaScript without declarations
+import { serverBundle } from '../../../server/start.mjs';
 import { adminQuery, startCluster, type Cluster } from '../../server/pg/cluster.ts';
 
 export const ROOT = path.resolve(import.meta.dirname, '../../..');
@@ -35,8 +38,15 @@ async function freePort(): Promise<number> {
   });
 }
 
-/** Starts the server; `dataDir` (kept on stop) instead of a fresh directory removed on stop. */
+/**
+ * Starts the server; `dataDir` (kept on stop) instead of a fresh directory removed on stop. The
+ * client is built first when stale, and the server's bundle made (here, not in the measured
+ * server: npm start would otherwise build the client in its own process, which then holds several
+ * hundred MB more, and a build is not part of any figure).
+ */
 export async function startServer(env: Record<string, string> = {}, { dataDir: keptDir }: { dataDir?: string } = {}): Promise<BenchServer> {
+  await ensureClientBuild(ROOT);
+  if (process.env.BENCH_SERVER_TSX !== '1' && !(await serverBundle())) throw new Error('the server bundle could not be built (run `npm start` to see why)');
   const port = await freePort();
   const dataDir = keptDir ?? mkdtempSync(path.join(tmpdir(), 'wyeward-bench-'));
   const url = `http://127.0.0.1:${port}`;
@@ -51,7 +61,10 @@ export async function startServer(env: Record<string, string> = {}, { dataDir: k
   // CPU profile per thread when it stops; `--trace-gc`); BENCH_SERVER_LOG=<file>: its standard output there.
   const nodeArgs = (process.env.BENCH_NODE_ARGS ?? '').split(' ').filter(Boolean);
   const log = process.env.BENCH_SERVER_LOG ? openSync(process.env.BENCH_SERVER_LOG, 'a') : 'ignore';
-  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
+  // What `npm start` runs (server/start.mjs: the server's cached bundle); BENCH_SERVER_TSX=1 runs
+  // server/index.ts through tsx instead (the way npm start ran before the bundle), for comparisons.
+  const entry = process.env.BENCH_SERVER_TSX === '1' ? ['--import', 'tsx', 'server/index.ts'] : ['server/start.mjs'];
+  const child = spawn(process.execPath, [...nodeArgs, ...entry], {
     cwd: ROOT,
     env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...dbEnv, ...env },
     stdio: ['ignore', log, 'inherit'],

@@ -3,16 +3,14 @@
  * target ≤ 300 MB), on the embedded database: a first start on a fresh data directory (initdb,
  * migrations, demo seed) and a restart on that directory, each sampled IDLE_RSS_SECONDS (default
  * 20 and 60) after it answers /api/health, without any request meanwhile. Prints figures only,
- * with the machine's load. The client is built first if stale (here, so that the server's own
- * build of it, which `npm start` makes in its process, is not counted).
+ * with the machine's load. The client is built first if stale (harness.ts: so that the server's own
+ * build of it, which `npm start` makes in its process, is not counted). BENCH_SERVER_TSX=1 runs
+ * the server through tsx instead of its bundle (harness.ts).
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { ensureClientBuild } from '../../../server/client-build.ts';
-import { machineLoad, ROOT, rssMb, startServer } from './harness.ts';
-
-await ensureClientBuild(ROOT);
+import { machineLoad, rssMb, startServer } from './harness.ts';
 
 const AT = (process.env.IDLE_RSS_SECONDS ?? '20,60').split(',').map(Number);
 const dataDir = mkdtempSync(path.join(tmpdir(), 'wyeward-rss-'));
