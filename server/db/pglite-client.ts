@@ -27,6 +27,13 @@ const YOUNG_GENERATION_MB = 4;
 /** Answers, and batches of messages, of at least this many bytes are moved to the other thread (transferred); smaller ones are copied, which costs less. */
 const MOVE_BYTES = 16 * 1024;
 
+/** Atomics.waitAsync (in Node since 16; ES2024, newer than the project's `lib`). */
+const waitAsync = (
+  Atomics as unknown as {
+    waitAsync(a: Int32Array, index: number, value: number, timeoutMs?: number): { async: false; value: 'not-equal' | 'timed-out' } | { async: true; value: Promise<'ok' | 'timed-out'> };
+  }
+).waitAsync;
+
 /** A statement running for longer than this makes the health probe wait for the thread (and so time out when stuck). */
 export const BUSY_HEALTHY_MS = 1000;
 
@@ -96,17 +103,47 @@ class ThreadSocket extends Duplex {
     done();
   }
 
+  /**
+   * Sends the queued messages as one batch. Small ones are copied together into one array; a large
+   * one (a Bind carrying a big parameter) is moved as node-postgres wrote it, not copied: it owns
+   * its ArrayBuffer (node-postgres's writer starts a new one after each message), and copying
+   * megabytes into fresh memory costs the request thread milliseconds per megabyte on this kind of
+   * machine (page faults), in the same task as the query's serialisation.
+   */
   private flushQueued() {
     if (!this.port || this.queued.length === 0) return;
-    const total = this.queued.reduce((n, c) => n + c.byteLength, 0);
-    const bytes = new Uint8Array(total); // its own ArrayBuffer (a Buffer may be a slice of a shared pool), so a large batch can be moved
-    let at = 0;
+    const parts: Uint8Array[] = [];
+    const moved: ArrayBuffer[] = [];
+    let small: Uint8Array[] = [];
+    const gather = () => {
+      if (small.length === 0) return;
+      const total = small.reduce((n, c) => n + c.byteLength, 0);
+      const bytes = new Uint8Array(total); // its own ArrayBuffer (a Buffer may be a slice of a shared pool), so it can be moved
+      let at = 0;
+      for (const c of small) {
+        bytes.set(c, at);
+        at += c.byteLength;
+      }
+      parts.push(bytes);
+      if (total >= MOVE_BYTES) moved.push(bytes.buffer);
+      small = [];
+    };
     for (const c of this.queued) {
-      bytes.set(c, at);
-      at += c.byteLength;
+      if (c.byteLength >= MOVE_BYTES && c.buffer instanceof ArrayBuffer && c.buffer.byteLength < 2 * c.byteLength + 64 * 1024 && !moved.includes(c.buffer)) {
+        gather();
+        parts.push(c);
+        moved.push(c.buffer);
+      } else small.push(c);
     }
+    gather();
     this.queued = [];
-    this.port.postMessage(bytes, bytes.byteLength >= MOVE_BYTES ? [bytes.buffer] : []);
+    const message = parts.length === 1 ? parts[0] : parts;
+    try {
+      this.port.postMessage(message, moved);
+    } catch {
+      // A buffer that may not be moved (one of Node's shared pools): copied instead.
+      this.port.postMessage(message);
+    }
   }
 
   _final(done: (err?: Error | null) => void) {
@@ -246,9 +283,20 @@ export async function startPgliteThread(options: PgliteThreadOptions): Promise<P
   return {
     pool,
     async ping() {
-      if (Atomics.load(flags, BUSY) === 1 && Date.now() - epoch - Atomics.load(flags, SINCE) < BUSY_HEALTHY_MS) return;
-      const a = await control({ type: 'ping' });
-      if (!a.ok) throw new Error(a.message ?? 'the embedded database did not answer');
+      const workingNow = () => Atomics.load(flags, BUSY) === 1 && Date.now() - epoch - Atomics.load(flags, SINCE) < BUSY_HEALTHY_MS;
+      if (workingNow()) return;
+      const answered = control({ type: 'ping' }).then((a) => {
+        if (!a.ok) throw new Error(a.message ?? 'the embedded database did not answer');
+      });
+      // The probe waits behind statements that reached the thread before it (a 2 MB insert takes
+      // ~0.1 s there). The thread beginning one of them meanwhile is as good an answer: it signals
+      // it through the shared flag (Atomics.notify), so the probe does not wait for the statement's end.
+      const begun = new Promise<void>((resolve) => {
+        const w = waitAsync(flags, BUSY, 0, BUSY_HEALTHY_MS * 5);
+        if (w.async) void w.value.then((r) => r === 'ok' && workingNow() && resolve());
+      });
+      answered.catch(() => {}); // a failure after the thread was seen working is not this probe's
+      await Promise.race([answered, begun]);
     },
     async dump() {
       const a = await control({ type: 'dump' });

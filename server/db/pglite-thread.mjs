@@ -92,6 +92,7 @@ let startups = 0;
 async function exec(message) {
   Atomics.store(state, SINCE, Date.now() - data.epoch);
   Atomics.store(state, BUSY, 1);
+  Atomics.notify(state, BUSY); // a health probe waiting for the thread to show it works (pglite-client.ts)
   try {
     // The streaming form: PGlite's execProtocolRaw (0.5.17) also parses every answer into a list of
     // results it never empties (about 0.5 kB of heap per statement, never freed: 60 MB after ten
@@ -193,9 +194,13 @@ function serve(conn) {
     }
     if (terminate) finish();
   };
-  conn.on('message', (/** @type {Uint8Array} */ chunk) => {
+  conn.on('message', (/** @type {Uint8Array | Uint8Array[]} */ m) => {
     if (closed) return;
-    pending = pending.length === 0 ? Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength) : Buffer.concat([pending, chunk]);
+    // One batch of messages: one array, or its parts (large ones moved as they were written, pglite-client.ts).
+    const parts = Array.isArray(m) ? m : [m];
+    const first = parts[0];
+    pending =
+      pending.length === 0 && parts.length === 1 ? Buffer.from(first.buffer, first.byteOffset, first.byteLength) : Buffer.concat([pending, ...parts]);
     take();
   });
   conn.on('close', finish);

@@ -65,6 +65,21 @@ describe('PGlite in its own thread', () => {
     expect(await names()).toHaveLength(1);
   });
 
+  it('moves a large parameter to the thread as written and stores it unchanged, in a batch with small messages', async () => {
+    await queryRows(db, 'create table big_params (id int primary key, body jsonb not null, note text not null)');
+    // ~2 MB of JSON text with characters of several byte lengths in UTF-8
+    const value = { rows: Array.from({ length: 20_000 }, (_, i) => ({ i, name: `Ström Ω 電 ${i}`, x: i / 7 })) };
+    const text = JSON.stringify(value);
+    expect(Buffer.byteLength(text)).toBeGreaterThan(1_000_000);
+    await queryRows(db, 'insert into big_params (id, body, note) values ($1, $2::jsonb, $3)', [1, text, 'small beside it']);
+    const [row] = await queryRows<{ body: unknown; note: string; n: number }>(db, 'select body, note, jsonb_array_length(body->\'rows\')::int as n from big_params where id = $1', [1]);
+    expect(row.n).toBe(20_000);
+    expect(row.note).toBe('small beside it');
+    expect(row.body).toStrictEqual(value);
+    // and the connection goes on with small statements after it
+    expect(await queryRows(db, 'select $1::int + 1 as n', [41])).toEqual([{ n: 42 }]);
+  });
+
   it('answers the health probe between statements and inside another connection’s transaction', async () => {
     await expect(pingDb(db)).resolves.toBeUndefined();
     const client = await poolOf(db).connect();
