@@ -10,7 +10,7 @@ import { circuitNames } from '../../shared/review/user-names.ts';
 import { diffRevisions, type DiffSide, type RevisionDiff } from '../../shared/review/diff.ts';
 import { summarizeCircuit, type ResultsSummary } from '../../shared/review/summary.ts';
 import { resultsCsv, type CsvInput } from '../report/csv.ts';
-import { renderReportPdf, type ReportInput } from '../report/pdf.ts';
+import type { ReportInput } from '../report/pdf.ts';
 
 export interface CircuitIssue {
   /** Path inside the circuit (`elements.3.r`), or "(root)". */
@@ -77,7 +77,9 @@ export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof
     case 'diff':
       return diffRevisions(task.from, task.to);
     case 'report':
-      return renderReportPdf(task.input);
+      // pdfmake (with its PDF and font libraries) is loaded on the first report, not when the server
+      // starts: an idle server does not hold it (docs/performance-log.md).
+      return import('../report/pdf.ts').then(({ renderReportPdf }) => renderReportPdf(task.input));
     case 'csv':
       return resultsCsv(task.input);
   }
