@@ -49,7 +49,9 @@ function send(method: string, path: string, headers: Record<string, string>, bod
       res.on('data', (c: string) => (text += c));
       res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
     });
-    req.on('error', reject);
+    // Whether the request went out on a kept-alive connection used before (a failure there can be the
+    // keep-alive race: the server closing an idle connection as the request reaches it).
+    req.on('error', (e: Error & { reused?: boolean }) => reject(Object.assign(e, { reused: req.reusedSocket })));
     if (body) req.write(body);
     req.end();
   });
@@ -93,7 +95,7 @@ try {
   const latencies: number[] = [];
   let errors = 0;
   const statuses = new Map<number, number>();
-  /** Requests that got no HTTP answer, by the client's error code (ECONNRESET, EPIPE…). */
+  /** Requests that got no HTTP answer, by the client's error code (ECONNRESET, EPIPE…), whether the connection was a reused one, and when. */
   const failures = new Map<string, number>();
   const inFlight: Promise<void>[] = [];
   const start = performance.now();
@@ -119,7 +121,7 @@ try {
         })
         .catch((e: unknown) => {
           errors++;
-          const code = String((e as { code?: unknown }).code ?? (e as Error).message ?? e);
+          const code = `${String((e as { code?: unknown }).code ?? (e as Error).message ?? e)} (${(e as { reused?: boolean }).reused ? 'reused connection' : 'new connection'}, after ${(performance.now() - t).toFixed(0)} ms)`;
           failures.set(code, (failures.get(code) ?? 0) + 1);
           latencies.push(performance.now() - t);
         }),
