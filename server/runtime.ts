@@ -18,7 +18,7 @@ import { moveLocalMail } from './mail/store.ts';
 import { createSweepRunner } from './services/sweep-run.ts';
 import { clearExpiredThrottles } from './auth/rate-limit.ts';
 import { closeWork, configureWork } from './work/index.ts';
-import { drainServer, trackRequests } from './shutdown.ts';
+import { drainServer, keepIdleConnections, trackRequests } from './shutdown.ts';
 import { moveLocalAttachments } from './storage/move-attachments.ts';
 import { objectStoreFor } from './storage/objects.ts';
 
@@ -107,6 +107,7 @@ export async function run(config: Config, mountClient: (app: Express) => void, {
   const app = createApp({ db, config, mailer, objects, sweeps, mountClient, dev });
 
   trackRequests(server);
+  keepIdleConnections(server);
   server.on('request', app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);

@@ -57,3 +57,20 @@ export function drainServer(server: Server, timeoutMs: number): Promise<number> 
     server.closeIdleConnections();
   });
 }
+
+/**
+ * How long an idle keep-alive connection stays open. Node's default (5 s) is shorter than the idle
+ * time of most clients in front of the app (undici/fetch keeps connections 4 s at most, but load
+ * balancers and proxies 60 s, Node's http.Agent without a timeout for ever): the server then closes
+ * connections that a client is about to reuse, and a request written at that moment gets no answer
+ * (ECONNRESET, EPIPE: the likely cause of the requests without an answer in the load and import
+ * benchmarks on a loaded machine, where timers run late). Longer than a
+ * proxy's 60 s, so the client side closes first; headersTimeout must exceed it.
+ */
+export const KEEP_ALIVE_TIMEOUT_MS = 65_000;
+
+/** Applies KEEP_ALIVE_TIMEOUT_MS (and a headersTimeout above it) to `server`. */
+export function keepIdleConnections(server: Server): void {
+  server.keepAliveTimeout = KEEP_ALIVE_TIMEOUT_MS;
+  server.headersTimeout = KEEP_ALIVE_TIMEOUT_MS + 5_000;
+}

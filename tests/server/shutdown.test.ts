@@ -1,7 +1,8 @@
 /** Graceful shutdown (server/shutdown.ts): requests in flight finish, new connections are refused, a request that never ends is cut at the limit. */
 import { createServer, get, type IncomingMessage, type Server } from 'node:http';
 import { describe, expect, it } from 'vitest';
-import { drainServer, requestsInFlight, trackRequests } from '../../server/shutdown.ts';
+import { connect } from 'node:net';
+import { drainServer, KEEP_ALIVE_TIMEOUT_MS, keepIdleConnections, requestsInFlight, trackRequests } from '../../server/shutdown.ts';
 
 /** A server whose /slow requests wait until released. */
 async function slowServer() {
@@ -61,4 +62,35 @@ describe('drainServer', () => {
     expect(await pending).toBe('cut');
     release();
   });
+});
+
+describe('keepIdleConnections', () => {
+  it('keeps an idle keep-alive connection open past Node’s default 5 s, so a client reusing it gets its answer', async () => {
+    const server = createServer((_req, res) => res.end('ok'));
+    keepIdleConnections(server);
+    expect(server.keepAliveTimeout).toBe(KEEP_ALIVE_TIMEOUT_MS);
+    expect(server.headersTimeout).toBeGreaterThan(KEEP_ALIVE_TIMEOUT_MS);
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    const { port } = server.address() as { port: number };
+    const socket = connect(port, '127.0.0.1');
+    let received = '';
+    socket.setEncoding('utf8');
+    socket.on('data', (d: string) => (received += d));
+    const answers = () => received.split('HTTP/1.1 200').length - 1;
+    const ask = () => socket.write(`GET / HTTP/1.1\r\nHost: 127.0.0.1:${port}\r\nConnection: keep-alive\r\n\r\n`);
+    const until = async (n: number) => {
+      for (let i = 0; i < 200 && answers() < n; i++) await new Promise((r) => setTimeout(r, 25));
+    };
+    ask();
+    await until(1);
+    expect(answers()).toBe(1);
+    expect(received).toContain(`Keep-Alive: timeout=${KEEP_ALIVE_TIMEOUT_MS / 1000}`);
+    await new Promise((r) => setTimeout(r, 6000)); // idle longer than Node's default keep-alive (5 s)
+    expect(socket.destroyed).toBe(false);
+    ask();
+    await until(2);
+    expect(answers()).toBe(2);
+    socket.destroy();
+    await new Promise((r) => server.close(r));
+  }, 20_000);
 });
