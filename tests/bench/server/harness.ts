@@ -69,6 +69,12 @@ export async function startServer(env: Record<string, string> = {}, { dataDir: k
     env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: '1', APP_URL: url, SIGN_UP_ADDRESS_LIMIT: '100000', ...dbEnv, ...env },
     stdio: ['ignore', log, 'inherit'],
   });
+  // A server that goes away during a benchmark is said at once (its exit code or the signal that
+  // stopped it), so a failed request is not mistaken for one the server refused.
+  let stopping = false;
+  child.once('exit', (code, signal) => {
+    if (!stopping) console.error(`benchmark server (pid ${child.pid}) exited unexpectedly: ${signal ? `signal ${signal}` : `exit code ${code}`}`);
+  });
   for (let i = 0; i < 600; i++) {
     try {
       if ((await fetch(`${url}/api/health`)).ok) break;
@@ -85,8 +91,11 @@ export async function startServer(env: Record<string, string> = {}, { dataDir: k
     databaseUrl: dbEnv.DATABASE_URL,
     child,
     async stop() {
-      child.kill('SIGTERM');
-      await new Promise((r) => child.once('exit', r));
+      stopping = true;
+      if (child.exitCode === null && child.signalCode === null) {
+        child.kill('SIGTERM');
+        await new Promise((r) => child.once('exit', r));
+      }
       cluster?.stop();
       if (!keptDir) rmSync(dataDir, { recursive: true, force: true });
     },
