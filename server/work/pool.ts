@@ -126,7 +126,8 @@ export function createWorkPool({ threads = 1, timeoutMs = 20_000, maxQueue = 64 
     },
     async report(input) {
       // A report lays out pages and embeds fonts besides solving: only the smallest studies run inline.
-      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await runTask({ kind: 'report', input })) as Uint8Array;
+      // pdfmake is loaded here on the first inline report, not when the server starts (tasks.ts).
+      if (elementCount(input.content.circuit) < INLINE_ELEMENTS) return (await import('../report/pdf.ts')).renderReportPdf(input);
       // A report lays out dozens of pages besides solving: three times the time limit of a check.
       return run<Uint8Array>({ kind: 'report', input }, undefined, timeoutMs * 3);
     },

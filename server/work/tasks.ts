@@ -65,8 +65,12 @@ export function sweepBatch(task: Extract<Task, { kind: 'sweep' }>): SweepPointRo
   return rows.map((r) => (r.error ? { ...r, error: names.text(r.error) } : r));
 }
 
-/** Runs one task. */
-export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof resultsCsv> | Promise<Uint8Array> | SweepOutputsAnswer | SweepPointRow[] {
+/**
+ * Runs one task other than a report. Reports (pdfmake and its PDF and font libraries) are made by
+ * renderReportPdf, imported where it runs: statically in the work threads (worker.ts), on the first
+ * inline report in the request thread (pool.ts), so an idle server does not hold pdfmake.
+ */
+export function runTask(task: Exclude<Task, { kind: 'report' }>): Prepared | RevisionDiff | ReturnType<typeof resultsCsv> | SweepOutputsAnswer | SweepPointRow[] {
   switch (task.kind) {
     case 'sweep-outputs':
       return sweepOutputs(task.circuit);
@@ -76,10 +80,6 @@ export function runTask(task: Task): Prepared | RevisionDiff | ReturnType<typeof
       return prepare(task.circuit);
     case 'diff':
       return diffRevisions(task.from, task.to);
-    case 'report':
-      // pdfmake (with its PDF and font libraries) is loaded on the first report, not when the server
-      // starts: an idle server does not hold it (docs/performance-log.md).
-      return import('../report/pdf.ts').then(({ renderReportPdf }) => renderReportPdf(task.input));
     case 'csv':
       return resultsCsv(task.input);
   }
