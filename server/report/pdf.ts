@@ -8,7 +8,7 @@
  * numbers and the revision on every page.
  * Pure data in, bytes out: it runs inline or in a worker thread (server/work).
  */
-import pdfmake from 'pdfmake';
+import type PdfMake from 'pdfmake';
 import { SAFETY_CAUTION } from '../../shared/review/risk.ts';
 import { busColumnGroups, flaggedBuses, inputGroups, NOTHING_DRAWN, scopeLines, solveReported } from '../../shared/report/document.ts';
 import { oneLineSvg } from '../../shared/report/one-line.ts';
@@ -17,9 +17,19 @@ import { readPerUnitSettings, type ResultUnits } from '../../shared/report/per-u
 import { basesWords, busTable, elementTable, faultTable, flagTable, loadTable, powerTable, tableContext, type ResultTable } from '../../shared/report/tables.ts';
 import { FONT_FILES, pdfText, REPORT_FONTS, resetUnprintable, unprintableCount } from './fonts.ts';
 
-pdfmake.setUrlAccessPolicy(() => false);
-pdfmake.setLocalAccessPolicy((p) => FONT_FILES.has(p));
-pdfmake.addFonts(REPORT_FONTS);
+/**
+ * pdfmake (with pdfkit and fontkit) is loaded on the first report, not when the server starts: an
+ * idle server does not hold it (docs/performance-log.md). Its policies are set before any use.
+ */
+let pdfmakeReady: Promise<typeof PdfMake> | null = null;
+function loadPdfmake(): Promise<typeof PdfMake> {
+  return (pdfmakeReady ??= import('pdfmake').then(({ default: pdfmake }) => {
+    pdfmake.setUrlAccessPolicy(() => false);
+    pdfmake.setLocalAccessPolicy((p) => FONT_FILES.has(p));
+    pdfmake.addFonts(REPORT_FONTS);
+    return pdfmake;
+  }));
+}
 
 /** Where the one-line diagram's page starts drawing, pt from the top (below its heading). */
 const DIAGRAM_TOP = 72;
@@ -189,6 +199,7 @@ export async function renderReportPdf(input: ReportInput): Promise<Uint8Array> {
     }),
     ...(input.review.approved ? {} : { watermark: { text: 'DRAFT — not reviewed', color: '#9ca3af', opacity: 0.18, bold: true, fontSize: 48 } }),
   };
+  const pdfmake = await loadPdfmake();
   const buffer = await pdfmake.createPdf(doc).getBuffer();
   return new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength);
 }
